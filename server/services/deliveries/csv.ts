@@ -1,0 +1,135 @@
+// CSV writer for delivery tables: `#` provenance comment lines, one header row, then the rows.
+//
+// - Numbers are written in the shortest form that parses back to the same float64
+//   (ECMAScript Number-to-String is exactly that); -0 keeps its sign; null/NaN are empty fields.
+// - String cells that a spreadsheet would take for a formula (first character = + - @, tab or CR)
+//   are prefixed with a single quote. Numbers are never touched, so -1.5 stays a number.
+// - RFC 4180 quoting: a field with a comma, double quote, CR or LF is quoted, quotes doubled.
+// - Lines end with CRLF (RFC 4180).
+import { Readable } from 'node:stream';
+import { ISOPYCNAL_COLUMNS, type DeliveryCell, type DeliveryColumn, type DeliveryRow, type DeliveryTable } from './table';
+import { DATA_CAUTION, oneLine, provenanceEntries, type Provenance } from './provenance';
+
+export const CSV_EOL = '\r\n';
+
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/** Prefix a string that would start a spreadsheet formula with `'`. */
+export function neutraliseFormula(s: string): string {
+  return FORMULA_START.test(s) ? `'${s}` : s;
+}
+
+/** Shortest round-trip decimal form of a finite float64; '' for non-finite. */
+export function formatNumber(n: number): string {
+  if (!Number.isFinite(n)) return '';
+  if (n === 0 && Object.is(n, -0)) return '-0';
+  return String(n);
+}
+
+function quoteIfNeeded(s: string): string {
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** One CSV field. */
+export function formatCell(v: DeliveryCell | undefined): string {
+  if (v === null || v === undefined) return '';
+  if (typeof v === 'number') return formatNumber(v);
+  return quoteIfNeeded(neutraliseFormula(v));
+}
+
+/** One CSV record (no line ending). */
+export function formatRow(row: readonly (DeliveryCell | undefined)[]): string {
+  let s = '';
+  for (let i = 0; i < row.length; i++) {
+    if (i > 0) s += ',';
+    s += formatCell(row[i]);
+  }
+  return s;
+}
+
+function commentValue(s: string): string {
+  // A comment line is one field to a spreadsheet only until its first comma: neutralise each
+  // comma-separated piece as well, so no piece can start a formula.
+  return oneLine(s)
+    .split(',')
+    .map((piece, i) => {
+      if (i === 0) return piece;
+      const lead = piece.match(/^\s*/)?.[0] ?? '';
+      return lead + neutraliseFormula(piece.slice(lead.length));
+    })
+    .join(',');
+}
+
+/** The `#` comment lines that head every CSV delivery (without line endings). */
+export function provenanceCommentLines(p: Provenance, columns: readonly DeliveryColumn[]): string[] {
+  const lines = provenanceEntries(p).map((e) => `# ${e.key}: ${commentValue(e.value)}`);
+  const units = columns.filter((c) => c.unit).map((c) => `${c.name}=${c.unit}`);
+  if (units.length) lines.push(`# units: ${commentValue(units.join('; '))}`);
+  lines.push(`# caution: ${commentValue(DATA_CAUTION)}`);
+  return lines;
+}
+
+/** The header record. */
+export function headerLine(columns: readonly DeliveryColumn[]): string {
+  return formatRow(columns.map((c) => c.name));
+}
+
+/** The whole table as CSV text. */
+export function writeCsv(table: DeliveryTable): string {
+  const parts: string[] = provenanceCommentLines(table.provenance, table.columns);
+  parts.push(headerLine(table.columns));
+  for (const row of table.rows) parts.push(formatRow(row));
+  return parts.join(CSV_EOL) + CSV_EOL;
+}
+
+export type RowSource = AsyncIterable<DeliveryRow> | Iterable<DeliveryRow>;
+
+function isTable(x: DeliveryTable | RowSource): x is DeliveryTable {
+  return typeof x === 'object' && x !== null && 'columns' in x && 'rows' in x && 'provenance' in x;
+}
+
+export interface CsvStreamOptions {
+  /** Columns of the rows when the source is an iterable of rows (default: the isopycnal columns). */
+  columns?: readonly DeliveryColumn[];
+  /** Rows per chunk pushed to the stream (default 500). */
+  rowsPerChunk?: number;
+}
+
+/**
+ * Stream a CSV delivery. The source is a whole table, or an (async) iterable of rows with the
+ * provenance (and columns, by default ISOPYCNAL_COLUMNS) given beside it. The bytes are the same
+ * as writeCsv's for the same table.
+ */
+export function csvStream(source: DeliveryTable | RowSource, provenance?: Provenance, options: CsvStreamOptions = {}): Readable {
+  let columns: readonly DeliveryColumn[];
+  let rows: RowSource;
+  let prov: Provenance;
+  if (isTable(source)) {
+    columns = source.columns;
+    rows = source.rows;
+    prov = provenance ?? source.provenance;
+  } else {
+    if (!provenance) throw new Error('csvStream: provenance is required with a row source');
+    columns = options.columns ?? ISOPYCNAL_COLUMNS;
+    rows = source;
+    prov = provenance;
+  }
+  const perChunk = Math.max(1, options.rowsPerChunk ?? 500);
+  const width = columns.length;
+  async function* generate(): AsyncGenerator<string> {
+    yield [...provenanceCommentLines(prov, columns), headerLine(columns)].join(CSV_EOL) + CSV_EOL;
+    let buf: string[] = [];
+    let n = 0;
+    for await (const row of rows) {
+      if (row.length !== width) throw new Error(`csvStream: row ${n} has ${row.length} cells, expected ${width}`);
+      buf.push(formatRow(row));
+      n++;
+      if (buf.length >= perChunk) {
+        yield buf.join(CSV_EOL) + CSV_EOL;
+        buf = [];
+      }
+    }
+    if (buf.length) yield buf.join(CSV_EOL) + CSV_EOL;
+  }
+  return Readable.from(generate(), { objectMode: false });
+}
