@@ -12,7 +12,9 @@
  * derivatives or its pressure integral, so the family stays self-consistent.
  *
  * Units: SA g/kg, CT °C (ITS-90), p sea pressure dbar (absolute minus 10.1325 dbar).
+ * Outside the box of `ranges.ts` every function returns NaN (`checkRange` says why).
  */
+import { inRange, SA_RANGE, T_RANGE } from './ranges';
 
 /** 1 / (40 · 35.16504/35), the salinity scale of the polynomial (Roquet et al. 2015). */
 export const sfac = 0.0248826675584615;
@@ -149,6 +151,7 @@ const xsOf = (SA: number): number => Math.sqrt(sfac * SA + offset);
 
 /** Specific volume v, m³/kg. SA g/kg, CT °C, p dbar. Roquet et al. (2015) 75-term polynomial. */
 export function specvol(SA: number, CT: number, p: number): number {
+  if (!inRange(SA, CT, p)) return NaN;
   return evalCube(V, xsOf(SA), CT * 0.025, p * 1e-4);
 }
 
@@ -162,6 +165,7 @@ export function rho(SA: number, CT: number, p: number): number {
  * SA g/kg, CT °C, p dbar. Analytic derivative of the Roquet et al. (2015) polynomial.
  */
 export function alpha(SA: number, CT: number, p: number): number {
+  if (!inRange(SA, CT, p)) return NaN;
   const xs = xsOf(SA), ys = CT * 0.025, z = p * 1e-4;
   return (0.025 * evalCube(V_YS, xs, ys, z)) / evalCube(V, xs, ys, z);
 }
@@ -172,12 +176,14 @@ export function alpha(SA: number, CT: number, p: number): number {
  * (∂xs/∂SA = sfac / (2 xs)).
  */
 export function beta(SA: number, CT: number, p: number): number {
+  if (!inRange(SA, CT, p)) return NaN;
   const xs = xsOf(SA), ys = CT * 0.025, z = p * 1e-4;
   return (-evalCube(V_XS, xs, ys, z) * 0.5 * sfac) / (xs * evalCube(V, xs, ys, z));
 }
 
 /** v, α and β together at one point (N² needs all three; the cube is walked three times). */
 export function specvol_alpha_beta(SA: number, CT: number, p: number): { specvol: number; alpha: number; beta: number } {
+  if (!inRange(SA, CT, p)) return { specvol: NaN, alpha: NaN, beta: NaN };
   const xs = xsOf(SA), ys = CT * 0.025, z = p * 1e-4;
   const v = evalCube(V, xs, ys, z);
   return {
@@ -192,6 +198,7 @@ export function specvol_alpha_beta(SA: number, CT: number, p: number): { specvol
  * the same pressure, m³/kg (TEOS-10 Manual §3.7; the integrand of dynamic height anomaly).
  */
 export function specvol_anom_standard(SA: number, CT: number, p: number): number {
+  if (!inRange(SA, CT, p)) return NaN;
   const z = p * 1e-4;
   return evalCube(V, xsOf(SA), CT * 0.025, z) - evalCube(V, XS_SSO, 0, z);
 }
@@ -208,6 +215,7 @@ export function specvol_SSO_0(p: number): number {
  * (Young 2010; TEOS-10 Manual §3.32; Roquet et al. 2015). SA g/kg, CT °C, p dbar.
  */
 export function dynamic_enthalpy(SA: number, CT: number, p: number): number {
+  if (!inRange(SA, CT, p)) return NaN;
   return evalCube(V_INT_Z, xsOf(SA), CT * 0.025, p * 1e-4, DEG + 1) * 1e8;
 }
 
@@ -240,6 +248,7 @@ function planeAt(p_ref: number): Float64Array {
  * p_ref dbar (TEOS-10 names 0…4000 dbar σ0…σ4). SA g/kg, CT °C. Roquet et al. (2015).
  */
 export function sigma_pr(SA: number, CT: number, p_ref: number): number {
+  if (!inRange(SA, CT, p_ref)) return NaN;
   return 1 / evalPlane(planeAt(p_ref), xsOf(SA), CT * 0.025) - 1000;
 }
 
@@ -273,8 +282,13 @@ export function sigma_batch(SA: Float64Array, CT: Float64Array, p_ref: number, o
   const n = checkLengths(SA, CT);
   const o = outFor(n, out);
   const q = planeAt(p_ref);
+  if (!inRange(SA_RANGE[0], T_RANGE[0], p_ref)) return o.fill(NaN, 0, n);
   for (let m = 0; m < n; m++) {
-    o[m] = 1 / evalPlane(q, Math.sqrt(sfac * SA[m] + offset), CT[m] * 0.025) - 1000;
+    const sa = SA[m], ct = CT[m];
+    // Written out (not inRange) to keep the hot loop free of calls; NaN fails every comparison.
+    o[m] = sa >= SA_RANGE[0] && sa <= SA_RANGE[1] && ct >= T_RANGE[0] && ct <= T_RANGE[1]
+      ? 1 / evalPlane(q, Math.sqrt(sfac * sa + offset), ct * 0.025) - 1000
+      : NaN;
   }
   return o;
 }
@@ -286,7 +300,7 @@ export const sigma0_batch = (SA: Float64Array, CT: Float64Array, out?: Float64Ar
 export function rho_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT, p);
   const o = outFor(n, out);
-  for (let m = 0; m < n; m++) o[m] = 1 / evalCube(V, Math.sqrt(sfac * SA[m] + offset), CT[m] * 0.025, p[m] * 1e-4);
+  for (let m = 0; m < n; m++) o[m] = 1 / specvol(SA[m], CT[m], p[m]);
   return o;
 }
 
@@ -294,7 +308,7 @@ export function rho_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, o
 export function specvol_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT, p);
   const o = outFor(n, out);
-  for (let m = 0; m < n; m++) o[m] = evalCube(V, Math.sqrt(sfac * SA[m] + offset), CT[m] * 0.025, p[m] * 1e-4);
+  for (let m = 0; m < n; m++) o[m] = specvol(SA[m], CT[m], p[m]);
   return o;
 }
 

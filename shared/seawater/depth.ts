@@ -7,6 +7,9 @@
  * Units: p sea pressure dbar, z height m (negative below the sea surface), lat degrees north.
  */
 import { db2Pa, enthalpy_SSO_0, specvol_SSO_0 } from './density';
+import { P_RANGE, LAT_RANGE } from './ranges';
+
+const usable = (p: number, lat: number): boolean => p >= P_RANGE[0] && p <= P_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1];
 
 /** Vertical gradient of gravity, 1/m (TEOS-10, after Moritz 2000: 2.26e-7 per metre of depth). */
 const GAMMA = 2.26e-7;
@@ -29,6 +32,7 @@ export function grav_surface(lat: number): number {
  * the TEOS-10 definition; they default to 0.
  */
 export function z_from_p(p: number, lat: number, geo_strf_dyn_height = 0, sea_surface_geopotential = 0): number {
+  if (!usable(p, lat)) return NaN;
   const B = grav_surface(lat);
   const A = -0.5 * GAMMA * B;
   const C = enthalpy_SSO_0(p) - geo_strf_dyn_height - sea_surface_geopotential;
@@ -44,6 +48,7 @@ export function z_from_p(p: number, lat: number, geo_strf_dyn_height = 0, sea_su
  * on to convergence keeps p_from_z(z_from_p(p)) = p to rounding).
  */
 export function p_from_z(z: number, lat: number, geo_strf_dyn_height = 0, sea_surface_geopotential = 0): number {
+  if (!(z <= 5 && z >= -10100) || !(lat >= -90 && lat <= 90)) return NaN; // the pressure box of ranges.ts, in metres
   const s = Math.sin(lat * DEG2RAD);
   const sin2 = s * s;
   const gs = grav_surface(lat);
