@@ -1,0 +1,31 @@
+#!/usr/bin/env bash
+# One command on a fresh machine: install what is missing, start the local stand-ins on test ports,
+# build the client, run every test, print "N passed, N failed", stop everything.
+set -uo pipefail
+HERE="$(cd "$(dirname "$0")" && pwd)"
+export PROFILE=test
+source "$HERE/env.sh"
+cd "$ROOT"
+bash "$HERE/packages.sh" || exit 1
+bash "$HERE/npm.sh" || exit 1
+export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}" PG_FSYNC=off
+cleanup() { bash "$HERE/services.sh" stop >/dev/null 2>&1 || true; }
+trap cleanup EXIT
+bash "$HERE/services.sh" start || exit 1
+echo "[sigmaline] building the client"
+npx vite build --logLevel error || exit 1
+mkdir -p "$LOCAL_DIR"
+REPORT="$LOCAL_DIR/vitest-report.json"
+rm -f "$REPORT"
+npx vitest run --reporter=default --reporter=json --outputFile.json="$REPORT" "$@"
+status=$?
+if [ -f "$REPORT" ]; then
+  node -e '
+    const r = JSON.parse(require("fs").readFileSync(process.argv[1], "utf8"));
+    const failedFiles = r.testResults.filter((f) => f.status === "failed" && f.assertionResults.every((a) => a.status !== "failed")).length;
+    console.log(`${r.numPassedTests} passed, ${r.numFailedTests + failedFiles} failed, ${r.numPendingTests + r.numTodoTests} skipped`);
+  ' "$REPORT"
+else
+  echo "0 passed, 1 failed"
+fi
+exit $status

@@ -1,0 +1,103 @@
+// createApp builds the Express app from its dependencies; server/index.ts only listens.
+import express, { type ErrorRequestHandler } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Pool } from 'pg';
+import pg from 'pg';
+import { sessionMiddleware, configurePassport, csrfGuard } from './auth/session';
+import { HttpError, errorBody } from './lib/errors';
+import { logger } from './lib/logger';
+import { mountRoutes, type RouteSpec } from './lib/routeTable';
+import { openApiDocument } from './lib/openapi';
+import type { AppDeps } from './lib/deps';
+import { authRoutes } from './routes/auth';
+import { cruiseRoutes } from './routes/cruises';
+import { teamRoutes } from './routes/team';
+import { adminRoutes } from './routes/admin';
+import { extraRouteFactories } from './routes/registry';
+
+export const VERSION = '0.1.0';
+
+export type App = express.Express & { routes: RouteSpec[]; close: () => Promise<void> };
+
+export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App {
+  const app = express() as App;
+  const settings = deps.settings;
+  app.set('trust proxy', 'loopback');
+  app.disable('x-powered-by');
+  app.use(helmet({
+    contentSecurityPolicy: {
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'"],
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        fontSrc: ["'self'", 'data:'],
+        connectSrc: ["'self'"],
+        frameSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        workerSrc: ["'self'", 'blob:'],
+      },
+    },
+    crossOriginEmbedderPolicy: false,
+  }));
+  // Sessions share the database with the app but get their own small pool.
+  const sessionPool: Pool = new pg.Pool({ connectionString: settings.DATABASE_URL, max: 4 });
+  sessionPool.on('error', (err) => logger.warn({ err }, 'session pool error'));
+  const secure = settings.COOKIE_SECURE === 'auto' ? (settings.PUBLIC_URL.startsWith('https:') ? true : false) : settings.COOKIE_SECURE === 'true';
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(sessionMiddleware(sessionPool, settings.SESSION_SECRET, secure));
+  const passport = configurePassport();
+  api.use(passport.initialize());
+  api.use(passport.session());
+  api.use(csrfGuard);
+
+  api.get('/health', async (_req, res) => {
+    const parts = { db: 'ok', storage: 'ok', queue: 'ok' } as Record<'db' | 'storage' | 'queue', string>;
+    const timeout = <T>(p: Promise<T>) => Promise.race([p, new Promise<never>((_, rej) => setTimeout(() => rej(new Error('timeout')), 3000))]);
+    await Promise.all([
+      timeout(deps.db.sequelize.query('SELECT 1')).catch(() => { parts.db = 'down'; }),
+      timeout(deps.storage.check()).catch(() => { parts.storage = 'down'; }),
+      timeout(deps.queue.check()).catch(() => { parts.queue = 'down'; }),
+    ]);
+    const down = Object.entries(parts).filter(([, v]) => v !== 'ok').map(([k]) => k);
+    if (down.length) {
+      res.status(503).json({ status: 'down', ...parts, error: { code: 'unavailable', message: `Not available: ${down.join(', ')}`, details: down.map((d) => ({ part: d })) } });
+    } else res.json({ status: 'ok', ...parts });
+  });
+
+  const routes: RouteSpec[] = [
+    ...authRoutes(deps), ...cruiseRoutes(deps), ...teamRoutes(deps), ...adminRoutes(deps),
+    ...extraRouteFactories.flatMap((f) => f(deps)),
+  ];
+  app.routes = routes;
+  api.get('/openapi.json', (_req, res) => { res.json(openApiDocument(routes, VERSION)); });
+  mountRoutes(api, routes);
+  api.use((_req, res) => { res.status(404).json(errorBody('not_found', 'No such API route.')); });
+  app.use('/api', api);
+
+  const staticDir = opts.staticDir ?? join(process.cwd(), 'dist');
+  if (existsSync(join(staticDir, 'index.html'))) {
+    app.use(express.static(staticDir, { index: false, maxAge: '1h' }));
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(join(staticDir, 'index.html')));
+  }
+
+  const onError: ErrorRequestHandler = (err, req, res, _next) => {
+    if (err instanceof HttpError) {
+      res.status(err.status).json(errorBody(err.code, err.message, err.details));
+      return;
+    }
+    const e = err as { type?: string; status?: number; code?: string; message?: string };
+    if (e.type === 'entity.parse.failed') { res.status(400).json(errorBody('bad_json', 'The request body is not valid JSON.')); return; }
+    if (e.type === 'entity.too.large') { res.status(413).json(errorBody('too_large', 'The request body is too large.')); return; }
+    if (e.code === 'LIMIT_FILE_SIZE') { res.status(413).json(errorBody('too_large', `A file is larger than the limit of ${Math.round(settings.UPLOAD_MAX_BYTES / 1048576)} MB.`)); return; }
+    if (typeof e.code === 'string' && e.code.startsWith('LIMIT_')) { res.status(400).json(errorBody('bad_upload', e.message ?? 'Bad upload.')); return; }
+    logger.error({ err, url: req.url }, 'unhandled error');
+    res.status(500).json(errorBody('internal', 'Something went wrong on the server; it has been logged.'));
+  };
+  app.use(onError);
+  app.close = async () => { await sessionPool.end(); };
+  return app;
+}

@@ -1,0 +1,26 @@
+// The background worker: a separate process (npm run worker) or, for the single-process demo,
+// started inside the web process. Any number of them can run against one database.
+import { QUEUES } from '../services/queue';
+import { logger } from '../lib/logger';
+import type { AppDeps } from '../lib/deps';
+import { runIngestJob } from './ingest';
+
+export async function startWorkers(deps: AppDeps, opts: { concurrency?: number } = {}) {
+  const n = opts.concurrency ?? Number(process.env.WORKER_CONCURRENCY ?? 2);
+  for (let i = 0; i < n; i++) {
+    await deps.queue.boss.work<{ uploadId: string }>(QUEUES.ingest, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+      await runIngestJob(deps, job.data.uploadId, job.id);
+    });
+  }
+  logger.info({ concurrency: n }, 'ingest worker started');
+}
+
+const isMain = process.argv[1] && /jobs[\\/]worker\.ts$/.test(process.argv[1]);
+if (isMain) {
+  const { connectServices } = await import('../services/index');
+  const deps = await connectServices();
+  await startWorkers(deps);
+  const stop = () => { deps.close().finally(() => process.exit(0)); };
+  process.on('SIGTERM', stop);
+  process.on('SIGINT', stop);
+}

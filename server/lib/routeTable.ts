@@ -1,0 +1,88 @@
+// Every API route is declared here through `defineRoute`, with the rule that guards it. The
+// guard runs before the handler, so a route cannot exist without a rule; the same table feeds the
+// OpenAPI document and the role × route security test.
+import type { Request, Response, NextFunction, Router, RequestHandler } from 'express';
+import type { z } from 'zod';
+import { Membership, type Role } from '../models/index';
+import { HttpError, unauthorized, forbidden, notFound, badRequest } from './errors';
+
+export type Rule =
+  | { kind: 'public' }
+  | { kind: 'signed_in' }
+  | { kind: 'admin' }
+  /** a member of the cruise that the route's resource belongs to, with one of the roles (or any role) */
+  | { kind: 'member'; roles: Role[] | 'any'; cruise: (req: Request) => Promise<string | null> };
+
+export type RouteSpec = {
+  method: 'get' | 'post' | 'patch' | 'put' | 'delete';
+  path: string; // express path under /api, e.g. /cruises/:id
+  summary: string;
+  rule: Rule;
+  body?: z.ZodType;
+  query?: z.ZodType;
+  responses?: Record<number, string>;
+  /** extra middleware run after the rule and before the body is parsed (e.g. multer) */
+  before?: RequestHandler[];
+  handler: (req: Request, res: Response, ctx: RouteContext) => Promise<unknown> | unknown;
+};
+
+export type RouteContext = { cruiseId: string | null; role: Role | null; body: unknown; query: unknown };
+
+export const ROUTES: RouteSpec[] = [];
+
+export const byParam = (name = 'id') => async (req: Request) => {
+  const v = req.params[name];
+  return typeof v === 'string' && /^[0-9a-f-]{36}$/i.test(v) ? v : null;
+};
+
+async function check(rule: Rule, req: Request): Promise<{ cruiseId: string | null; role: Role | null }> {
+  if (rule.kind === 'public') return { cruiseId: null, role: null };
+  if (!req.user) throw unauthorized();
+  if (rule.kind === 'signed_in') return { cruiseId: null, role: null };
+  if (rule.kind === 'admin') {
+    if (!req.user.isAdmin) throw forbidden('Only a site admin may do this.');
+    return { cruiseId: null, role: null };
+  }
+  const cruiseId = await rule.cruise(req);
+  if (!cruiseId) throw notFound();
+  const m = await Membership.findOne({ where: { userId: req.user.id, cruiseId } });
+  // Not a member: answer as if the cruise did not exist.
+  if (!m) throw notFound();
+  if (rule.roles !== 'any' && !rule.roles.includes(m.role)) throw forbidden();
+  return { cruiseId, role: m.role };
+}
+
+export function defineRoute(spec: RouteSpec) {
+  ROUTES.push(spec);
+  return spec;
+}
+
+export function mountRoutes(router: Router, specs: RouteSpec[]) {
+  for (const spec of specs) {
+    const guard: RequestHandler = (req, _res, next) => {
+      check(spec.rule, req).then((ctx) => { (req as Request & { routeCtx?: object }).routeCtx = ctx; next(); }, next);
+    };
+    const run = (req: Request, res: Response, next: NextFunction) => {
+      const base = (req as Request & { routeCtx?: { cruiseId: string | null; role: Role | null } }).routeCtx ?? { cruiseId: null, role: null };
+      let body: unknown = req.body;
+      let query: unknown = req.query;
+      if (spec.body) {
+        const r = spec.body.safeParse(req.body ?? {});
+        if (!r.success) return next(badRequest('The request body is not valid.', r.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message }))));
+        body = r.data;
+      }
+      if (spec.query) {
+        const r = spec.query.safeParse(req.query ?? {});
+        if (!r.success) return next(badRequest('The query string is not valid.', r.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message }))));
+        query = r.data;
+      }
+      Promise.resolve(spec.handler(req, res, { ...base, body, query })).then((out) => {
+        if (res.headersSent || out === undefined) return;
+        res.json(out);
+      }, next);
+    };
+    router[spec.method](spec.path, guard, ...(spec.before ?? []), run);
+  }
+}
+
+export { HttpError };

@@ -1,0 +1,106 @@
+// The community hydrographic CTD exchange format (an open standard of the trade): a first line
+// naming the file type and a stamp ("CTD,20260304ABCDEF"), `#` comments, a `NUMBER_HEADERS = n`
+// block of `KEY = value` metadata, a parameter-name line, a units line, comma-separated data with
+// `*_FLAG_W` quality columns and fill value -999, and `END_DATA`.
+import type { FileError, ParsedCast } from '../../shared/schemas/cast';
+import { buildCast } from './build';
+import { collectMetadata, type MetaPair } from './metadata';
+import { decodeText, fileError, ParseFailure, splitLines } from './text';
+
+export const EXCHANGE_FIRST_LINE = /^\s*CTD\s*,\s*([^,\s]*)\s*$/i;
+
+function bad(file: string, line: number | null, message: string): ParseFailure {
+  return new ParseFailure([fileError(file, line, null, 'exchange_bad_header', message)]);
+}
+
+export function parseExchange(
+  file: string,
+  bytes: Uint8Array,
+  options: { columnMapping?: Record<string, string> } = {},
+): { cast: ParsedCast; warnings: FileError[] } {
+  const { text } = decodeText(file, bytes);
+  const lines = splitLines(file, text);
+  let i = 0;
+  while (i < lines.length && lines[i].trim() === '') i++;
+  const first = i < lines.length ? EXCHANGE_FIRST_LINE.exec(lines[i]) : null;
+  if (!first) throw bad(file, i + 1, `line ${i + 1}: an exchange file starts with a line like "CTD,20260304ABCDEF"`);
+  const stamp = first[1];
+  i++;
+  const isSkippable = (l: string): boolean => l.trim() === '' || l.trimStart().startsWith('#');
+  while (i < lines.length && isSkippable(lines[i])) i++;
+  if (i >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', 'the file ends before its NUMBER_HEADERS line')]);
+  const nh = /^\s*NUMBER_HEADERS\s*=\s*(\d+)\s*$/i.exec(lines[i]);
+  if (!nh) throw bad(file, i + 1, `line ${i + 1}: expected "NUMBER_HEADERS = n", found ${JSON.stringify(lines[i].slice(0, 60))}`);
+  const count = Number(nh[1]);
+  if (count < 1 || count > 200) throw bad(file, i + 1, `line ${i + 1}: NUMBER_HEADERS = ${count} is not a sensible count (1..200)`);
+  i++;
+  const pairs: MetaPair[] = [];
+  while (pairs.length < count - 1) {
+    if (i >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', `the file ends inside its header block (${pairs.length + 1} of ${count} header lines)`)]);
+    const l = lines[i];
+    if (!isSkippable(l)) {
+      const m = /^\s*([A-Za-z][A-Za-z0-9_]*)\s*=\s*(.*?)\s*$/.exec(l);
+      if (!m)
+        throw bad(file, i + 1, `line ${i + 1}: expected header line ${pairs.length + 2} of ${count} ("KEY = value"), found ${JSON.stringify(l.slice(0, 60))}`);
+      pairs.push({ key: m[1], value: m[2], line: i + 1 });
+    }
+    i++;
+  }
+  while (i < lines.length && isSkippable(lines[i])) i++;
+  if (i + 1 >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', 'the file ends before its parameter and units lines')]);
+  const paramLine = i + 1;
+  const params = lines[i].split(',').map((s) => s.trim());
+  if (params.some((p) => p === '') || params.some((p) => /=/.test(p)))
+    throw bad(file, paramLine, `line ${paramLine}: the parameter-name line has an empty or malformed name`);
+  const unitsRaw = lines[i + 1].split(',').map((s) => s.trim());
+  const unitLine = i + 2;
+  while (unitsRaw.length > params.length && unitsRaw[unitsRaw.length - 1] === '') unitsRaw.pop();
+  if (unitsRaw.length > params.length || unitsRaw.length < params.length - 1)
+    throw bad(file, unitLine, `line ${unitLine}: the units line has ${unitsRaw.length} fields where the parameter line has ${params.length}`);
+  while (unitsRaw.length < params.length) unitsRaw.push('');
+  i += 2;
+
+  const rows: string[][] = [];
+  const rowLines: number[] = [];
+  let ended = false;
+  for (; i < lines.length; i++) {
+    const l = lines[i];
+    const tl = l.trim();
+    if (tl === '' || tl.startsWith('#')) continue;
+    if (/^END_DATA$/i.test(tl)) {
+      ended = true;
+      break;
+    }
+    rows.push(l.split(','));
+    rowLines.push(i + 1);
+  }
+  if (!ended)
+    throw new ParseFailure([
+      fileError(file, lines.length, null, 'exchange_missing_end', `the file ends at line ${lines.length} without END_DATA: it looks truncated`),
+    ]);
+  const warnings: FileError[] = [];
+  for (let k = i + 1; k < lines.length; k++) {
+    if (lines[k].trim() !== '') {
+      warnings.push(fileError(file, k + 1, null, 'after_end_data', `text after END_DATA (from line ${k + 1}) ignored`));
+      break;
+    }
+  }
+  const md = collectMetadata(file, pairs, true);
+  if (md.errors.length > 0) throw new ParseFailure(md.errors);
+  if (stamp) md.metadata.extra['file_stamp'] = stamp;
+  return buildCast({
+    file,
+    format: 'exchange',
+    headers: params,
+    names: params,
+    unitTexts: unitsRaw.map((u) => (u === '' ? null : u)),
+    headerLine: paramLine,
+    unitLine,
+    rows,
+    rowLines,
+    metadata: md.metadata,
+    notes: [],
+    warnings,
+    mapping: options.columnMapping,
+  });
+}

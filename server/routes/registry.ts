@@ -1,0 +1,7 @@
+// Route factories beyond the foundation's (intake, casts, sections, exports, deliveries).
+// Each returns RouteSpecs; add yours to the list.
+import type { RouteSpec } from '../lib/routeTable';
+import type { AppDeps } from '../lib/deps';
+import { uploadRoutes } from './uploads';
+
+export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes];

@@ -1,0 +1,42 @@
+// Cast columns are stored one row per cast and variable, the whole profile as raw float64 bytes
+// (bytea). Reading a 6000-level column back is a memcpy, not 6000 text-to-number conversions as
+// with float8[] or a row per level; DEVELOPERS.md gives the benchmark.
+import { CastColumn } from '../models/index';
+import type { Transaction } from 'sequelize';
+
+const LE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+
+export function encodeF64(a: Float64Array): Buffer {
+  if (!LE) throw new Error('big-endian hosts are not supported for column storage');
+  return Buffer.from(a.buffer, a.byteOffset, a.byteLength);
+}
+export function decodeF64(b: Buffer): Float64Array {
+  const out = new Float64Array(b.byteLength / 8);
+  new Uint8Array(out.buffer).set(b);
+  return out;
+}
+export const encodeU8 = (a: Uint8Array) => Buffer.from(a.buffer, a.byteOffset, a.byteLength);
+
+export type StoredColumn = { name: string; unit: string | null; kind: 'measured' | 'derived' | 'flag' | 'extra'; values: Float64Array | Uint8Array };
+
+export async function writeColumns(castId: string, cols: StoredColumn[], transaction: Transaction) {
+  await CastColumn.bulkCreate(cols.map((c) => ({ castId, name: c.name, unit: c.unit, kind: c.kind, values: c.values instanceof Float64Array ? encodeF64(c.values) : encodeU8(c.values) })), { transaction });
+}
+
+export type LoadedCast = { columns: Record<string, Float64Array>; flags: Record<string, Uint8Array>; units: Record<string, string | null>; kinds: Record<string, string> };
+
+export async function readColumns(castIds: string[], names?: string[]): Promise<Map<string, LoadedCast>> {
+  const where: Record<string, unknown> = { castId: castIds };
+  if (names) where.name = names;
+  const rows = await CastColumn.findAll({ where, attributes: ['castId', 'name', 'unit', 'kind', 'values'], raw: true });
+  const out = new Map<string, LoadedCast>();
+  for (const id of castIds) out.set(id, { columns: {}, flags: {}, units: {}, kinds: {} });
+  for (const r of rows as unknown as { castId: string; name: string; unit: string | null; kind: string; values: Buffer }[]) {
+    const c = out.get(r.castId)!;
+    if (r.kind === 'flag') c.flags[r.name] = new Uint8Array(r.values);
+    else c.columns[r.name] = decodeF64(r.values);
+    c.units[r.name] = r.unit;
+    c.kinds[r.name] = r.kind;
+  }
+  return out;
+}

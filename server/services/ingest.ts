@@ -1,0 +1,96 @@
+// The ingest pipeline run by the background job: read the raw bytes from object storage, parse,
+// validate, derive the TEOS-10 columns, find the inversions, and store every cast of the upload in
+// one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
+import { Op } from 'sequelize';
+import { Cast, ColumnMapping, Station, Upload } from '../models/index';
+import { parseUpload } from '../parsers/index';
+import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
+import { processCast, type ProcessedCast } from './processCast';
+import { writeColumns } from './columns';
+import { audit } from '../lib/audit';
+import { logger } from '../lib/logger';
+import type { AppDeps } from '../lib/deps';
+
+export class IngestFault extends Error {}
+
+export async function ingestUpload(deps: AppDeps, uploadId: string): Promise<void> {
+  const { sequelize } = deps.db;
+  const upload = await Upload.findByPk(uploadId);
+  if (!upload) return; // deleted meanwhile
+  if (upload.status === 'ready') return; // a retried job after success: nothing to do
+  await upload.update({ status: 'processing', progress: 0.05 });
+
+  let bytes: Buffer;
+  try {
+    bytes = await deps.storage.get(upload.storageKey);
+  } catch (err) {
+    await upload.update({ status: 'queued', progress: 0 });
+    throw new IngestFault(`object storage unavailable: ${(err as Error).message}`);
+  }
+  const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
+  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES });
+  await upload.update({ progress: 0.3 });
+  if (!parsed.ok) {
+    await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
+    return;
+  }
+
+  // Station tables: fill or update the plan; casts without a position take it from the plan.
+  const stations = await Station.findAll({ where: { cruiseId: upload.cruiseId } });
+  const plan = new Map(stations.map((s) => [s.name, s]));
+  const rowsByStation = new Map<string, StationRow>(parsed.stations.map((r) => [r.station, r]));
+
+  const errors: FileError[] = [];
+  const processed: { parsed: ParsedCast; out: ProcessedCast }[] = [];
+  for (const c of parsed.casts) {
+    const row = c.metadata.station ? rowsByStation.get(c.metadata.station) : undefined;
+    const planned = c.metadata.station ? plan.get(c.metadata.station) : undefined;
+    const md = { ...c.metadata };
+    md.latitude ??= row?.latitude ?? planned?.latitude ?? null;
+    md.longitude ??= row?.longitude ?? planned?.longitude ?? null;
+    md.bottomDepth ??= row?.bottomDepth ?? null;
+    md.time ??= row?.time ?? null;
+    if (!md.station) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: no station identifier (add a "# station:" line or a station table).` }); continue; }
+    if (md.latitude == null || md.longitude == null) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).` }); continue; }
+    const result = processCast({ ...c, metadata: md }, { inversionThreshold: deps.settings.INVERSION_THRESHOLD });
+    if (!result.ok) { errors.push(...result.errors); continue; }
+    processed.push({ parsed: { ...c, metadata: md }, out: result.cast });
+  }
+  if (errors.length) {
+    await upload.update({ status: 'failed', progress: 1, errors });
+    return;
+  }
+  await upload.update({ progress: 0.7 });
+
+  try {
+    const castIds = await sequelize.transaction(async (transaction) => {
+      const ids: string[] = [];
+      let order = (Math.max(0, ...stations.map((s) => s.order)));
+      for (const r of parsed.stations) {
+        const s = plan.get(r.station);
+        if (s) await s.update({ latitude: r.latitude, longitude: r.longitude, plannedDepth: r.bottomDepth ?? s.plannedDepth }, { transaction });
+        else plan.set(r.station, await Station.create({ cruiseId: upload.cruiseId, name: r.station, latitude: r.latitude, longitude: r.longitude, plannedDepth: r.bottomDepth, order: ++order }, { transaction }));
+      }
+      for (const { parsed: c, out } of processed) {
+        const existing = await Cast.findOne({ where: { cruiseId: upload.cruiseId, sourceSha256: upload.sha256, sourceFile: c.file }, transaction });
+        if (existing) { ids.push(existing.id); continue; }
+        const md = c.metadata;
+        const cast = await Cast.create({
+          cruiseId: upload.cruiseId, uploadId: upload.id, station: md.station!, cast: md.cast ?? '1', latitude: md.latitude!, longitude: md.longitude!,
+          time: md.time ? new Date(md.time) : null, bottomDepth: md.bottomDepth, levels: out.levels, inversionCount: out.inversions.length,
+          inversions: out.inversions, fitness: out.fitness, metadata: { ...md.extra, format: c.format, units: c.units, profile: c.profile, saar: out.saar },
+          notes: [...c.notes, ...out.notes], sourceFile: c.file, sourceSha256: upload.sha256,
+        }, { transaction });
+        await writeColumns(cast.id, out.columns, transaction);
+        ids.push(cast.id);
+      }
+      await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: parsed.warnings, errors: [] }, { transaction });
+      await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
+      return ids;
+    });
+    logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
+  } catch (err) {
+    await Upload.update({ status: 'queued', progress: 0 }, { where: { id: uploadId, status: { [Op.ne]: 'ready' } } }).catch(() => undefined);
+    throw err;
+  }
+}

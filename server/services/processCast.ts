@@ -1,0 +1,60 @@
+// From a parsed cast to the stored one: pressure from depth where needed, Practical Salinity from
+// conductivity where needed, the TEOS-10 columns, the inversions of σ0 and the fitness of each
+// candidate vertical coordinate. Pure: no I/O.
+import type { ParsedCast, FileError } from '../../shared/schemas/cast';
+import { deriveCast, p_from_z } from '../../shared/seawater/index';
+import { detectInversions } from '../../shared/remap/inversions';
+import { coordinateFitness } from '../../shared/remap/fitness';
+import type { StoredColumn } from './columns';
+
+export type ProcessedCast = {
+  levels: number;
+  columns: StoredColumn[];
+  inversions: unknown[];
+  fitness: Record<string, unknown>;
+  notes: string[];
+  saar: string;
+};
+
+const UNITS: Record<string, string> = { pressure: 'dbar', depth: 'm', temperature: 'degC (ITS-90)', SP: '1 (PSS-78)', conductivity: 'mS/cm', SA: 'g/kg', SR: 'g/kg', CT: 'degC', pt0: 'degC', rho: 'kg/m3',
+  sigma0: 'kg/m3', sigma1: 'kg/m3', sigma2: 'kg/m3', sigma3: 'kg/m3', sigma4: 'kg/m3', N2: '1/s2', p_mid: 'dbar', spiciness0: 'kg/m3', z: 'm' };
+
+export function processCast(c: ParsedCast, opts: { inversionThreshold: number }): { ok: true; cast: ProcessedCast } | { ok: false; errors: FileError[] } {
+  const lat = c.metadata.latitude!;
+  const lon = c.metadata.longitude!;
+  const n = c.profile.levels;
+  let p = c.columns.pressure;
+  const notes: string[] = [];
+  if (!p) {
+    const d = c.columns.depth!;
+    p = new Float64Array(n);
+    for (let i = 0; i < n; i++) p[i] = p_from_z(-d[i], lat);
+    notes.push('pressure computed from depth with TEOS-10 p_from_z at the cast latitude');
+  }
+  const input = c.columns.salinity
+    ? { SP: c.columns.salinity, t: c.columns.temperature, p, lon, lat }
+    : { C: c.columns.conductivity!, t: c.columns.temperature, p, lon, lat };
+  const derived = deriveCast(input);
+  notes.push(...derived.notes);
+  const cols = derived.columns as Record<string, Float64Array | undefined>;
+  const sigma0 = cols.sigma0!;
+  const inversions = detectInversions(p, sigma0, { threshold: opts.inversionThreshold, N2: cols.N2, p_mid: cols.p_mid, z: cols.z });
+  const fitness: Record<string, unknown> = {};
+  for (const name of ['sigma0', 'sigma1', 'sigma2', 'sigma3', 'sigma4', 'CT', 'SA', 'pressure']) {
+    const v = name === 'pressure' ? p : cols[name];
+    if (v) fitness[name] = coordinateFitness(p, v);
+  }
+  const columns: StoredColumn[] = [{ name: 'pressure', unit: 'dbar', kind: c.vertical === 'pressure' ? 'measured' : 'derived', values: p }];
+  if (c.columns.depth) columns.push({ name: 'depth', unit: 'm', kind: 'measured', values: c.columns.depth });
+  columns.push({ name: 'temperature', unit: UNITS.temperature, kind: 'measured', values: c.columns.temperature });
+  if (c.columns.salinity) columns.push({ name: 'SP', unit: UNITS.SP, kind: 'measured', values: c.columns.salinity });
+  if (c.columns.conductivity) columns.push({ name: 'conductivity', unit: 'mS/cm', kind: 'measured', values: c.columns.conductivity });
+  if (c.columns.oxygen) columns.push({ name: 'oxygen', unit: c.units.oxygen ?? null, kind: 'measured', values: c.columns.oxygen });
+  for (const [name, v] of Object.entries(cols)) {
+    if (!v || name === 'pressure' || (name === 'SP' && c.columns.salinity)) continue;
+    columns.push({ name, unit: UNITS[name] ?? null, kind: 'derived', values: v });
+  }
+  for (const [name, e] of Object.entries(c.extras)) columns.push({ name: `x:${name}`, unit: e.unit, kind: 'extra', values: e.values });
+  for (const [name, f] of Object.entries(c.flags)) columns.push({ name: `flag:${name}`, unit: null, kind: 'flag', values: f });
+  return { ok: true, cast: { levels: n, columns, inversions, fitness, notes, saar: derived.saar ?? 'TEOS-10 SAAR atlas' } };
+}
