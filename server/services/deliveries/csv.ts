@@ -4,7 +4,8 @@
 //   (ECMAScript Number-to-String is exactly that); -0 keeps its sign; null/NaN are empty fields.
 // - String cells that a spreadsheet would take for a formula (first character = + - @, tab or CR)
 //   are prefixed with a single quote. Numbers are never touched, so -1.5 stays a number.
-// - RFC 4180 quoting: a field with a comma, double quote, CR or LF is quoted, quotes doubled.
+// - RFC 4180 quoting: a field with a comma, double quote, CR or LF is quoted, quotes doubled; so is
+//   a field with `#`, so readers that take `#` as a comment mark anywhere keep the whole field.
 // - Lines end with CRLF (RFC 4180).
 import { Readable } from 'node:stream';
 import { ISOPYCNAL_COLUMNS, type DeliveryCell, type DeliveryColumn, type DeliveryRow, type DeliveryTable } from './table';
@@ -27,7 +28,7 @@ export function formatNumber(n: number): string {
 }
 
 function quoteIfNeeded(s: string): string {
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+  return /[",\r\n#]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
 /** One CSV field. */
