@@ -1,0 +1,3 @@
+export { mailKeys, useCaughtMail } from './api';
+export { caughtMailSchema } from './types';
+export type { CaughtMail } from './types';

@@ -1,0 +1,22 @@
+export { cruiseKeys } from './keys';
+export {
+  cruisesQuery,
+  cruiseQuery,
+  stationsQuery,
+  useCruises,
+  useCruise,
+  useStations,
+  useCreateCruise,
+  useUpdateCruise,
+  useAddStation,
+} from './api';
+export type { CruisePatch } from './api';
+export { CRUISE_SECTIONS } from './nav';
+export type { CruiseSection } from './nav';
+export { CreateCruiseForm } from './components/CreateCruiseForm';
+export { CruiseHeader } from './components/CruiseHeader';
+export { StationList, AddStationForm } from './components/StationPlan';
+export { StationMap } from './map/StationMap';
+export { fitStationFrame, degreeLabel, unwrapLongitudes } from './map/projection';
+export { cruiseSchema, stationSchema, newCruiseSchema, newStationSchema } from './types';
+export type { Cruise, Station, NewCruise, NewStation } from './types';

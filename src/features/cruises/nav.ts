@@ -1,0 +1,20 @@
+import type { Role } from '../auth';
+
+export interface CruiseSection {
+  /** Shown in the cruise sub-navigation. */
+  label: string;
+  /** Relative to `/cruises/:id`; '' is the desk itself. */
+  path: string;
+  /** Hide the entry from roles that have nothing to do there (the server enforces anyway). */
+  visibleTo?: (role: Role | null) => boolean;
+}
+
+/**
+ * The cruise area's sub-navigation, in the order the work flows:
+ * Desk, Intake, Casts, Section, Layer sets, Deliveries, Team.
+ * Add an entry here when its route exists (and add the route in src/App.tsx).
+ */
+export const CRUISE_SECTIONS: readonly CruiseSection[] = [
+  { label: 'Desk', path: '' },
+  { label: 'Team', path: 'team' },
+];
