@@ -143,6 +143,17 @@ function unconvertible(col: string, t: string, wanted: string): UnitResult {
  */
 export function resolveUnit(role: ColumnRole | 'extra', unitText: string | null, col: string): UnitResult {
   const t = clean(unitText ?? '');
+  const r = resolveClean(role, t, col, unitText);
+  // Notes and messages quote the unit as the file wrote it, not its folded form.
+  const orig = (unitText ?? '').trim();
+  if (orig && t !== orig) {
+    if (r.ok && r.conv.note) r.conv.note = r.conv.note.split(`"${t}"`).join(`"${orig}"`).split(` ${t} `).join(` ${orig} `);
+    if (!r.ok) r.message = r.message.split(`"${t}"`).join(`"${orig}"`);
+  }
+  return r;
+}
+
+function resolveClean(role: ColumnRole | 'extra', t: string, col: string, unitText: string | null): UnitResult {
   switch (role) {
     case 'pressure':
       return pressureUnit(t, col);

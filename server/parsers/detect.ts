@@ -1,0 +1,24 @@
+// Which reader a file goes to, from its first bytes and lines (the filename only breaks ties).
+import { EXCHANGE_FIRST_LINE } from './exchange';
+import { detectDelimiter } from './plain';
+import { looksLikeStationTable } from './stationTable';
+import { isZip } from './zip';
+
+export type DetectedFormat = 'zip' | 'exchange' | 'stationTable' | 'plain';
+
+export function detectFormat(filename: string, bytes: Uint8Array): DetectedFormat {
+  if (isZip(bytes) || /\.zip$/i.test(filename)) return 'zip';
+  // A lenient look at the start only; the chosen reader does the strict decoding.
+  const head = new TextDecoder('utf-8', { fatal: false }).decode(bytes.subarray(0, 65536)).replace(/^\uFEFF/, '');
+  const lines = head.split(/\r\n|\n|\r/);
+  const firstReal = lines.find((l) => l.trim() !== '') ?? '';
+  if (EXCHANGE_FIRST_LINE.test(firstReal)) return 'exchange';
+  if (lines.some((l) => /^\s*NUMBER_HEADERS\s*=/i.test(l))) return 'exchange';
+  const header = lines.find((l) => l.trim() !== '' && !l.trimStart().startsWith('#'));
+  if (header !== undefined) {
+    const d = detectDelimiter(header);
+    const fields = d === 'whitespace' ? header.trim().split(/\s+/) : header.split(d).map((s) => s.trim().replace(/^"|"$/g, ''));
+    if (looksLikeStationTable(fields)) return 'stationTable';
+  }
+  return 'plain';
+}
