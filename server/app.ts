@@ -17,7 +17,8 @@ import { teamRoutes } from './routes/team';
 import { adminRoutes } from './routes/admin';
 import { extraRouteFactories } from './routes/registry';
 
-export const VERSION = '0.1.0';
+export { VERSION } from './version';
+import { VERSION } from './version';
 
 export type App = express.Express & { routes: RouteSpec[]; close: () => Promise<void> };
 

@@ -3,5 +3,7 @@
 import type { RouteSpec } from '../lib/routeTable';
 import type { AppDeps } from '../lib/deps';
 import { uploadRoutes } from './uploads';
+import { castRoutes } from './casts';
+import { sectionRoutes } from './sections';
 
-export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes];
+export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes, castRoutes, sectionRoutes];

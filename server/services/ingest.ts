@@ -78,7 +78,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string): Promise<voi
         const cast = await Cast.create({
           cruiseId: upload.cruiseId, uploadId: upload.id, station: md.station!, cast: md.cast ?? '1', latitude: md.latitude!, longitude: md.longitude!,
           time: md.time ? new Date(md.time) : null, bottomDepth: md.bottomDepth, levels: out.levels, inversionCount: out.inversions.length,
-          inversions: out.inversions, fitness: out.fitness, metadata: { ...md.extra, format: c.format, units: c.units, profile: c.profile, saar: out.saar },
+          inversions: out.inversions, fitness: out.fitness, metadata: { ...md.extra, format: c.format, units: c.units, profile: c.profile, saar: out.saar, mixedLayer: out.mld },
           notes: [...c.notes, ...out.notes], sourceFile: c.file, sourceSha256: upload.sha256,
         }, { transaction });
         await writeColumns(cast.id, out.columns, transaction);

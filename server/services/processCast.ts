@@ -14,6 +14,7 @@ export type ProcessedCast = {
   fitness: Record<string, unknown>;
   notes: string[];
   saar: string;
+  mld: unknown;
 };
 
 const UNITS: Record<string, string> = { pressure: 'dbar', depth: 'm', temperature: 'degC (ITS-90)', SP: '1 (PSS-78)', conductivity: 'mS/cm', SA: 'g/kg', SR: 'g/kg', CT: 'degC', pt0: 'degC', rho: 'kg/m3',
@@ -31,12 +32,17 @@ export function processCast(c: ParsedCast, opts: { inversionThreshold: number })
     for (let i = 0; i < n; i++) p[i] = p_from_z(-d[i], lat);
     notes.push('pressure computed from depth with TEOS-10 p_from_z at the cast latitude');
   }
+  const f = (a: Float64Array) => a as Float64Array<ArrayBuffer>;
   const input = c.columns.salinity
-    ? { SP: c.columns.salinity, t: c.columns.temperature, p, lon, lat }
-    : { C: c.columns.conductivity!, t: c.columns.temperature, p, lon, lat };
+    ? { SP: f(c.columns.salinity), t: f(c.columns.temperature), p: f(p), lon, lat }
+    : { C: f(c.columns.conductivity!), t: f(c.columns.temperature), p: f(p), lon, lat };
   const derived = deriveCast(input);
-  notes.push(...derived.notes);
-  const cols = derived.columns as Record<string, Float64Array | undefined>;
+  notes.push(...derived.notes.map((n) => n.message + (n.count && n.count > 1 ? ` (${n.count} levels)` : '')));
+  const z = new Float64Array(n);
+  for (let i = 0; i < n; i++) z[i] = -derived.depth[i];
+  const cols: Record<string, Float64Array | undefined> = { SP: derived.SP, SA: derived.SA, CT: derived.CT, pt0: derived.pt0, sigma0: derived.sigma0, sigma1: derived.sigma1,
+    sigma2: derived.sigma2, sigma3: derived.sigma3, sigma4: derived.sigma4, rho: derived.rho, spiciness0: derived.spiciness0, N2: derived.N2, p_mid: derived.p_mid, z };
+  const srFallback = derived.notes.some((n) => n.kind === 'sr_fallback');
   const sigma0 = cols.sigma0!;
   const inversions = detectInversions(p, sigma0, { threshold: opts.inversionThreshold, N2: cols.N2, p_mid: cols.p_mid, z: cols.z });
   const fitness: Record<string, unknown> = {};
@@ -56,5 +62,5 @@ export function processCast(c: ParsedCast, opts: { inversionThreshold: number })
   }
   for (const [name, e] of Object.entries(c.extras)) columns.push({ name: `x:${name}`, unit: e.unit, kind: 'extra', values: e.values });
   for (const [name, f] of Object.entries(c.flags)) columns.push({ name: `flag:${name}`, unit: null, kind: 'flag', values: f });
-  return { ok: true, cast: { levels: n, columns, inversions, fitness, notes, saar: derived.saar ?? 'TEOS-10 SAAR atlas' } };
+  return { ok: true, cast: { levels: n, columns, inversions, fitness, notes, saar: srFallback ? 'SR fallback (outside the SAAR atlas)' : 'SAAR atlas', mld: derived.mld } };
 }

@@ -1,0 +1,95 @@
+import { z } from 'zod';
+import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
+import { badRequest, notFound } from '../lib/errors';
+import { LayerSet } from '../models/index';
+import { audit } from '../lib/audit';
+import { safeParseLevels, defaultLayerSets } from '../../shared/remap/index';
+import { isopycnalTable, pressureTable, cached, dataVersion } from '../services/cruiseData';
+import { csvStream } from '../services/deliveries/index';
+import { buildSectionView, SectionQuery } from '../services/sectionView';
+import type { AppDeps } from '../lib/deps';
+
+const REFS = [0, 1000, 2000, 3000, 4000];
+const ref = z.coerce.number().refine((v) => REFS.includes(v), 'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar');
+const flags = z.string().regex(/^\d(,\d)*$/, 'flags are a comma list of 1–9').transform((s) => s.split(',').map(Number)).default([1, 2]);
+const extras = z.string().max(500).transform((s) => s.split(',').map((x) => x.trim()).filter(Boolean)).default([]);
+export const IsopycnalQuery = z.object({
+  ref: ref.default(0),
+  levels: z.string().max(20000).optional(),
+  inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
+  interpolation: z.enum(['linear', 'pchip']).default('linear'),
+  flags, extras,
+});
+const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras });
+const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
+
+export function defaultLevels(refP: number): string {
+  const d = defaultLayerSets();
+  return (d.find((s) => s.ref === refP) ?? { spec: refP === 0 ? '24.0:0.1:27.6' : `${(refP / 1000) * 4.6 + 27.0}:0.05:${(refP / 1000) * 4.6 + 28.5}` }).spec;
+}
+
+export function levelsOrError(spec: string) {
+  const r = safeParseLevels(spec);
+  if (!r.ok) throw badRequest(`The levels "${spec.slice(0, 80)}" are not valid: ${r.errors.join('; ')}`, r.errors.map((m) => ({ field: 'levels', message: m })));
+  return r.levels;
+}
+
+export function sectionRoutes(deps: AppDeps): RouteSpec[] {
+  const readers = ['pi', 'chief_scientist', 'analyst'] as const;
+  const editors = ['analyst', 'chief_scientist'] as const;
+  return [
+    defineRoute({ method: 'get', path: '/cruises/:id/exports/isopycnal.csv', summary: 'The isopycnal table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: IsopycnalQuery,
+      handler: async (req, res, ctx) => {
+        const q = ctx.query as z.infer<typeof IsopycnalQuery>;
+        const text = q.levels ?? defaultLevels(q.ref);
+        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: levelsOrError(text), levelsText: text, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras });
+        res.setHeader('content-type', 'text/csv; charset=utf-8');
+        res.setHeader('content-disposition', `attachment; filename="isopycnal-sigma${q.ref / 1000}.csv"`);
+        csvStream(table).pipe(res);
+      } }),
+    defineRoute({ method: 'get', path: '/cruises/:id/exports/pressure.csv', summary: 'The pressure-binned table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: PressureQuery,
+      handler: async (req, res, ctx) => {
+        const q = ctx.query as z.infer<typeof PressureQuery>;
+        const table = await pressureTable(ctx.cruiseId!, req.user!.email, q);
+        res.setHeader('content-type', 'text/csv; charset=utf-8');
+        res.setHeader('content-disposition', `attachment; filename="pressure-${q.bin}dbar.csv"`);
+        csvStream(table).pipe(res);
+      } }),
+    defineRoute({ method: 'get', path: '/cruises/:id/section', summary: 'A section grid by pressure or by density, with stations, bottom, isopycnals and inversion markers', rule: { kind: 'member', roles: 'any', cruise: byParam() }, query: SectionQuery,
+      handler: async (_req, _res, ctx) => {
+        const q = ctx.query as z.infer<typeof SectionQuery>;
+        const version = await dataVersion(ctx.cruiseId!);
+        return cached(`section:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, () => buildSectionView(ctx.cruiseId!, q));
+      } }),
+    defineRoute({ method: 'get', path: '/cruises/:id/layer-sets', summary: 'Layer sets (target isopycnals per reference pressure)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      handler: async (_req, _res, ctx) => {
+        const rows = await LayerSet.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['referencePressure', 'ASC'], ['name', 'ASC']] });
+        return rows.map((r) => ({ id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length }));
+      } }),
+    defineRoute({ method: 'post', path: '/cruises/:id/layer-sets', summary: 'Create a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody,
+      handler: async (req, res, ctx) => {
+        const b = ctx.body as z.infer<typeof LayerSetBody>;
+        const n = levelsOrError(b.levels).length;
+        const row = await deps.db.sequelize.transaction(async (transaction) => {
+          const r = await LayerSet.create({ cruiseId: ctx.cruiseId!, name: b.name, referencePressure: b.referencePressure, levels: b.levels, createdBy: req.user!.id }, { transaction });
+          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'layer_set', entityId: r.id, after: b }, transaction);
+          return r;
+        });
+        res.status(201).json({ id: row.id, name: row.name, referencePressure: row.referencePressure, levels: row.levels, count: n });
+      } }),
+    defineRoute({ method: 'patch', path: '/cruises/:id/layer-sets/:setId', summary: 'Edit a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody.partial(),
+      handler: async (req, _res, ctx) => {
+        const b = ctx.body as Partial<z.infer<typeof LayerSetBody>>;
+        if (b.levels) levelsOrError(b.levels);
+        if (!/^[0-9a-f-]{36}$/i.test(String(req.params.setId))) throw notFound('No such layer set.');
+        return deps.db.sequelize.transaction(async (transaction) => {
+          const r = await LayerSet.findOne({ where: { id: String(req.params.setId), cruiseId: ctx.cruiseId! }, transaction, lock: true });
+          if (!r) throw notFound('No such layer set.');
+          const before = { name: r.name, referencePressure: r.referencePressure, levels: r.levels };
+          await r.update(b, { transaction });
+          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'update', entity: 'layer_set', entityId: r.id, before, after: b }, transaction);
+          return { id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length };
+        });
+      } }),
+  ];
+}

@@ -1,0 +1,125 @@
+// Reads a cruise's casts for the section engine and the exports, and builds the regridded
+// tables. Results are cached per cruise and parameters; the cache key carries the cruise's data
+// version (casts, flags and layer sets), so any change makes new keys in every process.
+import { Cast, Cruise, LayerSet } from '../models/index';
+import { readColumns } from './columns';
+import { remapToIsopycnals, binToPressure, flagNames, type InversionHandling, type SigmaInterpolation, type Inversion } from '../../shared/remap/index';
+import { sigma_batch } from '../../shared/seawater/index';
+import { ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryTable, type DeliveryColumn, type DeliveryRow, type Provenance } from './deliveries/index';
+import { VERSION } from '../version';
+import { fn, col } from 'sequelize';
+
+export type CruiseCast = {
+  id: string; station: string; cast: string; latitude: number; longitude: number; time: Date | null; bottomDepth: number | null;
+  inversions: Inversion[]; columns: Record<string, Float64Array>; flags: Record<string, Uint8Array>; units: Record<string, string | null>;
+};
+
+const cache = new Map<string, { at: number; value: unknown }>();
+const MAX_CACHE = 200;
+export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
+  const hit = cache.get(key);
+  if (hit) return Promise.resolve(hit.value as T);
+  return Promise.resolve(make()).then((value) => {
+    if (cache.size >= MAX_CACHE) cache.delete(cache.keys().next().value!);
+    cache.set(key, { at: Date.now(), value });
+    return value;
+  });
+}
+
+/** A short fingerprint of everything a grid of this cruise depends on. */
+export async function dataVersion(cruiseId: string): Promise<string> {
+  const [casts, layers] = await Promise.all([
+    Cast.findOne({ where: { cruiseId }, attributes: [[fn('count', col('id')), 'n'], [fn('max', col('updated_at')), 'u']], raw: true }) as unknown as Promise<{ n: string; u: Date | null }>,
+    LayerSet.findOne({ where: { cruiseId }, attributes: [[fn('count', col('id')), 'n'], [fn('max', col('updated_at')), 'u']], raw: true }) as unknown as Promise<{ n: string; u: Date | null }>,
+  ]);
+  return `${casts.n}:${casts.u ? new Date(casts.u).getTime() : 0}:${layers.n}:${layers.u ? new Date(layers.u).getTime() : 0}`;
+}
+
+export async function loadCruiseCasts(cruiseId: string, names: string[]): Promise<CruiseCast[]> {
+  const casts = await Cast.findAll({ where: { cruiseId }, order: [['time', 'ASC NULLS LAST'], ['station', 'ASC'], ['cast', 'ASC']] });
+  const wanted = [...new Set(['pressure', 'SA', 'CT', 'z', ...names, 'flag:temperature', 'flag:salinity', 'flag:conductivity'])];
+  const cols = await readColumns(casts.map((c) => c.id), wanted);
+  return casts.map((c) => {
+    const k = cols.get(c.id)!;
+    return { id: c.id, station: c.station, cast: c.cast, latitude: c.latitude, longitude: c.longitude, time: c.time, bottomDepth: c.bottomDepth,
+      inversions: c.inversions as Inversion[], columns: k.columns, flags: k.flags, units: k.units };
+  });
+}
+
+/** Levels flagged outside `include` (1–9 scale; by default 1 and 2 kept) in T or S are set to NaN. */
+export function applyFlags(c: CruiseCast, include: number[]): Record<string, Float64Array> {
+  const bad = new Uint8Array(c.columns.pressure.length);
+  for (const f of Object.values(c.flags)) for (let i = 0; i < f.length; i++) if (!include.includes(f[i])) bad[i] = 1;
+  if (!bad.some((b) => b)) return c.columns;
+  const keep: number[] = [];
+  for (let i = 0; i < bad.length; i++) if (!bad[i]) keep.push(i);
+  const out: Record<string, Float64Array> = {};
+  for (const [name, v] of Object.entries(c.columns)) {
+    if (v.length !== bad.length) continue;
+    const w = new Float64Array(keep.length);
+    for (let j = 0; j < keep.length; j++) w[j] = v[keep[j]];
+    out[name] = w;
+  }
+  return out;
+}
+
+export type IsopycnalRequest = { ref: number; levels: Float64Array; levelsText: string; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[] };
+
+export const EOS = 'TEOS-10 (IOC, SCOR & IAPSO 2010); density from the 75-term polynomial of Roquet et al. (2015)';
+export const SAAR_SOURCE = 'McDougall et al. (2012) SAAR atlas, regenerated from Debian python3-gsw 3.6.16';
+
+export async function provenanceFor(cruiseId: string, who: string, p: Partial<Provenance>): Promise<Provenance> {
+  const c = (await Cruise.findByPk(cruiseId))!;
+  return {
+    software: 'Sigmaline', version: VERSION, equationOfState: EOS,
+    functions: ['SA_from_SP', 'CT_from_t', 'sigma_pr', 'Nsquared', 'z_from_p'], saarSource: SAAR_SOURCE,
+    referencePressure: null, layerSet: null, inversionHandling: null, interpolation: null, flagsIncluded: [1, 2],
+    exportedBy: who, exportedAt: new Date().toISOString(), cruise: { id: c.id, name: c.name, ship: c.ship }, ...p,
+  };
+}
+
+const num = (v: number) => (Number.isFinite(v) ? v : null);
+
+export async function isopycnalTable(cruiseId: string, who: string, q: IsopycnalRequest): Promise<DeliveryTable> {
+  const casts = await loadCruiseCasts(cruiseId, q.extras);
+  const extraCols: DeliveryColumn[] = q.extras.map((e) => ({ name: e.replace(/[^A-Za-z0-9_]/g, '_').replace(/^(\d)/, '_$1'), unit: null, type: 'number' }));
+  const rows: DeliveryRow[] = [];
+  for (const c of casts) {
+    const cols = applyFlags(c, q.flags);
+    const sigma = sigma_batch(cols.SA, cols.CT, q.ref);
+    const props: Record<string, Float64Array> = { CT: cols.CT, SA: cols.SA };
+    for (const e of q.extras) if (cols[e]) props[e] = cols[e];
+    const r = remapToIsopycnals({ p: cols.pressure, z: cols.z, sigma, props }, q.levels, { handling: q.handling, interpolation: q.interpolation });
+    for (let k = 0; k < q.levels.length; k++) {
+      const thick = r.thicknessDepth ?? r.thickness;
+      const row: DeliveryRow = [c.station, c.cast, c.latitude, c.longitude, q.ref, q.levels[k], num(r.pressure[k]), r.depth ? num(r.depth[k]) : null,
+        num(r.props.CT[k]), num(r.props.SA[k]), num(thick[k]), r.crossings[k], flagNames(r.flags[k]).join(';') || null];
+      for (const e of q.extras) row.push(r.props[e] ? num(r.props[e][k]) : null);
+      rows.push(row);
+    }
+  }
+  return { kind: 'isopycnal', columns: [...ISOPYCNAL_COLUMNS, ...extraCols], rows,
+    provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: q.levelsText, inversionHandling: q.handling, interpolation: q.interpolation, flagsIncluded: q.flags }) };
+}
+
+export async function pressureTable(cruiseId: string, who: string, q: { bin: number; flags: number[]; extras: string[] }): Promise<DeliveryTable> {
+  const casts = await loadCruiseCasts(cruiseId, ['sigma0', 'temperature', 'SP', 'depth', ...q.extras]);
+  const rows: DeliveryRow[] = [];
+  const extraCols: DeliveryColumn[] = q.extras.map((e) => ({ name: e.replace(/[^A-Za-z0-9_]/g, '_').replace(/^(\d)/, '_$1'), unit: null, type: 'number' }));
+  for (const c of casts) {
+    const cols = applyFlags(c, q.flags);
+    const props: Record<string, Float64Array> = {};
+    for (const n of ['CT', 'SA', 'sigma0', 'z', 'temperature', 'SP', ...q.extras]) if (cols[n]) props[n] = cols[n];
+    const b = binToPressure(cols.pressure, props, q.bin);
+    for (let k = 0; k < b.pressure.length; k++) {
+      if (b.count[k] === 0) continue;
+      const g = (n: string) => (b.props[n] ? num(b.props[n][k]) : null);
+      const z = g('z');
+      const row: DeliveryRow = [c.station, c.cast, c.latitude, c.longitude, b.pressure[k], b.count[k], g('CT'), g('SA'), g('sigma0'), z === null ? null : -z, g('temperature'), g('SP')];
+      for (const e of q.extras) row.push(g(e));
+      rows.push(row);
+    }
+  }
+  return { kind: 'pressure', columns: [...PRESSURE_COLUMNS, ...extraCols], rows,
+    provenance: await provenanceFor(cruiseId, who, { layerSet: `pressure bins of ${q.bin} dbar`, flagsIncluded: q.flags }) };
+}
