@@ -144,7 +144,7 @@ describe('CF-1.10 NetCDF of delivery tables', () => {
     const levels = nc.getDataVariable('sigma_level') as number[];
     const lats = nc.getDataVariable('latitude') as number[];
     const ct = nc.getDataVariable('CT') as number[];
-    const fill = nc.variables.find((x) => x.name === 'CT')?.attributes.find((a) => a.name === '_FillValue')?.value;
+    const fill = (nc.variables.find((x) => x.name === 'CT')?.attributes as { name: string; value: unknown }[] | undefined)?.find((a) => a.name === '_FillValue')?.value;
     expect(fill).toBe(NC_FILL.double);
     const iLat = columnIndex(table, 'latitude');
     const iLev = columnIndex(table, 'sigma_level');

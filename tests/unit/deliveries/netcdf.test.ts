@@ -93,7 +93,7 @@ describe('NetCDF-3 classic writer', () => {
     expect(records.map((r) => r[3])).toEqual([NC_FILL.short, NC_FILL.short, NC_FILL.short, NC_FILL.short]);
     expect(nc.getDataVariable('i')).toEqual([1, -2, NC_FILL.int, 2147483647]);
     const dv = nc.variables.find((x) => x.name === 'd');
-    expect(dv?.attributes.find((a) => a.name === 'units')?.value).toBe('m');
+    expect((dv?.attributes as { name: string; value: unknown }[] | undefined)?.find((a) => a.name === 'units')?.value).toBe('m');
   });
 
   it('follows the specification special case: one record variable, records not padded', () => {
