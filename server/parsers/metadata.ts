@@ -94,6 +94,7 @@ export function parseDateTimeCompact(date: string, time: string | null): Parsed<
     if (!t) return { ok: false, message: `TIME "${time.trim()}" is not HHMM` };
     hh = t[1].padStart(2, '0');
     mm = t[2];
+    if (Number(hh) > 23 || Number(mm) > 59) return { ok: false, message: `TIME "${time.trim()}" is not a time of day (HHMM)` };
   }
   return parseTime(`${d[1]}-${d[2]}-${d[3]}T${hh}:${mm}:00Z`);
 }
