@@ -30,7 +30,7 @@ export default function Cruises() {
           )
         }
       />
-      <div className={`grid gap-6 ${formOpen ? 'xl:grid-cols-[minmax(0,1fr)_32rem]' : ''}`}>
+      <div className={`grid gap-6 ${formOpen ? '2xl:grid-cols-[minmax(0,1fr)_34rem]' : ''}`}>
         <Panel title="Your cruises" titleId="your-cruises">
           {cruises.isPending && <Progress label="Loading your cruises…" />}
           {cruises.isError && (
@@ -47,7 +47,7 @@ export default function Cruises() {
           {list.length > 0 && <CruiseTable cruises={list} />}
         </Panel>
         {formOpen && (
-          <Panel title="New cruise" titleId="new-cruise">
+          <Panel title="New cruise" titleId="new-cruise" className="order-first 2xl:order-none">
             <CreateCruiseForm
               onCreated={(cruise) => navigate(`/cruises/${encodeURIComponent(cruise.id)}`)}
               onCancel={list.length > 0 ? () => setCreating(false) : undefined}
@@ -86,8 +86,8 @@ function CruiseTable({ cruises }: { cruises: readonly Cruise[] }) {
                   </Link>
                   {c.locked && <span className="ml-2 border border-ink/30 px-1 text-[0.65rem] uppercase tracking-[0.08em] text-ink-soft">locked</span>}
                 </td>
-                <td className="px-4 py-2">{c.role ? roleLabel(c.role) : '—'}</td>
-                <td className="px-4 py-2 italic text-ink-soft">{c.ship}</td>
+                <td className="px-4 py-2 whitespace-nowrap">{c.role ? roleLabel(c.role) : '—'}</td>
+                <td className="px-4 py-2 whitespace-nowrap italic text-ink-soft">{c.ship}</td>
                 <td className="px-4 py-2 whitespace-nowrap">
                   <Num>
                     {c.startDate ?? '…'} – {c.endDate ?? '…'}

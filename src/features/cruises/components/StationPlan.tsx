@@ -86,16 +86,18 @@ export function AddStationForm({ cruiseId }: { cruiseId: string }) {
 
   return (
     <form onSubmit={submit} noValidate aria-label="Add a planned station" className="flex flex-col gap-3 border-t border-paper-rule p-4">
-      <div className="grid grid-cols-2 gap-3 lg:grid-cols-[1fr_1fr_1fr_0.8fr_auto] lg:items-start">
+      <div className="grid grid-cols-2 items-start gap-3 2xl:grid-cols-4">
         <TextField label="Station name" value={values.name} onChange={set('name')} error={errors.name} mono placeholder="K-07" autoComplete="off" />
         <TextField label="Latitude (°)" value={values.latitude} onChange={set('latitude')} error={errors.latitude} mono inputMode="decimal" placeholder="-35.250" autoComplete="off" />
         <TextField label="Longitude (°)" value={values.longitude} onChange={set('longitude')} error={errors.longitude} mono inputMode="decimal" placeholder="-20.500" autoComplete="off" />
         <TextField label="Planned depth (m)" value={values.plannedDepth} onChange={set('plannedDepth')} error={errors.plannedDepth} optional mono inputMode="numeric" autoComplete="off" />
-        <Button type="submit" variant="primary" busy={add.isPending} className="lg:mt-6">
+      </div>
+      <div className="flex items-center gap-3">
+        <Button type="submit" variant="primary" busy={add.isPending}>
           Add station
         </Button>
+        <p className="text-xs text-ink-muted">Decimal degrees; south and west are negative. New stations go to the end of the line.</p>
       </div>
-      <p className="text-xs text-ink-muted">Decimal degrees; south and west are negative. New stations go to the end of the line.</p>
       {add.error && !isApiError(add.error, 400) && <ErrorNotice error={add.error} title="The station was not added" />}
       {added && <InfoNotice>Station {added} added to the plan.</InfoNotice>}
     </form>

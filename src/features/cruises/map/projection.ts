@@ -121,7 +121,7 @@ export function fitStationFrame(
     south = Math.max(-90, latB);
   }
 
-  const step = niceStep(Math.max(east - west, north - south));
+  const step = niceStep(Math.max(east - west, north - south), 8);
   return {
     projection,
     west,

@@ -37,9 +37,9 @@ export function InvitationList({ invitations }: { invitations: readonly Invitati
           <tr key={inv.id} className="border-b border-paper-rule/70 last:border-0">
             <td className="px-4 py-1.5 font-mono text-[0.8rem] text-ink-strong">{inv.email}</td>
             <td className="px-4 py-1.5">{roleLabel(inv.role)}</td>
-            <td className="px-4 py-1.5 font-mono text-[0.8rem] tabular-nums text-ink-soft">{formatUtc(inv.createdAt)}</td>
+            <td className="px-4 py-1.5 whitespace-nowrap font-mono text-[0.8rem] tabular-nums text-ink-soft">{formatUtc(inv.createdAt)}</td>
             <td className="px-4 py-1.5">
-              {status === 'pending' && <span className="text-ink">Pending{inv.expiresAt && <span className="text-ink-muted"> · until <span className="font-mono text-[0.8rem]">{formatUtc(inv.expiresAt)}</span></span>}</span>}
+              {status === 'pending' && <span className="text-ink">Pending{inv.expiresAt && <span className="text-ink-muted"> · until <span className="whitespace-nowrap font-mono text-[0.8rem]">{formatUtc(inv.expiresAt).slice(0, 10)}</span></span>}</span>}
               {status === 'accepted' && <span className="text-ink-muted">Accepted</span>}
               {status === 'expired' && <span className="text-ink-muted line-through decoration-ink-faint">Expired</span>}
             </td>
