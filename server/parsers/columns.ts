@@ -29,7 +29,7 @@ const NAMES: Record<ColumnRole, string[]> = {
   pressure: ['pressure', 'pres', 'press', 'prs', 'p', 'ctdprs', 'sea pressure', 'ctd pressure', 'pressure sea'],
   depth: ['depth', 'dep', 'depth below surface', 'ctd depth', 'depth m', 'ctddep'],
   temperature: ['temperature', 'temp', 't', 'ctdtmp', 'ctd temperature', 'water temperature', 'in situ temperature', 'insitu temperature', 't90', 't68', 'tmp'],
-  salinity: ['salinity', 'sal', 'sp', 'psal', 'ctdsal', 'practical salinity', 'salt', 'ctd salinity'],
+  salinity: ['salinity', 'sal', 's', 'sp', 'psal', 'ctdsal', 'practical salinity', 'salt', 'ctd salinity'],
   conductivity: ['conductivity', 'cond', 'c', 'ctdcond', 'ctdcnd', 'ctd conductivity'],
   oxygen: ['oxygen', 'oxy', 'o2', 'ctdoxy', 'dissolved oxygen', 'ctd oxygen', 'do'],
 };

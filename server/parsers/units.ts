@@ -78,7 +78,7 @@ function temperatureUnit(t: string, col: string): UnitResult {
     if (scale && scale !== s) return { ok: false, code: 'unit_unknown', message: `column ${col}: the unit "${t}" names both ITS-90 and IPTS-68` };
     scale = s;
   }
-  rest = rest.replace(scaleRe, ' ').replace(/[,;:]/g, ' ').replace(/\s+/g, ' ').trim();
+  rest = rest.replace(scaleRe, ' ').replace(/[,;:()[\]]/g, ' ').replace(/\s+/g, ' ').trim();
   const alias: Record<string, string> = {
     '': 'degC', degc: 'degC', 'deg c': 'degC', '°c': 'degC', '° c': 'degC', 'º c': 'degC', 'ºc': 'degC', c: 'degC', celsius: 'degC', 'deg celsius': 'degC', 'degrees c': 'degC', 'degrees celsius': 'degC', deg: 'degC',
     k: 'K', kelvin: 'K', degf: 'degF', '°f': 'degF', 'deg f': 'degF', f: 'degF', fahrenheit: 'degF',
