@@ -20,4 +20,5 @@ export interface BenchModule {
 
 export const BENCH_MODULES: BenchModule[] = [
   { name: 'seawater', load: () => import('./seawater-suite') },
+  { name: 'deliveries', load: () => import('./deliveries') },
 ];

@@ -22,9 +22,8 @@ export function neutraliseFormula(s: string): string {
 
 /** Shortest round-trip decimal form of a finite float64; '' for non-finite. */
 export function formatNumber(n: number): string {
-  if (!Number.isFinite(n)) return '';
-  if (n === 0 && Object.is(n, -0)) return '-0';
-  return String(n);
+  if (n === 0) return Object.is(n, -0) ? '-0' : '0';
+  return Number.isFinite(n) ? String(n) : '';
 }
 
 function quoteIfNeeded(s: string): string {
@@ -77,10 +76,9 @@ export function headerLine(columns: readonly DeliveryColumn[]): string {
 
 /** The whole table as CSV text. */
 export function writeCsv(table: DeliveryTable): string {
-  const parts: string[] = provenanceCommentLines(table.provenance, table.columns);
-  parts.push(headerLine(table.columns));
-  for (const row of table.rows) parts.push(formatRow(row));
-  return parts.join(CSV_EOL) + CSV_EOL;
+  let out = [...provenanceCommentLines(table.provenance, table.columns), headerLine(table.columns)].join(CSV_EOL) + CSV_EOL;
+  for (const row of table.rows) out += formatRow(row) + CSV_EOL;
+  return out;
 }
 
 export type RowSource = AsyncIterable<DeliveryRow> | Iterable<DeliveryRow>;
