@@ -1,0 +1,191 @@
+// Potential temperature and Conservative Temperature from the TEOS-10 Gibbs function
+// (IOC, SCOR & IAPSO 2010, Manual and Guides 56, §3.1 and §3.3; McDougall 2003, "Potential
+// enthalpy: a conservative oceanic variable for evaluating heat content and heat fluxes", JPO 33).
+//
+// Units throughout: SA in g/kg, t / pt / CT in °C (ITS-90), p and p_ref in dbar (sea pressure).
+// Outside the range of `ranges.ts` every function returns NaN (`checkRange` says why).
+
+import { cp0 } from './density';
+import { T0, tScale, collapse, collapsePair } from './gibbs';
+import { inRange } from './ranges';
+
+// Collapsed Gibbs polynomials in y = t/40: at the in-situ pressure and at the reference pressure.
+const aInSitu = new Float64Array(8);
+const aRef = new Float64Array(8);
+
+const MAX_ITERATIONS = 12;
+/**
+ * Newton stops after a step in y = t/40 smaller than this (4·10⁻⁸ °C). Convergence is quadratic
+ * with |∂³g/∂y³ / 2∂²g/∂y²| ≈ 0.07, so the error left after such a step is below 10⁻¹⁸ °C: the
+ * answer is as exact as double precision allows without paying for one more confirming step.
+ */
+const Y_TOLERANCE = 1e-9;
+
+// The polynomial in y and its derivatives, written out here rather than imported so that the
+// Newton loops below stay in one module, where the JavaScript engine inlines them.
+
+/** g = Σ a_j y^j, J/kg. */
+function gAt(a: Float64Array, y: number): number {
+  return a[0] + y * (a[1] + y * (a[2] + y * (a[3] + y * (a[4] + y * (a[5] + y * (a[6] + y * a[7]))))));
+}
+
+/** ∂g/∂y = Σ j a_j y^(j−1), J/kg (∂g/∂t = ∂g/∂y / 40). */
+function gyAt(a: Float64Array, y: number): number {
+  return a[1] + y * (2 * a[2] + y * (3 * a[3] + y * (4 * a[4] + y * (5 * a[5] + y * (6 * a[6] + y * 7 * a[7])))));
+}
+
+/** ∂²g/∂y² = Σ j(j−1) a_j y^(j−2), J/kg (∂²g/∂t² = ∂²g/∂y² / 1600). */
+function gyyAt(a: Float64Array, y: number): number {
+  return 2 * a[2] + y * (6 * a[3] + y * (12 * a[4] + y * (20 * a[5] + y * (30 * a[6] + y * 42 * a[7]))));
+}
+
+/**
+ * Solve ∂g/∂y (a, y) = target for y by Newton's method, starting at y0. With ∂g/∂y = −40·η
+ * this finds the temperature of the given entropy η at the pressure `a` was collapsed at.
+ */
+function yOfEntropy(a: Float64Array, target: number, y0: number): number {
+  let y = y0;
+  for (let n = 0; n < MAX_ITERATIONS; n++) {
+    const step = (gyAt(a, y) - target) / gyyAt(a, y);
+    y -= step;
+    if (Math.abs(step) < Y_TOLERANCE) break;
+  }
+  return y;
+}
+
+/** Potential enthalpy h0 = g − (T0 + t)·∂g/∂t at the collapsed pressure (0 dbar), J/kg. */
+function enthalpyAt(a: Float64Array, y: number): number {
+  return gAt(a, y) - ((T0 + tScale * y) * gyAt(a, y)) / tScale;
+}
+
+/**
+ * Potential temperature pt_from_t(SA, t, p, p_ref), °C: the temperature a parcel of (SA, t, p)
+ * has when moved without exchange of heat or salt to p_ref, i.e. the solution of
+ * η(SA, pt, p_ref) = η(SA, t, p) with entropy η = −∂g/∂T (IOC et al. 2010, eq. 3.1.3).
+ */
+export function pt_from_t(SA: number, t: number, p: number, p_ref: number): number {
+  if (!inRange(SA, t, p) || !inRange(SA, t, p_ref)) return NaN;
+  collapsePair(SA, p, p_ref, aInSitu, aRef);
+  const y = t / tScale;
+  return tScale * yOfEntropy(aRef, gyAt(aInSitu, y), y);
+}
+
+/** Potential temperature referenced to the sea surface, pt_from_t(SA, t, p, 0), °C. */
+export function pt0_from_t(SA: number, t: number, p: number): number {
+  if (!inRange(SA, t, p)) return NaN;
+  collapsePair(SA, p, 0, aInSitu, aRef);
+  const y = t / tScale;
+  return tScale * yOfEntropy(aRef, gyAt(aInSitu, y), y);
+}
+
+/**
+ * Conservative Temperature CT_from_pt(SA, pt), °C: potential enthalpy at 0 dbar divided by
+ * cp0 = 3991.86795711963 J/(kg K) (McDougall 2003; IOC et al. 2010, eq. 3.3.1).
+ */
+export function CT_from_pt(SA: number, pt: number): number {
+  if (!inRange(SA, pt, 0)) return NaN;
+  collapse(SA, 0, aRef);
+  return enthalpyAt(aRef, pt / tScale) / cp0;
+}
+
+/** Conservative Temperature CT_from_t(SA, t, p), °C: CT_from_pt(SA, pt0_from_t(SA, t, p)). */
+export function CT_from_t(SA: number, t: number, p: number): number {
+  if (!inRange(SA, t, p)) return NaN;
+  collapsePair(SA, p, 0, aInSitu, aRef);
+  const y = t / tScale;
+  const y0 = yOfEntropy(aRef, gyAt(aInSitu, y), y);
+  return enthalpyAt(aRef, y0) / cp0;
+}
+
+/** Solve h0(SA, pt) = cp0·CT for y = pt/40 with `aRef` collapsed at 0 dbar. */
+function yOfCT(CT: number): number {
+  const target = cp0 * CT;
+  let y = CT / tScale;
+  for (let n = 0; n < MAX_ITERATIONS; n++) {
+    // dh0/dy = −(T0 + t)·∂²g/∂y² / 40.
+    const slope = (-(T0 + tScale * y) * gyyAt(aRef, y)) / tScale;
+    const step = (enthalpyAt(aRef, y) - target) / slope;
+    y -= step;
+    if (Math.abs(step) < Y_TOLERANCE) break;
+  }
+  return y;
+}
+
+/** Potential temperature (ref. 0 dbar) of a given Conservative Temperature, pt_from_CT(SA, CT), °C:
+ * the inverse of CT_from_pt, by Newton's method on potential enthalpy. */
+export function pt_from_CT(SA: number, CT: number): number {
+  if (!inRange(SA, CT, 0)) return NaN;
+  collapse(SA, 0, aRef);
+  return tScale * yOfCT(CT);
+}
+
+/**
+ * In-situ temperature t_from_CT(SA, CT, p), °C: the inverse of CT_from_t, via pt_from_CT and then
+ * the potential temperature of that parcel brought from 0 dbar to p.
+ */
+export function t_from_CT(SA: number, CT: number, p: number): number {
+  if (!inRange(SA, CT, p)) return NaN;
+  collapse(SA, 0, aRef);
+  const y0 = yOfCT(CT);
+  collapse(SA, p, aInSitu);
+  return tScale * yOfEntropy(aInSitu, gyAt(aRef, y0), y0);
+}
+
+// Batch forms over a cast's columns (Float64Array in, Float64Array out). They allocate the output
+// when `out` is not given and nothing per point; NaN marks a point outside the range.
+
+function sameLength(name: string, ...columns: ArrayLike<number>[]): number {
+  const n = columns[0].length;
+  for (const c of columns) {
+    if (c.length !== n) throw new RangeError(`${name}: input columns differ in length`);
+  }
+  return n;
+}
+
+/** pt0_from_t over columns: SA g/kg, t °C, p dbar → pt °C. */
+export function pt0_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
+  const n = sameLength('pt0_from_t_batch', SA, t, p);
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) o[i] = pt0_from_t(SA[i], t[i], p[i]);
+  return o;
+}
+
+/** pt_from_t over columns to one reference pressure p_ref (dbar) → pt °C. */
+export function pt_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Array, p_ref: number, out?: Float64Array): Float64Array {
+  const n = sameLength('pt_from_t_batch', SA, t, p);
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) o[i] = pt_from_t(SA[i], t[i], p[i], p_ref);
+  return o;
+}
+
+/** CT_from_pt over columns: SA g/kg, pt °C → CT °C. */
+export function CT_from_pt_batch(SA: Float64Array, pt: Float64Array, out?: Float64Array): Float64Array {
+  const n = sameLength('CT_from_pt_batch', SA, pt);
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) o[i] = CT_from_pt(SA[i], pt[i]);
+  return o;
+}
+
+/** CT_from_t over columns: SA g/kg, t °C, p dbar → CT °C. */
+export function CT_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
+  const n = sameLength('CT_from_t_batch', SA, t, p);
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) o[i] = CT_from_t(SA[i], t[i], p[i]);
+  return o;
+}
+
+/** pt_from_CT over columns: SA g/kg, CT °C → pt °C. */
+export function pt_from_CT_batch(SA: Float64Array, CT: Float64Array, out?: Float64Array): Float64Array {
+  const n = sameLength('pt_from_CT_batch', SA, CT);
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) o[i] = pt_from_CT(SA[i], CT[i]);
+  return o;
+}
+
+/** t_from_CT over columns: SA g/kg, CT °C, p dbar → t °C. */
+export function t_from_CT_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
+  const n = sameLength('t_from_CT_batch', SA, CT, p);
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) o[i] = t_from_CT(SA[i], CT[i], p[i]);
+  return o;
+}
