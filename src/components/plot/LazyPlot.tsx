@@ -1,0 +1,107 @@
+import { Component, lazy, Suspense, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
+import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent, PlotSelectionEvent } from 'plotly.js';
+import { Progress } from '../Notice';
+
+/**
+ * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-dist-min` is a
+ * dynamic import, so Vite puts Plotly (≈1.4 MB, ≈470 kB gzip) in its own chunk that only screens
+ * with a plot download; the first screen stays light. While it loads, the plot's box keeps its size
+ * and shows progress; if the chunk cannot be fetched the box says so.
+ */
+
+export interface PlotProps {
+  data: Data[];
+  layout?: Partial<Layout>;
+  config?: Partial<Config>;
+  /** Bump to force a redraw when data arrays are mutated in place (prefer new arrays). */
+  revision?: number;
+  style?: CSSProperties;
+  className?: string;
+  useResizeHandler?: boolean;
+  onSelected?: (event: PlotSelectionEvent) => void;
+  onDeselect?: () => void;
+  onClick?: (event: PlotMouseEvent) => void;
+  onHover?: (event: PlotMouseEvent) => void;
+  onRelayout?: (event: PlotRelayoutEvent) => void;
+  onInitialized?: (figure: unknown, graphDiv: HTMLElement) => void;
+}
+
+let loading: Promise<{ default: ComponentType<PlotProps> }> | null = null;
+
+/** Start fetching Plotly (e.g. on hover of a link to a plotting screen); safe to call repeatedly. */
+export function preloadPlotly(): Promise<{ default: ComponentType<PlotProps> }> {
+  if (!loading) {
+    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(([factory, plotly]) => {
+      const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
+      const Plotly = (plotly as { default?: object }).default ?? plotly;
+      return { default: createPlotlyComponent(Plotly) as ComponentType<PlotProps> };
+    });
+    // A failed fetch (offline, redeploy) must not stick: the next mount tries again.
+    loading.catch(() => {
+      loading = null;
+    });
+  }
+  return loading;
+}
+
+const Plot = lazy(preloadPlotly);
+
+export interface LazyPlotProps extends PlotProps {
+  /** What the plot shows, for screen readers (the figure's accessible name). */
+  label: string;
+  /** Height of the plot box in px; the width follows the container. */
+  height?: number;
+  /** Text under the plot (the choice that made it, a legend in words). */
+  caption?: ReactNode;
+}
+
+/** A Plotly figure in a labelled box, loading Plotly on first use. */
+export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, ...plot }: LazyPlotProps) {
+  return (
+    <figure aria-label={label} className={`m-0 flex flex-col ${className}`}>
+      <div style={{ height }} className="relative w-full">
+        <PlotErrorBoundary>
+          <Suspense fallback={<PlotLoading label={label} />}>
+            <Plot {...plot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
+          </Suspense>
+        </PlotErrorBoundary>
+      </div>
+      {caption && <figcaption className="px-1 pt-1 text-xs text-ink-muted">{caption}</figcaption>}
+    </figure>
+  );
+}
+
+export function PlotLoading({ label }: { label: string }) {
+  return (
+    <div className="absolute inset-0 flex items-center justify-center border border-dashed border-paper-rule bg-paper-raised">
+      <Progress label={`Loading the plotting library for “${label}”…`} />
+    </div>
+  );
+}
+
+class PlotErrorBoundary extends Component<{ children: ReactNode }, { error: Error | null }> {
+  override state: { error: Error | null } = { error: null };
+
+  static getDerivedStateFromError(error: Error) {
+    return { error };
+  }
+
+  override componentDidCatch(error: Error, info: ErrorInfo) {
+    console.error('plot failed', error, info.componentStack);
+  }
+
+  override render() {
+    if (this.state.error) {
+      return (
+        <div role="alert" className="absolute inset-0 flex flex-col items-start justify-center gap-2 border border-warn/40 bg-warn-wash/40 px-4 text-sm">
+          <p className="font-semibold text-warn-strong">The plot could not be drawn.</p>
+          <p className="text-ink-strong">{this.state.error.message}</p>
+          <button type="button" className="text-ink underline" onClick={() => this.setState({ error: null })}>
+            Try again
+          </button>
+        </div>
+      );
+    }
+    return this.props.children;
+  }
+}
