@@ -52,9 +52,10 @@ export function assertAscending(targets: Float64Array, what = 'targets'): void {
  * First crossing of each target in the node sequence x (any order, NaN-free), scanning from k = 0.
  * targets must be strictly increasing. Each interval claims the not-yet-claimed targets inside its
  * closed value range; a "next unclaimed" forest with path compression skips claimed ones, so the
- * cost is O((n + m)·log m) however often the profile folds back.
+ * cost is O((n + m)·log m) however often the profile folds back. knownMonotone (x known to be
+ * non-decreasing) skips the check.
  */
-export function firstCrossing(x: Float64Array, targets: Float64Array, out?: Bracket): Bracket {
+export function firstCrossing(x: Float64Array, targets: Float64Array, out?: Bracket, knownMonotone = false): Bracket {
   const m = targets.length;
   const index = out?.index ?? new Int32Array(m);
   const weight = out?.weight ?? new Float64Array(m);
@@ -68,15 +69,26 @@ export function firstCrossing(x: Float64Array, targets: Float64Array, out?: Brac
     return { index, weight };
   }
   // Monotone non-decreasing profiles (stable or sorted casts) take a single merge walk.
-  let monotone = true;
-  for (let k = 1; k < n; k++) if (x[k] < x[k - 1]) { monotone = false; break; }
+  let monotone = knownMonotone;
+  if (!monotone) {
+    monotone = true;
+    for (let k = 1; k < n; k++) if (x[k] < x[k - 1]) { monotone = false; break; }
+  }
   if (monotone) {
-    let k = 0;
     const last = x[n - 1];
+    // Few targets on a long cast: a binary search each (O(m log n)); else one merge walk.
+    const search = m * 16 < n;
+    let k = 0;
     for (let j = 0; j < m; j++) {
       const s = targets[j];
       if (s < x[0] || s > last) continue;
-      while (k < n - 2 && x[k + 1] < s) k++;
+      if (search) {
+        k = lowerBound(x, s) - 1; // first k with x[k+1] ≥ s
+        if (k < 0) k = 0;
+        if (k > n - 2) k = n - 2;
+      } else {
+        while (k < n - 2 && x[k + 1] < s) k++;
+      }
       const h = x[k + 1] - x[k];
       index[j] = k;
       weight[j] = h > 0 ? (s - x[k]) / h : 0;
@@ -211,6 +223,23 @@ export function interpPchipAt(x: Float64Array, y: Float64Array, br: Bracket, out
     const h01 = -2 * t3 + 3 * t2;
     const h11 = t3 - t2;
     res[j] = h00 * y[k] + h10 * h * d0 + h01 * y[k + 1] + h11 * h * d1;
+  }
+  return res;
+}
+
+/**
+ * Linear interpolation like interpLinearAt for a reordered profile whose level k holds the
+ * parcel order[k] of y (Thorpe-sorted casts), without building the reordered column.
+ */
+export function interpLinearOrderedAt(y: Float64Array, order: Int32Array, br: Bracket, out?: Float64Array): Float64Array {
+  const m = br.index.length;
+  const res = out ?? new Float64Array(m);
+  for (let j = 0; j < m; j++) {
+    const k = br.index[j];
+    if (k < 0) { res[j] = NaN; continue; }
+    const w = br.weight[j];
+    const a = y[order[k]];
+    res[j] = w === 0 ? a : a + w * (y[order[k + 1]] - a);
   }
   return res;
 }

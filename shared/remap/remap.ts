@@ -23,8 +23,8 @@
  * it warns about the water itself.
  */
 import { detectInversions, type Inversion } from './inversions';
-import { thorpeSort } from './thorpe';
-import { assertAscending, firstCrossing, interpLinearAt, interpPchipAt, lowerBound, upperBound, type Bracket } from './interpolate';
+import { thorpeOrder } from './thorpe';
+import { assertAscending, firstCrossing, interpLinearAt, interpLinearOrderedAt, interpPchipAt, lowerBound, upperBound, type Bracket } from './interpolate';
 
 export type InversionHandling = 'sort' | 'drop' | 'raw';
 export type SigmaInterpolation = 'linear' | 'pchip';
@@ -108,36 +108,56 @@ export function countCrossings(sigma: Float64Array, targets: Float64Array, out?:
   const res = out ?? new Int32Array(m);
   const diff = new Int32Array(m + 1);
   const n = sigma.length;
+  if (n === 0 || m === 0) { res.fill(0); return res; }
+  // gt(v): first target > v; ge(v): first target ≥ v. σ moves little between levels, so each is
+  // found by walking from the previous answer rather than searching afresh.
+  let gPrev = upperBound(targets, sigma[0]);
+  let ePrev = lowerBound(targets, sigma[0]);
+  if (ePrev < m && targets[ePrev] === sigma[0]) diff[ePrev]++, diff[ePrev + 1]--;
   for (let k = 0; k < n - 1; k++) {
     const a = sigma[k];
     const b = sigma[k + 1];
-    if (a === b) continue;
-    const lo = a < b ? a : b;
-    const hi = a < b ? b : a;
-    const j0 = upperBound(targets, lo);
-    const j1 = lowerBound(targets, hi);
-    if (j0 < j1) { diff[j0]++; diff[j1]--; }
+    let g = gPrev;
+    while (g > 0 && targets[g - 1] > b) g--;
+    while (g < m && targets[g] <= b) g++;
+    let e = ePrev;
+    while (e > 0 && targets[e - 1] >= b) e--;
+    while (e < m && targets[e] < b) e++;
+    if (a !== b) {
+      // Strict passes: targets with min < s < max.
+      const j0 = a < b ? gPrev : g;
+      const j1 = a < b ? e : ePrev;
+      if (j0 < j1) { diff[j0]++; diff[j1]--; }
+      // A new run of levels lying exactly on a target.
+      if (e < m && targets[e] === b) { diff[e]++; diff[e + 1]--; }
+    }
+    gPrev = g;
+    ePrev = e;
   }
   let c = 0;
   for (let j = 0; j < m; j++) { c += diff[j]; res[j] = c; }
-  for (let k = 0; k < n; k++) {
-    if (k > 0 && sigma[k] === sigma[k - 1]) continue;
-    const j = lowerBound(targets, sigma[k]);
-    if (j < m && targets[j] === sigma[k]) res[j]++;
-  }
   return res;
 }
 
-/** Levels of a cast whose p and σ are both finite. */
-function finiteLevels(cast: RemapCast): Int32Array | null {
+/** Levels of a cast whose p and σ are both finite (null when all are), and whether σ never decreases. */
+function scanCast(cast: RemapCast): { keep: Int32Array | null; monotone: boolean } {
   const n = cast.p.length;
+  const p = cast.p;
+  const s = cast.sigma;
   let bad = 0;
-  for (let i = 0; i < n; i++) if (!Number.isFinite(cast.p[i]) || !Number.isFinite(cast.sigma[i])) bad++;
-  if (bad === 0) return null;
+  let monotone = true;
+  let prev = -Infinity;
+  for (let i = 0; i < n; i++) {
+    const si = s[i];
+    if (p[i] - p[i] !== 0 || si - si !== 0) { bad++; continue; }
+    if (si < prev) monotone = false;
+    prev = si;
+  }
+  if (bad === 0) return { keep: null, monotone };
   const keep = new Int32Array(n - bad);
   let j = 0;
-  for (let i = 0; i < n; i++) if (Number.isFinite(cast.p[i]) && Number.isFinite(cast.sigma[i])) keep[j++] = i;
-  return keep;
+  for (let i = 0; i < n; i++) if (Number.isFinite(p[i]) && Number.isFinite(s[i])) keep[j++] = i;
+  return { keep, monotone };
 }
 
 function take(a: Float64Array, keep: Int32Array): Float64Array {
@@ -153,15 +173,29 @@ function subCast(cast: RemapCast, keep: Int32Array): RemapCast {
   return { p: take(cast.p, keep), z: cast.z ? take(cast.z, keep) : undefined, sigma: take(cast.sigma, keep), props };
 }
 
+/**
+ * A cast as handled. For 'sort' the properties stay in measured order and `order` says which
+ * parcel sits at each level (p and z, the grid, do not move); otherwise order is null.
+ */
+interface HandledCast extends RemapCast {
+  order: Int32Array | null;
+}
+
+// Scratch for the Thorpe order and sorted σ, reused between calls (nothing returned points into it).
+let scratchOrder = new Int32Array(0);
+let scratchSorted = new Float64Array(0);
+
 /** The cast as handled: sorted parcels, light levels dropped, or as measured. */
-function handleCast(cast: RemapCast, handling: InversionHandling, inversions: Inversion[]): RemapCast {
-  if (handling === 'raw') return cast;
-  if (handling === 'sort') {
-    const t = thorpeSort(cast.p, cast.sigma, cast.props);
-    return t.changed ? { p: cast.p, z: cast.z, sigma: t.sigma, props: t.props } : cast;
-  }
-  if (inversions.length === 0) return cast;
+function handleCast(cast: RemapCast, handling: InversionHandling, inversions: Inversion[]): HandledCast {
+  if (handling === 'raw') return { ...cast, order: null };
   const n = cast.p.length;
+  if (handling === 'sort') {
+    if (scratchOrder.length < n) { scratchOrder = new Int32Array(n); scratchSorted = new Float64Array(n); }
+    const order = scratchOrder.subarray(0, n);
+    const sorted = scratchSorted.subarray(0, n);
+    return thorpeOrder(cast.sigma, order, sorted) ? { ...cast, sigma: sorted, order } : { ...cast, order: null };
+  }
+  if (inversions.length === 0) return { ...cast, order: null };
   const drop = new Uint8Array(n);
   let dropped = 0;
   for (const inv of inversions) {
@@ -170,11 +204,17 @@ function handleCast(cast: RemapCast, handling: InversionHandling, inversions: In
   const keep = new Int32Array(n - dropped);
   let j = 0;
   for (let i = 0; i < n; i++) if (!drop[i]) keep[j++] = i;
-  return subCast(cast, keep);
+  return { ...subCast(cast, keep), order: null };
 }
 
-/** Column values at the bracketed targets by the chosen interpolation in σ. */
-function evaluate(sigma: Float64Array, y: Float64Array, br: Bracket, how: SigmaInterpolation): Float64Array {
+/** Column values at the bracketed targets by the chosen interpolation in σ (order: Thorpe order of y). */
+function evaluate(sigma: Float64Array, y: Float64Array, br: Bracket, how: SigmaInterpolation, order: Int32Array | null): Float64Array {
+  if (order) {
+    if (how === 'linear') return interpLinearOrderedAt(y, order, br);
+    const moved = new Float64Array(order.length);
+    for (let k = 0; k < order.length; k++) moved[k] = y[order[k]];
+    return interpPchipAt(sigma, moved, br);
+  }
   return how === 'pchip' ? interpPchipAt(sigma, y, br) : interpLinearAt(y, br);
 }
 
@@ -189,38 +229,49 @@ function midLevels(targets: Float64Array): Float64Array {
   return mid;
 }
 
+/** Crossings of a non-decreasing profile: one for every target within its range (a point or a flat run). */
+function monotoneCrossings(sigma: Float64Array, targets: Float64Array): Int32Array {
+  const c = new Int32Array(targets.length);
+  if (sigma.length === 0) return c;
+  const lo = sigma[0];
+  const hi = sigma[sigma.length - 1];
+  for (let j = 0; j < targets.length; j++) c[j] = targets[j] >= lo && targets[j] <= hi ? 1 : 0;
+  return c;
+}
+
 /**
  * Remap one cast onto ascending target σ levels (kg/m³). See the head of this file for the
  * handling, the interpolation, the thickness and the crossings. Levels with NaN p or σ are
- * left out first; indices of given inversions refer to the cast as passed.
+ * left out first (given inversions are then re-detected so their indices match). A cast whose σ
+ * never decreases takes a fast path: no inversion, handling changes nothing, one crossing each.
  */
 export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: RemapOptions): RemapResult {
   assertAscending(targets);
-  const keep = finiteLevels(cast);
-  let inversions = opts.inversions;
+  const { keep, monotone } = scanCast(cast);
   const clean = keep ? subCast(cast, keep) : cast;
-  if (keep && inversions) {
-    // Re-detect on the cleaned cast so indices match the levels used.
-    inversions = undefined;
-  }
-  inversions ??= detectInversions(clean.p, clean.sigma, { threshold: opts.threshold, z: clean.z });
-  const handled = handleCast(clean, opts.handling, inversions);
+  let inversions = keep ? undefined : opts.inversions;
+  if (!inversions) inversions = monotone ? [] : detectInversions(clean.p, clean.sigma, { threshold: opts.threshold, z: clean.z });
+  const handled: HandledCast = monotone ? { ...clean, order: null } : handleCast(clean, opts.handling, inversions);
   const m = targets.length;
   const sig = handled.sigma;
+  const order = handled.order;
+  const how = opts.interpolation;
 
-  const crossingsRaw = countCrossings(clean.sigma, targets);
-  const crossings = handled === clean ? crossingsRaw.slice() : countCrossings(sig, targets);
-  const br = firstCrossing(sig, targets);
-  const pressure = evaluate(sig, handled.p, br, opts.interpolation);
-  const depth = handled.z ? evaluate(sig, handled.z, br, opts.interpolation) : null;
+  const crossingsRaw = monotone ? monotoneCrossings(clean.sigma, targets) : countCrossings(clean.sigma, targets);
+  const sameProfile = handled.sigma === clean.sigma;
+  const crossings = sameProfile ? crossingsRaw.slice() : opts.handling === 'sort' ? monotoneCrossings(sig, targets) : countCrossings(sig, targets);
+  const sortedSig = monotone || order !== null;
+  const br = firstCrossing(sig, targets, undefined, sortedSig);
+  const pressure = evaluate(sig, handled.p, br, how, null);
+  const depth = handled.z ? evaluate(sig, handled.z, br, how, null) : null;
   if (depth) for (let j = 0; j < m; j++) depth[j] = -depth[j];
   const props: Record<string, Float64Array> = {};
-  for (const name of Object.keys(handled.props)) props[name] = evaluate(sig, handled.props[name], br, opts.interpolation);
+  for (const name of Object.keys(handled.props)) props[name] = evaluate(sig, handled.props[name], br, how, order);
 
   const mids = midLevels(targets);
-  const brMid = firstCrossing(sig, mids);
-  const pMid = evaluate(sig, handled.p, brMid, opts.interpolation);
-  const zMid = handled.z ? evaluate(sig, handled.z, brMid, opts.interpolation) : null;
+  const brMid = firstCrossing(sig, mids, undefined, sortedSig);
+  const pMid = evaluate(sig, handled.p, brMid, how, null);
+  const zMid = handled.z ? evaluate(sig, handled.z, brMid, how, null) : null;
   const thickness = new Float64Array(m);
   const thicknessDepth = zMid ? new Float64Array(m) : null;
   for (let j = 0; j < m; j++) {
@@ -230,7 +281,8 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
 
   let sMin = Infinity;
   let sMax = -Infinity;
-  for (let k = 0; k < sig.length; k++) { if (sig[k] < sMin) sMin = sig[k]; if (sig[k] > sMax) sMax = sig[k]; }
+  if (monotone || order) { if (sig.length) { sMin = sig[0]; sMax = sig[sig.length - 1]; } }
+  else for (let k = 0; k < sig.length; k++) { if (sig[k] < sMin) sMin = sig[k]; if (sig[k] > sMax) sMax = sig[k]; }
   const flags = new Uint8Array(m);
   for (let j = 0; j < m; j++) {
     let f = 0;

@@ -19,25 +19,17 @@ export interface ThorpeResult {
 }
 
 /**
- * Stable sort of the parcels by σ (ties keep their measured order), O(n) when the cast is
- * already stable. p dbar, sigma kg/m³ (no NaN), props columns of the same length.
+ * The Thorpe order of a cast: order[k] = original level of the parcel that belongs at level k,
+ * by a stable sort on σ (ties keep their measured order), and the sorted σ. Insertion sort suits
+ * nearly stable casts (cost grows with the overturned parcels only); a scrambled cast falls back
+ * to a comparison sort. Returns whether any parcel moves. Buffers may be passed in for reuse.
  */
-export function thorpeSort(p: Float64Array, sigma: Float64Array, props: Record<string, Float64Array>): ThorpeResult {
+export function thorpeOrder(sigma: Float64Array, order: Int32Array = new Int32Array(sigma.length), sorted: Float64Array = new Float64Array(sigma.length)): boolean {
   const n = sigma.length;
-  const order = new Int32Array(n);
-  for (let i = 0; i < n; i++) order[i] = i;
-  let sorted = true;
-  for (let i = 1; i < n; i++) if (sigma[i] < sigma[i - 1]) { sorted = false; break; }
-  const displacement = new Float64Array(n);
-  if (sorted) {
-    const same: Record<string, Float64Array> = {};
-    for (const name of Object.keys(props)) same[name] = props[name];
-    return { sigma, props: same, order, displacement, changed: false };
-  }
-  // Insertion sort suits nearly stable casts (cost grows with the overturned parcels only);
-  // a fully scrambled cast falls back to the engine's stable comparison sort.
   let descents = 0;
+  for (let i = 0; i < n; i++) order[i] = i;
   for (let i = 1; i < n; i++) if (sigma[i] < sigma[i - 1]) descents++;
+  if (descents === 0) { sorted.set(sigma.subarray(0, n)); return false; }
   if (descents * 64 < n) {
     for (let i = 1; i < n; i++) {
       const oi = order[i];
@@ -47,16 +39,30 @@ export function thorpeSort(p: Float64Array, sigma: Float64Array, props: Record<s
       order[j + 1] = oi;
     }
   } else {
-    const idx = Array.from(order);
+    const idx = Array.from(order.subarray(0, n));
     idx.sort((a, b) => sigma[a] - sigma[b] || a - b);
     for (let i = 0; i < n; i++) order[i] = idx[i];
   }
+  for (let k = 0; k < n; k++) sorted[k] = sigma[order[k]];
+  return true;
+}
+
+/**
+ * Thorpe reordering of a cast with its properties. p dbar, sigma kg/m³ (no NaN), props columns
+ * of the same length; O(n) when the cast is already stable.
+ */
+export function thorpeSort(p: Float64Array, sigma: Float64Array, props: Record<string, Float64Array>): ThorpeResult {
+  const n = sigma.length;
+  const order = new Int32Array(n);
   const sig = new Float64Array(n);
-  for (let k = 0; k < n; k++) {
-    sig[k] = sigma[order[k]];
-    displacement[order[k]] = p[k] - p[order[k]];
-  }
+  const changed = thorpeOrder(sigma, order, sig);
+  const displacement = new Float64Array(n);
   const out: Record<string, Float64Array> = {};
+  if (!changed) {
+    for (const name of Object.keys(props)) out[name] = props[name];
+    return { sigma, props: out, order, displacement, changed: false };
+  }
+  for (let k = 0; k < n; k++) displacement[order[k]] = p[k] - p[order[k]];
   for (const name of Object.keys(props)) {
     const src = props[name];
     const dst = new Float64Array(n);

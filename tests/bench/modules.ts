@@ -20,5 +20,6 @@ export interface BenchModule {
 
 export const BENCH_MODULES: BenchModule[] = [
   { name: 'seawater', load: () => import('./seawater-suite') },
+  { name: 'remap', load: () => import('./remap') },
   { name: 'deliveries', load: () => import('./deliveries') },
 ];

@@ -1,0 +1,99 @@
+/**
+ * Benchmark of the density-coordinate engine: 60 casts × 5000 levels remapped onto 200
+ * isopycnals (Thorpe sort, linear), and both section grids built (2-dbar pressure bins and the
+ * σ grid). The reference is the same remap in numpy 1.24 — numpy.interp of pressure, CT and SA
+ * per cast — timed inside /usr/bin/python3 around the interpolation only. Ours does more per
+ * cast (inversion scan, crossing counts, thickness, flags), so the ratio is conservative.
+ * The casts are synthetic timing data (smooth stable profiles with a few planted spikes); no
+ * figure here is a correctness check.
+ */
+import { execFileSync } from 'node:child_process';
+import { remapToIsopycnals } from '../../shared/remap';
+import { buildDensitySection, buildPressureSection, type SectionCast } from '../../shared/section';
+import type { BenchResult } from './modules';
+
+const N_CASTS = 60;
+const N_LEVELS = 5000;
+const N_TARGETS = 200;
+
+function makeCasts(spikes: boolean): SectionCast[] {
+  const casts: SectionCast[] = [];
+  for (let c = 0; c < N_CASTS; c++) {
+    const p = new Float64Array(N_LEVELS);
+    const sigma = new Float64Array(N_LEVELS);
+    const CT = new Float64Array(N_LEVELS);
+    const SA = new Float64Array(N_LEVELS);
+    const H = 700 + 5 * c;
+    for (let i = 0; i < N_LEVELS; i++) {
+      p[i] = i + 1;
+      sigma[i] = 24 + 3.7 * (1 - Math.exp(-p[i] / H)) + 1e-5 * i;
+      CT[i] = 2 + 22 * Math.exp(-p[i] / (H * 0.8));
+      SA[i] = 34.9 + 0.5 * Math.exp(-p[i] / (H * 1.5));
+    }
+    if (spikes) sigma[400 + c] -= 0.02; // a lag spike per cast, so the sort path has work to do
+    casts.push({ id: `c${c}`, station: `${c}`, lon: -30 + 0.25 * c, lat: -20, bottomDepth: null, p, sigma, props: { CT, SA } });
+  }
+  return casts;
+}
+
+const median = (a: number[]) => [...a].sort((x, y) => x - y)[a.length >> 1];
+
+function time(fn: () => void, runs: number): number {
+  fn(); fn(); // warm the JIT
+  const t: number[] = [];
+  for (let r = 0; r < runs; r++) { const t0 = performance.now(); fn(); t.push(performance.now() - t0); }
+  return median(t);
+}
+
+const PY = `
+import sys, json, time, numpy as np
+d = json.load(sys.stdin)
+tg = np.array(d['targets'])
+casts = [(np.array(c['p']), np.array(c['sigma']), np.array(c['CT']), np.array(c['SA'])) for c in d['casts']]
+def remap():
+    out = []
+    for p, s, ct, sa in casts:
+        out.append((np.interp(tg, s, p, left=np.nan, right=np.nan), np.interp(tg, s, ct, left=np.nan, right=np.nan), np.interp(tg, s, sa, left=np.nan, right=np.nan)))
+    return out
+remap(); remap()
+ts = []
+for _ in range(d['runs']):
+    t0 = time.perf_counter(); remap(); ts.append((time.perf_counter() - t0) * 1000)
+print(json.dumps({'ms': sorted(ts)[len(ts) // 2]}))
+`;
+
+function remapAll(casts: SectionCast[], targets: Float64Array): void {
+  for (const c of casts) remapToIsopycnals(c, targets, { handling: 'sort', interpolation: 'linear' });
+}
+
+function numpyMs(casts: SectionCast[], targets: Float64Array, runs: number): number {
+  const input = JSON.stringify({
+    targets: Array.from(targets), runs,
+    casts: casts.map((c) => ({ p: Array.from(c.p), sigma: Array.from(c.sigma), CT: Array.from(c.props.CT), SA: Array.from(c.props.SA) })),
+  });
+  return (JSON.parse(execFileSync('/usr/bin/python3', ['-c', PY], { input, maxBuffer: 1 << 26 }).toString()) as { ms: number }).ms;
+}
+
+export async function bench(): Promise<BenchResult[]> {
+  const stable = makeCasts(false);
+  const spiky = makeCasts(true);
+  const targets = Float64Array.from({ length: N_TARGETS }, (_, j) => 24.0 + (3.7 * j) / (N_TARGETS - 1));
+  const runs = 15;
+  const totalMs = time(() => {
+    remapAll(spiky, targets);
+    buildPressureSection(spiky, { property: 'CT', binSize: 2 });
+    buildDensitySection(spiky, { property: 'CT', targets, handling: 'sort', interpolation: 'linear' });
+  }, runs);
+  const stableMs = time(() => remapAll(stable, targets), runs);
+  const spikyMs = time(() => remapAll(spiky, targets), runs);
+  return [
+    { name: `remap ${N_CASTS} casts × ${N_LEVELS} levels onto ${N_TARGETS} isopycnals (one spike per cast) + pressure (2 dbar) and density grids`, value: totalMs, unit: 'ms', target: '< 150 ms' },
+    { name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, stable casts (sort, linear) vs numpy.interp`, value: stableMs, unit: 'ms', reference: numpyMs(stable, targets, runs), target: 'ratio ≤ 1.0' },
+    { name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, one spike per cast (sort, linear) vs numpy.interp`, value: spikyMs, unit: 'ms', reference: numpyMs(spiky, targets, runs), target: 'ratio ≤ 1.0' },
+  ];
+}
+
+// Run directly: npx tsx tests/bench/remap.ts
+if (import.meta.url === `file://${process.argv[1]}`) {
+  bench().then((rs) => { for (const r of rs) console.log(`${r.name}: ${r.value.toFixed(2)} ${r.unit}${r.reference !== undefined ? `  reference ${r.reference.toFixed(2)} ms  ratio ${(r.value / r.reference).toFixed(2)}` : ''}  target ${r.target}`); });
+}
