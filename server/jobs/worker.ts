@@ -4,6 +4,7 @@ import { QUEUES } from '../services/queue';
 import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 import { runIngestJob } from './ingest';
+import { buildDelivery } from '../services/deliveryBuild';
 
 export async function startWorkers(deps: AppDeps, opts: { concurrency?: number } = {}) {
   const n = opts.concurrency ?? Number(process.env.WORKER_CONCURRENCY ?? 2);
@@ -12,7 +13,10 @@ export async function startWorkers(deps: AppDeps, opts: { concurrency?: number }
       await runIngestJob(deps, job.data.uploadId, job.id);
     });
   }
-  logger.info({ concurrency: n }, 'ingest worker started');
+  await deps.queue.boss.work<{ deliveryId: string }>(QUEUES.delivery, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+    await buildDelivery(deps, job.data.deliveryId);
+  });
+  logger.info({ concurrency: n }, 'ingest and delivery workers started');
 }
 
 const isMain = process.argv[1] && /jobs[\\/]worker\.ts$/.test(process.argv[1]);

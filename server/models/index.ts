@@ -155,6 +155,45 @@ export class ColumnMapping extends Model<InferAttributes<ColumnMapping>, InferCr
   declare updatedAt: CreationOptional<Date>;
 }
 
+export class DerivedVariable extends Model<InferAttributes<DerivedVariable>, InferCreationAttributes<DerivedVariable>> {
+  declare id: CreationOptional<string>;
+  declare cruiseId: string;
+  declare name: string;
+  declare formula: string;
+  declare unit: string | null;
+  declare description: string | null;
+  declare createdBy: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+export class SavedView extends Model<InferAttributes<SavedView>, InferCreationAttributes<SavedView>> {
+  declare id: CreationOptional<string>;
+  declare cruiseId: string;
+  declare userId: string;
+  declare name: string;
+  declare query: string;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+export type DeliveryFile = { format: string; filename: string; key: string; size: number; sha256: string };
+export class Delivery extends Model<InferAttributes<Delivery>, InferCreationAttributes<Delivery>> {
+  declare id: CreationOptional<string>;
+  declare cruiseId: string;
+  declare kind: 'isopycnal' | 'pressure' | 'package';
+  declare params: Record<string, unknown>;
+  declare formats: string[];
+  declare status: CreationOptional<'queued' | 'building' | 'ready' | 'failed'>;
+  declare progress: CreationOptional<number>;
+  declare files: CreationOptional<DeliveryFile[]>;
+  declare error: string | null;
+  declare released: CreationOptional<boolean>;
+  declare releasedAt: Date | null;
+  declare releasedBy: string | null;
+  declare createdBy: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 const uuid = { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true };
 const ts = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE };
 
@@ -206,6 +245,15 @@ export function initModels(sequelize: Sequelize) {
     createdBy: DataTypes.UUID, ...ts }, opts('layer_sets'));
   ColumnMapping.init({ id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true }, cruiseId: { type: DataTypes.UUID, allowNull: false },
     header: { type: DataTypes.TEXT, allowNull: false }, role: { type: DataTypes.TEXT, allowNull: false }, ...ts }, opts('column_mappings'));
+
+  DerivedVariable.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
+    formula: { type: DataTypes.TEXT, allowNull: false }, unit: DataTypes.TEXT, description: DataTypes.TEXT, createdBy: DataTypes.UUID, ...ts }, opts('derived_variables'));
+  SavedView.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, userId: { type: DataTypes.UUID, allowNull: false },
+    name: { type: DataTypes.TEXT, allowNull: false }, query: { type: DataTypes.TEXT, allowNull: false }, ...ts }, opts('saved_views'));
+  Delivery.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, kind: { type: DataTypes.TEXT, allowNull: false },
+    params: { type: DataTypes.JSONB, allowNull: false }, formats: { type: DataTypes.JSONB, allowNull: false }, status: { type: DataTypes.TEXT, defaultValue: 'queued' },
+    progress: { type: DataTypes.DOUBLE, defaultValue: 0 }, files: { type: DataTypes.JSONB, defaultValue: [] }, error: DataTypes.TEXT,
+    released: { type: DataTypes.BOOLEAN, defaultValue: false }, releasedAt: DataTypes.DATE, releasedBy: DataTypes.UUID, createdBy: DataTypes.UUID, ...ts }, opts('deliveries'));
 
   User.hasMany(Membership, { foreignKey: 'userId' });
   Membership.belongsTo(User, { foreignKey: 'userId' });

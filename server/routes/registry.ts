@@ -5,5 +5,7 @@ import type { AppDeps } from '../lib/deps';
 import { uploadRoutes } from './uploads';
 import { castRoutes } from './casts';
 import { sectionRoutes } from './sections';
+import { analysisRoutes } from './analysis';
+import { deliveryRoutes } from './deliveries';
 
-export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes, castRoutes, sectionRoutes];
+export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes];

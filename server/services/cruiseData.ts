@@ -35,9 +35,10 @@ export async function dataVersion(cruiseId: string): Promise<string> {
   return `${casts.n}:${casts.u ? new Date(casts.u).getTime() : 0}:${layers.n}:${layers.u ? new Date(layers.u).getTime() : 0}`;
 }
 
-export async function loadCruiseCasts(cruiseId: string, names: string[]): Promise<CruiseCast[]> {
+/** names undefined: every column. */
+export async function loadCruiseCasts(cruiseId: string, names?: string[]): Promise<CruiseCast[]> {
   const casts = await Cast.findAll({ where: { cruiseId }, order: [['time', 'ASC NULLS LAST'], ['station', 'ASC'], ['cast', 'ASC']] });
-  const wanted = [...new Set(['pressure', 'SA', 'CT', 'z', ...names, 'flag:temperature', 'flag:salinity', 'flag:conductivity'])];
+  const wanted = names ? [...new Set(['pressure', 'SA', 'CT', 'z', ...names, 'flag:temperature', 'flag:salinity', 'flag:conductivity'])] : undefined;
   const cols = await readColumns(casts.map((c) => c.id), wanted);
   return casts.map((c) => {
     const k = cols.get(c.id)!;
@@ -49,7 +50,11 @@ export async function loadCruiseCasts(cruiseId: string, names: string[]): Promis
 /** Levels flagged outside `include` (1–9 scale; by default 1 and 2 kept) in T or S are set to NaN. */
 export function applyFlags(c: CruiseCast, include: number[]): Record<string, Float64Array> {
   const bad = new Uint8Array(c.columns.pressure.length);
-  for (const f of Object.values(c.flags)) for (let i = 0; i < f.length; i++) if (!include.includes(f[i])) bad[i] = 1;
+  // Only the flags of the variables density is made from decide whether a level is used.
+  for (const [name, f] of Object.entries(c.flags)) {
+    if (!/^flag:(temperature|salinity|conductivity)$/.test(name)) continue;
+    for (let i = 0; i < f.length; i++) if (!include.includes(f[i])) bad[i] = 1;
+  }
   if (!bad.some((b) => b)) return c.columns;
   const keep: number[] = [];
   for (let i = 0; i < bad.length; i++) if (!bad[i]) keep.push(i);

@@ -1,7 +1,7 @@
 // Background jobs on pg-boss, in the same PostgreSQL database as the app.
 import PgBoss from 'pg-boss';
 
-export const QUEUES = { ingest: 'ingest-upload' } as const;
+export const QUEUES = { ingest: 'ingest-upload', delivery: 'build-delivery' } as const;
 
 export type Queue = {
   boss: PgBoss;

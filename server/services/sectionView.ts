@@ -2,10 +2,12 @@
 // with the stations, the bottom, isopycnals to draw over the pressure frame, and the inversion
 // warnings where they are. Every choice that made it is returned beside it.
 import { z } from 'zod';
-import { loadCruiseCasts, applyFlags } from './cruiseData';
+import { loadCruiseCasts, applyFlags, type CruiseCast } from './cruiseData';
+import { DerivedVariable } from '../models/index';
+import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
-import { alongTrackDistance, buildPressureSection, buildDensitySection, isopycnalLines, type SectionCast } from '../../shared/section/index';
-import { safeParseLevels, detectInversions } from '../../shared/remap/index';
+import { buildPressureSection, buildDensitySection, isopycnalLines, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
+import { safeParseLevels } from '../../shared/remap/index';
 import { badRequest } from '../lib/errors';
 
 const REFS = [0, 1000, 2000, 3000, 4000];
@@ -25,35 +27,55 @@ export type SectionQuery = z.infer<typeof SectionQuery>;
 const DEFAULT_LEVELS: Record<number, string> = { 0: '23.0:0.05:27.9', 1000: '27.5:0.05:32.5', 2000: '32.0:0.05:37.2', 3000: '37.0:0.05:41.6', 4000: '41.0:0.05:46.0' };
 const UNITS: Record<string, string> = { CT: '°C', SA: 'g/kg', SP: '', temperature: '°C', pt0: '°C', oxygen: 'µmol/kg', sigma0: 'kg/m³', sigma1: 'kg/m³', sigma2: 'kg/m³', sigma3: 'kg/m³', sigma4: 'kg/m³', spiciness0: 'kg/m³', rho: 'kg/m³' };
 
+/** Columns of each cast for a property: a stored column, or the cruise's derived variable of that name. */
+export async function propertyColumns(cruiseId: string, property: string, raw: CruiseCast[]): Promise<(Float64Array | null)[]> {
+  if (raw.some((c) => c.columns[property])) return raw.map((c) => c.columns[property] ?? null);
+  const dv = await DerivedVariable.findOne({ where: { cruiseId, name: property } });
+  if (!dv) throw badRequest(`No cast has a column or derived variable named ${property}.`, [{ field: 'property', message: 'unknown column' }]);
+  return raw.map((c) => {
+    const f = compileFormula(dv.formula, Object.keys(c.columns));
+    if (!f.ok) return null;
+    try { return f.evaluate(c.columns); } catch { return null; }
+  });
+}
+
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   const levelsText = q.levels ?? DEFAULT_LEVELS[q.ref];
   const parsed = safeParseLevels(levelsText);
   if (!parsed.ok) throw badRequest(`The levels are not valid: ${parsed.errors.join('; ')}`, parsed.errors.map((m) => ({ field: 'levels', message: m })));
   const targets = parsed.levels;
-  const raw = await loadCruiseCasts(cruiseId, [q.property]);
-  if (raw.length && !raw.some((c) => c.columns[q.property])) throw badRequest(`No cast has a column named ${q.property}.`, [{ field: 'property', message: 'unknown column' }]);
-  const casts: SectionCast[] = raw.map((c) => {
-    const cols = applyFlags(c, [1, 2]);
-    const sigma = sigma_batch(cols.SA, cols.CT, q.ref);
-    return { id: c.id, station: c.station, lon: c.longitude, lat: c.latitude, bottomDepth: c.bottomDepth, p: cols.pressure, z: cols.z, sigma,
-      props: { [q.property]: cols[q.property] ?? new Float64Array(cols.pressure.length).fill(NaN) } };
-  });
-  const x = alongTrackDistance(Float64Array.from(casts.map((c) => c.lon)), Float64Array.from(casts.map((c) => c.lat)));
-  const stations = raw.map((c, i) => ({ id: c.id, station: c.station, cast: c.cast, x: x[i], latitude: c.latitude, longitude: c.longitude,
-    bottom: c.bottomDepth, deepest: c.columns.pressure.length ? c.columns.pressure[c.columns.pressure.length - 1] : null }));
-  // Inversions of the σ this view uses (σ0 ones are stored; other references are found here).
-  const inversions = casts.flatMap((c, i) => {
-    const found = q.ref === 0 ? raw[i].inversions : detectInversions(c.p, c.sigma, { threshold: q.threshold });
-    return found.map((v) => ({ castId: c.id, station: c.station, x: x[i], pTop: v.pTop, pBottom: v.pBottom, deficit: v.deficit, class: v.class,
-      sigmaTop: c.sigma[v.iTop], sigmaBottom: c.sigma[v.iBottom] }));
-  });
+  const all = await loadCruiseCasts(cruiseId, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
   const choices = { property: q.property, coord: q.coord, ref: q.ref, sigma: `sigma${q.ref / 1000}`, levels: levelsText, inversions: q.inversions, interpolation: q.interpolation,
     bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold };
-  if (!casts.length) return { choices, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, stations, inversions, isopycnals: [] };
+  const raw = all.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);
+  if (!raw.length) return { choices, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, pressure: null, stations: [], bottom: [], gaps: [], inversions: [], isopycnals: [] };
+  const values = await propertyColumns(cruiseId, q.property, raw);
+  const casts: SectionCast[] = raw.map((c, i) => {
+    const v = values[i] ?? new Float64Array(c.columns.pressure.length).fill(NaN);
+    const cols = applyFlags({ ...c, columns: { ...c.columns, [q.property]: v } }, [1, 2]);
+    const sigma = sigma_batch(cols.SA, cols.CT, q.ref);
+    return { id: c.id, station: c.station, lon: c.longitude, lat: c.latitude, bottomDepth: c.bottomDepth, p: cols.pressure, z: cols.z, sigma, props: { [q.property]: cols[q.property] } };
+  });
+  const byId = new Map(raw.map((c) => [c.id, c]));
+  const common = { gapFactor: q.gapFactor, inversionThreshold: q.threshold };
   const grid = q.coord === 'pressure'
-    ? buildPressureSection(casts, { property: q.property, binSize: q.bin, gapFactor: q.gapFactor })
-    : buildDensitySection(casts, { property: q.property, targets, handling: q.inversions, interpolation: q.interpolation, gapFactor: q.gapFactor });
-  const lineLevels = targets.filter((_, i) => i % Math.max(1, Math.round(targets.length / 12)) === 0);
-  const isopycnals = q.coord === 'pressure' ? isopycnalLines(casts, Float64Array.from(lineLevels), q.inversions) : [];
-  return { choices, unit: UNITS[q.property] ?? '', grid, stations, inversions, isopycnals };
+    ? buildPressureSection(casts, { property: q.property, binSize: q.bin, ...common })
+    : buildDensitySection(casts, { property: q.property, targets, handling: q.inversions, interpolation: q.interpolation, ...common });
+  const stations = grid.casts.map((g) => {
+    const c = byId.get(g.id)!;
+    return { id: g.id, station: g.station, cast: c.cast, x: g.x, latitude: g.lat, longitude: g.lon, bottom: g.bottom, bottomDepth: g.bottomDepth,
+      deepest: c.columns.pressure[c.columns.pressure.length - 1] };
+  });
+  const sigmaById = new Map(casts.map((c) => [c.id, c]));
+  const inversions = grid.casts.flatMap((g) => g.inversions.map((v) => {
+    const c = sigmaById.get(g.id)!;
+    const at = (p: number) => { let k = 0; while (k < c.p.length - 1 && c.p[k] < p) k++; return c.sigma[k]; };
+    return { castId: g.id, station: g.station, x: g.x, pTop: v.pTop, pBottom: v.pBottom, deficit: v.deficit, class: v.class, sigmaTop: at(v.pTop), sigmaBottom: at(v.pBottom) };
+  }));
+  const lineLevels = Float64Array.from(targets.filter((_, i) => i % Math.max(1, Math.round(targets.length / 14)) === 0));
+  const lines = q.coord === 'pressure' ? isopycnalLines(casts, lineLevels, q.inversions, q.interpolation) : null;
+  const isopycnals = lines ? lines.sigma.map((sigma, j) => ({ sigma, p: lines.p[j] })) : [];
+  const dens = grid as Partial<DensitySectionGrid>;
+  return { choices, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: grid.z }, pressure: dens.pressure ?? null, depth: dens.depth ?? null,
+    stations, bottom: grid.bottom, gaps: grid.gaps, medianSpacingKm: grid.medianSpacingKm, inversions, isopycnals };
 }

@@ -37,7 +37,7 @@ afterAll(async () => { await t?.close(); });
 
 function urlFor(r: RouteSpec) {
   const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : ids.cruise;
-  return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
+  return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId|varId|viewId|deliveryId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
 }
 async function call(who: string, r: RouteSpec) {
   const a = agents[who];
