@@ -1,0 +1,257 @@
+// Reference Salinity and Absolute Salinity from Practical Salinity.
+//
+// SR = (35.16504/35)·SP (Millero, Feistel, Wright & McDougall 2008, Deep-Sea Res. I 55, 50–72)
+// and SA = SR·(1 + SAAR(p, lon, lat)), with the Absolute Salinity Anomaly Ratio from the global
+// atlas of McDougall, Jackett, Millero, Pawlowicz & Barker (2012), "A global algorithm for
+// estimating Absolute Salinity", Ocean Science 8, 1123–1134, interpolated as that paper does:
+// linearly in pressure between the atlas levels (held at the deepest level of the cell below
+// it), bilinearly in longitude and latitude inside a 4° cell, and where a corner of the cell has
+// no value (land, or below that column's bottom) with the mean of the corners that have one.
+// In the Baltic Sea, SA = (35.16504 − 0.087)/35·SP + 0.087 g/kg (Feistel et al. 2010, Ocean
+// Science 6, 91–141). Where no corner of the cell has a value the atlas is silent: SA falls
+// back to SR, and `SA_from_SP_detail` says so, so the cast's notes can.
+//
+// The atlas is data: shared/seawater/data/saar-atlas.json, written by
+// scripts/gsw/make_saar_atlas.py from Debian's python3-gsw 3.6.16 (its header names the source).
+//
+// Units: SP unitless, p in dbar, lon in °E (any turn), lat in °N; SR and SA in g/kg.
+
+import atlasFile from './data/saar-atlas.json';
+import { checkRange } from './ranges';
+
+const SSO = 35.16504;
+const uPS = SSO / 35;
+
+interface AtlasFile {
+  longitudes: { first: number; step: number; count: number };
+  latitudes: { first: number; step: number; count: number };
+  pressures: number[];
+  saar_base64: string;
+  cell_deepest_level: { values: number[] };
+  baltic: { rows: [number, number, number][] };
+}
+
+interface Atlas {
+  lon0: number;
+  dlon: number;
+  nx: number;
+  lat0: number;
+  dlat: number;
+  ny: number;
+  p: Float64Array;
+  nz: number;
+  /** SAAR at [level][lat][lon], NaN without a value. */
+  saar: Float32Array;
+  /** Deepest level index read in each cell, per [lat cell][lon cell], −1 for a cell without values. */
+  deepest: Int32Array;
+  baltic: Float64Array; // rows of [lat, west, east]
+}
+
+let atlas: Atlas | null = null;
+
+function decodeBase64(text: string): Uint8Array {
+  if (typeof Buffer !== 'undefined') {
+    const b = Buffer.from(text, 'base64');
+    return new Uint8Array(b.buffer, b.byteOffset, b.byteLength);
+  }
+  const bin = atob(text);
+  const out = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) out[i] = bin.charCodeAt(i);
+  return out;
+}
+
+/** Decode the atlas on first use (about 1 MB of base64; nothing is read until a salinity is asked for). */
+function loadAtlas(): Atlas {
+  if (atlas) return atlas;
+  const file = atlasFile as unknown as AtlasFile;
+  const bytes = decodeBase64(file.saar_base64);
+  // Copy into an aligned buffer: a Float32Array view needs a 4-byte aligned offset.
+  const saar = new Float32Array(bytes.slice().buffer);
+  const nx = file.longitudes.count, ny = file.latitudes.count, nz = file.pressures.length;
+  if (saar.length !== nx * ny * nz) throw new Error('saar-atlas.json: grid size and data disagree');
+  const deepest = Int32Array.from(file.cell_deepest_level.values);
+  if (deepest.length !== (nx - 1) * (ny - 1)) throw new Error('saar-atlas.json: cell table and grid disagree');
+  atlas = {
+    lon0: file.longitudes.first, dlon: file.longitudes.step, nx,
+    lat0: file.latitudes.first, dlat: file.latitudes.step, ny,
+    p: Float64Array.from(file.pressures), nz,
+    saar, deepest,
+    baltic: Float64Array.from(file.baltic.rows.flat()),
+  };
+  return atlas;
+}
+
+/** Reference Salinity SR_from_SP(SP) = (35.16504/35)·SP, g/kg (Millero et al. 2008). */
+export function SR_from_SP(SP: number): number {
+  return uPS * SP;
+}
+
+/** The corner values of one cell at one level, with missing corners replaced by the mean of the others. */
+function cellAt(a: Atlas, k: number, ix: number, iy: number, corners: Float64Array, lon: number, lat: number): boolean {
+  const base = k * a.nx * a.ny;
+  corners[0] = a.saar[base + iy * a.nx + ix];
+  corners[1] = a.saar[base + iy * a.nx + ix + 1];
+  corners[2] = a.saar[base + (iy + 1) * a.nx + ix + 1];
+  corners[3] = a.saar[base + (iy + 1) * a.nx + ix];
+  if (lon >= PANAMA_LON[0] && lon <= PANAMA_LON[PANAMA_LON.length - 1] && lat >= 0 && lat <= PANAMA_LAT[0]) {
+    applyPanamaBarrier(corners, lon, lat, a.lon0 + ix * a.dlon, a.lat0 + iy * a.dlat, a.dlon, a.dlat);
+  }
+  let sum = 0, count = 0;
+  for (let c = 0; c < 4; c++) {
+    if (!Number.isNaN(corners[c])) {
+      sum += corners[c];
+      count++;
+    }
+  }
+  if (count === 0) return false;
+  if (count < 4) {
+    const mean = sum / count;
+    for (let c = 0; c < 4; c++) if (Number.isNaN(corners[c])) corners[c] = mean;
+  }
+  return true;
+}
+
+// The Isthmus of Panama as a polyline (°E, °N): atlas corners on the other side of it from the
+// point do not count, so Pacific and Caribbean water are not averaged across the land bridge
+// (McDougall et al. 2012, §3).
+const PANAMA_LON = [260.0, 272.59, 276.5, 278.65, 280.73, 295.217];
+const PANAMA_LAT = [19.55, 13.97, 9.6, 8.1, 9.33, 0.0];
+
+function panamaLat(lon: number): number {
+  for (let i = 0; i < PANAMA_LON.length - 1; i++) {
+    if (lon <= PANAMA_LON[i + 1]) {
+      const w = (lon - PANAMA_LON[i]) / (PANAMA_LON[i + 1] - PANAMA_LON[i]);
+      return PANAMA_LAT[i] + w * (PANAMA_LAT[i + 1] - PANAMA_LAT[i]);
+    }
+  }
+  return PANAMA_LAT[PANAMA_LAT.length - 1];
+}
+
+/** Mark as missing the corners of a cell that lie across the Panama barrier from (lon, lat). */
+function applyPanamaBarrier(corners: Float64Array, lon: number, lat: number, lonW: number, latS: number, dlon: number, dlat: number): void {
+  const above = lat > panamaLat(lon);
+  const lonE = lonW + dlon, latN = latS + dlat;
+  const cornerLon = [lonW, lonE, lonE, lonW];
+  const cornerLat = [latS, latS, latN, latN];
+  for (let c = 0; c < 4; c++) {
+    const cl = Math.min(Math.max(cornerLon[c], PANAMA_LON[0]), PANAMA_LON[PANAMA_LON.length - 1]);
+    if (cornerLat[c] > panamaLat(cl) !== above) corners[c] = NaN;
+  }
+}
+
+const upper = new Float64Array(4);
+const lower = new Float64Array(4);
+
+/** Result of an atlas look-up: the ratio, and whether the atlas had a value there. */
+export interface SAARValue {
+  value: number;
+  inAtlas: boolean;
+}
+
+/**
+ * Absolute Salinity Anomaly Ratio SAAR(p, lon, lat), unitless, from the McDougall et al. (2012)
+ * atlas; { value: 0, inAtlas: false } where the atlas has no value (land, south of 86° S).
+ * p in dbar, lon in °E, lat in °N.
+ */
+export function SAAR(p: number, lon: number, lat: number): SAARValue {
+  if (!(Number.isFinite(p) && Number.isFinite(lon) && Number.isFinite(lat))) return { value: NaN, inAtlas: false };
+  const a = loadAtlas();
+  const x = ((lon % 360) + 360) % 360;
+  if (lat < a.lat0 || lat > a.lat0 + a.dlat * (a.ny - 1)) return { value: 0, inAtlas: false };
+  let ix = Math.floor((x - a.lon0) / a.dlon);
+  let iy = Math.floor((lat - a.lat0) / a.dlat);
+  if (ix >= a.nx - 1) ix = a.nx - 2;
+  if (iy >= a.ny - 1) iy = a.ny - 2;
+  const kMax = a.deepest[iy * (a.nx - 1) + ix];
+  if (kMax < 0) return { value: 0, inAtlas: false };
+  // Below the deepest level of the cell the ratio is held at its value there.
+  const pc = Math.min(Math.max(p, a.p[0]), a.p[kMax]);
+  let k = 0;
+  while (k < a.nz - 2 && pc > a.p[k + 1]) k++;
+  const r = (x - (a.lon0 + ix * a.dlon)) / a.dlon;
+  const s = (lat - (a.lat0 + iy * a.dlat)) / a.dlat;
+  const tz = (pc - a.p[k]) / (a.p[k + 1] - a.p[k]);
+  const hasUpper = cellAt(a, k, ix, iy, upper, x, lat);
+  const hasLower = cellAt(a, k + 1, ix, iy, lower, x, lat);
+  const bilinear = (c: Float64Array) => (1 - s) * (c[0] + r * (c[1] - c[0])) + s * (c[3] + r * (c[2] - c[3]));
+  if (!hasUpper && !hasLower) return { value: 0, inAtlas: false };
+  const vu = hasUpper ? bilinear(upper) : bilinear(lower);
+  const vl = hasLower ? bilinear(lower) : vu;
+  return { value: vu + tz * (vl - vu), inAtlas: true };
+}
+
+/** True inside the Baltic Sea region of Feistel et al. (2010), from the edges in the atlas file. */
+export function inBaltic(lon: number, lat: number): boolean {
+  const b = loadAtlas().baltic;
+  const rows = b.length / 3;
+  const x = ((lon % 360) + 360) % 360;
+  const first = b[0], last = b[3 * (rows - 1)], step = b[3] - b[0];
+  // The edges are straight between the tabulated latitudes, and half a step beyond the ends.
+  if (!(lat > first - step && lat < last + step)) return false;
+  let i = Math.min(Math.max(Math.floor((lat - first) / step), 0), rows - 2);
+  const w = (lat - b[3 * i]) / step;
+  const west = b[3 * i + 1] + w * (b[3 * (i + 1) + 1] - b[3 * i + 1]);
+  const east = b[3 * i + 2] + w * (b[3 * (i + 1) + 2] - b[3 * i + 2]);
+  return x >= west && x <= east;
+}
+
+/** Absolute Salinity in the Baltic Sea, SA = (35.16504 − 0.087)/35·SP + 0.087 g/kg (Feistel et al. 2010). */
+export function SA_from_SP_Baltic(SP: number): number {
+  return ((SSO - 0.087) / 35) * SP + 0.087;
+}
+
+/** How an Absolute Salinity was obtained. */
+export type SASource = 'atlas' | 'baltic' | 'reference_salinity_fallback';
+
+export interface SADetail {
+  SA: number;
+  source: SASource;
+  /** Why the value is NaN or fell back to SR, in words for the cast's notes; null otherwise. */
+  note: string | null;
+}
+
+/**
+ * Absolute Salinity with its provenance: SA from the atlas, the Baltic formula, or SR where the
+ * atlas has no value (with a note). SP unitless, p dbar, lon °E, lat °N → SA g/kg.
+ */
+export function SA_from_SP_detail(SP: number, p: number, lon: number, lat: number): SADetail {
+  const reason = checkRange({ SP, p, lon, lat });
+  if (reason) return { SA: NaN, source: 'atlas', note: reason };
+  if (inBaltic(lon, lat)) return { SA: SA_from_SP_Baltic(SP), source: 'baltic', note: null };
+  const ratio = SAAR(p, lon, lat);
+  if (!ratio.inAtlas) {
+    return {
+      SA: SR_from_SP(SP),
+      source: 'reference_salinity_fallback',
+      note: `no Absolute Salinity Anomaly Ratio in the atlas at ${lat}°N ${lon}°E: SA = SR (Reference Salinity) used`,
+    };
+  }
+  return { SA: SR_from_SP(SP) * (1 + ratio.value), source: 'atlas', note: null };
+}
+
+/** Absolute Salinity SA_from_SP(SP, p, lon, lat), g/kg: SR·(1 + SAAR), Baltic formula, or SR fallback. */
+export function SA_from_SP(SP: number, p: number, lon: number, lat: number): number {
+  if (checkRange({ SP, p, lon, lat })) return NaN;
+  if (inBaltic(lon, lat)) return SA_from_SP_Baltic(SP);
+  return SR_from_SP(SP) * (1 + SAAR(p, lon, lat).value);
+}
+
+/**
+ * SA_from_SP over a cast's columns (SP, p) at one or many positions (lon, lat as numbers or
+ * columns) → SA g/kg. Allocates only the output.
+ */
+export function SA_from_SP_batch(
+  SP: Float64Array,
+  p: Float64Array,
+  lon: number | Float64Array,
+  lat: number | Float64Array,
+  out?: Float64Array,
+): Float64Array {
+  const n = SP.length;
+  if (p.length !== n) throw new RangeError('SA_from_SP_batch: SP and p differ in length');
+  const o = out ?? new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    o[i] = SA_from_SP(SP[i], p[i], typeof lon === 'number' ? lon : lon[i], typeof lat === 'number' ? lat : lat[i]);
+  }
+  return o;
+}
