@@ -116,7 +116,7 @@ def baltic_edges():
 def main():
     deepest = cell_deepest_levels()
     values = atlas_values(deepest)
-    packed = values.astype("<f4").tobytes()
+    packed = values.astype("<f8").tobytes()
     doc = {
         "source": "Global Absolute Salinity Anomaly Ratio atlas, McDougall, Jackett, Millero, Pawlowicz & Barker (2012), Ocean Science 8, 1123-1134; Baltic branch of Feistel et al. (2010), Ocean Science 6, 91-141",
         "read_from": "TEOS-10 GSW Oceanographic Toolbox, Debian package python3-gsw %s (gsw.SAAR, gsw.SA_from_SP_Baltic)" % gsw.__version__,
@@ -125,7 +125,7 @@ def main():
         "longitudes": {"first": float(LONGS[0]), "step": 4.0, "count": len(LONGS)},
         "latitudes": {"first": float(LATS[0]), "step": 4.0, "count": len(LATS)},
         "pressures": P_LEVELS.tolist(),
-        "layout": "float32 little-endian, index = (level * latitudes.count + lat) * longitudes.count + lon; NaN where the node has no value",
+        "layout": "float64 little-endian, index = (level * latitudes.count + lat) * longitudes.count + lon; NaN where the node has no value",
         "saar_base64": base64.b64encode(packed).decode("ascii"),
         "cell_deepest_level": {
             "meaning": "per 4-degree cell, the index of the deepest level the library reads (-1: no value in the cell); below it the ratio is held constant",

@@ -41,7 +41,7 @@ interface Atlas {
   p: Float64Array;
   nz: number;
   /** SAAR at [level][lat][lon], NaN without a value. */
-  saar: Float32Array;
+  saar: Float64Array;
   /** Deepest level index read in each cell, per [lat cell][lon cell], −1 for a cell without values. */
   deepest: Int32Array;
   baltic: Float64Array; // rows of [lat, west, east]
@@ -60,13 +60,13 @@ function decodeBase64(text: string): Uint8Array {
   return out;
 }
 
-/** Decode the atlas on first use (about 1 MB of base64; nothing is read until a salinity is asked for). */
+/** Decode the atlas on first use (about 2 MB of base64; nothing is read until a salinity is asked for). */
 function loadAtlas(): Atlas {
   if (atlas) return atlas;
   const file = atlasFile as unknown as AtlasFile;
   const bytes = decodeBase64(file.saar_base64);
-  // Copy into an aligned buffer: a Float32Array view needs a 4-byte aligned offset.
-  const saar = new Float32Array(bytes.slice().buffer);
+  // Copy into an aligned buffer: a Float64Array view needs an 8-byte aligned offset.
+  const saar = new Float64Array(bytes.slice().buffer);
   const nx = file.longitudes.count, ny = file.latitudes.count, nz = file.pressures.length;
   if (saar.length !== nx * ny * nz) throw new Error('saar-atlas.json: grid size and data disagree');
   const deepest = Int32Array.from(file.cell_deepest_level.values);
