@@ -42,6 +42,7 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
               element: <CruiseLayout />,
               children: [
                 { index: true, lazy: lazyScreen(() => import('./routes/CruiseDesk')) },
+                { path: 'intake', lazy: lazyScreen(() => import('./routes/Intake')) },
                 { path: 'team', lazy: lazyScreen(() => import('./routes/CruiseTeam')) },
               ],
             },

@@ -16,5 +16,6 @@ export interface CruiseSection {
  */
 export const CRUISE_SECTIONS: readonly CruiseSection[] = [
   { label: 'Desk', path: '' },
+  { label: 'Intake', path: 'intake' },
   { label: 'Team', path: 'team' },
 ];

@@ -1,0 +1,61 @@
+import { Link } from 'react-router-dom';
+import { Button } from '../../../components/Button';
+import { ErrorNotice } from '../../../components/Notice';
+import { useRetryUpload, useUpload } from '../api';
+import { isActive, type Upload } from '../types';
+import { Bar, StatusBadge } from './Bars';
+import { ColumnMappingStep } from './ColumnMappingStep';
+import { FileProblems } from './FileProblems';
+
+/**
+ * What happens to an upload after its bytes arrived: queued, processing (with the job's progress),
+ * then ready with its casts, or failed with its errors by file, line and column, the mapping step
+ * when headers were not recognised, and a retry.
+ */
+export function UploadFollow({ cruiseId, upload: initial, canUpload }: { cruiseId: string; upload: Upload; canUpload: boolean }) {
+  const query = useUpload(cruiseId, initial.id, initial);
+  const retry = useRetryUpload(cruiseId);
+  const upload = query.data ?? initial;
+  const active = isActive(upload.status);
+  const needsMapping = upload.status === 'failed' && (upload.unmappedHeaders?.length ?? 0) > 0;
+
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="grid grid-cols-[6.5rem_1fr_auto] items-center gap-3">
+        <StatusBadge status={upload.status} />
+        {active ? (
+          <Bar
+            label={`Processing ${upload.filename}`}
+            value={upload.status === 'queued' ? 0 : upload.progress}
+            figures={upload.status === 'queued' ? 'waiting for a worker' : `${Math.round(upload.progress * 100)} %`}
+          />
+        ) : upload.status === 'ready' ? (
+          <p className="text-sm text-ink-soft">
+            {upload.castIds.length === 1 ? '1 cast' : `${upload.castIds.length} casts`} stored
+            {upload.duplicate && <span className="ml-2 text-ink-muted">(the same bytes were uploaded before; no new casts)</span>}
+            {upload.castIds.length > 0 && (
+              <>
+                {' · '}
+                <Link to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(upload.castIds[0])}`}>open the first</Link>
+              </>
+            )}
+          </p>
+        ) : (
+          <p className="text-sm text-warn-strong">{needsMapping ? 'Some headers were not recognised.' : 'The file could not be read.'}</p>
+        )}
+        {upload.status === 'failed' && canUpload && !needsMapping && (
+          <Button size="sm" variant="secondary" busy={retry.isPending} onClick={() => retry.mutate(upload.id)} aria-label={`Retry ${upload.filename}`}>
+            Retry
+          </Button>
+        )}
+      </div>
+      {query.isError && <ErrorNotice error={query.error} title="The status could not be read" />}
+      {retry.isError && <ErrorNotice error={retry.error} title="The file was not queued again" />}
+      <FileProblems problems={upload.errors} kind="error" filename={upload.filename} />
+      {upload.status !== 'failed' && <FileProblems problems={upload.warnings} kind="warning" filename={upload.filename} limit={8} />}
+      {needsMapping && canUpload && (
+        <ColumnMappingStep cruiseId={cruiseId} uploadId={upload.id} filename={upload.filename} headers={upload.unmappedHeaders ?? []} />
+      )}
+    </div>
+  );
+}
