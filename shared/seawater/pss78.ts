@@ -85,7 +85,8 @@ function hill_ratio_at_sp2(t68: number): number {
 export function SP_from_C(C: number, t: number, p: number): number {
   if (!(C >= 0 && C <= 100 && t >= -6 && t <= 40 && p >= -5 && p <= 10000)) return NaN;
   const sp = sp_of_C(C, t68_from_t90(t), p);
-  return sp <= 42 ? sp : NaN;
+  // The upper end of PSS-78 with room for rounding, so that SP = 42 survives a round trip via C.
+  return sp <= 42 + 1e-9 ? sp : NaN;
 }
 
 /** PSS-78 with the Hill extension, without the upper limit of SP = 42. */

@@ -66,17 +66,7 @@ describe('TEOS-10 check values v3.0 (source: gsw_cv_v3_0.npz, Debian python3-gsw
     checkCast('pt_from_t', (i, c) => pt_from_t(SA[i][c]!, t[i][c]!, p[i][c]!, pr));
   });
   it('t_from_CT, pt_from_CT, CT_from_pt', () => {
-    checkCast('t_from_CT', (i, c) => t[i][c]! + (t_from_CT(SA[i][c]!, CT[i][c]!, p[i][c]!) - t[i][c]!));
-    // The check file holds t itself as the expected value of t_from_CT.
-    const tBack = grid('t_chck_cast');
-    let worst = 0;
-    for (let i = 0; i < tBack.length; i++) {
-      for (let c = 0; c < 3; c++) {
-        if (SA[i][c] === null) continue;
-        worst = Math.max(worst, Math.abs(t_from_CT(SA[i][c]!, CT[i][c]!, p[i][c]!) - tBack[i][c]!));
-      }
-    }
-    expect(worst).toBeLessThan(num('t_from_CT_ca'));
+    checkCast('t_from_CT', (i, c) => t_from_CT(SA[i][c]!, CT[i][c]!, p[i][c]!));
     checkCast('pt_from_CT', (i, c) => pt_from_CT(SA[i][c]!, CT[i][c]!));
     const ptCT = grid('pt_from_CT');
     checkCast('CT_from_pt', (i, c) => CT_from_pt(SA[i][c]!, ptCT[i][c]!));
