@@ -44,6 +44,8 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
                 { index: true, lazy: lazyScreen(() => import('./routes/CruiseDesk')) },
                 { path: 'intake', lazy: lazyScreen(() => import('./routes/Intake')) },
                 { path: 'team', lazy: lazyScreen(() => import('./routes/CruiseTeam')) },
+                { path: 'section', lazy: lazyScreen(() => import('./routes/Section')) },
+                { path: 'deliveries', lazy: lazyScreen(() => import('./routes/Deliveries')) },
               ],
             },
             { path: 'admin/mail', lazy: lazyScreen(() => import('./routes/AdminMail')) },

@@ -17,5 +17,7 @@ export interface CruiseSection {
 export const CRUISE_SECTIONS: readonly CruiseSection[] = [
   { label: 'Desk', path: '' },
   { label: 'Intake', path: 'intake' },
+  { label: 'Section', path: 'section' },
+  { label: 'Deliveries', path: 'deliveries' },
   { label: 'Team', path: 'team' },
 ];

@@ -1,0 +1,82 @@
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { http } from '../../lib/http';
+import { sectionKeys } from './keys';
+import {
+  derivedVariableListSchema,
+  geostrophySchema,
+  layerSetListSchema,
+  savedViewListSchema,
+  savedViewSchema,
+  sectionSchema,
+  tsSchema,
+} from './types';
+
+const cruisePath = (cruiseId: string) => `/api/cruises/${encodeURIComponent(cruiseId)}`;
+
+export const sectionQuery = (cruiseId: string, query: string) =>
+  queryOptions({
+    queryKey: sectionKeys.grid(cruiseId, query),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/section?${query}`, { schema: sectionSchema, signal }),
+    staleTime: 5 * 60_000,
+  });
+
+/** One frame of the section; the last frame stays on screen while the next is computed. */
+export function useSection(cruiseId: string, query: string) {
+  return useQuery({ ...sectionQuery(cruiseId, query), placeholderData: keepPreviousData });
+}
+
+export function useTsPoints(cruiseId: string, every = 4) {
+  return useQuery({
+    queryKey: sectionKeys.ts(cruiseId, every),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/ts?every=${every}`, { schema: tsSchema, signal }),
+    staleTime: 5 * 60_000,
+  });
+}
+
+export function useGeostrophy(cruiseId: string, query: string) {
+  return useQuery({
+    queryKey: sectionKeys.geostrophy(cruiseId, query),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/geostrophy?${query}`, { schema: geostrophySchema, signal }),
+    staleTime: 5 * 60_000,
+    placeholderData: keepPreviousData,
+  });
+}
+
+export function useLayerSets(cruiseId: string) {
+  return useQuery({
+    queryKey: sectionKeys.layerSets(cruiseId),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/layer-sets`, { schema: layerSetListSchema, signal }),
+  });
+}
+
+export function useDerivedVariables(cruiseId: string) {
+  return useQuery({
+    queryKey: sectionKeys.derivedVariables(cruiseId),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/derived-variables`, { schema: derivedVariableListSchema, signal }),
+  });
+}
+
+export function useSavedViews(cruiseId: string) {
+  return useQuery({
+    queryKey: sectionKeys.views(cruiseId),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/views`, { schema: savedViewListSchema, signal }),
+  });
+}
+
+export function useSaveView(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (view: { name: string; query: string }) =>
+      http(`${cruisePath(cruiseId)}/views`, { method: 'POST', body: view, schema: savedViewSchema }),
+    onSuccess: () => void queryClient.invalidateQueries({ queryKey: sectionKeys.views(cruiseId) }),
+  });
+}
+
+export function useDeleteView(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (viewId: string) =>
+      http(`${cruisePath(cruiseId)}/views/${encodeURIComponent(viewId)}`, { method: 'DELETE' }),
+    onSuccess: () => void queryClient.invalidateQueries({ queryKey: sectionKeys.views(cruiseId) }),
+  });
+}

@@ -1,0 +1,241 @@
+import { useMemo } from 'react';
+import type { Data, Layout, PlotMouseEvent, Shape } from 'plotly.js';
+import {
+  DEPTHS,
+  LazyPlot,
+  PLOT_COLORS,
+  baseLayout,
+  colorBar,
+  densityAxis,
+  plotConfig,
+  pressureAxis,
+  sigmaLabel,
+  toPlotly,
+  valueAxis,
+} from '../../../components/plot';
+import { nearestStation } from '../frame';
+import type { Section } from '../types';
+
+/** The bottom is drawn in a dark neutral, so it reads as "no water" and never as a value. */
+export const BOTTOM_FILL = '#3d3b36';
+
+export interface FrameHover {
+  coord: 'pressure' | 'density';
+  x: number;
+  y: number;
+}
+
+export interface SectionFrameProps {
+  section: Section;
+  coord: 'pressure' | 'density';
+  /** The value label of the colour bar, e.g. "CT (°C)". */
+  valueTitle: string;
+  range: { min: number; max: number } | null;
+  cursorStationId: string | null;
+  height: number;
+  caption: React.ReactNode;
+  onHover: (hover: FrameHover) => void;
+  onPickStation: (stationId: string) => void;
+  onPickInversion: (castId: string) => void;
+}
+
+/** One frame of the section: the field, isopycnals (pressure frame), the bottom, stations and inversion marks. */
+export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion }: SectionFrameProps) {
+  const { data, layout } = useMemo(() => buildFigure(section, coord, valueTitle, range, cursorStationId), [section, coord, valueTitle, range, cursorStationId]);
+  const title = coord === 'pressure' ? 'Section by pressure' : `Section by density (${sigmaLabel(section.choices.ref)})`;
+
+  const handleClick = (event: PlotMouseEvent) => {
+    const point = event.points?.[0];
+    if (!point) return;
+    const castId = (point.customdata as unknown as string | undefined) ?? undefined;
+    if (point.data.name === 'inversions' && typeof castId === 'string') {
+      onPickInversion(castId);
+      return;
+    }
+    const station = nearestStation(section.stations, Number(point.x));
+    if (station) onPickStation(station.id);
+  };
+
+  return (
+    <LazyPlot
+      label={title}
+      height={height}
+      data={data}
+      layout={layout}
+      config={plotConfig()}
+      caption={caption}
+      onHover={(event) => {
+        const point = event.points?.[0];
+        if (point && Number.isFinite(Number(point.x)) && Number.isFinite(Number(point.y))) onHover({ coord, x: Number(point.x), y: Number(point.y) });
+      }}
+      onClick={handleClick}
+    />
+  );
+}
+
+export function buildFigure(
+  section: Section,
+  coord: 'pressure' | 'density',
+  valueTitle: string,
+  range: { min: number; max: number } | null,
+  cursorStationId: string | null,
+): { data: Data[]; layout: Partial<Layout> } {
+  const { grid, stations } = section;
+  const data: Data[] = [];
+  const yMax = Math.max(grid.y[grid.y.length - 1] ?? 0, ...section.bottom.map((b) => b.p));
+  const yMin = grid.y[0] ?? 0;
+
+  data.push({
+    type: 'heatmap',
+    name: 'field',
+    x: grid.x,
+    y: grid.y,
+    z: grid.z as number[][],
+    colorscale: toPlotly(DEPTHS),
+    zmin: range?.min,
+    zmax: range?.max,
+    zauto: !range,
+    hoverinfo: 'none',
+    colorbar: colorBar(valueTitle) as Data['colorbar' & keyof Data],
+    hoverongaps: true,
+  } as Data);
+
+  if (coord === 'pressure') {
+    section.isopycnals.forEach((line) => {
+      const xs = stations.map((s) => s.x);
+      data.push({
+        type: 'scatter',
+        mode: 'lines',
+        name: 'isopycnal',
+        x: xs,
+        y: line.p,
+        line: { color: PLOT_COLORS.inkStrong, width: 0.9 },
+        opacity: 0.75,
+        hoverinfo: 'none',
+        connectgaps: false,
+      });
+    });
+    // Labels at the right end of each isopycnal, where it still has water.
+    const labels = section.isopycnals.flatMap((line) => {
+      for (let i = line.p.length - 1; i >= 0; i--) {
+        const p = line.p[i];
+        if (p !== null && stations[i]) return [{ x: stations[i].x, y: p, text: line.sigma.toFixed(2) }];
+      }
+      return [];
+    });
+    if (labels.length) {
+      data.push({
+        type: 'scatter',
+        mode: 'text',
+        name: 'isopycnal labels',
+        x: labels.map((l) => l.x),
+        y: labels.map((l) => l.y),
+        text: labels.map((l) => l.text),
+        textposition: 'middle left',
+        textfont: { family: '"JetBrains Mono", monospace', size: 9.5, color: PLOT_COLORS.inkStrong },
+        hoverinfo: 'none',
+      });
+    }
+    if (section.bottom.length) {
+      const b = [...section.bottom].sort((a, c) => a.x - c.x);
+      data.push({
+        type: 'scatter',
+        mode: 'lines',
+        name: 'bottom',
+        x: [...b.map((q) => q.x), b[b.length - 1].x, b[0].x],
+        y: [...b.map((q) => q.p), yMax * 1.02, yMax * 1.02],
+        fill: 'toself',
+        fillcolor: BOTTOM_FILL,
+        line: { color: BOTTOM_FILL, width: 1 },
+        hoverinfo: 'none',
+      });
+    }
+  }
+
+  // Inversion warnings: a warm bar over the inverted interval at the cast, a marker on top.
+  const marks = section.inversions
+    .map((v) => ({ v, top: coord === 'pressure' ? v.pTop : v.sigmaTop, bottom: coord === 'pressure' ? v.pBottom : v.sigmaBottom }))
+    .filter((m) => m.top !== null && m.bottom !== null);
+  if (marks.length) {
+    const xs: (number | null)[] = [], ys: (number | null)[] = [], ids: (string | null)[] = [];
+    for (const m of marks) {
+      // Spikes are a few decibars: give the bar a visible length without moving its top.
+      const bottom = Math.max(m.bottom as number, (m.top as number) + (coord === 'pressure' ? (yMax - yMin) * 0.012 : 0.004));
+      xs.push(m.v.x, m.v.x, null);
+      ys.push(m.top, bottom, null);
+      ids.push(m.v.castId, m.v.castId, null);
+    }
+    data.push({
+      type: 'scatter',
+      mode: 'lines',
+      name: 'inversion bars',
+      x: xs,
+      y: ys,
+      line: { color: PLOT_COLORS.warn, width: 5 },
+      hoverinfo: 'none',
+    });
+    data.push({
+      type: 'scatter',
+      mode: 'markers',
+      name: 'inversions',
+      x: marks.map((m) => m.v.x),
+      y: marks.map((m) => m.top as number),
+      customdata: marks.map((m) => m.v.castId) as unknown as Data['customdata' & keyof Data],
+      marker: { symbol: 'triangle-down', size: 10, color: PLOT_COLORS.warn, line: { color: PLOT_COLORS.paper, width: 1 } },
+      hovertemplate: marks.map(
+        (m) =>
+          `Inversion at ${m.v.station}<br>${m.v.pTop.toFixed(0)}–${m.v.pBottom.toFixed(0)} dbar, ${m.v.class}<br>Δσ ${m.v.deficit.toFixed(3)} kg/m³<extra>click to open the cast</extra>`,
+      ),
+    } as Data);
+  }
+
+  // Station names along the top: a second x axis that follows the first.
+  data.push({
+    type: 'scatter',
+    mode: 'markers',
+    name: 'stations',
+    x: stations.map((s) => s.x),
+    y: stations.map(() => yMin),
+    xaxis: 'x2',
+    marker: { size: 1, color: 'rgba(0,0,0,0)' },
+    hoverinfo: 'skip',
+  });
+
+  const cursor = stations.find((s) => s.id === cursorStationId);
+  const shapes: Partial<Shape>[] = [];
+  if (cursor) {
+    shapes.push({
+      type: 'line',
+      xref: 'x',
+      yref: 'paper',
+      x0: cursor.x,
+      x1: cursor.x,
+      y0: 0,
+      y1: 1,
+      line: { color: PLOT_COLORS.inkStrong, width: 1.5, dash: 'dot' },
+    });
+  }
+  const yAxis = coord === 'pressure' ? pressureAxis({ autorange: false, range: [yMax * 1.02, yMin] }) : densityAxis(section.choices.ref, { autorange: 'reversed' });
+  const layout = baseLayout({
+    margin: { l: 60, r: 12, t: 46, b: 40 },
+    xaxis: valueAxis('Distance along the track (km)', { range: [grid.x[0], grid.x[grid.x.length - 1]] }),
+    xaxis2: {
+      overlaying: 'x',
+      side: 'top',
+      matches: 'x',
+      tickmode: 'array',
+      tickvals: stations.map((s) => s.x),
+      ticktext: stations.map((s) => (s.id === cursorStationId ? `<b>${s.station}</b>` : s.station)),
+      tickangle: stations.length > 18 ? -60 : 0,
+      tickfont: { family: '"JetBrains Mono", monospace', size: 9.5, color: PLOT_COLORS.inkSoft },
+      ticks: 'outside',
+      ticklen: 4,
+      tickcolor: PLOT_COLORS.ink,
+      showgrid: false,
+      zeroline: false,
+    } as Partial<Layout['xaxis']>,
+    yaxis: yAxis,
+    shapes,
+  } as Partial<Layout>);
+  return { data, layout };
+}

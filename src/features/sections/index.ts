@@ -1,0 +1,39 @@
+export { sectionKeys } from './keys';
+export {
+  sectionQuery,
+  useSection,
+  useTsPoints,
+  useGeostrophy,
+  useLayerSets,
+  useDerivedVariables,
+  useSavedViews,
+  useSaveView,
+  useDeleteView,
+} from './api';
+export { useSectionView } from './useSectionView';
+export {
+  DEFAULT_VIEW,
+  PARAM,
+  parseViewState,
+  serialiseViewState,
+  sectionQueryString,
+  geostrophyQueryString,
+  sigmaName,
+  INVERSION_HANDLING_TEXT,
+  INTERPOLATION_TEXT,
+} from './viewState';
+export type { SectionViewState } from './viewState';
+export { SECTION_PROPERTIES, propertyLabel } from './properties';
+export { sigmaGrid, tsExtent, contourStep } from './tsGrid';
+export type { SigmaGrid, TsExtent } from './tsGrid';
+export { nearestIndex, sampleGrid, nearestStation, stepStation, gridRange, digitsFor, formatValue } from './frame';
+export { SectionControls } from './components/SectionControls';
+export { SectionFrame } from './components/SectionFrame';
+export type { FrameHover } from './components/SectionFrame';
+export { Readout } from './components/Readout';
+export type { ReadoutValue } from './components/Readout';
+export { InversionList } from './components/InversionList';
+export { SavedViews } from './components/SavedViews';
+export { TsPanel } from './components/TsPanel';
+export { GeostrophyPanel } from './components/GeostrophyPanel';
+export * from './types';

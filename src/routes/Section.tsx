@@ -1,0 +1,247 @@
+import { useCallback, useState, type KeyboardEvent } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { ErrorNotice, Progress } from '../components/Notice';
+import { EmptyState, Panel } from '../components/Panel';
+import { Spinner } from '../components/Button';
+import {
+  GeostrophyPanel,
+  InversionList,
+  Readout,
+  SavedViews,
+  SectionControls,
+  SectionFrame,
+  TsPanel,
+  digitsFor,
+  gridRange,
+  nearestStation,
+  propertyLabel,
+  sampleGrid,
+  sectionQueryString,
+  serialiseViewState,
+  sigmaName,
+  stepStation,
+  useDerivedVariables,
+  useLayerSets,
+  useSection,
+  useSectionView,
+  INTERPOLATION_TEXT,
+  INVERSION_HANDLING_TEXT,
+  type FrameHover,
+  type ReadoutValue,
+  type Section as SectionData,
+} from '../features/sections';
+import { useCurrentCruise } from './CruiseLayout';
+
+/** Who may keep saved views: the analysts and the chief scientist (the server enforces it too). */
+const canSaveViews = (role: string | null | undefined) => role === 'analyst' || role === 'chief_scientist';
+
+export default function Section() {
+  const cruise = useCurrentCruise();
+  const navigate = useNavigate();
+  const [view, setView] = useSectionView();
+  const layerSets = useLayerSets(cruise.id);
+  const derived = useDerivedVariables(cruise.id);
+  const sets = layerSets.data ?? [];
+  const layerSet = sets.find((s) => s.id === view.layerSet) ?? null;
+  const levels = layerSet?.levels ?? null;
+
+  const byPressure = useSection(cruise.id, sectionQueryString(view, 'pressure', levels));
+  const byDensity = useSection(cruise.id, sectionQueryString(view, 'density', levels));
+  const [hover, setHover] = useState<FrameHover | null>(null);
+
+  const { label: propLabel, unit: propUnit } = propertyLabel(view.property, derived.data ?? []);
+  const unit = byPressure.data?.unit ?? propUnit;
+  const densityShowsDepth = view.densityShows === 'depth';
+  // One colour range over both frames, so a colour means one value on either side.
+  const autoRange = gridRange(byPressure.data?.grid, densityShowsDepth ? undefined : byDensity.data?.grid);
+  const range = view.range ?? autoRange;
+  const digits = digitsFor(range ? range.max - range.min : NaN);
+  const stations = byPressure.data?.stations ?? byDensity.data?.stations ?? [];
+  const sigma = sigmaName(view.ref);
+
+  const readout = toReadout(hover, byPressure.data, byDensity.data, stations);
+
+  const step = useCallback(
+    (delta: number) => {
+      const next = stepStation(stations, view.station, delta);
+      if (!next) return;
+      setView({ station: next.id }, { replace: true });
+      // The readout follows the cursor, at the depth (or σ) last pointed at.
+      setHover((h) => {
+        const frame = h?.coord === 'density' ? byDensity.data : byPressure.data;
+        const y = h?.y ?? frame?.grid.y[Math.floor((frame?.grid.y.length ?? 0) / 3)] ?? 0;
+        return { coord: h?.coord ?? 'pressure', x: next.x, y };
+      });
+    },
+    [stations, view.station, setView, byDensity.data, byPressure.data],
+  );
+
+  const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
+    if (e.key === 'ArrowRight' || e.key === 'ArrowLeft') {
+      e.preventDefault();
+      step(e.key === 'ArrowRight' ? 1 : -1);
+    } else if (e.key === 'Home' || e.key === 'End') {
+      e.preventDefault();
+      step(e.key === 'End' ? stations.length : -stations.length);
+    }
+  };
+
+  const openCast = (castId: string) => navigate(`/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(castId)}`);
+  const valueTitle = `${view.property}${unit ? ` (${unit})` : ''}`;
+  const levelsText = layerSet ? `${layerSet.name} (${layerSet.levels})` : `default levels ${byDensity.data?.choices.levels ?? ''}`;
+  const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
+  const frameHeight = 340;
+  const cursor = stations.find((s) => s.id === view.station) ?? null;
+  const inversions = byPressure.data?.inversions ?? [];
+
+  const noCasts = byPressure.isSuccess && byPressure.data.stations.length === 0;
+
+  return (
+    <div className="flex flex-col gap-4">
+      <SectionControls
+        view={view}
+        onChange={(patch) => setView(patch)}
+        layerSets={sets}
+        derived={derived.data ?? []}
+        autoRange={autoRange}
+      />
+      {(layerSets.isError || derived.isError) && (
+        <ErrorNotice error={layerSets.error ?? derived.error} title="The layer sets or derived variables could not be loaded; the defaults are used" />
+      )}
+
+      {noCasts ? (
+        <Panel title="Section">
+          <EmptyState title="No casts yet">The section is drawn from the cruise’s processed casts. Upload cast files on the intake first.</EmptyState>
+        </Panel>
+      ) : (
+        <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_19rem]">
+          <div
+            tabIndex={0}
+            role="application"
+            aria-label={`Section frames. Station cursor: ${cursor ? cursor.station : 'none'}. Use the left and right arrow keys to step between stations, Home and End for the ends.`}
+            onKeyDown={onKeyDown}
+            onMouseLeave={() => undefined}
+            className="grid gap-4 outline-none focus-visible:ring-2 focus-visible:ring-ink/50 min-[1800px]:grid-cols-2"
+          >
+            <FrameBox
+              title="By pressure"
+              query={byPressure}
+              render={(data) => (
+                <SectionFrame
+                  section={data}
+                  coord="pressure"
+                  valueTitle={valueTitle}
+                  range={range}
+                  cursorStationId={view.station}
+                  height={frameHeight}
+                  onHover={setHover}
+                  onPickStation={(id) => setView({ station: id }, { replace: true })}
+                  onPickInversion={openCast}
+                  caption={
+                    <>
+                      {propLabel} on {data.choices.bin} dbar bins. Isopycnals: {sigma} (reference {view.ref} dbar), inversions {handling}. Warm marks: inversions of {sigma}, at the cast, from top to bottom of the inverted interval. Dark fill: the bottom.
+                    </>
+                  }
+                />
+              )}
+            />
+            <FrameBox
+              title={`By density (${sigma})`}
+              query={byDensity}
+              render={(data) => (
+                <SectionFrame
+                  section={data}
+                  coord="density"
+                  valueTitle={densityShowsDepth ? 'Pressure (dbar)' : valueTitle}
+                  range={densityShowsDepth ? null : range}
+                  cursorStationId={view.station}
+                  height={frameHeight}
+                  onHover={setHover}
+                  onPickStation={(id) => setView({ station: id }, { replace: true })}
+                  onPickInversion={openCast}
+                  caption={
+                    <>
+                      {densityShowsDepth ? 'Pressure of the isopycnals' : propLabel} on {sigma} (reference {view.ref} dbar); inversions: {handling}; interpolation: {INTERPOLATION_TEXT[view.interpolation].toLowerCase()}; levels: {levelsText}.
+                    </>
+                  }
+                />
+              )}
+            />
+          </div>
+          <aside className="flex flex-col gap-3" aria-label="Section details">
+            <Readout
+              readout={readout}
+              unit={readout?.coord === 'density' && densityShowsDepth ? 'dbar' : unit}
+              valueName={readout?.coord === 'density' && densityShowsDepth ? 'Pressure' : view.property}
+              sigma={sigma}
+              digits={readout?.coord === 'density' && densityShowsDepth ? 0 : digits}
+            />
+            <InversionList cruiseId={cruise.id} inversions={inversions} sigma={sigma} />
+            <SavedViews cruiseId={cruise.id} query={serialiseViewState(view)} canSave={canSaveViews(cruise.role)} />
+          </aside>
+        </div>
+      )}
+
+      {!noCasts && (
+        <div className="grid gap-4 2xl:grid-cols-2">
+          <TsPanel
+            cruiseId={cruise.id}
+            refPressure={view.ref}
+            colourBy={view.tsColour}
+            selectedCastId={view.station}
+            onColourBy={(tsColour) => setView({ tsColour })}
+            onSelectCast={(castId) => setView({ station: castId }, { replace: true })}
+          />
+          <GeostrophyPanel
+            cruiseId={cruise.id}
+            view={view}
+            levels={levels}
+            layerSetName={layerSet ? layerSet.name : `the default ${sigma} levels`}
+            onReference={(pRef) => setView({ pRef })}
+          />
+        </div>
+      )}
+    </div>
+  );
+}
+
+function FrameBox({
+  title,
+  query,
+  render,
+}: {
+  title: string;
+  query: ReturnType<typeof useSection>;
+  render: (data: SectionData) => React.ReactNode;
+}) {
+  return (
+    <Panel
+      title={title}
+      actions={query.isFetching && query.data ? <span className="flex items-center gap-1.5 text-xs text-ink-muted"><Spinner label={`Recomputing ${title}`} /> recomputing…</span> : null}
+      className="min-w-0"
+    >
+      {query.isPending && <Progress label={`Computing the section ${title.toLowerCase()}…`} />}
+      {query.isError && !query.data && <div className="p-3"><ErrorNotice error={query.error} title={`The section ${title.toLowerCase()} could not be computed`} /></div>}
+      {query.isError && query.data && <div className="p-3"><ErrorNotice error={query.error} title="These choices could not be computed; the last section is shown" /></div>}
+      {query.data && <div className={query.isPlaceholderData ? 'opacity-60 transition-opacity' : ''}>{render(query.data)}</div>}
+    </Panel>
+  );
+}
+
+function toReadout(
+  hover: FrameHover | null,
+  byPressure: SectionData | undefined,
+  byDensity: SectionData | undefined,
+  stations: SectionData['stations'],
+): ReadoutValue | null {
+  if (!hover) return null;
+  const frame = hover.coord === 'pressure' ? byPressure : byDensity;
+  if (!frame) return null;
+  return {
+    coord: hover.coord,
+    x: hover.x,
+    y: hover.y,
+    value: sampleGrid(frame.grid, hover.x, hover.y),
+    station: nearestStation(stations, hover.x)?.station ?? null,
+  };
+}
