@@ -8,6 +8,7 @@ import { createServer, type AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { randomBytes } from 'node:crypto';
+// @ts-ignore s3rver ships no type declarations
 import S3rver from 's3rver';
 import yazl from 'yazl';
 
@@ -113,7 +114,7 @@ export class Session {
     let body: Buffer | string | undefined;
     if (opts.json !== undefined) { body = JSON.stringify(opts.json); headers['content-type'] = 'application/json'; }
     if (opts.body) { body = opts.body; headers['content-type'] = opts.contentType ?? 'application/octet-stream'; }
-    const res = await fetch((opts.base ?? this.base) + path, { method, headers, body, signal: AbortSignal.timeout(30_000) });
+    const res = await fetch((opts.base ?? this.base) + path, { method, headers, body: body as BodyInit | undefined, signal: AbortSignal.timeout(30_000) });
     const set = res.headers.getSetCookie().find((c) => c.startsWith('sigmaline.sid='));
     if (set) this.cookie = set.split(';')[0];
     const text = await res.text();
@@ -220,10 +221,11 @@ export function serviceEnv(s: { DATABASE_URL: string; S3_ENDPOINT: string; S3_BU
 export async function startOwnS3(bucket: string) {
   const port = await freePort();
   const dir = mkdtempSync(join(tmpdir(), 'sl-own-s3-'));
-  let server: S3rver | null = null;
+  let server: { run(): Promise<unknown>; close(): Promise<unknown> } | null = null;
   const start = async () => {
-    server = new S3rver({ address: '127.0.0.1', port, silent: true, directory: dir, configureBuckets: [{ name: bucket, configs: [] }] });
-    await server.run();
+    const s = new S3rver({ address: '127.0.0.1', port, silent: true, directory: dir, configureBuckets: [{ name: bucket, configs: [] }] });
+    await s.run();
+    server = s;
   };
   await start();
   return {
