@@ -12,16 +12,19 @@ import { QUEUES } from './services/queue';
 
 export const DEMO_PASSWORD = 'sigmaline-demo';
 export const DEMO_ACCOUNTS: { email: string; name: string; role: Role | 'admin' }[] = [
-  { email: 'chief@sigmaline.test', name: 'Ilse Marrow (chief scientist)', role: 'chief_scientist' },
-  { email: 'tech@sigmaline.test', name: 'Tomas Quillon (technician)', role: 'technician' },
-  { email: 'analyst@sigmaline.test', name: 'Priya Venn (analyst)', role: 'analyst' },
-  { email: 'pi@sigmaline.test', name: 'Odile Fenwright (principal investigator)', role: 'pi' },
+  { email: 'chief@sigmaline.test', name: 'Demo chief scientist', role: 'chief_scientist' },
+  { email: 'tech@sigmaline.test', name: 'Demo technician', role: 'technician' },
+  { email: 'analyst@sigmaline.test', name: 'Demo analyst', role: 'analyst' },
+  { email: 'pi@sigmaline.test', name: 'Demo principal investigator', role: 'pi' },
   { email: 'admin@sigmaline.test', name: 'Site admin', role: 'admin' },
 ];
 
 const DemoCruise = z.object({
-  cruise: z.object({ name: z.string(), ship: z.string(), startDate: z.string(), endDate: z.string(), portStart: z.string().nullish(), portEnd: z.string().nullish(), region: z.string().nullish(), description: z.string().nullish() }).passthrough(),
-  stations: z.array(z.object({ name: z.string(), latitude: z.number(), longitude: z.number(), plannedDepth: z.number().nullish() }).passthrough()),
+  name: z.string(), ship: z.string(), startDate: z.string(), endDate: z.string(), description: z.string().nullish(),
+  ports: z.object({ departure: z.string().nullish(), arrival: z.string().nullish() }).partial().nullish(),
+  region: z.object({ name: z.string() }).passthrough().nullish(),
+  team: z.array(z.object({ name: z.string(), role: z.string(), email: z.string() })).default([]),
+  plannedStations: z.array(z.object({ station: z.string(), latitude: z.number(), longitude: z.number(), plannedBottomDepth: z.number().nullish() }).passthrough()),
 }).passthrough();
 
 export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
@@ -30,19 +33,20 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
   const root = opts.root ?? process.cwd();
   const deps = await connectServices(settings);
   const hash = await hashPassword(DEMO_PASSWORD);
+  const demo = DemoCruise.parse(JSON.parse(readFileSync(join(root, 'fixtures/demo/cruise.json'), 'utf8')));
   const users: Record<string, User> = {};
   for (const a of DEMO_ACCOUNTS) {
-    const [u] = await User.findOrCreate({ where: { email: a.email }, defaults: { email: a.email, name: a.name, passwordHash: hash, isAdmin: a.role === 'admin' } });
+    const person = demo.team.find((m) => m.email === a.email);
+    const name = person ? person.name : a.name;
+    const [u] = await User.findOrCreate({ where: { email: a.email }, defaults: { email: a.email, name, passwordHash: hash, isAdmin: a.role === 'admin' } });
     users[a.email] = u;
   }
-  const demo = DemoCruise.parse(JSON.parse(readFileSync(join(root, 'fixtures/demo/cruise.json'), 'utf8')));
-  let cruise = await Cruise.findOne({ where: { name: demo.cruise.name } });
+  let cruise = await Cruise.findOne({ where: { name: demo.name } });
   if (!cruise) {
-    const c = demo.cruise;
-    cruise = await Cruise.create({ name: c.name, ship: c.ship, startDate: c.startDate, endDate: c.endDate, portStart: c.portStart ?? null, portEnd: c.portEnd ?? null,
-      region: c.region ?? null, description: c.description ?? null, createdBy: users['chief@sigmaline.test'].id });
+    cruise = await Cruise.create({ name: demo.name, ship: demo.ship, startDate: demo.startDate, endDate: demo.endDate, portStart: demo.ports?.departure ?? null,
+      portEnd: demo.ports?.arrival ?? null, region: demo.region?.name ?? null, description: demo.description ?? null, createdBy: users['chief@sigmaline.test'].id });
     let order = 0;
-    for (const s of demo.stations) await Station.create({ cruiseId: cruise.id, name: s.name, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedDepth ?? null, order: ++order });
+    for (const s of demo.plannedStations) await Station.create({ cruiseId: cruise.id, name: s.station, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedBottomDepth ?? null, order: ++order });
   }
   for (const a of DEMO_ACCOUNTS) {
     if (a.role === 'admin') continue;

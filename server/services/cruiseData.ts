@@ -40,7 +40,8 @@ export async function loadCruiseCasts(cruiseId: string, names?: string[]): Promi
   const casts = await Cast.findAll({ where: { cruiseId }, order: [['time', 'ASC NULLS LAST'], ['station', 'ASC'], ['cast', 'ASC']] });
   const wanted = names ? [...new Set(['pressure', 'SA', 'CT', 'z', ...names, 'flag:temperature', 'flag:salinity', 'flag:conductivity'])] : undefined;
   const cols = await readColumns(casts.map((c) => c.id), wanted);
-  return casts.map((c) => {
+  // A cast row without its profile columns (never written by the ingest, but possible by hand) is left out.
+  return casts.filter((c) => { const k = cols.get(c.id)!.columns; return k.pressure && k.SA && k.CT; }).map((c) => {
     const k = cols.get(c.id)!;
     return { id: c.id, station: c.station, cast: c.cast, latitude: c.latitude, longitude: c.longitude, time: c.time, bottomDepth: c.bottomDepth,
       inversions: c.inversions as Inversion[], columns: k.columns, flags: k.flags, units: k.units };

@@ -20,10 +20,11 @@ export type ProcessedCast = {
 const UNITS: Record<string, string> = { pressure: 'dbar', depth: 'm', temperature: 'degC (ITS-90)', SP: '1 (PSS-78)', conductivity: 'mS/cm', SA: 'g/kg', SR: 'g/kg', CT: 'degC', pt0: 'degC', rho: 'kg/m3',
   sigma0: 'kg/m3', sigma1: 'kg/m3', sigma2: 'kg/m3', sigma3: 'kg/m3', sigma4: 'kg/m3', N2: '1/s2', p_mid: 'dbar', spiciness0: 'kg/m3', z: 'm' };
 
-export function processCast(c: ParsedCast, opts: { inversionThreshold: number }): { ok: true; cast: ProcessedCast } | { ok: false; errors: FileError[] } {
+export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }): { ok: true; cast: ProcessedCast } | { ok: false; errors: FileError[] } {
+  let c = c0;
   const lat = c.metadata.latitude!;
   const lon = c.metadata.longitude!;
-  const n = c.profile.levels;
+  let n = c.profile.levels;
   let p = c.columns.pressure;
   const notes: string[] = [];
   if (!p) {
@@ -31,6 +32,24 @@ export function processCast(c: ParsedCast, opts: { inversionThreshold: number })
     p = new Float64Array(n);
     for (let i = 0; i < n; i++) p[i] = p_from_z(-d[i], lat);
     notes.push('pressure computed from depth with TEOS-10 p_from_z at the cast latitude');
+  }
+  // Pressure reversals (ship heave) are counted by the parser; the profile used downstream keeps
+  // only levels deeper than every level before them, so pressure increases strictly.
+  let keep: number[] | null = null;
+  for (let i = 1, max = p[0]; i < n; i++) {
+    if (!(p[i] > max)) { keep ??= Array.from({ length: i }, (_, k) => k); continue; }
+    max = p[i];
+    keep?.push(i);
+  }
+  if (keep) {
+    const pick = (a: Float64Array) => Float64Array.from(keep!, (k) => a[k]);
+    const pickU8 = (a: Uint8Array) => Uint8Array.from(keep!, (k) => a[k]);
+    notes.push(`${n - keep.length} levels dropped where pressure did not increase (pressure reversals)`);
+    c = { ...c, columns: Object.fromEntries(Object.entries(c.columns).map(([k, v]) => [k, v ? pick(v) : v])) as ParsedCast['columns'],
+      extras: Object.fromEntries(Object.entries(c.extras).map(([k, e]) => [k, { unit: e.unit, values: pick(e.values) }])),
+      flags: Object.fromEntries(Object.entries(c.flags).map(([k, v]) => [k, pickU8(v)])), profile: { ...c.profile, levels: keep.length } };
+    p = pick(p);
+    n = keep.length;
   }
   const f = (a: Float64Array) => a as Float64Array<ArrayBuffer>;
   const input = c.columns.salinity

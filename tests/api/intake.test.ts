@@ -51,7 +51,7 @@ describe('intake', () => {
     expect(done.status, JSON.stringify(done.errors)).toBe('ready');
     expect(done.castIds).toHaveLength(1);
     const cast = (await analyst.agent.get(`/api/casts/${done.castIds[0]}`)).body;
-    expect(cast.station).toBe('12');
+    expect(cast.station).toBe(/# station: (.+)/.exec(readFileSync(sample('plain.csv'), 'utf8'))![1].trim());
     for (const k of ['pressure', 'temperature', 'SP', 'SA', 'CT', 'sigma0', 'sigma2']) expect(cast.columns[k]?.length, k).toBe(cast.levels);
     // common practice: open-ocean surface σ0 lies roughly between 20 and 27 kg/m³
     expect(cast.columns.sigma0[0]).toBeGreaterThan(20);

@@ -4,7 +4,7 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import request from 'supertest';
 import { makeTestApp, createUser, addMember, agentFor, type TestApp } from './helpers';
-import { Cast, Cruise, Upload } from '../../server/models/index';
+import { Cast, Cruise, Delivery, Upload } from '../../server/models/index';
 import { ROLES, type Role } from '../../server/models/index';
 import type { RouteSpec } from '../../server/lib/routeTable';
 
@@ -32,11 +32,13 @@ beforeAll(async () => {
   const cast = await Cast.create({ cruiseId: cruise.id, uploadId: up.id, station: 'M1', cast: '1', latitude: 0, longitude: 0, time: null, bottomDepth: null, levels: 0,
     inversionCount: 0, inversions: [], sourceFile: 'x.csv', sourceSha256: 'f'.repeat(64) });
   ids.cast = cast.id;
+  const d = await Delivery.create({ cruiseId: cruise.id, kind: 'pressure', params: {}, formats: ['csv'], error: null, releasedAt: null, releasedBy: null, createdBy: chief.id, status: 'queued' });
+  ids.delivery = d.id;
 }, 120_000);
 afterAll(async () => { await t?.close(); });
 
 function urlFor(r: RouteSpec) {
-  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : ids.cruise;
+  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ids.delivery : ids.cruise;
   return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId|varId|viewId|deliveryId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
 }
 async function call(who: string, r: RouteSpec) {
@@ -84,8 +86,10 @@ describe('role × route matrix', () => {
       if (out.status !== 404) failures.push(`${label}: non-member got ${out.status}, expected 404`);
       const adm = await call('admin', r);
       if (adm.status !== 404) failures.push(`${label}: site admin who is not a member got ${adm.status}, expected 404`);
-      for (const role of ROLES) {
-        const allowed = r.rule.roles === 'any' || (r.rule.roles as Role[]).includes(role);
+      // Roles without the right first: an allowed DELETE would remove the entity the others are tried on.
+      const isAllowed = (role: Role) => r.rule.kind === 'member' && (r.rule.roles === 'any' || (r.rule.roles as Role[]).includes(role));
+      for (const role of [...ROLES].sort((a, b) => Number(isAllowed(a)) - Number(isAllowed(b)))) {
+        const allowed = isAllowed(role);
         const res = await call(role, r);
         if (allowed && guarded(res)) failures.push(`${label}: ${role} refused (${res.status} ${res.body?.error?.code})`);
         if (!allowed && res.status !== 403) failures.push(`${label}: ${role} got ${res.status}, expected 403`);
