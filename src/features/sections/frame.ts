@@ -50,7 +50,7 @@ export function gridRange(...grids: (Section['grid'] | undefined)[]): { min: num
 /** Digits worth showing for a value of a span (a σ anomaly of 27.413 vs a pressure of 1250). */
 export function digitsFor(span: number): number {
   if (!Number.isFinite(span) || span <= 0) return 3;
-  return Math.max(0, Math.min(5, 2 - Math.floor(Math.log10(span))));
+  return Math.max(0, Math.min(5, 3 - Math.floor(Math.log10(span))));
 }
 
 export function formatValue(v: number | null | undefined, digits: number): string {

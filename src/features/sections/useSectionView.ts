@@ -1,4 +1,4 @@
-import { useCallback, useMemo } from 'react';
+import { useCallback, useMemo, useRef } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { parseViewState, serialiseViewState, type SectionViewState } from './viewState';
 
@@ -11,12 +11,21 @@ export function useSectionView(): [SectionViewState, (patch: Partial<SectionView
   const [params, setParams] = useSearchParams();
   const search = params.toString();
   const state = useMemo(() => parseViewState(search), [search]);
+  // Two changes in one event (or before the router re-renders) must build on each other, not on
+  // the query of the last render: keep the newest query here.
+  // A render with the old query (the router navigates asynchronously) must not undo that; a new
+  // query from the router (back, forward, a link) replaces it.
+  const latest = useRef(search);
+  const rendered = useRef(search);
+  if (rendered.current !== search) {
+    rendered.current = search;
+    latest.current = search;
+  }
   const update = useCallback(
     (patch: Partial<SectionViewState>, options: { replace?: boolean } = {}) => {
-      setParams(
-        (current) => new URLSearchParams(serialiseViewState({ ...parseViewState(current), ...patch })),
-        { replace: options.replace ?? false },
-      );
+      const next = serialiseViewState({ ...parseViewState(latest.current), ...patch });
+      latest.current = next;
+      setParams(new URLSearchParams(next), { replace: options.replace ?? false });
     },
     [setParams],
   );
