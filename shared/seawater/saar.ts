@@ -17,7 +17,7 @@
 // Units: SP unitless, p in dbar, lon in °E (any turn), lat in °N; SR and SA in g/kg.
 
 import atlasFile from './data/saar-atlas.json';
-import { checkRange } from './ranges';
+import { LAT_RANGE, LON_RANGE, P_RANGE, SP_RANGE, checkRange } from './ranges';
 
 const SSO = 35.16504;
 const uPS = SSO / 35;
@@ -148,6 +148,41 @@ export interface SAARValue {
   inAtlas: boolean;
 }
 
+/** The atlas interpolation proper: SAAR at (p, lon in 0–360 °E, lat), NaN where the atlas is silent. */
+function saarAt(a: Atlas, p: number, x: number, lat: number): number {
+  if (!(lat >= a.lat0 && lat <= a.lat0 + a.dlat * (a.ny - 1))) return NaN;
+  let ix = Math.floor((x - a.lon0) / a.dlon);
+  let iy = Math.floor((lat - a.lat0) / a.dlat);
+  if (ix >= a.nx - 1) ix = a.nx - 2;
+  if (iy >= a.ny - 1) iy = a.ny - 2;
+  const kMax = a.deepest[iy * (a.nx - 1) + ix];
+  if (kMax < 0) return NaN;
+  // Below the deepest level of the cell the ratio is held at its value there.
+  const levels = a.p;
+  const pc = p < levels[0] ? levels[0] : p > levels[kMax] ? levels[kMax] : p;
+  // The level pair that brackets pc, by bisection.
+  let lo = 0, hi = a.nz - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (pc > levels[mid]) lo = mid;
+    else hi = mid;
+  }
+  const k = lo;
+  const r = (x - (a.lon0 + ix * a.dlon)) / a.dlon;
+  const s = (lat - (a.lat0 + iy * a.dlat)) / a.dlat;
+  const tz = (pc - levels[k]) / (levels[k + 1] - levels[k]);
+  const hasUpper = cellAt(a, k, ix, iy, upper, x, lat);
+  const hasLower = cellAt(a, k + 1, ix, iy, lower, x, lat);
+  if (!hasUpper && !hasLower) return NaN;
+  const vu = hasUpper
+    ? (1 - s) * (upper[0] + r * (upper[1] - upper[0])) + s * (upper[3] + r * (upper[2] - upper[3]))
+    : NaN;
+  const vl = hasLower
+    ? (1 - s) * (lower[0] + r * (lower[1] - lower[0])) + s * (lower[3] + r * (lower[2] - lower[3]))
+    : vu;
+  return hasUpper ? vu + tz * (vl - vu) : vl;
+}
+
 /**
  * Absolute Salinity Anomaly Ratio SAAR(p, lon, lat), unitless, from the McDougall et al. (2012)
  * atlas; { value: 0, inAtlas: false } where the atlas has no value (land, south of 86° S).
@@ -155,36 +190,17 @@ export interface SAARValue {
  */
 export function SAAR(p: number, lon: number, lat: number): SAARValue {
   if (!(Number.isFinite(p) && Number.isFinite(lon) && Number.isFinite(lat))) return { value: NaN, inAtlas: false };
-  const a = loadAtlas();
-  const x = ((lon % 360) + 360) % 360;
-  if (lat < a.lat0 || lat > a.lat0 + a.dlat * (a.ny - 1)) return { value: 0, inAtlas: false };
-  let ix = Math.floor((x - a.lon0) / a.dlon);
-  let iy = Math.floor((lat - a.lat0) / a.dlat);
-  if (ix >= a.nx - 1) ix = a.nx - 2;
-  if (iy >= a.ny - 1) iy = a.ny - 2;
-  const kMax = a.deepest[iy * (a.nx - 1) + ix];
-  if (kMax < 0) return { value: 0, inAtlas: false };
-  // Below the deepest level of the cell the ratio is held at its value there.
-  const pc = Math.min(Math.max(p, a.p[0]), a.p[kMax]);
-  let k = 0;
-  while (k < a.nz - 2 && pc > a.p[k + 1]) k++;
-  const r = (x - (a.lon0 + ix * a.dlon)) / a.dlon;
-  const s = (lat - (a.lat0 + iy * a.dlat)) / a.dlat;
-  const tz = (pc - a.p[k]) / (a.p[k + 1] - a.p[k]);
-  const hasUpper = cellAt(a, k, ix, iy, upper, x, lat);
-  const hasLower = cellAt(a, k + 1, ix, iy, lower, x, lat);
-  const bilinear = (c: Float64Array) => (1 - s) * (c[0] + r * (c[1] - c[0])) + s * (c[3] + r * (c[2] - c[3]));
-  if (!hasUpper && !hasLower) return { value: 0, inAtlas: false };
-  const vu = hasUpper ? bilinear(upper) : bilinear(lower);
-  const vl = hasLower ? bilinear(lower) : vu;
-  return { value: vu + tz * (vl - vu), inAtlas: true };
+  const v = saarAt(loadAtlas(), p, ((lon % 360) + 360) % 360, lat);
+  return Number.isNaN(v) ? { value: 0, inAtlas: false } : { value: v, inAtlas: true };
 }
 
 /** True inside the Baltic Sea region of Feistel et al. (2010), from the edges in the atlas file. */
 export function inBaltic(lon: number, lat: number): boolean {
-  const b = loadAtlas().baltic;
+  return balticAt(loadAtlas().baltic, ((lon % 360) + 360) % 360, lat);
+}
+
+function balticAt(b: Float64Array, x: number, lat: number): boolean {
   const rows = b.length / 3;
-  const x = ((lon % 360) + 360) % 360;
   const first = b[0], last = b[3 * (rows - 1)], step = b[3] - b[0];
   // The edges are straight between the tabulated latitudes, and half a step beyond the ends.
   if (!(lat > first - step && lat < last + step)) return false;
@@ -231,9 +247,14 @@ export function SA_from_SP_detail(SP: number, p: number, lon: number, lat: numbe
 
 /** Absolute Salinity SA_from_SP(SP, p, lon, lat), g/kg: SR·(1 + SAAR), Baltic formula, or SR fallback. */
 export function SA_from_SP(SP: number, p: number, lon: number, lat: number): number {
-  if (checkRange({ SP, p, lon, lat })) return NaN;
-  if (inBaltic(lon, lat)) return SA_from_SP_Baltic(SP);
-  return SR_from_SP(SP) * (1 + SAAR(p, lon, lat).value);
+  // The range test of `checkRange`, written out: this runs once per level of every cast.
+  if (!(SP >= SP_RANGE[0] && SP <= SP_RANGE[1] && p >= P_RANGE[0] && p <= P_RANGE[1] &&
+    lon >= LON_RANGE[0] && lon <= LON_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1])) return NaN;
+  const a = atlas ?? loadAtlas();
+  const x = lon < 0 ? lon + 360 : lon >= 360 ? lon - 360 : lon;
+  if (balticAt(a.baltic, x, lat)) return SA_from_SP_Baltic(SP);
+  const ratio = saarAt(a, p, x, lat);
+  return uPS * SP * (Number.isNaN(ratio) ? 1 : 1 + ratio);
 }
 
 /**

@@ -1,0 +1,106 @@
+// Benchmark of the thermodynamic seawater batch functions against the TEOS-10 reference library
+// (source: Debian python3-gsw 3.6.16, run by /usr/bin/python3 in the same run, on the same points).
+// The reference time is measured inside Python around the gsw call alone, so neither process
+// start-up nor the transfer of the points counts for either side. Each side's time is the best
+// of three runs after a warm-up, and the two sides take turns for three rounds (the best round
+// counts), so that load from other work on the machine falls on both alike.
+
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { CT_from_t_batch } from '../../shared/seawater/conversions';
+import { SA_from_SP_batch } from '../../shared/seawater/saar';
+
+export interface BenchRow {
+  name: string;
+  oursMs: number;
+  refMs: number;
+}
+
+const PYTHON = `
+import json, sys, time
+import numpy as np
+import gsw
+d = sys.argv[1]
+SP, t, p, lon, lat = (np.fromfile(f"{d}/{k}.f64") for k in ("SP", "t", "p", "lon", "lat"))
+SA = np.fromfile(f"{d}/SA.f64")
+def best(fn):
+    fn()
+    times = []
+    for _ in range(3):
+        t0 = time.perf_counter(); fn(); times.append(time.perf_counter() - t0)
+    return 1000 * min(times)
+print(json.dumps({
+    "SA_from_SP": best(lambda: gsw.SA_from_SP(SP, p, lon, lat)),
+    "CT_from_t": best(lambda: gsw.CT_from_t(SA, t, p)),
+}))
+`;
+
+/** Random ocean points from a fixed seed (a linear congruential generator, reproducible). */
+export function randomOceanPoints(n: number, seed = 20261201) {
+  let s = seed >>> 0;
+  const next = () => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s / 4294967296;
+  };
+  const SP = new Float64Array(n), t = new Float64Array(n), p = new Float64Array(n);
+  const lon = new Float64Array(n), lat = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    SP[i] = 2 + 40 * next();
+    t[i] = -2 + 37 * next();
+    p[i] = 6500 * next();
+    // Open-ocean boxes of the North Atlantic and the South Pacific, away from land.
+    const atlantic = next() < 0.5;
+    lon[i] = atlantic ? -50 + 25 * next() : -150 + 50 * next();
+    lat[i] = atlantic ? 20 + 25 * next() : -50 + 40 * next();
+  }
+  return { SP, t, p, lon, lat };
+}
+
+function bestOf3(fn: () => void): number {
+  fn();
+  let best = Infinity;
+  for (let r = 0; r < 3; r++) {
+    const t0 = performance.now();
+    fn();
+    best = Math.min(best, performance.now() - t0);
+  }
+  return best;
+}
+
+/** Time SA_from_SP_batch and CT_from_t_batch over n random ocean points, ours and python3-gsw's. */
+export function benchThermo(n: number, rounds = 3): BenchRow[] {
+  const { SP, t, p, lon, lat } = randomOceanPoints(n);
+  const SA = SA_from_SP_batch(SP, p, lon, lat);
+  const outSA = new Float64Array(n);
+  const outCT = new Float64Array(n);
+  const dir = mkdtempSync(join(tmpdir(), 'sigmaline-bench-'));
+  try {
+    for (const [name, column] of Object.entries({ SP, t, p, lon, lat, SA })) {
+      writeFileSync(join(dir, `${name}.f64`), new Uint8Array(column.buffer, column.byteOffset, column.byteLength));
+    }
+    const best = { oursSA: Infinity, oursCT: Infinity, refSA: Infinity, refCT: Infinity };
+    for (let r = 0; r < rounds; r++) {
+      best.oursSA = Math.min(best.oursSA, bestOf3(() => SA_from_SP_batch(SP, p, lon, lat, outSA)));
+      best.oursCT = Math.min(best.oursCT, bestOf3(() => CT_from_t_batch(SA, t, p, outCT)));
+      const ref = JSON.parse(execFileSync('/usr/bin/python3', ['-c', PYTHON, dir], { encoding: 'utf8' })) as Record<string, number>;
+      best.refSA = Math.min(best.refSA, ref.SA_from_SP);
+      best.refCT = Math.min(best.refCT, ref.CT_from_t);
+    }
+    return [
+      { name: 'SA_from_SP', oursMs: best.oursSA, refMs: best.refSA },
+      { name: 'CT_from_t', oursMs: best.oursCT, refMs: best.refCT },
+    ];
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+// Run directly: npx tsx tests/bench/seawater-thermo.ts [n]
+if (import.meta.url === `file://${process.argv[1]}`) {
+  const n = Number(process.argv[2] ?? 1_000_000);
+  for (const row of benchThermo(n)) {
+    console.log(`${row.name.padEnd(12)} ours ${row.oursMs.toFixed(1)} ms  gsw ${row.refMs.toFixed(1)} ms  ratio ${(row.oursMs / row.refMs).toFixed(2)}`);
+  }
+}
