@@ -35,8 +35,7 @@ function pt0Guess(SA: number, t: number, p: number): number {
   return t - drop;
 }
 
-// The polynomial in y and its derivatives, written out here rather than imported so that the
-// Newton loops below stay in one module, where the JavaScript engine inlines them.
+// The collapsed polynomial in y and its first two derivatives.
 
 /** g = Σ a_j y^j, J/kg. */
 function gAt(a: Float64Array, y: number): number {

@@ -85,7 +85,7 @@ const SALINE: ReadonlyArray<readonly [number, number, number, number]> = [
 export const Y_DEGREE = 7;
 
 // The tables in flat typed arrays, the terms without pressure (k = 0) first, so that at the sea
-// surface, where every potential temperature and CT is evaluated, `collapse` reads only those.
+// surface, where every potential temperature and CT is evaluated, `collapseFromTables` reads only those.
 const byK = <T extends readonly number[]>(k: (r: T) => number) => (r: T, s: T) => k(r) - k(s);
 const WATER = [...PURE_WATER].sort(byK((r) => r[1]));
 const SALT = [...SALINE].sort(byK((r) => r[2]));
@@ -129,9 +129,9 @@ export function collapseFromTables(SA: number, p: number, a: Float64Array): void
 }
 
 /**
- * As `collapseFromTables`: a_j = Σ_k z^k (g_jk + g_1jk x² ln x + x² Σ_{i≥2} g_ijk x^(i−2)),
- * the coefficients of the two tables written out in Horner form in x and z (the conversions
- * call this once or twice per point, so it is the hot path of CT_from_t).
+ * As `collapseFromTables`: a_j = Σ_k z^k (g_jk + g_1jk x² ln x + Σ_{i≥2} g_ijk x^i), with the
+ * coefficients of the two tables written out (Horner form in x at the surface, sums of powers
+ * at depth). The conversions call this once or twice per point: it is the hot path of CT_from_t.
  */
 export function collapse(SA: number, p: number, a: Float64Array): void {
   const x2 = sfac * SA;
