@@ -20,6 +20,17 @@ import { extraRouteFactories } from './routes/registry';
 export { VERSION } from './version';
 import { VERSION } from './version';
 
+/** True for errors that mean PostgreSQL could not be reached (down, restarting, connection cut),
+ * whether they come from Sequelize, pg-boss or the session store's pg pool. */
+export function databaseUnreachable(err: unknown): boolean {
+  for (let e = err as { name?: string; code?: string; message?: string; parent?: unknown; original?: unknown } | undefined, depth = 0; e && depth < 4; e = (e.parent ?? e.original) as typeof e, depth++) {
+    if (/^Sequelize(Connection\w*|HostNotReachable|HostNotFound|AccessDenied)Error$|^ConnectionAcquireTimeoutError$/.test(e.name ?? '')) return true;
+    if (['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08001', '08003', '08006'].includes(e.code ?? '')) return true;
+    if (/Connection terminated|connection to the server|the database system is (starting up|shutting down)/i.test(e.message ?? '')) return true;
+  }
+  return false;
+}
+
 export type App = express.Express & { routes: RouteSpec[]; close: () => Promise<void> };
 
 export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App {
@@ -95,6 +106,11 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
     if (e.type === 'entity.too.large') { res.status(413).json(errorBody('too_large', 'The request body is too large.')); return; }
     if (e.code === 'LIMIT_FILE_SIZE') { res.status(413).json(errorBody('too_large', `A file is larger than the limit of ${Math.round(settings.UPLOAD_MAX_BYTES / 1048576)} MB.`)); return; }
     if (typeof e.code === 'string' && e.code.startsWith('LIMIT_')) { res.status(400).json(errorBody('bad_upload', e.message ?? 'Bad upload.')); return; }
+    if (databaseUnreachable(err)) {
+      logger.warn({ err, url: req.url }, 'database unreachable');
+      res.status(503).json(errorBody('db_unavailable', 'The database is not reachable right now; nothing was changed. Try again shortly.'));
+      return;
+    }
     logger.error({ err, url: req.url }, 'unhandled error');
     res.status(500).json(errorBody('internal', 'Something went wrong on the server; it has been logged.'));
   };

@@ -17,7 +17,11 @@ export async function createQueue(databaseUrl: string, opts: { max?: number; exp
   boss.on('error', () => { /* reported through health and job state; pg-boss reconnects by itself */ });
   await boss.start();
   for (const name of Object.values(QUEUES)) {
-    await boss.createQueue(name, { name, retryLimit: 3, retryDelay: 2, retryBackoff: false, expireInSeconds: opts.expireInSeconds ?? 300 });
+    const policy = { name, retryLimit: 3, retryDelay: 2, retryBackoff: false, expireInSeconds: opts.expireInSeconds ?? 300 };
+    await boss.createQueue(name, policy);
+    // createQueue does nothing when the queue exists, so apply the settings to an existing queue too
+    // (otherwise a changed JOB_EXPIRE_SECONDS would never take effect after the first start).
+    await boss.updateQueue(name, policy);
   }
   return {
     boss,

@@ -16,6 +16,8 @@ const N = 50;
 
 beforeAll(async () => {
   // The in-process app creates the database, runs the migrations and installs the queue schema.
+  process.env.JOB_EXPIRE_SECONDS = '120';
+  process.env.QUEUE_MAINTENANCE_SECONDS = '1';
   t = await makeTestApp();
   const chief = await createUser('so-chief@example.test');
   const c = await Cruise.create({ name: 'Scale-out', ship: 'RV Scale', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
@@ -31,7 +33,7 @@ beforeAll(async () => {
     webs.push({ child: spawnChild(`web${i}`, 'server/index.ts', { ...env, PORT: String(port), PUBLIC_URL: `http://127.0.0.1:${port}` }), url: `http://127.0.0.1:${port}` });
   }
   for (const i of [1, 2]) workers.push(spawnChild(`worker${i}`, 'server/jobs/worker.ts', { ...env, WORKER_CONCURRENCY: '2' }));
-  await Promise.all([...webs.map((w) => waitHttp(`${w.url}/api/health`, 90_000, w.child)), ...workers.map((w) => w.waitForLog(/ingest worker started/, 90_000))]);
+  await Promise.all([...webs.map((w) => waitHttp(`${w.url}/api/health`, 90_000, w.child)), ...workers.map((w) => w.waitForLog(/ingest.*workers? started/, 90_000))]);
 }, 150_000);
 
 afterAll(async () => {
