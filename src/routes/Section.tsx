@@ -1,4 +1,4 @@
-import { useCallback, useState, type KeyboardEvent } from 'react';
+import { useCallback, useEffect, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { ErrorNotice, Progress } from '../components/Notice';
 import { EmptyState, Panel } from '../components/Panel';
@@ -38,7 +38,7 @@ const canSaveViews = (role: string | null | undefined) => role === 'analyst' || 
 export default function Section() {
   const cruise = useCurrentCruise();
   const navigate = useNavigate();
-  const [view, setView] = useSectionView();
+  const [view, setView, currentView] = useSectionView();
   const layerSets = useLayerSets(cruise.id);
   const derived = useDerivedVariables(cruise.id);
   const sets = layerSets.data ?? [];
@@ -63,7 +63,7 @@ export default function Section() {
 
   const step = useCallback(
     (delta: number) => {
-      const next = stepStation(stations, view.station, delta);
+      const next = stepStation(stations, currentView().station, delta);
       if (!next) return;
       setView({ station: next.id }, { replace: true });
       // The readout follows the cursor, at the depth (or σ) last pointed at.
@@ -73,7 +73,7 @@ export default function Section() {
         return { coord: h?.coord ?? 'pressure', x: next.x, y };
       });
     },
-    [stations, view.station, setView, byDensity.data, byPressure.data],
+    [stations, currentView, setView, byDensity.data, byPressure.data],
   );
 
   const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
@@ -90,7 +90,7 @@ export default function Section() {
   const valueTitle = `${view.property}${unit ? ` (${unit})` : ''}`;
   const levelsText = layerSet ? `${layerSet.name} (${layerSet.levels})` : `default levels ${byDensity.data?.choices.levels ?? ''}`;
   const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
-  const frameHeight = 340;
+  const frameHeight = useFrameHeight();
   const cursor = stations.find((s) => s.id === view.station) ?? null;
   const inversions = byPressure.data?.inversions ?? [];
 
@@ -114,13 +114,12 @@ export default function Section() {
           <EmptyState title="No casts yet">The section is drawn from the cruise’s processed casts. Upload cast files on the intake first.</EmptyState>
         </Panel>
       ) : (
-        <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_19rem]">
+        <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_20rem]">
           <div
             tabIndex={0}
             role="application"
             aria-label={`Section frames. Station cursor: ${cursor ? cursor.station : 'none'}. Use the left and right arrow keys to step between stations, Home and End for the ends.`}
             onKeyDown={onKeyDown}
-            onMouseLeave={() => undefined}
             className="grid gap-4 outline-none focus-visible:ring-2 focus-visible:ring-ink/50 min-[1800px]:grid-cols-2"
           >
             <FrameBox
@@ -244,4 +243,16 @@ function toReadout(
     value: sampleGrid(frame.grid, hover.x, hover.y),
     station: nearestStation(stations, hover.x)?.station ?? null,
   };
+}
+
+/** Taller frames where they stand side by side on a wide screen; two stacked frames fit 1280×800. */
+function useFrameHeight(): number {
+  const pick = () => (typeof window !== 'undefined' && window.innerWidth >= 1800 ? Math.min(460, Math.max(340, Math.round(window.innerHeight * 0.42))) : 330);
+  const [height, setHeight] = useState(pick);
+  useEffect(() => {
+    const onResize = () => setHeight(pick());
+    window.addEventListener('resize', onResize);
+    return () => window.removeEventListener('resize', onResize);
+  }, []);
+  return height;
 }

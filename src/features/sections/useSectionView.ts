@@ -7,7 +7,12 @@ import { parseViewState, serialiseViewState, type SectionViewState } from './vie
  * entry (back undoes it) except where `replace` is asked for — stepping the station cursor,
  * which would otherwise fill the history with every key press.
  */
-export function useSectionView(): [SectionViewState, (patch: Partial<SectionViewState>, options?: { replace?: boolean }) => void] {
+export function useSectionView(): [
+  SectionViewState,
+  (patch: Partial<SectionViewState>, options?: { replace?: boolean }) => void,
+  /** The newest state, including changes the router has not rendered yet (for fast key repeats). */
+  () => SectionViewState,
+] {
   const [params, setParams] = useSearchParams();
   const search = params.toString();
   const state = useMemo(() => parseViewState(search), [search]);
@@ -29,5 +34,6 @@ export function useSectionView(): [SectionViewState, (patch: Partial<SectionView
     },
     [setParams],
   );
-  return [state, update];
+  const current = useCallback(() => parseViewState(latest.current), []);
+  return [state, update, current];
 }

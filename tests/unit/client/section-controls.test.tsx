@@ -207,6 +207,16 @@ describe('Section cursor, readout, warnings and saved views', () => {
     await waitFor(() => expect(q().get('stn')).toBe('c2'));
   });
 
+  it('counts every press of a fast key repeat, before the router has caught up', async () => {
+    const { q } = await renderSection();
+    const frames = screen.getByRole('application');
+    fireEvent.keyDown(frames, { key: 'ArrowRight' });
+    fireEvent.keyDown(frames, { key: 'ArrowRight' });
+    fireEvent.keyDown(frames, { key: 'ArrowRight' });
+    await waitFor(() => expect(q().get('stn')).toBe('c3'));
+    expect(within(screen.getByRole('region', { name: 'Readout' })).getByText('MD-03')).toBeTruthy();
+  });
+
   it('reads out the value under the pointer with its units and the nearest station', async () => {
     await renderSection();
     fireEvent.click(screen.getByRole('button', { name: 'hover Section by pressure' }));

@@ -16,23 +16,32 @@ export function InversionList({ cruiseId, inversions, sigma }: { cruiseId: strin
       {inversions.length === 0 ? (
         <p className="px-3 py-2 text-xs text-ink-muted">No inversion above the threshold in this section.</p>
       ) : (
-        <ul className="max-h-64 overflow-y-auto text-sm">
-          {inversions.map((v, i) => (
-            <li key={`${v.castId}-${v.pTop}-${i}`} className="border-b border-paper-rule/60 last:border-b-0">
-              <Link
-                to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(v.castId)}`}
-                className="flex items-baseline gap-2 px-3 py-1 no-underline hover:bg-warn-wash/50"
-                aria-label={`Open cast of station ${v.station}: inversion ${v.pTop.toFixed(0)} to ${v.pBottom.toFixed(0)} dbar`}
-              >
-                <span aria-hidden className="text-warn">▼</span>
-                <span className="w-14 font-mono text-ink-strong">{v.station}</span>
-                <Num className="text-ink-soft">{v.pTop.toFixed(0)}–{v.pBottom.toFixed(0)} dbar</Num>
-                <span className="text-xs text-ink-muted">{v.class}</span>
-                <Num className="ml-auto text-ink-soft">Δσ {v.deficit.toFixed(3)}</Num>
-              </Link>
-            </li>
-          ))}
-        </ul>
+        <>
+        <table className="w-full text-sm">
+          <thead className="sr-only">
+            <tr><th scope="col">Station</th><th scope="col">Interval (dbar)</th><th scope="col">Class</th><th scope="col">Deficit (kg/m³)</th></tr>
+          </thead>
+          <tbody className="block max-h-64 overflow-y-auto">
+            {inversions.map((v, i) => (
+              <tr key={`${v.castId}-${v.pTop}-${i}`} className="grid grid-cols-[4.5rem_1fr_3.8rem_3.2rem] items-baseline gap-x-1.5 border-b border-paper-rule/60 px-3 py-1 last:border-b-0 hover:bg-warn-wash/50">
+                <td>
+                  <Link
+                    to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(v.castId)}`}
+                    className="font-mono text-ink-strong"
+                    aria-label={`Open cast of station ${v.station}: inversion ${v.pTop.toFixed(0)} to ${v.pBottom.toFixed(0)} dbar`}
+                  >
+                    <span aria-hidden className="mr-1 text-warn no-underline">▼</span>{v.station}
+                  </Link>
+                </td>
+                <td><Num className="text-ink-soft">{v.pTop.toFixed(0)}–{v.pBottom.toFixed(0)}</Num></td>
+                <td className="text-xs text-ink-muted">{v.class}</td>
+                <td className="text-right"><Num className="text-ink-soft">{v.deficit.toFixed(3)}</Num></td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <p className="border-t border-paper-rule px-3 py-1 text-2xs text-ink-muted">Interval in dbar; deficit Δσ in kg/m³. Open a station for its cast sheet.</p>
+        </>
       )}
     </section>
   );

@@ -24,7 +24,7 @@ export function SectionControls({ view, onChange, layerSets, derived, autoRange 
     <div role="group" aria-label="Section controls" className="flex flex-wrap items-start gap-x-4 gap-y-3">
       <SelectField
         label="Property"
-        fieldClassName="w-56"
+        fieldClassName="w-64"
         value={view.property}
         onChange={(e) => onChange({ property: e.target.value, range: null })}
       >

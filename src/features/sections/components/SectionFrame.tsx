@@ -116,13 +116,19 @@ export function buildFigure(
       });
     });
     // Labels at the right end of each isopycnal, where it still has water.
-    const labels = section.isopycnals.flatMap((line) => {
+    const ends = section.isopycnals.flatMap((line) => {
       for (let i = line.p.length - 1; i >= 0; i--) {
         const p = line.p[i];
         if (p !== null && stations[i]) return [{ x: stations[i].x, y: p, text: line.sigma.toFixed(2) }];
       }
       return [];
     });
+    // Near the surface the isopycnals crowd together: keep a label only where it has room.
+    const room = (yMax - yMin) * 0.035;
+    const labels: typeof ends = [];
+    for (const l of [...ends].sort((a, b) => b.y - a.y)) {
+      if (!labels.some((k) => Math.abs(k.y - l.y) < room && Math.abs(k.x - l.x) < 1e-6)) labels.push(l);
+    }
     if (labels.length) {
       data.push({
         type: 'scatter',

@@ -87,6 +87,8 @@ export function buildTsFigure(casts: readonly TsCast[], refPressure: number, col
   let pMax = 0;
   for (const c of casts) for (const p of c.p) if (p !== null && p > pMax) pMax = p;
   const anySelected = casts.some((c) => c.castId === selectedCastId);
+  // The pressure colour bar hangs on the first trace drawn in pressure colours.
+  const scaleHolder = casts.find((c) => c.castId !== selectedCastId);
 
   const traceOf = (c: TsCast, selected: boolean): Data => {
     const faded = anySelected && !selected;
@@ -101,10 +103,10 @@ export function buildTsFigure(casts: readonly TsCast[], refPressure: number, col
       text: c.p.map((p) => (p === null ? '' : p.toFixed(0))),
       hovertemplate: `Station ${c.station}<br>SA %{x:.3f} g/kg<br>CT %{y:.3f} °C<br>p %{text} dbar<extra></extra>`,
       marker: {
-        size: selected ? 6 : 4,
-        opacity: faded ? 0.25 : 0.9,
+        size: selected ? 5 : 4,
+        opacity: faded ? 0.35 : 0.9,
         color: selected ? PLOT_COLORS.inkStrong : colourBy === 'pressure' ? (c.p as number[]) : stationColour,
-        ...(colourBy === 'pressure' && !selected ? { colorscale: toPlotly(DEPTHS), cmin: 0, cmax: pMax || 1, showscale: c === casts[0], colorbar: colorBar('Pressure (dbar)') } : {}),
+        ...(colourBy === 'pressure' && !selected ? { colorscale: toPlotly(DEPTHS), cmin: 0, cmax: pMax || 1, showscale: c === scaleHolder, colorbar: colorBar('Pressure (dbar)') } : {}),
         line: selected ? { color: PLOT_COLORS.paper, width: 0.5 } : { width: 0 },
       },
     } as Data;
