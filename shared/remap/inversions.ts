@@ -94,10 +94,14 @@ export function detectInversions(p: Float64Array, sigma: Float64Array, opts: Inv
     let minS = Infinity;
     let lastLight = k;
     const recovered = M - recovery;
+    // The interval ends at the last level lighter than the parcel above by more than the
+    // threshold: in weakly stratified deep water σ can stay a hair below the maximum for many
+    // scans after a one-scan spike, and that tail is sensor noise, not part of the inversion.
+    const significant = M - threshold;
     while (j < n && !(sigma[j] >= recovered)) {
       const v = sigma[j];
       if (v < minS) minS = v;
-      if (v < M) lastLight = j;
+      if (v < significant) lastLight = j;
       j++;
     }
     const deficit = M - minS;
