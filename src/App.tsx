@@ -43,6 +43,10 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
               children: [
                 { index: true, lazy: lazyScreen(() => import('./routes/CruiseDesk')) },
                 { path: 'intake', lazy: lazyScreen(() => import('./routes/Intake')) },
+                { path: 'casts', lazy: lazyScreen(() => import('./routes/CastSheet')) },
+                { path: 'casts/:castId', lazy: lazyScreen(() => import('./routes/CastSheet')) },
+                { path: 'layer-sets', lazy: lazyScreen(() => import('./routes/LayerSets')) },
+                { path: 'derived', lazy: lazyScreen(() => import('./routes/DerivedVariables')) },
                 { path: 'team', lazy: lazyScreen(() => import('./routes/CruiseTeam')) },
                 { path: 'section', lazy: lazyScreen(() => import('./routes/Section')) },
                 { path: 'deliveries', lazy: lazyScreen(() => import('./routes/Deliveries')) },

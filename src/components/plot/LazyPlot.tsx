@@ -4,7 +4,7 @@ import { Progress } from '../Notice';
 
 /**
  * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-dist-min` is a
- * dynamic import, so Vite puts Plotly (≈1.4 MB, ≈470 kB gzip) in its own chunk that only screens
+ * dynamic import, so Vite puts Plotly (≈4.6 MB, ≈1.4 MB gzip) in its own chunk that only screens
  * with a plot download; the first screen stays light. While it loads, the plot's box keeps its size
  * and shows progress; if the chunk cannot be fetched the box says so.
  */

@@ -17,7 +17,10 @@ export interface CruiseSection {
 export const CRUISE_SECTIONS: readonly CruiseSection[] = [
   { label: 'Desk', path: '' },
   { label: 'Intake', path: 'intake' },
+  { label: 'Casts', path: 'casts' },
   { label: 'Section', path: 'section' },
+  { label: 'Layer sets', path: 'layer-sets' },
+  { label: 'Derived variables', path: 'derived' },
   { label: 'Deliveries', path: 'deliveries' },
   { label: 'Team', path: 'team' },
 ];

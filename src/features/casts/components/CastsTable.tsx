@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
 import {
   columnFilteringFeature,
   createColumnHelper,
@@ -34,7 +35,12 @@ const helper = createColumnHelper<typeof features, CastSummary>();
 const num = (digits: number) => (v: number | null) => (v == null ? '—' : v.toFixed(digits));
 
 const columns = helper.columns([
-  helper.accessor('station', { header: 'Station', sortFn: 'alphanumeric', meta: { align: 'left' } }),
+  helper.accessor('station', {
+    header: 'Station',
+    sortFn: 'alphanumeric',
+    cell: (info) => <CastLink castId={info.row.original.id} station={info.row.original.station} cast={info.row.original.cast} />,
+    meta: { align: 'left' },
+  }),
   helper.accessor('cast', { header: 'Cast', sortFn: 'alphanumeric', meta: { align: 'left' } }),
   helper.accessor((row) => row.time ?? '', {
     id: 'time',
@@ -83,6 +89,16 @@ const columns = helper.columns([
     },
   }),
 ]);
+
+/** The station name opens the cast sheet (the table always sits inside `/cruises/:id`). */
+function CastLink({ castId, station, cast }: { castId: string; station: string; cast: string }) {
+  const { id = '' } = useParams();
+  return (
+    <Link to={`/cruises/${encodeURIComponent(id)}/casts/${encodeURIComponent(castId)}`} aria-label={`Open the cast sheet of station ${station} cast ${cast}`}>
+      {station}
+    </Link>
+  );
+}
 
 interface ColumnMetaAlign {
   align?: 'left' | 'right';

@@ -1,0 +1,64 @@
+import type { FitnessEntry } from '../types';
+
+/** The candidates, in the order a hydrographer weighs them. */
+const CANDIDATES: { key: string; label: string }[] = [
+  { key: 'sigma0', label: 'σ₀' },
+  { key: 'sigma1', label: 'σ₁' },
+  { key: 'sigma2', label: 'σ₂' },
+  { key: 'sigma3', label: 'σ₃' },
+  { key: 'sigma4', label: 'σ₄' },
+  { key: 'CT', label: 'CT' },
+  { key: 'SA', label: 'SA' },
+  { key: 'pressure', label: 'pressure' },
+];
+
+const pct = (v: number) => `${(v * 100).toFixed(1)} %`;
+
+function ShareBar({ value, tone, label }: { value: number; tone: 'ink' | 'warn'; label: string }) {
+  const v = Math.max(0, Math.min(1, value));
+  return (
+    <div className="flex items-center gap-2">
+      <div className="h-2 w-20 overflow-hidden bg-ink-wash" role="meter" aria-label={label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(v * 1000) / 10}>
+        <div className={`h-full ${tone === 'warn' ? 'bg-warn' : 'bg-ink'}`} style={{ width: `${v * 100}%` }} />
+      </div>
+      <span className={`w-14 text-right ${tone === 'warn' && v > 0 ? 'text-warn-strong' : ''}`}>{pct(v)}</span>
+    </div>
+  );
+}
+
+/**
+ * How well each candidate vertical coordinate orders this cast: the share of the profile over which
+ * it changes monotonically with pressure, and the share where one value occurs at several pressures
+ * (a coordinate cannot be used there without sorting or dropping).
+ */
+export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry> }) {
+  const rows = CANDIDATES.filter((c) => fitness[c.key]);
+  if (rows.length === 0) return <p className="px-4 py-3 text-sm text-ink-muted">No fitness figures were stored for this cast.</p>;
+  return (
+    <table className="w-full border-collapse text-sm" aria-label="Fitness of vertical coordinates">
+      <thead>
+        <tr className="border-b border-paper-rule text-2xs uppercase tracking-[0.08em] text-ink-muted">
+          <th scope="col" className="px-3 py-1.5 text-left font-semibold">Coordinate</th>
+          <th scope="col" className="px-2 py-1.5 text-left font-semibold">Monotonic</th>
+          <th scope="col" className="px-2 py-1.5 text-left font-semibold">Multi-valued</th>
+          <th scope="col" className="px-3 py-1.5 text-right font-semibold">Runs</th>
+        </tr>
+      </thead>
+      <tbody className="font-mono text-[0.78rem] tabular-nums">
+        {rows.map(({ key, label }) => {
+          const f = fitness[key];
+          return (
+            <tr key={key} className="border-b border-paper-rule/60 last:border-0">
+              <th scope="row" className="px-3 py-1 text-left font-sans font-semibold text-ink-strong">{label}</th>
+              <td className="px-2 py-1"><ShareBar value={f.monotonicShare} tone="ink" label={`${label} monotonic share`} /></td>
+              <td className="px-2 py-1"><ShareBar value={f.multiValuedShare} tone="warn" label={`${label} multi-valued share`} /></td>
+              <td className="px-3 py-1 text-right text-ink-soft" title={f.segments.map((s) => `${s.pTop}–${s.pBottom} dbar`).join(', ')}>
+                {f.segments.length || '—'}
+              </td>
+            </tr>
+          );
+        })}
+      </tbody>
+    </table>
+  );
+}

@@ -1,0 +1,105 @@
+import { z } from 'zod';
+
+const id = z.union([z.string(), z.number()]).transform(String);
+const label = z.union([z.string(), z.number()]).transform(String);
+const nullableNumber = z.number().nullable();
+const maybeNumber = z.number().nullish().transform((v) => v ?? null);
+const column = z.array(nullableNumber);
+
+export const inversionSchema = z.object({
+  iTop: z.number().int(),
+  iBottom: z.number().int(),
+  pTop: z.number(),
+  pBottom: z.number(),
+  depthTop: maybeNumber,
+  depthBottom: maybeNumber,
+  /** kg/m³ */
+  deficit: z.number(),
+  /** s⁻², or null */
+  minN2: maybeNumber,
+  class: z.enum(['spike', 'overturn']),
+  levels: z.number().int(),
+});
+export type CastInversion = z.infer<typeof inversionSchema>;
+
+export const fitnessEntrySchema = z.object({
+  monotonicShare: z.number(),
+  multiValuedShare: z.number(),
+  direction: z.union([z.string(), z.number()]).nullish().transform((v) => (v == null ? null : String(v))),
+  segments: z.array(z.object({ pTop: z.number(), pBottom: z.number() })).nullish().transform((v) => v ?? []),
+});
+export type FitnessEntry = z.infer<typeof fitnessEntrySchema>;
+
+export const mixedLayerSchema = z
+  .object({
+    p_mld: maybeNumber,
+    sigma0_ref: maybeNumber,
+    status: z.string().nullish().transform((v) => v ?? null),
+    reason: z.string().nullish().transform((v) => v ?? null),
+  })
+  .nullish()
+  .transform((v) => v ?? null);
+
+export const castMetadataSchema = z
+  .object({
+    format: z.string().nullish().transform((v) => v ?? null),
+    units: z.unknown().optional(),
+    profile: z
+      .object({
+        levels: maybeNumber,
+        downcastEnd: maybeNumber,
+        hasUpcast: z.boolean().nullish().transform((v) => v ?? null),
+        reversals: maybeNumber,
+      })
+      .nullish()
+      .transform((v) => v ?? null),
+    saar: z.string().nullish().transform((v) => v ?? null),
+    mixedLayer: mixedLayerSchema,
+  })
+  .loose();
+
+/** Processing notes are sentences; a structured note is shown by its message. */
+const noteSchema = z.union([
+  z.string(),
+  z.object({ message: z.string() }).loose().transform((n) => n.message),
+]);
+
+export const FLAG_VARIABLES = ['temperature', 'salinity', 'conductivity', 'oxygen', 'all'] as const;
+export type FlagVariable = (typeof FLAG_VARIABLES)[number];
+
+export const castDetailSchema = z.object({
+  id,
+  station: label,
+  cast: label,
+  latitude: maybeNumber,
+  longitude: maybeNumber,
+  time: z.string().nullish().transform((v) => v ?? null),
+  bottomDepth: maybeNumber,
+  levels: z.number().int().nonnegative(),
+  uploadId: id.nullish().transform((v) => v ?? null),
+  sourceFile: z.string().nullish().transform((v) => v ?? null),
+  inversions: z.array(inversionSchema).nullish().transform((v) => v ?? []),
+  metadata: castMetadataSchema.nullish().transform((v) => v ?? { format: null, profile: null, saar: null, mixedLayer: null }),
+  notes: z.array(noteSchema).nullish().transform((v) => v ?? []),
+  fitness: z.record(z.string(), fitnessEntrySchema).nullish().transform((v) => v ?? {}),
+  columns: z
+    .object({ pressure: column, SA: column.optional(), CT: column.optional(), N2: column.optional(), p_mid: column.optional() })
+    .catchall(column),
+  units: z.record(z.string(), z.string().nullable()).nullish().transform((v) => v ?? {}),
+  extras: z
+    .record(z.string(), z.object({ unit: z.string().nullish().transform((v) => v ?? null), values: column }))
+    .nullish()
+    .transform((v) => v ?? {}),
+  flags: z.record(z.string(), z.array(z.number())).nullish().transform((v) => v ?? {}),
+});
+export type CastDetail = z.infer<typeof castDetailSchema>;
+
+export const flagResultSchema = z.object({ levels: z.number().int().nonnegative() });
+
+export interface FlagEdit {
+  variable: FlagVariable;
+  pFrom: number;
+  pTo: number;
+  flag: 1 | 2 | 3 | 4 | 9;
+  reason?: string;
+}

@@ -1,0 +1,53 @@
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { http } from '../../lib/http';
+import { sectionKeys } from '../sections/keys';
+import { derivedKeys } from './keys';
+import { derivedVariableListSchema, derivedVariableSchema, formulaPreviewSchema, type NewDerivedVariable } from './types';
+
+const path = (cruiseId: string) => `/api/cruises/${encodeURIComponent(cruiseId)}/derived-variables`;
+
+export function useDerivedVariables(cruiseId: string) {
+  return useQuery({
+    queryKey: derivedKeys.list(cruiseId),
+    queryFn: ({ signal }) => http(path(cruiseId), { schema: derivedVariableListSchema, signal }),
+  });
+}
+
+/** The formula evaluated on one cast (the preview route), cached by cast and text; null inputs wait. */
+export function useFormulaPreview(castId: string | null, formula: string) {
+  const text = formula.trim();
+  return useQuery({
+    queryKey: derivedKeys.preview(castId ?? '', text),
+    queryFn: ({ signal }) =>
+      http(`/api/casts/${encodeURIComponent(castId ?? '')}/formula-preview`, { method: 'POST', body: { formula: text }, schema: formulaPreviewSchema, signal }),
+    enabled: castId !== null && text.length > 0,
+    placeholderData: keepPreviousData,
+    staleTime: Infinity,
+    retry: false,
+  });
+}
+
+export function useCreateDerivedVariable(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: NewDerivedVariable) => http(path(cruiseId), { method: 'POST', body: input, schema: derivedVariableSchema }),
+    onSuccess: () => {
+      void queryClient.invalidateQueries({ queryKey: derivedKeys.list(cruiseId) });
+      // The section's property picker lists derived variables.
+      void queryClient.invalidateQueries({ queryKey: sectionKeys.derivedVariables(cruiseId) });
+    },
+  });
+}
+
+export function useDeleteDerivedVariable(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => http(`${path(cruiseId)}/${encodeURIComponent(id)}`, { method: 'DELETE' }),
+    onSuccess: () => {
+      void queryClient.invalidateQueries({ queryKey: derivedKeys.list(cruiseId) });
+      void queryClient.invalidateQueries({ queryKey: sectionKeys.derivedVariables(cruiseId) });
+      // A section drawn of the deleted variable no longer exists.
+      void queryClient.invalidateQueries({ queryKey: sectionKeys.data(cruiseId) });
+    },
+  });
+}

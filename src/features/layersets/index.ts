@@ -1,0 +1,7 @@
+export { layerSetKeys } from './keys';
+export { useLayerSets, useCreateLayerSet, useUpdateLayerSet } from './api';
+export { LevelsField } from './components/LevelsField';
+export { LayerSetForm } from './components/LayerSetForm';
+export { LayerSetList } from './components/LayerSetList';
+export { layerSetSchema, layerSetListSchema, levelsFeedback, levelDigits, validateLayerSet, REFERENCE_PRESSURES } from './types';
+export type { LayerSet, LayerSetInput, LevelsFeedback } from './types';
