@@ -97,21 +97,28 @@ export function detectInversions(p: Float64Array, sigma: Float64Array, opts: Inv
     // The interval ends at the last level lighter than the parcel above by more than the
     // threshold: in weakly stratified deep water σ can stay a hair below the maximum for many
     // scans after a one-scan spike, and that tail is sensor noise, not part of the inversion.
+    // For a spike (few such levels) it likewise starts just above the first of them: the running
+    // maximum may have been set a few noisy scans higher up. An overturn keeps its whole extent
+    // from the heavy parcel down.
     const significant = M - threshold;
+    let firstLight = -1;
+    let nLight = 0;
     while (j < n && !(sigma[j] >= recovered)) {
       const v = sigma[j];
       if (v < minS) minS = v;
-      if (v < significant) lastLight = j;
+      if (v < significant) { lastLight = j; nLight++; if (firstLight < 0) firstLight = j; }
       j++;
     }
     const deficit = M - minS;
     if (deficit > threshold) {
-      const iTop = kM;
       const iBottom = lastLight;
+      const spikeTop = Math.max(kM, firstLight - 1);
+      const isSpike = nLight <= spikeMax || iBottom - kM <= spikeMax || p[iBottom] - p[kM] < minThick;
+      const iTop = isSpike ? spikeTop : kM;
       const pTop = p[iTop];
       const pBottom = p[iBottom];
       const levels = iBottom - iTop;
-      const cls: InversionClass = levels <= spikeMax || pBottom - pTop < minThick ? 'spike' : 'overturn';
+      const cls: InversionClass = isSpike ? 'spike' : 'overturn';
       found.push({
         iTop, iBottom, pTop, pBottom,
         depthTop: z ? -z[iTop] : null,

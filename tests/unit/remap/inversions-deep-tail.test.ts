@@ -5,6 +5,20 @@ import { describe, it, expect } from 'vitest';
 import { detectInversions } from '../../../shared/remap/inversions';
 
 describe('inversion extent in a weakly stratified column', () => {
+  it('starts the interval just above the spike even when the running maximum was set a few noisy scans higher', () => {
+    const n = 2000;
+    const p = Float64Array.from({ length: n }, (_, i) => 2 * i);
+    const sigma = Float64Array.from(p, (pp) => 27.8 + 1e-6 * pp);
+    const k = 1500;
+    const M = sigma[k - 6] + 0.0008; // a noisy heavy scan six levels up
+    sigma[k - 6] = M;
+    for (let i = k - 5; i < k; i++) sigma[i] = M - 0.0004;
+    sigma[k] = M - 0.07;
+    for (let i = k + 1; i < k + 20; i++) sigma[i] = M - 0.0003;
+    const found = detectInversions(p, sigma, { threshold: 0.01 });
+    expect(found).toHaveLength(1);
+    expect(found[0]).toMatchObject({ iTop: k - 1, iBottom: k, class: 'spike' });
+  });
   it('reports the planted spike with its exact extent, not the sub-threshold tail', () => {
     const n = 2000;
     const p = Float64Array.from({ length: n }, (_, i) => 2 * i);
