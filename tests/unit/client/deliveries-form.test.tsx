@@ -98,8 +98,8 @@ async function renderDeliveries(as: string) {
       <RouterProvider router={router} />
     </QueryClientProvider>,
   );
-  await screen.findByRole('heading', { name: 'Deliveries' });
-  await screen.findAllByRole('heading', { name: /table/ });
+  await screen.findByRole('heading', { name: 'Deliveries' }, { timeout: 8000 });
+  await screen.findAllByRole('heading', { name: /table/ }, { timeout: 8000 });
 }
 
 const itemOf = (name: RegExp) => screen.getAllByRole('listitem').find((li) => within(li).queryByRole('heading', { name }))!;

@@ -99,8 +99,8 @@ async function renderSection(search = '') {
       <RouterProvider router={router} />
     </QueryClientProvider>,
   );
-  await screen.findByRole('group', { name: 'Section controls' });
-  await screen.findByRole('figure', { name: 'Section by pressure' });
+  await screen.findByRole('group', { name: 'Section controls' }, { timeout: 8000 });
+  await screen.findByRole('figure', { name: 'Section by pressure' }, { timeout: 8000 });
   const q = () => new URLSearchParams(router.state.location.search);
   return { router, q };
 }

@@ -13,7 +13,11 @@ export function BuildDeliveryForm({ cruiseId, layerSets }: { cruiseId: string; l
   const [values, setValues] = useState<DeliveryFormValues>(DEFAULT_FORM);
   const [errors, setErrors] = useState<DeliveryFormErrors>({});
   const build = useBuildDelivery(cruiseId);
-  const set = (patch: Partial<DeliveryFormValues>) => setValues((v) => ({ ...v, ...patch }));
+  const set = (patch: Partial<DeliveryFormValues>) => {
+    setValues((v) => ({ ...v, ...patch }));
+    // A changed form is a new delivery: the last one's notice no longer applies.
+    if (build.isSuccess || build.isError) build.reset();
+  };
   const selectedSet = layerSets.find((s) => s.id === values.layerSetId);
   const usesIsopycnals = values.kind === 'isopycnal' || values.kind === 'package';
   const usesBins = values.kind === 'pressure' || values.kind === 'package';

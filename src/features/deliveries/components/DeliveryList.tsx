@@ -4,6 +4,7 @@ import { ErrorNotice, Progress } from '../../../components/Notice';
 import { Num } from '../../../components/Num';
 import { EmptyState } from '../../../components/Panel';
 import { formatUtc } from '../../../lib/format';
+import { useMembers } from '../../team';
 import { downloadUrl, useDeleteDelivery, useReleaseDelivery } from '../api';
 import { canDeliver, type LayerSetChoice } from '../form';
 import { FLAG_MEANINGS, FORMAT_TEXT, KIND_TEXT, type Delivery, type DeliveryFormat } from '../types';
@@ -17,7 +18,7 @@ function formatSize(bytes: number): string {
 const str = (v: unknown): string | null => (typeof v === 'string' && v ? v : typeof v === 'number' ? String(v) : null);
 
 /** How a delivery was made, from its stored parameters: every choice its numbers depend on. */
-export function provenanceOf(d: Delivery, layerSets: readonly LayerSetChoice[]): { term: string; value: string }[] {
+export function provenanceOf(d: Delivery, layerSets: readonly LayerSetChoice[], nameOf: (user: string | null) => string = (u) => u ?? '—'): { term: string; value: string }[] {
   const p = d.params ?? {};
   const rows: { term: string; value: string }[] = [];
   const ref = typeof p.ref === 'number' ? p.ref : null;
@@ -32,25 +33,32 @@ export function provenanceOf(d: Delivery, layerSets: readonly LayerSetChoice[]):
   if (d.kind !== 'isopycnal') rows.push({ term: 'Pressure bin', value: `${str(p.bin) ?? '2'} dbar` });
   const flags = Array.isArray(p.flags) ? (p.flags as unknown[]).filter((f): f is number => typeof f === 'number') : null;
   rows.push({ term: 'Flags included', value: flags ? flags.map((f) => `${f} ${FLAG_MEANINGS[f] ?? ''}`.trim()).join(', ') : '—' });
-  rows.push({ term: 'Built by', value: `${d.createdBy ?? '—'}, ${formatUtc(d.createdAt)}` });
-  if (d.released) rows.push({ term: 'Released by', value: `${d.releasedBy ?? '—'}, ${formatUtc(d.releasedAt)}` });
+  rows.push({ term: 'Built by', value: `${nameOf(d.createdBy)}, ${formatUtc(d.createdAt)}` });
+  if (d.released) rows.push({ term: 'Released by', value: `${nameOf(d.releasedBy)}, ${formatUtc(d.releasedAt)}` });
   return rows;
 }
 
 export function DeliveryList({ cruiseId, deliveries, role, layerSets }: { cruiseId: string; deliveries: readonly Delivery[]; role: string | null; layerSets: readonly LayerSetChoice[] }) {
+  const members = useMembers(cruiseId);
+  // The API names people by user id (or e-mail); show the member's name where we know it.
+  const nameOf = (user: string | null) => {
+    if (!user) return '—';
+    const m = members.data?.find((x) => x.userId === user || x.email === user);
+    return m ? `${m.name} (${m.email})` : user;
+  };
   if (deliveries.length === 0) {
     return <EmptyState title="No deliveries yet">A delivery is a regridded table or a data package, built from the choices you make and kept with them.</EmptyState>;
   }
   return (
     <ul className="flex flex-col">
       {deliveries.map((d) => (
-        <DeliveryItem key={d.id} cruiseId={cruiseId} delivery={d} role={role} layerSets={layerSets} />
+        <DeliveryItem key={d.id} cruiseId={cruiseId} delivery={d} role={role} layerSets={layerSets} nameOf={nameOf} />
       ))}
     </ul>
   );
 }
 
-function DeliveryItem({ cruiseId, delivery: d, role, layerSets }: { cruiseId: string; delivery: Delivery; role: string | null; layerSets: readonly LayerSetChoice[] }) {
+function DeliveryItem({ cruiseId, delivery: d, role, layerSets, nameOf }: { cruiseId: string; delivery: Delivery; role: string | null; layerSets: readonly LayerSetChoice[]; nameOf: (user: string | null) => string }) {
   const release = useReleaseDelivery(cruiseId);
   const remove = useDeleteDelivery(cruiseId);
   const [confirming, setConfirming] = useState(false);
@@ -61,7 +69,7 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets }: { cruiseId: st
     <li aria-labelledby={titleId} className={`border-b border-paper-rule px-4 py-3 last:border-b-0 ${d.released ? 'bg-ink-wash/40' : ''}`}>
       <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
         <h3 id={titleId} className="font-semibold text-ink-strong">
-          {d.released && <span aria-label="Released and locked" title="Released: locked, it can no longer change" className="mr-1.5">🔒</span>}
+          {d.released && <LockMark />}
           {KIND_TEXT[d.kind].label}
         </h3>
         <span className="font-mono text-xs text-ink-muted">{formatUtc(d.createdAt)}</span>
@@ -87,7 +95,7 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets }: { cruiseId: st
 
       <div className="mt-2 grid gap-3 md:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm" aria-label="Provenance">
-          {provenanceOf(d, layerSets).map((row) => (
+          {provenanceOf(d, layerSets, nameOf).map((row) => (
             <div key={row.term} className="contents">
               <dt className="text-ink-muted">{row.term}</dt>
               <dd className="text-ink-strong">{row.value}</dd>
@@ -97,21 +105,23 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets }: { cruiseId: st
         {d.status === 'ready' && (
           <div>
             <p className="mb-1 text-xs font-semibold uppercase tracking-[0.1em] text-ink-soft">Download</p>
-            <ul className="flex flex-col gap-1 text-sm">
+            <ul className="grid grid-cols-[auto_minmax(0,1fr)_auto] items-baseline gap-x-3 gap-y-1 text-sm">
               {d.files.map((f) => (
-                <li key={f.filename} className="flex items-baseline gap-2">
-                  <a href={downloadUrl(d.id, f.format)} download={f.filename}>
+                <li key={f.filename} className="contents">
+                  <a href={downloadUrl(d.id, f.format)} download={f.filename} className="whitespace-nowrap">
                     {FORMAT_TEXT[f.format as DeliveryFormat] ?? f.format.toUpperCase()}
                   </a>
-                  <Num className="text-ink-soft">{f.filename}</Num>
-                  <Num className="text-ink-muted">{formatSize(f.size)}</Num>
-                  <Num className="truncate text-ink-faint" >sha256 {f.sha256.slice(0, 12)}…</Num>
+                  <Num className="truncate text-ink-soft" >
+                    <span title={`sha256 ${f.sha256}`}>{f.filename}</span>
+                  </Num>
+                  <Num className="whitespace-nowrap text-right text-ink-muted">{formatSize(f.size)}</Num>
                 </li>
               ))}
               {d.kind === 'package' && (
-                <li><a href={downloadUrl(d.id, 'zip')}>Everything as one zip</a></li>
+                <li className="col-span-3"><a href={downloadUrl(d.id, 'zip')}>Everything as one zip</a></li>
               )}
             </ul>
+            <p className="mt-1 text-2xs text-ink-muted">Checksums (sha256) are in each file’s tooltip and in the package manifest.</p>
           </div>
         )}
       </div>
@@ -140,4 +150,15 @@ function StatusTag({ delivery: d }: { delivery: Delivery }) {
   if (d.released) return <span className="border border-ink/40 px-1.5 text-xs text-ink">released · locked</span>;
   const text = { queued: 'queued', building: `building ${d.progress != null ? `${Math.round(d.progress * 100)} %` : ''}`, ready: 'ready', failed: 'failed' }[d.status];
   return <span className={`px-1.5 text-xs ${d.status === 'failed' ? 'border border-warn text-warn-strong' : 'border border-paper-rule text-ink-soft'}`}>{text}</span>;
+}
+
+/** A padlock: released deliveries are frozen. */
+function LockMark() {
+  return (
+    <svg role="img" aria-label="Released and locked" viewBox="0 0 16 16" width="14" height="14" className="mr-1.5 inline-block align-[-1px] text-ink">
+      <title>Released: locked, it can no longer change</title>
+      <rect x="3" y="7" width="10" height="7.5" rx="1" fill="currentColor" />
+      <path d="M5.2 7V5a2.8 2.8 0 0 1 5.6 0v2" fill="none" stroke="currentColor" strokeWidth="1.6" />
+    </svg>
+  );
 }

@@ -221,7 +221,13 @@ export function buildFigure(
       line: { color: PLOT_COLORS.inkStrong, width: 1.5, dash: 'dot' },
     });
   }
-  const yAxis = coord === 'pressure' ? pressureAxis({ autorange: false, range: [yMax * 1.02, yMin] }) : densityAxis(section.choices.ref, { autorange: 'reversed' });
+  // The density frame spans the σ levels that have water somewhere, not the whole target list.
+  const wet = grid.z.map((row) => row.some((v) => v !== null));
+  const firstWet = wet.indexOf(true), lastWet = wet.lastIndexOf(true);
+  const sigmaSpan = firstWet >= 0 ? [grid.y[Math.max(0, firstWet - 1)], grid.y[Math.min(grid.y.length - 1, lastWet + 1)]] : null;
+  const yAxis = coord === 'pressure'
+    ? pressureAxis({ autorange: false, range: [yMax * 1.02, yMin] })
+    : densityAxis(section.choices.ref, sigmaSpan ? { autorange: false, range: [sigmaSpan[1], sigmaSpan[0]] } : { autorange: 'reversed' });
   const layout = baseLayout({
     margin: { l: 60, r: 12, t: 46, b: 40 },
     xaxis: valueAxis('Distance along the track (km)', { range: [grid.x[0], grid.x[grid.x.length - 1]] }),
