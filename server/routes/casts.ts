@@ -4,6 +4,7 @@ import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { badRequest, notFound } from '../lib/errors';
 import { Cast, CastColumn } from '../models/index';
 import { readColumns, encodeU8 } from '../services/columns';
+import { inversionsOfGoodLevels } from '../services/processCast';
 import { audit } from '../lib/audit';
 import type { AppDeps } from '../lib/deps';
 
@@ -68,9 +69,14 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
             if (row) await row.update({ values: encodeU8(flags) }, { transaction });
             else await CastColumn.create({ castId: c.id, name, unit: null, kind: 'flag', values: encodeU8(flags) }, { transaction });
           }
-          await c.update({ updatedAt: new Date() }, { transaction });
+          // What depends on the flags: the cast's inversion warnings (and, through the cast's
+          // updated time, every cached section and table of the cruise).
+          const all = (await readColumns([c.id])).get(c.id)!;
+          const flagRows = await CastColumn.findAll({ where: { castId: c.id, kind: 'flag' }, transaction });
+          const flagsNow = Object.fromEntries(flagRows.map((r) => [r.name, new Uint8Array(r.values)]));
+          const inversions = inversionsOfGoodLevels(all.columns, flagsNow, deps.settings.INVERSION_THRESHOLD);
           c.changed('updatedAt', true);
-          await c.save({ transaction });
+          await c.update({ inversions, inversionCount: inversions.length, updatedAt: new Date() }, { transaction });
           await audit({ cruiseId: c.cruiseId, userId: req.user!.id, action: 'set_flag', entity: 'cast', entityId: c.id, before: { flagsInRange: before }, after: { variable: b.variable, pFrom: b.pFrom, pTo: b.pTo, flag: b.flag, reason: b.reason ?? null, levels: changed } }, transaction);
           return { levels: changed };
         });

@@ -83,3 +83,18 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
   for (const [name, f] of Object.entries(c.flags)) columns.push({ name: `flag:${name}`, unit: null, kind: 'flag', values: f });
   return { ok: true, cast: { levels: n, columns, inversions, fitness, notes, saar: srFallback ? 'SR fallback (outside the SAAR atlas)' : 'SAAR atlas', mld: derived.mld } };
 }
+
+/** Inversions of σ0 over the levels whose T and S flags are good (1 or 2): a level a technician
+ * flags questionable or bad stops raising a warning. Indices refer to the full profile. */
+export function inversionsOfGoodLevels(cols: Record<string, Float64Array>, flags: Record<string, Uint8Array>, threshold: number) {
+  const p = cols.pressure;
+  const keep: number[] = [];
+  for (let i = 0; i < p.length; i++) {
+    let ok = true;
+    for (const [name, f] of Object.entries(flags)) if (/^flag:(temperature|salinity|conductivity)$/.test(name) && f[i] !== 1 && f[i] !== 2) ok = false;
+    if (ok) keep.push(i);
+  }
+  const pick = (a: Float64Array) => Float64Array.from(keep, (k) => a[k]);
+  const found = detectInversions(pick(p), pick(cols.sigma0), { threshold, z: cols.z ? pick(cols.z) : undefined });
+  return found.map((v) => ({ ...v, iTop: keep[v.iTop], iBottom: keep[v.iBottom] }));
+}
