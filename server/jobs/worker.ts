@@ -9,8 +9,8 @@ import { buildDelivery } from '../services/deliveryBuild';
 export async function startWorkers(deps: AppDeps, opts: { concurrency?: number } = {}) {
   const n = opts.concurrency ?? Number(process.env.WORKER_CONCURRENCY ?? 2);
   for (let i = 0; i < n; i++) {
-    await deps.queue.boss.work<{ uploadId: string }>(QUEUES.ingest, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
-      await runIngestJob(deps, job.data.uploadId, job.id);
+    await deps.queue.boss.work<{ uploadId: string; reprocess?: boolean }>(QUEUES.ingest, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+      await runIngestJob(deps, job.data.uploadId, { reprocess: job.data.reprocess === true });
     });
   }
   await deps.queue.boss.work<{ deliveryId: string }>(QUEUES.delivery, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {

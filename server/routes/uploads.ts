@@ -84,6 +84,16 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         await enqueue(u);
         res.status(202).json(uploadJson(u));
       } }),
+    defineRoute({ method: 'post', path: '/uploads/:id/reprocess', summary: "Re-run processing of an upload's casts in place (flags kept)", rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+      handler: async (req, res) => {
+        const u = await Upload.findByPk(String(req.params.id));
+        if (!u) throw notFound();
+        if (u.status !== 'ready') throw new HttpError(409, 'not_ready', 'Only a processed upload can be reprocessed.');
+        await u.update({ status: 'queued', progress: 0 });
+        await audit({ cruiseId: u.cruiseId, userId: req.user!.id, action: 'reprocess_requested', entity: 'upload', entityId: u.id });
+        await queue.send(QUEUES.ingest, { uploadId: u.id, reprocess: true });
+        res.status(202).json(uploadJson(u));
+      } }),
     defineRoute({ method: 'get', path: '/cruises/:id/column-mapping', summary: "The cruise's remembered header → column role mapping", rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: ctx.cruiseId! } })).map((m) => [m.header, m.role])) }),
     defineRoute({ method: 'put', path: '/cruises/:id/column-mapping', summary: 'Remember how unrecognised headers map to column roles', rule: { kind: 'member', roles: [...intake], cruise: byParam() }, body: Mapping,

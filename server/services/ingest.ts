@@ -2,10 +2,10 @@
 // validate, derive the TEOS-10 columns, find the inversions, and store every cast of the upload in
 // one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
 import { Op } from 'sequelize';
-import { Cast, ColumnMapping, Station, Upload } from '../models/index';
+import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
 import { parseUpload } from '../parsers/index';
 import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
-import { processCast, type ProcessedCast } from './processCast';
+import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
 import { writeColumns } from './columns';
 import { audit } from '../lib/audit';
 import { logger } from '../lib/logger';
@@ -13,11 +13,11 @@ import type { AppDeps } from '../lib/deps';
 
 export class IngestFault extends Error {}
 
-export async function ingestUpload(deps: AppDeps, uploadId: string): Promise<void> {
+export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { reprocess?: boolean } = {}): Promise<void> {
   const { sequelize } = deps.db;
   const upload = await Upload.findByPk(uploadId);
   if (!upload) return; // deleted meanwhile
-  if (upload.status === 'ready') return; // a retried job after success: nothing to do
+  if (upload.status === 'ready' && !opts.reprocess) return; // a retried job after success: nothing to do
   await upload.update({ status: 'processing', progress: 0.05 });
 
   let bytes: Buffer;
@@ -73,7 +73,23 @@ export async function ingestUpload(deps: AppDeps, uploadId: string): Promise<voi
       }
       for (const { parsed: c, out } of processed) {
         const existing = await Cast.findOne({ where: { cruiseId: upload.cruiseId, sourceSha256: upload.sha256, sourceFile: c.file }, transaction });
-        if (existing) { ids.push(existing.id); continue; }
+        if (existing && !opts.reprocess) { ids.push(existing.id); continue; }
+        if (existing) {
+          // Re-run processing in place: same cast id, new derived columns and inversions; quality
+          // flags a technician set are kept and still silence the levels they mark.
+          const oldFlags = await CastColumn.findAll({ where: { castId: existing.id, kind: 'flag' }, transaction });
+          const kept = Object.fromEntries(oldFlags.map((r) => [r.name, new Uint8Array(r.values)]));
+          await CastColumn.destroy({ where: { castId: existing.id }, transaction });
+          const columns = out.columns.map((col) => (col.kind === 'flag' && kept[col.name]?.length === col.values.length ? { ...col, values: kept[col.name] } : col));
+          await writeColumns(existing.id, columns, transaction);
+          const byName = Object.fromEntries(columns.filter((col) => col.kind !== 'flag').map((col) => [col.name, col.values as Float64Array]));
+          const flagsNow = Object.fromEntries(columns.filter((col) => col.kind === 'flag').map((col) => [col.name, col.values as Uint8Array]));
+          const inversions = inversionsOfGoodLevels(byName, flagsNow, deps.settings.INVERSION_THRESHOLD);
+          existing.changed('updatedAt', true);
+          await existing.update({ levels: out.levels, inversions, inversionCount: inversions.length, fitness: out.fitness, notes: [...c.notes, ...out.notes], updatedAt: new Date() }, { transaction });
+          ids.push(existing.id);
+          continue;
+        }
         const md = c.metadata;
         const cast = await Cast.create({
           cruiseId: upload.cruiseId, uploadId: upload.id, station: md.station!, cast: md.cast ?? '1', latitude: md.latitude!, longitude: md.longitude!,
@@ -85,7 +101,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string): Promise<voi
         ids.push(cast.id);
       }
       await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: parsed.warnings, errors: [] }, { transaction });
-      await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
+      await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
       return ids;
     });
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');

@@ -62,4 +62,14 @@ describe('quality flags', () => {
     expect(entry.before).toEqual({ flagsInRange: { salinity: [2] } });
     expect(entry.after).toMatchObject({ variable: 'salinity', flag: 4, levels: 1, reason: 'conductivity cell spike' });
   });
+  it('re-running processing keeps the cast id and the flags a technician set', async () => {
+    const cast = (await who.analyst.agent.get(`/api/casts/${castId}`)).body;
+    const res = await who.technician.agent.post(`/api/uploads/${cast.uploadId}/reprocess`).set('x-csrf-token', who.technician.csrf);
+    expect(res.status).toBe(202);
+    await waitFor(async () => { const r = await who.technician.agent.get(`/api/uploads/${cast.uploadId}`); return r.body.status === 'ready' ? r.body : null; }, 60_000);
+    const again = (await who.analyst.agent.get(`/api/casts/${castId}`)).body;
+    expect(again.flags.salinity).toEqual(cast.flags.salinity);
+    expect(again.inversions).toEqual([]);
+    expect((await who.analyst.agent.post(`/api/uploads/${cast.uploadId}/reprocess`).set('x-csrf-token', who.analyst.csrf)).status).toBe(403);
+  });
 });
