@@ -125,6 +125,11 @@ function TransportTable({ geo, refPressure, layerSetName }: { geo: Geostrophy; r
     <div className="border-t border-paper-rule">
       <div className="grid gap-3 px-3 py-2 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <div className="overflow-x-auto">
+          {geo.layers.every((l) => !l.total) && (
+            <p className="mb-1 border-l-2 border-ink px-2 text-xs text-ink-strong">
+              No transport in any of these {sigma} layers: they may lie outside this section’s water. Choose a layer set for {sigma}.
+            </p>
+          )}
           <table className="w-full text-sm" aria-label={`Transport per ${sigma} layer (Sv)`}>
             <caption className="pb-1 text-left text-xs text-ink-muted">
               Transport per {sigma} layer, Sv (10⁶ m³/s), layers of {layerSetName}. Sum over layers: <Num>{total.toFixed(2)}</Num> Sv.

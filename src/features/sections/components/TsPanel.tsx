@@ -106,7 +106,7 @@ export function buildTsFigure(casts: readonly TsCast[], refPressure: number, col
         size: selected ? 5 : 4,
         opacity: faded ? 0.35 : 0.9,
         color: selected ? PLOT_COLORS.inkStrong : colourBy === 'pressure' ? (c.p as number[]) : stationColour,
-        ...(colourBy === 'pressure' && !selected ? { colorscale: toPlotly(DEPTHS), cmin: 0, cmax: pMax || 1, showscale: c === scaleHolder, colorbar: colorBar('Pressure (dbar)') } : {}),
+        ...(colourBy === 'pressure' && !selected ? { colorscale: toPlotly(DEPTHS), cmin: -0.12 * (pMax || 1), cmax: pMax || 1, showscale: c === scaleHolder, colorbar: colorBar('Pressure (dbar)') } : {}),
         line: selected ? { color: PLOT_COLORS.paper, width: 0.5 } : { width: 0 },
       },
     } as Data;
