@@ -88,8 +88,7 @@ export async function zipBuffer(entries: { name: string; data: Buffer | string; 
 
 /** A multipart/form-data body with the files under one field, byte for byte as given (file names
  * are not touched, so `../` reaches the server as sent). */
-export function multipart(files: { filename: string; data: Buffer | string; contentType?: string }[], field = 'files') {
-  const boundary = `----sigmaline${randomBytes(8).toString('hex')}`;
+export function multipart(files: { filename: string; data: Buffer | string; contentType?: string }[], field = 'files', boundary = `----sigmaline${randomBytes(8).toString('hex')}`) {
   const parts: Buffer[] = [];
   for (const f of files) {
     parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="${field}"; filename="${f.filename.replace(/"/g, '%22')}"\r\nContent-Type: ${f.contentType ?? 'text/csv'}\r\n\r\n`));

@@ -20,6 +20,8 @@ export interface BenchModule {
 
 export const BENCH_MODULES: BenchModule[] = [
   { name: 'seawater', load: () => import('./seawater-suite') },
+  { name: 'ingest', load: () => import('./ingest') },
+  { name: 'load', load: () => import('./load') },
   { name: 'remap', load: () => import('./remap') },
   { name: 'deliveries', load: () => import('./deliveries') },
 ];

@@ -1,0 +1,128 @@
+// Load figures for `npm run bench` (needs the test services, see DEVELOPERS.md): the real app served
+// in-process on loopback with a cruise of a few real casts and an in-process worker; autocannon drives
+// 50 concurrent section reads (signed in) and, at the same time, 5 concurrent uploads of distinct cast
+// files into a second cruise, for 30 s (BENCH_LOAD_SECONDS), each stream also capped in count.
+// Latencies are every response's own time, from autocannon's `response` event.
+import autocannon from 'autocannon';
+import type { Server } from 'node:http';
+import { loadavg } from 'node:os';
+import type { BenchResult } from './modules';
+
+const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 30);
+const READERS = 50;
+const UPLOADERS = 5;
+
+function pct(sorted: number[], p: number) {
+  if (!sorted.length) return NaN;
+  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
+}
+
+export async function bench(): Promise<BenchResult[]> {
+  process.env.NODE_ENV ??= 'test';
+  process.env.LOG_LEVEL ??= 'warn';
+  const { makeTestApp, createUser, addMember, PASSWORD } = await import('../api/helpers');
+  const { castCsv, freePort, multipart, Session, sleep } = await import('../api/fault-helpers');
+  const { Cruise, Upload } = await import('../../server/models/index');
+  const { startWorkers } = await import('../../server/jobs/worker');
+
+  const port = await freePort();
+  const base = `http://127.0.0.1:${port}`;
+  const loadBefore = loadavg()[0];
+  const t = await makeTestApp({ PUBLIC_URL: base, LOG_LEVEL: 'warn' });
+  let server: Server | null = null;
+  try {
+    await startWorkers(t.deps, { concurrency: 1 });
+    const chief = await createUser('load-chief@example.test');
+    const mk = (name: string) => Cruise.create({ name, ship: 'RV Load', startDate: '2026-05-01', endDate: '2026-05-20', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
+    const section = await mk('Load section');
+    const intake = await mk('Load intake');
+    for (const c of [section, intake]) await addMember(chief.id, c.id, 'chief_scientist');
+    const analyst = await createUser('load-analyst@example.test');
+    await addMember(analyst.id, section.id, 'analyst');
+    server = await new Promise<Server>((resolve) => { const s = t.app.listen(port, '127.0.0.1', () => resolve(s)); });
+
+    // the section cruise: 8 casts along a line, 2 dbar to 3000 dbar, through the real intake
+    const chiefS = new Session(base);
+    await chiefS.signIn('load-chief@example.test', PASSWORD);
+    const files = Array.from({ length: 8 }, (_, i) => ({ filename: `line-${i}.csv`, data: castCsv({ station: `L${i + 1}`, latitude: -34 - i * 0.5, longitude: -20 + i * 0.4, time: new Date(Date.UTC(2026, 4, 2, i * 4)).toISOString(), maxP: 3000, step: 2, seed: 70 + i }) }));
+    const up = await chiefS.upload(section.id, files);
+    if (up.status !== 202) throw new Error(`load bench: seeding upload answered ${up.status}`);
+    const ids = (up.body.uploads as { id: string }[]).map((u) => u.id);
+    const end = Date.now() + 120_000;
+    while ((await Upload.count({ where: { id: ids, status: 'ready' } })) < ids.length) {
+      if (Date.now() > end || (await Upload.count({ where: { id: ids, status: 'failed' } })) > 0) throw new Error('load bench: the seed casts did not all become ready');
+      await sleep(200);
+    }
+    const reader = new Session(base);
+    await reader.signIn('load-analyst@example.test', PASSWORD);
+    const path = `/api/cruises/${section.id}/section?property=CT&coord=pressure`;
+    const warm = await reader.req('GET', path);
+    if (warm.status !== 200) throw new Error(`load bench: section answered ${warm.status} ${JSON.stringify(warm.body).slice(0, 200)}`);
+
+    // distinct small casts for the uploads, made as autocannon asks for them
+    const BOUNDARY = '----sigmalineLoadBench';
+    const boundary = `multipart/form-data; boundary=${BOUNDARY}`;
+    let n = 0;
+    const nextBody = () => {
+      n++;
+      return multipart([{ filename: `load-${n}.csv`, data: castCsv({ station: `U${n}`, latitude: -30 - (n % 50) * 0.1, longitude: -15 - (n % 37) * 0.1, maxP: 400, step: 2, seed: 10_000 + n }) }], 'files', BOUNDARY).body;
+    };
+
+    const readLat: number[] = [];
+    const upLat: number[] = [];
+    const readStatus = new Map<number, number>();
+    const upStatus = new Map<number, number>();
+    const run = (opts: autocannon.Options, onResponse: (status: number, ms: number) => void) => new Promise<autocannon.Result>((resolve, reject) => {
+      const inst = autocannon(opts, (err, res) => (err ? reject(err) : resolve(res)));
+      inst.on('response', (_c: unknown, status: number, _b: number, ms: number) => onResponse(status, ms));
+    });
+    const count = (m: Map<number, number>, s: number) => m.set(s, (m.get(s) ?? 0) + 1);
+    const reads = run({
+      url: base + path, connections: READERS, duration: SECONDS, maxOverallRequests: 2_000_000, timeout: 10,
+      headers: { cookie: reader.cookie! },
+    }, (status, ms) => { readLat.push(ms); count(readStatus, status); });
+    const uploads = run({
+      url: base, connections: UPLOADERS, duration: SECONDS, maxOverallRequests: 20_000, timeout: 30,
+      requests: [{
+        method: 'POST', path: `/api/cruises/${intake.id}/uploads`,
+        headers: { cookie: chiefS.cookie!, 'x-csrf-token': chiefS.csrf!, 'content-type': boundary },
+        setupRequest: ((req: autocannon.Request) => ({ ...req, body: nextBody() })) as never,
+      }],
+    }, (status, ms) => { upLat.push(ms); count(upStatus, status); });
+    const [r, u] = await Promise.all([reads, uploads]);
+    const sectionBytes = JSON.stringify(warm.body).length;
+    readLat.sort((a, b) => a - b);
+    upLat.sort((a, b) => a - b);
+    const non2xx = (m: Map<number, number>) => [...m].filter(([s]) => s < 200 || s >= 300).reduce((a, [, c]) => a + c, 0);
+    const readErrors = r.errors + r.timeouts + non2xx(readStatus);
+    const upErrors = u.errors + u.timeouts + non2xx(upStatus);
+    const ingested = await Upload.count({ where: { cruiseId: intake.id, status: 'ready' } });
+    const label = `${READERS} readers + ${UPLOADERS} uploaders, ${SECONDS} s`;
+    if (readErrors + upErrors > 0) console.log(`[load] statuses: reads ${JSON.stringify([...readStatus])}, uploads ${JSON.stringify([...upStatus])}, socket errors ${r.errors}/${u.errors}, timeouts ${r.timeouts}/${u.timeouts}`);
+    return [
+      { name: 'machine load average (1 min) when this module started, 2 cores shared with other work', value: loadBefore, unit: '' },
+      { name: `section reads per second (${label})`, value: readLat.length / r.duration, unit: 'req/s' },
+      { name: 'section response size', value: sectionBytes / 1024, unit: 'KiB' },
+      { name: 'section read latency p50', value: pct(readLat, 50), unit: 'ms' },
+      { name: 'section read latency p95', value: pct(readLat, 95), unit: 'ms', target: '< 100 ms' },
+      { name: 'section read latency p99', value: pct(readLat, 99), unit: 'ms' },
+      { name: 'section read errors (socket, timeout, non-2xx)', value: readErrors, unit: 'errors', target: 'zero errors' },
+      { name: 'uploads accepted (202) during the run', value: upStatus.get(202) ?? 0, unit: 'uploads' },
+      { name: 'upload latency p50', value: pct(upLat, 50), unit: 'ms' },
+      { name: 'upload latency p95', value: pct(upLat, 95), unit: 'ms' },
+      { name: 'upload latency p99', value: pct(upLat, 99), unit: 'ms' },
+      { name: 'upload errors (socket, timeout, non-2xx)', value: upErrors, unit: 'errors', target: 'zero errors' },
+      { name: 'uploads already ingested when the run ended (worker concurrency 1)', value: ingested, unit: 'uploads' },
+    ];
+  } finally {
+    if (server) {
+      // let requests still in flight finish before the pools close; cut what is left after 10 s
+      const s = server;
+      const cut = setTimeout(() => s.closeAllConnections(), 10_000);
+      s.closeIdleConnections();
+      await new Promise((res) => s.close(res));
+      clearTimeout(cut);
+    }
+    await t.close();
+  }
+}
