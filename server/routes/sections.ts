@@ -56,10 +56,12 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         csvStream(table).pipe(res);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/section', summary: 'A section grid by pressure or by density, with stations, bottom, isopycnals and inversion markers', rule: { kind: 'member', roles: 'any', cruise: byParam() }, query: SectionQuery,
-      handler: async (_req, _res, ctx) => {
+      handler: async (_req, res, ctx) => {
         const q = ctx.query as z.infer<typeof SectionQuery>;
         const version = await dataVersion(ctx.cruiseId!);
-        return cached(`section:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, () => buildSectionView(ctx.cruiseId!, q));
+        // The cache holds the serialised grid: a warm read is a lookup and a write.
+        const body = await cached(`section:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => JSON.stringify(await buildSectionView(ctx.cruiseId!, q)));
+        res.type('application/json').send(body);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/layer-sets', summary: 'Layer sets (target isopycnals per reference pressure)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => {

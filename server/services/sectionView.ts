@@ -6,7 +6,8 @@ import { loadCruiseCasts, applyFlags, type CruiseCast } from './cruiseData';
 import { DerivedVariable } from '../models/index';
 import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
-import { buildPressureSection, buildDensitySection, isopycnalLines, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
+import { buildPressureSection, buildDensitySection, isopycnalLines, alongIsopycnalGradient, fromRows, toRows, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
+import { z_from_p } from '../../shared/seawater/index';
 import { safeParseLevels } from '../../shared/remap/index';
 import { badRequest } from '../lib/errors';
 
@@ -21,6 +22,8 @@ export const SectionQuery = z.object({
   bin: z.coerce.number().positive().max(500).default(10),
   gapFactor: z.coerce.number().positive().max(100).default(1.5),
   threshold: z.coerce.number().positive().max(1).default(0.01),
+  /** density frame only: add the isopycnal slope and the along-isopycnal and along-level gradients */
+  gradients: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
@@ -76,6 +79,16 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   const lines = q.coord === 'pressure' ? isopycnalLines(casts, lineLevels, q.inversions, q.interpolation) : null;
   const isopycnals = lines ? lines.sigma.map((sigma, j) => ({ sigma, p: lines.p[j] })) : [];
   const dens = grid as Partial<DensitySectionGrid>;
+  let gradients = null;
+  if (q.coord === 'density' && q.gradients && dens.depth) {
+    // (∂φ/∂x)_σ = (∂φ/∂x)_z + (∂φ/∂z)_x · (∂z/∂x)_σ, on the same distance columns as the level grid.
+    const levels = buildPressureSection(casts, { property: q.property, binSize: q.bin, ...common });
+    const meanLat = casts.reduce((a, c) => a + c.lat, 0) / casts.length;
+    const levelDepth = Float64Array.from(levels.y, (pp) => -z_from_p(pp, meanLat));
+    const g = alongIsopycnalGradient(Float64Array.from(grid.x), levelDepth, fromRows(levels.z), fromRows(dens.depth), grid.y.length);
+    const rows = (a: Float64Array) => toRows(a, grid.x.length, grid.y.length);
+    gradients = { units: { slope: 'm/m (z up)', gradient: `${UNITS[q.property] ?? 'unit'} per m` }, slope: rows(g.slope), alongLevel: rows(g.alongLevel), alongIsopycnal: rows(g.alongIsopycnal) };
+  }
   return { choices, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: grid.z }, pressure: dens.pressure ?? null, depth: dens.depth ?? null,
-    stations, bottom: grid.bottom, gaps: grid.gaps, medianSpacingKm: grid.medianSpacingKm, inversions, isopycnals };
+    stations, bottom: grid.bottom, gaps: grid.gaps, medianSpacingKm: grid.medianSpacingKm, inversions, isopycnals, gradients };
 }
