@@ -12,16 +12,16 @@ const CANDIDATES: { key: string; label: string }[] = [
   { key: 'pressure', label: 'pressure' },
 ];
 
-const pct = (v: number) => `${(v * 100).toFixed(1)} %`;
+const pct = (v: number) => `${(v * 100).toFixed(1)}%`;
 
 function ShareBar({ value, tone, label }: { value: number; tone: 'ink' | 'warn'; label: string }) {
   const v = Math.max(0, Math.min(1, value));
   return (
-    <div className="flex items-center gap-2">
-      <div className="h-2 w-20 overflow-hidden bg-ink-wash" role="meter" aria-label={label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(v * 1000) / 10}>
+    <div className="flex items-center gap-1.5">
+      <div className="h-2 w-12 shrink-0 overflow-hidden bg-ink-wash" role="meter" aria-label={label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(v * 1000) / 10}>
         <div className={`h-full ${tone === 'warn' ? 'bg-warn' : 'bg-ink'}`} style={{ width: `${v * 100}%` }} />
       </div>
-      <span className={`w-14 text-right ${tone === 'warn' && v > 0 ? 'text-warn-strong' : ''}`}>{pct(v)}</span>
+      <span className={`w-12 shrink-0 text-right ${tone === 'warn' && v > 0 ? 'text-warn-strong' : ''}`}>{pct(v)}</span>
     </div>
   );
 }
@@ -38,10 +38,10 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
     <table className="w-full border-collapse text-sm" aria-label="Fitness of vertical coordinates">
       <thead>
         <tr className="border-b border-paper-rule text-2xs uppercase tracking-[0.08em] text-ink-muted">
-          <th scope="col" className="px-3 py-1.5 text-left font-semibold">Coordinate</th>
+          <th scope="col" className="px-3 py-1.5 text-left font-semibold">Coord.</th>
           <th scope="col" className="px-2 py-1.5 text-left font-semibold">Monotonic</th>
           <th scope="col" className="px-2 py-1.5 text-left font-semibold">Multi-valued</th>
-          <th scope="col" className="px-3 py-1.5 text-right font-semibold">Runs</th>
+          <th scope="col" className="px-3 py-1.5 text-right font-semibold" title="Monotonic runs">Runs</th>
         </tr>
       </thead>
       <tbody className="font-mono text-[0.78rem] tabular-nums">
@@ -50,8 +50,8 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
           return (
             <tr key={key} className="border-b border-paper-rule/60 last:border-0">
               <th scope="row" className="px-3 py-1 text-left font-sans font-semibold text-ink-strong">{label}</th>
-              <td className="px-2 py-1"><ShareBar value={f.monotonicShare} tone="ink" label={`${label} monotonic share`} /></td>
-              <td className="px-2 py-1"><ShareBar value={f.multiValuedShare} tone="warn" label={`${label} multi-valued share`} /></td>
+              <td className="px-1.5 py-1"><ShareBar value={f.monotonicShare} tone="ink" label={`${label} monotonic share`} /></td>
+              <td className="px-1.5 py-1"><ShareBar value={f.multiValuedShare} tone="warn" label={`${label} multi-valued share`} /></td>
               <td className="px-3 py-1 text-right text-ink-soft" title={f.segments.map((s) => `${s.pTop}–${s.pBottom} dbar`).join(', ')}>
                 {f.segments.length || '—'}
               </td>

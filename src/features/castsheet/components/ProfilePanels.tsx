@@ -30,6 +30,16 @@ export interface ProfilePanelsProps {
   height?: number;
 }
 
+/** [low, high] from the 0.5 and 99.5 percentiles, with 0 inside and a small margin; null without data. */
+function robustRange(values: readonly (number | null)[]): [number, number] | null {
+  const v = values.filter((x): x is number => x != null && Number.isFinite(x)).sort((a, b) => a - b);
+  if (v.length < 10) return null;
+  const lo = Math.min(0, v[Math.floor(v.length * 0.005)]);
+  const hi = Math.max(0, v[Math.ceil(v.length * 0.995) - 1]);
+  const pad = (hi - lo) * 0.06 || 1e-6;
+  return [lo - pad, hi + pad];
+}
+
 const pick = (values: readonly (number | null)[], idx: number[]) => idx.map((i) => values[i] ?? null);
 
 /** The pressure range of a box selection, from its y range or, failing that, the points inside it. */
@@ -110,15 +120,17 @@ export function ProfilePanels({ cast, refPressure, sigma, inversions, selecting 
     const pMid = cast.columns.p_mid ?? [];
     traces.push({
       type: 'scatter', mode: 'lines', name: 'N²', x: [...N2], y: [...pMid], xaxis: 'x4', yaxis: 'y',
-      line: { color: PLOT_COLORS.inkSoft, width: 1 },
+      line: { color: PLOT_COLORS.inkSoft, width: 0.8 },
       hovertemplate: 'N² %{x:.2e} s⁻²<br>p %{y:.1f} dbar<extra></extra>',
     } as Data);
-    const negative = N2.map((v, i) => (v != null && v < 0 ? i : -1)).filter((i) => i >= 0);
-    if (negative.length) {
+    // Negative N² is everywhere at noise level in a 1 dbar deep profile; only where it belongs to an
+    // inversion is it a warning, so only there is it marked.
+    const unstable = N2.map((v, i) => (v != null && v < 0 && pMid[i] != null && inversions.some((inv) => pMid[i]! >= inv.pTop && pMid[i]! <= inv.pBottom) ? i : -1)).filter((i) => i >= 0);
+    if (unstable.length) {
       traces.push({
-        type: 'scatter', mode: 'markers', name: 'N² < 0', x: pick(N2, negative), y: pick(pMid, negative), xaxis: 'x4', yaxis: 'y',
-        marker: { size: 4, color: PLOT_COLORS.warn },
-        hovertemplate: 'N² %{x:.2e} s⁻² (unstable)<br>p %{y:.1f} dbar<extra></extra>',
+        type: 'scatter', mode: 'markers', name: 'N² < 0 in an inversion', x: pick(N2, unstable), y: pick(pMid, unstable), xaxis: 'x4', yaxis: 'y',
+        marker: { size: 5, color: PLOT_COLORS.warn },
+        hovertemplate: 'N² %{x:.2e} s⁻² (unstable, in an inversion)<br>p %{y:.1f} dbar<extra></extra>',
       } as Data);
     }
 
@@ -140,6 +152,16 @@ export function ProfilePanels({ cast, refPressure, sigma, inversions, selecting 
       }
     }
 
+    // N² spans decades between the seasonal thermocline and the abyss; a robust range (0.5–99.5 %
+    // of the values, always with zero and the inversions' minima) keeps the interior readable.
+    const n2Base = robustRange(N2);
+    const n2Floor = Math.min(0, ...inversions.map((inv) => inv.minN2 ?? 0));
+    // Reach down to an inversion's minimum only so far that the stable interior stays readable; the
+    // interval is shaded on every panel and its N² is in the table either way.
+    const n2Range: [number, number] | null = n2Base
+      ? [Math.max(Math.min(n2Base[0], n2Floor * 1.08), n2Base[0] - 0.6 * (n2Base[1] - n2Base[0])), n2Base[1]]
+      : null;
+
     const axes: Record<string, Partial<LayoutAxis>> = {};
     PANELS.forEach((panel, i) => {
       const name = panel.axis === 'x' ? 'xaxis' : `xaxis${panel.axis.slice(1)}`;
@@ -148,7 +170,9 @@ export function ProfilePanels({ cast, refPressure, sigma, inversions, selecting 
         domain: domainOf(i),
         anchor: 'y',
         side: 'top',
-        ...(panel.key === 'N2' ? { exponentformat: 'power', zeroline: true, zerolinecolor: PLOT_COLORS.inkFaint, nticks: 4 } : { nticks: 5 }),
+        ...(panel.key === 'N2'
+          ? { exponentformat: 'power', zeroline: true, zerolinecolor: PLOT_COLORS.inkFaint, nticks: 4, ...(n2Range ? { range: n2Range } : {}) }
+          : { nticks: 5 }),
       });
     });
 

@@ -48,8 +48,8 @@ export function DerivedForm({ cruiseId, casts, taken, previewDelayMs = 400 }: { 
   }, [casts, castId]);
 
   const columns = useMemo(() => {
-    const fromPreview = preview.data?.variables ?? [];
-    return fromPreview.length > 0 ? [...fromPreview].sort((a, b) => a.localeCompare(b)) : columnNamesOf(cast.data);
+    // The cast's own columns, plus any name the preview reports reading (derived variables, say).
+    return [...new Set([...columnNamesOf(cast.data), ...(preview.data?.variables ?? [])])].sort((a, b) => a.localeCompare(b));
   }, [preview.data, cast.data]);
 
   const change = (key: keyof NewDerivedVariable, value: string) => {

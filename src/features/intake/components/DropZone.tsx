@@ -29,7 +29,7 @@ export function DropZone({ onFiles, disabled = false, maxBytes }: { onFiles: (fi
       }}
       onDragLeave={() => setOver(false)}
       onDrop={onDrop}
-      className={`flex flex-col items-center justify-center gap-3 border-2 border-dashed px-6 py-9 text-center transition-colors ${
+      className={`flex flex-col items-center justify-center gap-2.5 border-2 border-dashed px-6 py-6 text-center transition-colors ${
         over ? 'border-ink bg-ink-wash/70' : 'border-ink/25 bg-paper-raised'
       } ${disabled ? 'opacity-60' : ''}`}
     >

@@ -24,7 +24,7 @@ export function FileProblems({ problems, kind, filename, limit = 50 }: { problem
       </p>
       <ol aria-label={`${isError ? 'Errors' : 'Warnings'} in ${filename}`} className="flex flex-col gap-0.5 text-sm">
         {shown.map((p, i) => (
-          <li key={i} className="grid grid-cols-[minmax(12rem,auto)_1fr] gap-3">
+          <li key={i} className="grid grid-cols-[15rem_1fr] gap-3">
             <span className={`font-mono text-xs tabular-nums leading-5 ${isError ? 'text-warn-strong' : 'text-ink-soft'}`}>{problemPlace(p, filename)}</span>
             <span className="text-ink-strong">
               {p.message}
