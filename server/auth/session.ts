@@ -28,7 +28,7 @@ export function sessionMiddleware(pool: Pool, secret: string, secure: boolean | 
     secret,
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    rolling: false,
     proxy: true,
     cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 1000 * 60 * 60 * 12 },
   });

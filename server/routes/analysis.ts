@@ -10,6 +10,7 @@ import { readColumns } from '../services/columns';
 import { loadCruiseCasts, applyFlags, cached, dataVersion } from '../services/cruiseData';
 import { alongTrackDistance, geostrophicSection, transportPerLayer } from '../../shared/section/index';
 import { levelsOrError } from './sections';
+import { levelsForRange, sigmaRange } from '../services/sectionView';
 import type { AppDeps } from '../lib/deps';
 
 const uuidOr404 = (v: unknown, what: string) => { if (typeof v !== 'string' || !/^[0-9a-f-]{36}$/i.test(v)) throw notFound(`No such ${what}.`); return v; };
@@ -91,11 +92,12 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/geostrophy', summary: 'Geostrophic velocity between adjacent casts and transport per isopycnal layer', rule: { kind: 'member', roles: 'any', cruise: byParam() }, query: GeoQuery,
       handler: async (_req, _res, ctx) => {
         const q = ctx.query as z.infer<typeof GeoQuery>;
-        const levelsText = q.levels ?? (q.ref === 0 ? '24.0:0.4:28.0' : `${30 + q.ref / 1000 * 4}:0.2:${33 + q.ref / 1000 * 4.5}`);
-        const boundaries = levelsOrError(levelsText);
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`geo:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => {
           const casts = (await loadCruiseCasts(ctx.cruiseId!, [])).filter((c) => c.columns.pressure.length > 2);
+          // Default layers: about eight over the σ range the section spans at this reference.
+          const levelsText = q.levels ?? (casts.length ? levelsForRange(...sigmaRange(casts, q.ref), 8) : '24.0:0.4:28.0');
+          const boundaries = levelsOrError(levelsText);
           const choices = { pRef: q.pRef, ref: q.ref, levels: levelsText, bin: q.bin };
           const convention = 'Positive velocity is to the left of the direction of travel along the section in the northern hemisphere sense of TEOS-10 geostrophy: v = ΔD/(f·L) from cast A to cast B.';
           if (casts.length < 2) return { choices, convention, pressure: [], pairs: [], velocity: [], layers: [] };

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { gzipSync } from 'node:zlib';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { badRequest, notFound } from '../lib/errors';
 import { LayerSet } from '../models/index';
@@ -59,9 +60,14 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
       handler: async (_req, res, ctx) => {
         const q = ctx.query as z.infer<typeof SectionQuery>;
         const version = await dataVersion(ctx.cruiseId!);
-        // The cache holds the serialised grid: a warm read is a lookup and a write.
-        const body = await cached(`section:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => JSON.stringify(await buildSectionView(ctx.cruiseId!, q)));
-        res.type('application/json').send(body);
+        // The cache holds the serialised grid, plain and gzipped: a warm read is a lookup and a write.
+        const body = await cached(`section:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => {
+          const json = Buffer.from(JSON.stringify(await buildSectionView(ctx.cruiseId!, q)));
+          return { json, gz: gzipSync(json, { level: 6 }) };
+        });
+        res.type('application/json').setHeader('vary', 'accept-encoding');
+        if (/\bgzip\b/.test(String(_req.headers['accept-encoding'] ?? ''))) res.setHeader('content-encoding', 'gzip').send(body.gz);
+        else res.send(body.json);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/layer-sets', summary: 'Layer sets (target isopycnals per reference pressure)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => {

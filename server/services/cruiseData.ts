@@ -1,13 +1,12 @@
 // Reads a cruise's casts for the section engine and the exports, and builds the regridded
 // tables. Results are cached per cruise and parameters; the cache key carries the cruise's data
 // version (casts, flags and layer sets), so any change makes new keys in every process.
-import { Cast, Cruise, LayerSet } from '../models/index';
+import { Cast, Cruise } from '../models/index';
 import { readColumns } from './columns';
 import { remapToIsopycnals, binToPressure, flagNames, type InversionHandling, type SigmaInterpolation, type Inversion } from '../../shared/remap/index';
 import { sigma_batch } from '../../shared/seawater/index';
 import { ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryTable, type DeliveryColumn, type DeliveryRow, type Provenance } from './deliveries/index';
 import { VERSION } from '../version';
-import { fn, col } from 'sequelize';
 
 export type CruiseCast = {
   id: string; station: string; cast: string; latitude: number; longitude: number; time: Date | null; bottomDepth: number | null;
@@ -28,11 +27,12 @@ export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
 
 /** A short fingerprint of everything a grid of this cruise depends on. */
 export async function dataVersion(cruiseId: string): Promise<string> {
-  const [casts, layers] = await Promise.all([
-    Cast.findOne({ where: { cruiseId }, attributes: [[fn('count', col('id')), 'n'], [fn('max', col('updated_at')), 'u']], raw: true }) as unknown as Promise<{ n: string; u: Date | null }>,
-    LayerSet.findOne({ where: { cruiseId }, attributes: [[fn('count', col('id')), 'n'], [fn('max', col('updated_at')), 'u']], raw: true }) as unknown as Promise<{ n: string; u: Date | null }>,
-  ]);
-  return `${casts.n}:${casts.u ? new Date(casts.u).getTime() : 0}:${layers.n}:${layers.u ? new Date(layers.u).getTime() : 0}`;
+  const [rows] = await Cast.sequelize!.query(
+    `SELECT (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM casts WHERE cruise_id = :id) || ':' ||
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM layer_sets WHERE cruise_id = :id) || ':' ||
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM derived_variables WHERE cruise_id = :id) AS v`,
+    { replacements: { id: cruiseId } });
+  return (rows as { v: string }[])[0].v;
 }
 
 /** names undefined: every column. */

@@ -42,8 +42,32 @@ export async function propertyColumns(cruiseId: string, property: string, raw: C
   });
 }
 
+/** Default target levels when none are asked for: about 100 levels over the σ range the casts
+ * actually span at that reference pressure, on a round step. */
+export function levelsForRange(min: number, max: number, count = 100): string {
+  if (!(max > min)) return DEFAULT_LEVELS[0];
+  const raw = (max - min) / count;
+  const step = [0.005, 0.01, 0.02, 0.025, 0.05, 0.1, 0.2, 0.25, 0.5].find((s) => s >= raw) ?? 1;
+  const lo = Math.floor(min / step) * step;
+  const hi = Math.ceil(max / step) * step;
+  const dp = step < 0.01 ? 3 : 2;
+  return `${lo.toFixed(dp)}:${step}:${hi.toFixed(dp)}`;
+}
+
+export function sigmaRange(casts: { columns: Record<string, Float64Array> }[], ref: number): [number, number] {
+  let min = Infinity, max = -Infinity;
+  for (const c of casts) {
+    const s = sigma_batch(c.columns.SA, c.columns.CT, ref);
+    for (let i = 0; i < s.length; i++) { const v = s[i]; if (v < min) min = v; if (v > max) max = v; }
+  }
+  return [min, max];
+}
+
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
-  const levelsText = q.levels ?? DEFAULT_LEVELS[q.ref];
+  const levelsText = q.levels ?? (await (async () => {
+    const cs = await loadCruiseCasts(cruiseId, []);
+    return cs.length ? levelsForRange(...sigmaRange(cs, q.ref)) : DEFAULT_LEVELS[q.ref];
+  })());
   const parsed = safeParseLevels(levelsText);
   if (!parsed.ok) throw badRequest(`The levels are not valid: ${parsed.errors.join('; ')}`, parsed.errors.map((m) => ({ field: 'levels', message: m })));
   const targets = parsed.levels;

@@ -24,4 +24,6 @@ export const BENCH_MODULES: BenchModule[] = [
   { name: 'load', load: () => import('./load') },
   { name: 'remap', load: () => import('./remap') },
   { name: 'deliveries', load: () => import('./deliveries') },
+  { name: 'section', load: () => import('./section') },
+  { name: 'browser', load: () => import('./browser') },
 ];
