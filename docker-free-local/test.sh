@@ -9,7 +9,10 @@ cd "$ROOT"
 bash "$HERE/packages.sh" || exit 1
 bash "$HERE/npm.sh" || exit 1
 export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}" PG_FSYNC=off
-cleanup() { bash "$HERE/services.sh" stop >/dev/null 2>&1 || true; }
+# Stop on exit only what this run started (a developer's running test services are left alone).
+started=0
+if ! (echo > "/dev/tcp/127.0.0.1/$PGPORT") 2>/dev/null; then started=1; fi
+cleanup() { [ "$started" = 1 ] && bash "$HERE/services.sh" stop >/dev/null 2>&1 || true; }
 trap cleanup EXIT
 bash "$HERE/services.sh" start || exit 1
 echo "[sigmaline] building the client"
