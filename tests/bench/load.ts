@@ -10,7 +10,7 @@ import type { BenchResult } from './modules';
 
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 30);
 const READERS = 50;
-const UPLOADERS = 5;
+const UPLOADERS = Number(process.env.BENCH_LOAD_UPLOADERS ?? 5); // 0: reads alone, to compare
 
 function pct(sorted: number[], p: number) {
   if (!sorted.length) return NaN;
@@ -81,7 +81,7 @@ export async function bench(): Promise<BenchResult[]> {
       url: base + path, connections: READERS, duration: SECONDS, maxOverallRequests: 2_000_000, timeout: 10,
       headers: { cookie: reader.cookie! },
     }, (status, ms) => { readLat.push(ms); count(readStatus, status); });
-    const uploads = run({
+    const uploads = UPLOADERS === 0 ? Promise.resolve({ errors: 0, timeouts: 0 } as autocannon.Result) : run({
       url: base, connections: UPLOADERS, duration: SECONDS, maxOverallRequests: 20_000, timeout: 30,
       requests: [{
         method: 'POST', path: `/api/cruises/${intake.id}/uploads`,
