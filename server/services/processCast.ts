@@ -4,7 +4,7 @@
 import type { ParsedCast, FileError } from '../../shared/schemas/cast';
 import { deriveCast, p_from_z } from '../../shared/seawater/index';
 import { detectInversions } from '../../shared/remap/inversions';
-import { coordinateFitness } from '../../shared/remap/fitness';
+import { coordinateFitness, coordinateFitnessAtResolution } from '../../shared/remap/fitness';
 import type { StoredColumn } from './columns';
 
 export type ProcessedCast = {
@@ -67,7 +67,10 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
   const fitness: Record<string, unknown> = {};
   for (const name of ['sigma0', 'sigma1', 'sigma2', 'sigma3', 'sigma4', 'CT', 'SA', 'pressure']) {
     const v = name === 'pressure' ? p : cols[name];
-    if (v) fitness[name] = coordinateFitness(p, v);
+    // strict, and at the resolution the analysis works at (σ: the inversion threshold; CT 0.01 °C,
+    // SA 0.005 g/kg — sensor-noise scales of the trade, common practice)
+    const tol = name.startsWith('sigma') ? opts.inversionThreshold : name === 'CT' ? 0.01 : name === 'SA' ? 0.005 : 0;
+    if (v) fitness[name] = { ...coordinateFitness(p, v), resolved: coordinateFitnessAtResolution(p, v, tol) };
   }
   const columns: StoredColumn[] = [{ name: 'pressure', unit: 'dbar', kind: c.vertical === 'pressure' ? 'measured' : 'derived', values: p }];
   if (c.columns.depth) columns.push({ name: 'depth', unit: 'm', kind: 'measured', values: c.columns.depth });

@@ -120,3 +120,24 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
     segments,
   };
 }
+
+/**
+ * Coordinate fitness at a resolution: levels are kept only once v has moved by at least
+ * `tolerance` from the last kept level, so reversals smaller than the tolerance (sensor noise,
+ * e.g. σ wiggles below the 0.01 kg/m³ inversion threshold, common practice) do not count. The
+ * strict measure of `coordinateFitness` sees every wiggle; this one answers whether the variable
+ * can serve as a coordinate at the resolution the analysis uses.
+ */
+export function coordinateFitnessAtResolution(p: Float64Array, v: Float64Array, tolerance: number): CoordinateFitness & { tolerance: number } {
+  const kp: number[] = [];
+  const kv: number[] = [];
+  for (let i = 0; i < p.length; i++) {
+    if (!Number.isFinite(p[i]) || !Number.isFinite(v[i])) continue;
+    if (kv.length === 0 || Math.abs(v[i] - kv[kv.length - 1]) >= tolerance) { kp.push(p[i]); kv.push(v[i]); }
+  }
+  // the deepest level closes the span even when it moved less than the tolerance
+  for (let i = p.length - 1; i >= 0; i--) {
+    if (Number.isFinite(p[i]) && Number.isFinite(v[i])) { if (kp[kp.length - 1] !== p[i]) { kp.push(p[i]); kv.push(v[i]); } break; }
+  }
+  return { ...coordinateFitness(Float64Array.from(kp), Float64Array.from(kv)), tolerance };
+}

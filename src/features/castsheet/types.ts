@@ -22,11 +22,15 @@ export const inversionSchema = z.object({
 });
 export type CastInversion = z.infer<typeof inversionSchema>;
 
-export const fitnessEntrySchema = z.object({
+const fitnessFigures = z.object({
   monotonicShare: z.number(),
   multiValuedShare: z.number(),
   direction: z.union([z.string(), z.number()]).nullish().transform((v) => (v == null ? null : String(v))),
   segments: z.array(z.object({ pTop: z.number(), pBottom: z.number() })).nullish().transform((v) => v ?? []),
+});
+export const fitnessEntrySchema = fitnessFigures.extend({
+  /** the same figures at the analysis resolution (reversals smaller than `tolerance` ignored) */
+  resolved: fitnessFigures.extend({ tolerance: z.number() }).nullish().transform((v) => v ?? null),
 });
 export type FitnessEntry = z.infer<typeof fitnessEntrySchema>;
 

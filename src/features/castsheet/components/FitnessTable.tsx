@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import type { FitnessEntry } from '../types';
 
 /** The candidates, in the order a hydrographer weighs them. */
@@ -33,8 +34,20 @@ function ShareBar({ value, tone, label }: { value: number; tone: 'ink' | 'warn';
  */
 export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry> }) {
   const rows = CANDIDATES.filter((c) => fitness[c.key]);
+  const hasResolved = rows.some((r) => fitness[r.key].resolved);
+  const [strict, setStrict] = useState(false);
   if (rows.length === 0) return <p className="px-4 py-3 text-sm text-ink-muted">No fitness figures were stored for this cast.</p>;
+  const pick = (f: FitnessEntry) => (!strict && f.resolved ? f.resolved : f);
   return (
+    <>
+    {hasResolved && (
+      <div className="flex items-center justify-between gap-2 border-b border-paper-rule px-3 py-1.5 text-2xs text-ink-muted">
+        <span>{strict ? 'Strict: every reversal counts, however small.' : 'At analysis resolution: reversals under 0.01 kg/m³ (σ), 0.01 °C (CT), 0.005 g/kg (SA) ignored.'}</span>
+        <button type="button" className="underline decoration-dotted hover:text-ink" onClick={() => setStrict((v) => !v)} aria-pressed={strict}>
+          {strict ? 'Show at resolution' : 'Show strict'}
+        </button>
+      </div>
+    )}
     <table className="w-full border-collapse text-sm" aria-label="Fitness of vertical coordinates">
       <thead>
         <tr className="border-b border-paper-rule text-2xs uppercase tracking-[0.08em] text-ink-muted">
@@ -46,7 +59,7 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
       </thead>
       <tbody className="font-mono text-[0.78rem] tabular-nums">
         {rows.map(({ key, label }) => {
-          const f = fitness[key];
+          const f = pick(fitness[key]);
           return (
             <tr key={key} className="border-b border-paper-rule/60 last:border-0">
               <th scope="row" className="px-3 py-1 text-left font-sans font-semibold text-ink-strong">{label}</th>
@@ -60,5 +73,6 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
         })}
       </tbody>
     </table>
+    </>
   );
 }
