@@ -97,7 +97,7 @@ describe('deliveries', () => {
     const res = await who.pi.agent.post(`/api/deliveries/${deliveryId}/release`).set('x-csrf-token', who.pi.csrf);
     expect(res.status).toBe(200);
     expect(res.body.released).toBe(true);
-    const mail = await waitFor(async () => (await caughtMail()).find((m) => m.subject.includes('Delivery line') && m.subject.includes('released')));
+    const mail = await waitFor(async () => (await caughtMail()).find((m) => m.subject.includes('Delivery line') && m.text.includes(cruiseId)));
     expect(mail.to.sort()).toEqual(['d-analyst@example.test', 'd-chief@example.test', 'd-pi@example.test', 'd-technician@example.test']);
     expect(mail.text).toContain(`/cruises/${cruiseId}/deliveries`);
     expect((await who.pi.agent.delete(`/api/deliveries/${deliveryId}`).set('x-csrf-token', who.pi.csrf)).status).toBe(409);

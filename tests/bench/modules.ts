@@ -25,5 +25,6 @@ export const BENCH_MODULES: BenchModule[] = [
   { name: 'remap', load: () => import('./remap') },
   { name: 'deliveries', load: () => import('./deliveries') },
   { name: 'section', load: () => import('./section') },
+  { name: 'parse', load: () => import('./parse') },
   { name: 'browser', load: () => import('./browser') },
 ];

@@ -52,7 +52,10 @@ describe('foundation in Chromium', () => {
     await techPage.getByLabel('Choose a password').fill('marram-lark-2026');
     await techPage.screenshot({ path: join(SHOTS, 'invite-accept.png') });
     await techPage.getByRole('button', { name: 'Create account and join' }).click();
-    await techPage.waitForURL((u) => !u.pathname.startsWith('/invite'));
+    await techPage.waitForURL((u) => !u.pathname.startsWith('/invite'), { timeout: 15_000 }).catch(async (err) => {
+      await techPage.screenshot({ path: join(SHOTS, 'invite-accept-failed.png') });
+      throw err;
+    });
     await techPage.goto(`${srv.url}/`);
     await techPage.getByRole('table', { name: 'Your cruises' }).getByText('Brindle Rise repeat line').waitFor();
     await techPage.screenshot({ path: join(SHOTS, 'technician-cruises.png') });

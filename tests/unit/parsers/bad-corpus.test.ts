@@ -58,10 +58,10 @@ describe('bad-file corpus', () => {
   it('a zip bomb fails fast, without inflating', async () => {
     const bytes = readFileSync(join(DIR, 'zip-bomb-one-big-entry.zip'));
     const before = process.memoryUsage().arrayBuffers;
-    const t0 = performance.now();
     const r = await parseUpload('bomb.zip', bytes);
-    expect(performance.now() - t0).toBeLessThan(500);
+    // refused from the central directory: no inflated bytes were held (memory, not time, is the check)
     expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(20 * 1024 * 1024);
     expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.errors.map((e) => e.code)).toEqual(expect.arrayContaining([expect.stringMatching(/^zip_(ratio|too_large)$/)]));
   });
 });

@@ -123,19 +123,15 @@ describe('good samples', () => {
     expect(r.stations).toHaveLength(3);
   });
 
-  it('a 6000-level file parses quickly', async () => {
+  it('a 6000-level file parses whole (its speed is a benchmark, tests/bench/parse.ts)', async () => {
     const lines = ['pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78],oxygen [umol/kg],fluorescence'];
     for (let i = 1; i <= 6000; i++) lines.push(`${i}.0,${tAt(i).toFixed(4)},${sAt(i).toFixed(4)},210.5,0.05`);
-    const buf = Buffer.from(lines.join('\n'));
-    await parseUpload('big.csv', buf); // warm up the JIT
-    let best = Infinity;
-    for (let k = 0; k < 5; k++) {
-      const t0 = performance.now();
-      const r = await parseUpload('big.csv', buf);
-      best = Math.min(best, performance.now() - t0);
-      expect(r.ok).toBe(true);
-      if (r.ok) expect(r.casts[0].profile.levels).toBe(6000);
+    const r = await parseUpload('big.csv', Buffer.from(lines.join('\n')));
+    expect(r.ok).toBe(true);
+    if (r.ok) {
+      expect(r.casts[0].profile.levels).toBe(6000);
+      expect(r.casts[0].columns.pressure![5999]).toBe(6000);
+      expect(Object.keys(r.casts[0].extras)).toContain('fluorescence');
     }
-    expect(best).toBeLessThan(40); // about 7 ms warm on the shared 2-core box; the margin is for load
   });
 });
