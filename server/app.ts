@@ -55,7 +55,7 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
     crossOriginEmbedderPolicy: false,
   }));
   // Sessions share the database with the app but get their own small pool.
-  const sessionPool: Pool = new pg.Pool({ connectionString: settings.DATABASE_URL, max: 4 });
+  const sessionPool: Pool = new pg.Pool({ connectionString: settings.DATABASE_URL, max: 10 });
   sessionPool.on('error', (err) => logger.warn({ err }, 'session pool error'));
   const secure = settings.COOKIE_SECURE === 'auto' ? (settings.PUBLIC_URL.startsWith('https:') ? true : false) : settings.COOKIE_SECURE === 'true';
   const api = express.Router();

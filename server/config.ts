@@ -19,6 +19,7 @@ const Settings = z.object({
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
   INVERSION_THRESHOLD: z.coerce.number().positive().default(0.01),
   LOGIN_MAX_FAILURES: z.coerce.number().int().positive().default(8),
+  DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(20),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   COOKIE_SECURE: z.enum(['auto', 'true', 'false']).default('auto'),
   RUN_WORKER_IN_PROCESS: z.enum(['true', 'false']).default('false'),

@@ -11,7 +11,7 @@ export function connectDb(databaseUrl: string, opts: { poolMax?: number } = {}):
   const sequelize = new Sequelize(databaseUrl, {
     dialect: 'postgres',
     logging: false,
-    pool: { max: opts.poolMax ?? 10, min: 0, idle: 10_000, acquire: 30_000 },
+    pool: { max: opts.poolMax ?? 20, min: 0, idle: 10_000, acquire: 30_000 },
     retry: { max: 3 },
   });
   initModels(sequelize);

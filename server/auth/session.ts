@@ -44,9 +44,16 @@ export function configurePassport() {
       })
       .catch(done);
   }));
-  passport.serializeUser((user, done) => done(null, user.id));
-  passport.deserializeUser((id: string, done) => {
-    User.findByPk(id)
+  // The session keeps the user's id, e-mail, name and admin bit, so a request costs no user
+  // lookup; membership and role are still checked in the database on every cruise route.
+  passport.serializeUser((user, done) => done(null, { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }));
+  passport.deserializeUser((stored: unknown, done) => {
+    if (stored && typeof stored === 'object' && 'id' in stored) {
+      const u = stored as Express.User;
+      return done(null, { id: u.id, email: u.email, name: u.name, isAdmin: Boolean(u.isAdmin) });
+    }
+    // sessions made before the user was kept in them hold the id alone
+    User.findByPk(String(stored))
       .then((u) => done(null, u ? { id: u.id, email: u.email, name: u.name, isAdmin: u.isAdmin } : false))
       .catch(done);
   });

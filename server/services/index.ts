@@ -7,7 +7,7 @@ import type { AppDeps } from '../lib/deps';
 
 /** Connects to PostgreSQL, object storage, SMTP and the job queue from the settings. */
 export async function connectServices(settings: Settings = loadSettings(), opts: { migrate?: boolean; poolMax?: number } = {}): Promise<AppDeps & { close(): Promise<void> }> {
-  const db = connectDb(settings.DATABASE_URL, { poolMax: opts.poolMax });
+  const db = connectDb(settings.DATABASE_URL, { poolMax: opts.poolMax ?? settings.DB_POOL_MAX });
   if (opts.migrate !== false) await migrate(db);
   const storage = createStorage({ endpoint: settings.S3_ENDPOINT, bucket: settings.S3_BUCKET, region: settings.S3_REGION, accessKeyId: settings.S3_ACCESS_KEY_ID, secretAccessKey: settings.S3_SECRET_ACCESS_KEY });
   await storage.ensureBucket().catch(() => undefined);

@@ -40,7 +40,8 @@ export type TestApp = { app: App; deps: AppDeps & { close(): Promise<void> }; se
 export async function makeTestApp(env: Record<string, string> = {}): Promise<TestApp> {
   const databaseUrl = await createDatabase();
   const settings = loadSettings({ ...process.env, NODE_ENV: 'test', DATABASE_URL: databaseUrl, S3_BUCKET: `t-${randomBytes(4).toString('hex')}`, ...env });
-  const deps = await connectServices(settings, { poolMax: 5 });
+  // small pools: many test files run at once against one PostgreSQL
+  const deps = await connectServices(settings, { poolMax: env.DB_POOL_MAX ? Number(env.DB_POOL_MAX) : 5 });
   const app = createApp(deps, { staticDir: '/nonexistent' });
   return {
     app, deps, settings, databaseUrl,

@@ -28,7 +28,7 @@ export async function bench(): Promise<BenchResult[]> {
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   const loadBefore = loadavg()[0];
-  const t = await makeTestApp({ PUBLIC_URL: base, LOG_LEVEL: 'warn' });
+  const t = await makeTestApp({ PUBLIC_URL: base, LOG_LEVEL: 'warn', DB_POOL_MAX: '20' });
   let server: Server | null = null;
   try {
     await startWorkers(t.deps, { concurrency: 1 });
@@ -79,7 +79,7 @@ export async function bench(): Promise<BenchResult[]> {
     const count = (m: Map<number, number>, s: number) => m.set(s, (m.get(s) ?? 0) + 1);
     const reads = run({
       url: base + path, connections: READERS, duration: SECONDS, maxOverallRequests: 2_000_000, timeout: 10,
-      headers: { cookie: reader.cookie! },
+      headers: { cookie: reader.cookie!, 'accept-encoding': 'gzip' }, // as a browser asks
     }, (status, ms) => { readLat.push(ms); count(readStatus, status); });
     const uploads = UPLOADERS === 0 ? Promise.resolve({ errors: 0, timeouts: 0 } as autocannon.Result) : run({
       url: base, connections: UPLOADERS, duration: SECONDS, maxOverallRequests: 20_000, timeout: 30,
