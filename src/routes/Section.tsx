@@ -1,8 +1,9 @@
-import { useCallback, useEffect, useState, type KeyboardEvent } from 'react';
+import { useCallback, useEffect, useMemo, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { ErrorNotice, Progress } from '../components/Notice';
 import { EmptyState, Panel } from '../components/Panel';
 import { Spinner } from '../components/Button';
+import { preloadPlotly } from '../components/plot';
 import {
   GeostrophyPanel,
   InversionList,
@@ -11,6 +12,7 @@ import {
   SectionControls,
   SectionFrame,
   TsPanel,
+  createHoverStore,
   digitsFor,
   gridRange,
   nearestStation,
@@ -24,9 +26,10 @@ import {
   useLayerSets,
   useSection,
   useSectionView,
+  useHover,
   INTERPOLATION_TEXT,
   INVERSION_HANDLING_TEXT,
-  type FrameHover,
+  type HoverStore,
   type ReadoutValue,
   type Section as SectionData,
 } from '../features/sections';
@@ -44,22 +47,31 @@ export default function Section() {
   const sets = layerSets.data ?? [];
   const layerSet = sets.find((s) => s.id === view.layerSet) ?? null;
   const levels = layerSet?.levels ?? null;
+  // A view naming a layer set asks for its frames once the set's levels are known (or cannot be):
+  // asking before would compute each frame twice, on the default levels and then on the set's.
+  const levelsKnown = !view.layerSet || !layerSets.isPending;
 
-  const byPressure = useSection(cruise.id, sectionQueryString(view, 'pressure', levels));
-  const byDensity = useSection(cruise.id, sectionQueryString(view, 'density', levels));
-  const [hover, setHover] = useState<FrameHover | null>(null);
+  // Plotly (≈1.4 MB gzip) downloads while the frames are computed, not after.
+  useEffect(() => void preloadPlotly().catch(() => undefined), []);
+
+  const byPressure = useSection(cruise.id, sectionQueryString(view, 'pressure', levels), levelsKnown);
+  const byDensity = useSection(cruise.id, sectionQueryString(view, 'density', levels), levelsKnown);
+  const [hoverStore] = useState(createHoverStore);
+  const setHover = hoverStore.set;
 
   const { label: propLabel, unit: propUnit } = propertyLabel(view.property, derived.data ?? []);
   const unit = byPressure.data?.unit ?? propUnit;
   const densityShowsDepth = view.densityShows === 'depth';
-  // One colour range over both frames, so a colour means one value on either side.
-  const autoRange = gridRange(byPressure.data?.grid, densityShowsDepth ? undefined : byDensity.data?.grid);
-  const range = view.range ?? autoRange;
+  // One colour range over both frames, so a colour means one value on either side. Memoised: a
+  // new range object on every render made both frames redraw on every render.
+  const pressureGrid = byPressure.data?.grid;
+  const densityGrid = densityShowsDepth ? undefined : byDensity.data?.grid;
+  const autoRange = useMemo(() => gridRange(pressureGrid, densityGrid), [pressureGrid, densityGrid]);
+  const viewRange = view.range;
+  const range = useMemo(() => viewRange ?? autoRange, [viewRange?.min, viewRange?.max, autoRange]); // eslint-disable-line react-hooks/exhaustive-deps
   const digits = digitsFor(range ? range.max - range.min : NaN);
   const stations = byPressure.data?.stations ?? byDensity.data?.stations ?? [];
   const sigma = sigmaName(view.ref);
-
-  const readout = toReadout(hover, byPressure.data, byDensity.data, stations);
 
   const step = useCallback(
     (delta: number) => {
@@ -73,7 +85,7 @@ export default function Section() {
         return { coord: h?.coord ?? 'pressure', x: next.x, y };
       });
     },
-    [stations, currentView, setView, byDensity.data, byPressure.data],
+    [stations, currentView, setView, setHover, byDensity.data, byPressure.data],
   );
 
   const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
@@ -86,6 +98,7 @@ export default function Section() {
     }
   };
 
+  const pickStation = useCallback((id: string) => setView({ station: id }, { replace: true }), [setView]);
   const openCast = (castId: string) => navigate(`/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(castId)}`);
   const valueTitle = `${view.property}${unit ? ` (${unit})` : ''}`;
   const levelsText = layerSet ? `${layerSet.name} (${layerSet.levels})` : `default levels ${byDensity.data?.choices.levels ?? ''}`;
@@ -95,6 +108,20 @@ export default function Section() {
   const inversions = byPressure.data?.inversions ?? [];
 
   const noCasts = byPressure.isSuccess && byPressure.data.stations.length === 0;
+
+  // The T–S and geostrophy panels ask for their data and draw once the first frame is on screen:
+  // they share the server and the browser's main thread with the frames, and the frames come first.
+  const [framesDrawn, setFramesDrawn] = useState(false);
+  const onFirstDrawn = useCallback(() => setFramesDrawn(true), []);
+  const pressureSettled = byPressure.isError || noCasts;
+  const pressureArrived = byPressure.isSuccess;
+  useEffect(() => {
+    if (framesDrawn || !pressureArrived) return;
+    // Should the plot never report a draw (Plotly failed to load), the panels come anyway.
+    const timer = setTimeout(() => setFramesDrawn(true), 4000);
+    return () => clearTimeout(timer);
+  }, [framesDrawn, pressureArrived]);
+  const panelsReady = framesDrawn || pressureSettled;
 
   return (
     <div className="flex flex-col gap-4">
@@ -134,8 +161,9 @@ export default function Section() {
                   cursorStationId={view.station}
                   height={frameHeight}
                   onHover={setHover}
-                  onPickStation={(id) => setView({ station: id }, { replace: true })}
+                  onPickStation={pickStation}
                   onPickInversion={openCast}
+                  onDrawn={framesDrawn ? undefined : onFirstDrawn}
                   caption={
                     <>
                       {propLabel} on {data.choices.bin} dbar bins. Isopycnals: {sigma} (reference {view.ref} dbar), inversions {handling}. Warm marks: inversions of {sigma}, at the cast, from top to bottom of the inverted interval. Dark fill: the bottom.
@@ -156,7 +184,7 @@ export default function Section() {
                   cursorStationId={view.station}
                   height={frameHeight}
                   onHover={setHover}
-                  onPickStation={(id) => setView({ station: id }, { replace: true })}
+                  onPickStation={pickStation}
                   onPickInversion={openCast}
                   caption={
                     <>
@@ -168,12 +196,16 @@ export default function Section() {
             />
           </div>
           <aside className="flex flex-col gap-3" aria-label="Section details">
-            <Readout
-              readout={readout}
-              unit={readout?.coord === 'density' && densityShowsDepth ? 'dbar' : unit}
-              valueName={readout?.coord === 'density' && densityShowsDepth ? 'Pressure' : view.property}
+            <LiveReadout
+              store={hoverStore}
+              byPressure={byPressure.data}
+              byDensity={byDensity.data}
+              stations={stations}
+              unit={unit}
+              property={view.property}
+              densityShowsDepth={densityShowsDepth}
               sigma={sigma}
-              digits={readout?.coord === 'density' && densityShowsDepth ? 0 : digits}
+              digits={digits}
             />
             <InversionList cruiseId={cruise.id} inversions={inversions} sigma={sigma} />
             <SavedViews cruiseId={cruise.id} query={serialiseViewState(view)} canSave={canSaveViews(cruise.role)} />
@@ -181,7 +213,13 @@ export default function Section() {
         </div>
       )}
 
-      {!noCasts && (
+      {!noCasts && !panelsReady && (
+        <div className="grid gap-4 2xl:grid-cols-2">
+          <Panel title="T–S"><Progress label="The T–S diagram follows the section…" /></Panel>
+          <Panel title="Geostrophy"><Progress label="Geostrophy follows the section…" /></Panel>
+        </div>
+      )}
+      {!noCasts && panelsReady && (
         <div className="grid gap-4 2xl:grid-cols-2">
           <TsPanel
             cruiseId={cruise.id}
@@ -227,8 +265,35 @@ function FrameBox({
   );
 }
 
+/** The readout, the one part of the screen that follows the pointer. */
+function LiveReadout({
+  store,
+  byPressure,
+  byDensity,
+  stations,
+  unit,
+  property,
+  densityShowsDepth,
+  sigma,
+  digits,
+}: {
+  store: HoverStore;
+  byPressure: SectionData | undefined;
+  byDensity: SectionData | undefined;
+  stations: SectionData['stations'];
+  unit: string;
+  property: string;
+  densityShowsDepth: boolean;
+  sigma: string;
+  digits: number;
+}) {
+  const readout = toReadout(useHover(store), byPressure, byDensity, stations);
+  const depth = readout?.coord === 'density' && densityShowsDepth;
+  return <Readout readout={readout} unit={depth ? 'dbar' : unit} valueName={depth ? 'Pressure' : property} sigma={sigma} digits={depth ? 0 : digits} />;
+}
+
 function toReadout(
-  hover: FrameHover | null,
+  hover: ReturnType<HoverStore['get']>,
   byPressure: SectionData | undefined,
   byDensity: SectionData | undefined,
   stations: SectionData['stations'],

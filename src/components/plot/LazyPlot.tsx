@@ -1,4 +1,4 @@
-import { Component, lazy, Suspense, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
+import { Component, lazy, Suspense, useCallback, useRef, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
 import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent, PlotSelectionEvent } from 'plotly.js';
 import { Progress } from '../Notice';
 
@@ -24,6 +24,7 @@ export interface PlotProps {
   onHover?: (event: PlotMouseEvent) => void;
   onRelayout?: (event: PlotRelayoutEvent) => void;
   onInitialized?: (figure: unknown, graphDiv: HTMLElement) => void;
+  onAfterPlot?: () => void;
 }
 
 let loading: Promise<{ default: ComponentType<PlotProps> }> | null = null;
@@ -34,6 +35,7 @@ export function preloadPlotly(): Promise<{ default: ComponentType<PlotProps> }> 
     loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(([factory, plotly]) => {
       const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
       const Plotly = (plotly as { default?: object }).default ?? plotly;
+      performance.mark?.('plotly loaded');
       return { default: createPlotlyComponent(Plotly) as ComponentType<PlotProps> };
     });
     // A failed fetch (offline, redeploy) must not stick: the next mount tries again.
@@ -57,12 +59,21 @@ export interface LazyPlotProps extends PlotProps {
 
 /** A Plotly figure in a labelled box, loading Plotly on first use. */
 export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, ...plot }: LazyPlotProps) {
+  const figure = useRef<HTMLElement>(null);
+  const { onAfterPlot } = plot;
+  const afterPlot = useCallback(() => {
+    // A marker for tests and the browser benchmark: this figure has been drawn at least once.
+    // Its value is the page clock (ms since the navigation started) at the first draw.
+    if (!figure.current?.hasAttribute('data-plot-drawn')) figure.current?.setAttribute('data-plot-drawn', performance.now().toFixed(1));
+    performance.mark?.(`plot drawn: ${label}`);
+    onAfterPlot?.();
+  }, [onAfterPlot, label]);
   return (
-    <figure aria-label={label} className={`m-0 flex flex-col ${className}`}>
+    <figure ref={figure} aria-label={label} className={`m-0 flex flex-col ${className}`}>
       <div style={{ height }} className="relative w-full">
         <PlotErrorBoundary>
           <Suspense fallback={<PlotLoading label={label} />}>
-            <Plot {...plot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
+            <Plot {...plot} onAfterPlot={afterPlot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
           </Suspense>
         </PlotErrorBoundary>
       </div>

@@ -16,13 +16,19 @@ const cruisePath = (cruiseId: string) => `/api/cruises/${encodeURIComponent(crui
 export const sectionQuery = (cruiseId: string, query: string) =>
   queryOptions({
     queryKey: sectionKeys.grid(cruiseId, query),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/section?${query}`, { schema: sectionSchema, signal }),
+    queryFn: async ({ signal }) => {
+      const section = await http(`${cruisePath(cruiseId)}/section?${query}`, { schema: sectionSchema, signal });
+      performance.mark?.(`section ${section.choices.coord} parsed`);
+      return section;
+    },
     staleTime: 5 * 60_000,
   });
 
 /** One frame of the section; the last frame stays on screen while the next is computed. */
-export function useSection(cruiseId: string, query: string) {
-  return useQuery({ ...sectionQuery(cruiseId, query), placeholderData: keepPreviousData });
+export function useSection(cruiseId: string, query: string, enabled = true) {
+  // A changed query supersedes the last: the superseded request loses its only observer and is
+  // aborted (the signal is passed to fetch), so one request per frame is in flight.
+  return useQuery({ ...sectionQuery(cruiseId, query), placeholderData: keepPreviousData, enabled });
 }
 
 export function useTsPoints(cruiseId: string, every = 4) {

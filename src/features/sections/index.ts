@@ -37,3 +37,5 @@ export { SavedViews } from './components/SavedViews';
 export { TsPanel } from './components/TsPanel';
 export { GeostrophyPanel } from './components/GeostrophyPanel';
 export * from './types';
+export { createHoverStore, useHover } from './hoverStore';
+export type { HoverStore } from './hoverStore';

@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useRef } from 'react';
 import type { Data, Layout, PlotMouseEvent, Shape } from 'plotly.js';
 import {
   DEPTHS,
@@ -37,24 +37,47 @@ export interface SectionFrameProps {
   onHover: (hover: FrameHover) => void;
   onPickStation: (stationId: string) => void;
   onPickInversion: (castId: string) => void;
+  /** Called each time Plotly has drawn the frame. */
+  onDrawn?: () => void;
 }
 
+/** One config for every frame: react-plotly redraws whenever the config object changes. */
+const FRAME_CONFIG = plotConfig();
+
 /** One frame of the section: the field, isopycnals (pressure frame), the bottom, stations and inversion marks. */
-export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion }: SectionFrameProps) {
-  const { data, layout } = useMemo(() => buildFigure(section, coord, valueTitle, range, cursorStationId), [section, coord, valueTitle, range, cursorStationId]);
+export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion, onDrawn }: SectionFrameProps) {
+  // The traces depend on the data and the colour range only; the station cursor changes the layout
+  // (a dotted line, a bold tick label), which Plotly redraws without recomputing the field.
+  const data = useMemo(() => buildTraces(section, coord, valueTitle, range), [section, coord, valueTitle, range]);
+  const layout = useMemo(() => buildLayout(section, coord, cursorStationId), [section, coord, cursorStationId]);
   const title = coord === 'pressure' ? 'Section by pressure' : `Section by density (${sigmaLabel(section.choices.ref)})`;
 
-  const handleClick = (event: PlotMouseEvent) => {
-    const point = event.points?.[0];
-    if (!point) return;
-    const castId = (point.customdata as unknown as string | undefined) ?? undefined;
-    if (point.data.name === 'inversions' && typeof castId === 'string') {
-      onPickInversion(castId);
-      return;
-    }
-    const station = nearestStation(section.stations, Number(point.x));
-    if (station) onPickStation(station.id);
-  };
+  // react-plotly binds event handlers only when it redraws; stable handlers that read the newest
+  // props keep a click from acting on the props of an older render.
+  const latest = useRef({ section, coord, onHover, onPickStation, onPickInversion });
+  latest.current = { section, coord, onHover, onPickStation, onPickInversion };
+  const handlers = useMemo(
+    () => ({
+      hover(event: PlotMouseEvent) {
+        const point = event.points?.[0];
+        const { coord: c, onHover: report } = latest.current;
+        if (point && Number.isFinite(Number(point.x)) && Number.isFinite(Number(point.y))) report({ coord: c, x: Number(point.x), y: Number(point.y) });
+      },
+      click(event: PlotMouseEvent) {
+        const point = event.points?.[0];
+        if (!point) return;
+        const { section: s, onPickInversion: pickInversion, onPickStation: pickStation } = latest.current;
+        const castId = (point.customdata as unknown as string | undefined) ?? undefined;
+        if (point.data.name === 'inversions' && typeof castId === 'string') {
+          pickInversion(castId);
+          return;
+        }
+        const station = nearestStation(s.stations, Number(point.x));
+        if (station) pickStation(station.id);
+      },
+    }),
+    [],
+  );
 
   return (
     <LazyPlot
@@ -62,17 +85,16 @@ export function SectionFrame({ section, coord, valueTitle, range, cursorStationI
       height={height}
       data={data}
       layout={layout}
-      config={plotConfig()}
+      config={FRAME_CONFIG}
       caption={caption}
-      onHover={(event) => {
-        const point = event.points?.[0];
-        if (point && Number.isFinite(Number(point.x)) && Number.isFinite(Number(point.y))) onHover({ coord, x: Number(point.x), y: Number(point.y) });
-      }}
-      onClick={handleClick}
+      onHover={handlers.hover}
+      onClick={handlers.click}
+      onAfterPlot={onDrawn}
     />
   );
 }
 
+/** The figure of a frame (traces and layout), for tests and for anything drawing a frame elsewhere. */
 export function buildFigure(
   section: Section,
   coord: 'pressure' | 'density',
@@ -80,9 +102,32 @@ export function buildFigure(
   range: { min: number; max: number } | null,
   cursorStationId: string | null,
 ): { data: Data[]; layout: Partial<Layout> } {
+  return { data: buildTraces(section, coord, valueTitle, range), layout: buildLayout(section, coord, cursorStationId) };
+}
+
+/**
+ * Margins fixed for what a frame holds — pressure ("5000") or σ ("27.60") ticks and title on the
+ * left, the colour bar on the right, station names (tilted when many) on top. Automatic margins
+ * made Plotly measure the drawn labels and draw the whole frame again, once or twice per draw.
+ */
+const FRAME_MARGIN = { l: 66, r: 84, t: 46, b: 42, autoexpand: false } as const;
+
+/** The lowest pressure the frame shows: the grid's or the deepest bottom's. */
+function frameYMax(section: Section): number {
+  let yMax = section.grid.y[section.grid.y.length - 1] ?? 0;
+  for (const b of section.bottom) if (b.p > yMax) yMax = b.p;
+  return yMax;
+}
+
+export function buildTraces(
+  section: Section,
+  coord: 'pressure' | 'density',
+  valueTitle: string,
+  range: { min: number; max: number } | null,
+): Data[] {
   const { grid, stations } = section;
   const data: Data[] = [];
-  const yMax = Math.max(grid.y[grid.y.length - 1] ?? 0, ...section.bottom.map((b) => b.p));
+  const yMax = frameYMax(section);
   const yMin = grid.y[0] ?? 0;
 
   data.push({
@@ -91,30 +136,40 @@ export function buildFigure(
     x: grid.x,
     y: grid.y,
     z: grid.z as number[][],
+    // Cells as they are: no smoothing pass over ~100 000 cells, and a bin reads as a bin.
+    zsmooth: false,
     colorscale: toPlotly(DEPTHS),
     zmin: range?.min,
     zmax: range?.max,
     zauto: !range,
     hoverinfo: 'none',
-    colorbar: colorBar(valueTitle) as Data['colorbar' & keyof Data],
+    // Placed in the fixed right margin (see FRAME_MARGIN), so it pushes no margin and costs no redraw.
+    colorbar: { ...colorBar(valueTitle), x: 1, xanchor: 'left', xpad: 10 } as Data['colorbar' & keyof Data],
     hoverongaps: true,
   } as Data);
 
   if (coord === 'pressure') {
-    section.isopycnals.forEach((line) => {
-      const xs = stations.map((s) => s.x);
+    // Isopycnals as the server traced them (σ level → pressure at each station): lines, not a
+    // contour pass over the grid, and all of them one trace, broken by nulls — a trace each cost
+    // Plotly a calc, a layer and a draw apiece, ~40 times.
+    const xs: (number | null)[] = [], ys: (number | null)[] = [];
+    for (const line of section.isopycnals) {
+      if (xs.length) { xs.push(null); ys.push(null); }
+      stations.forEach((s, i) => { xs.push(s.x); ys.push(line.p[i] ?? null); });
+    }
+    if (xs.length) {
       data.push({
         type: 'scatter',
         mode: 'lines',
         name: 'isopycnal',
         x: xs,
-        y: line.p,
+        y: ys,
         line: { color: PLOT_COLORS.inkStrong, width: 0.9 },
         opacity: 0.75,
         hoverinfo: 'none',
         connectgaps: false,
       });
-    });
+    }
     // Labels at the right end of each isopycnal, where it still has water.
     const ends = section.isopycnals.flatMap((line) => {
       for (let i = line.p.length - 1; i >= 0; i--) {
@@ -206,7 +261,13 @@ export function buildFigure(
     marker: { size: 1, color: 'rgba(0,0,0,0)' },
     hoverinfo: 'skip',
   });
+  return data;
+}
 
+export function buildLayout(section: Section, coord: 'pressure' | 'density', cursorStationId: string | null): Partial<Layout> {
+  const { grid, stations } = section;
+  const yMax = frameYMax(section);
+  const yMin = grid.y[0] ?? 0;
   const cursor = stations.find((s) => s.id === cursorStationId);
   const shapes: Partial<Shape>[] = [];
   if (cursor) {
@@ -226,11 +287,11 @@ export function buildFigure(
   const firstWet = wet.indexOf(true), lastWet = wet.lastIndexOf(true);
   const sigmaSpan = firstWet >= 0 ? [grid.y[Math.max(0, firstWet - 1)], grid.y[Math.min(grid.y.length - 1, lastWet + 1)]] : null;
   const yAxis = coord === 'pressure'
-    ? pressureAxis({ autorange: false, range: [yMax * 1.02, yMin] })
-    : densityAxis(section.choices.ref, sigmaSpan ? { autorange: false, range: [sigmaSpan[1], sigmaSpan[0]] } : { autorange: 'reversed' });
+    ? pressureAxis({ autorange: false, range: [yMax * 1.02, yMin], automargin: false })
+    : densityAxis(section.choices.ref, sigmaSpan ? { autorange: false, range: [sigmaSpan[1], sigmaSpan[0]], automargin: false } : { autorange: 'reversed', automargin: false });
   const layout = baseLayout({
-    margin: { l: 60, r: 12, t: 46, b: 40 },
-    xaxis: valueAxis('Distance along the track (km)', { range: [grid.x[0], grid.x[grid.x.length - 1]] }),
+    margin: FRAME_MARGIN,
+    xaxis: valueAxis('Distance along the track (km)', { range: [grid.x[0], grid.x[grid.x.length - 1]], automargin: false }),
     xaxis2: {
       overlaying: 'x',
       side: 'top',
@@ -249,5 +310,5 @@ export function buildFigure(
     yaxis: yAxis,
     shapes,
   } as Partial<Layout>);
-  return { data, layout };
+  return layout;
 }

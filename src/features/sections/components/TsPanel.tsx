@@ -1,6 +1,6 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import type { Data, PlotMouseEvent } from 'plotly.js';
-import { DEPTHS, LazyPlot, PLOT_COLORS, baseLayout, colorAt, colorBar, plotConfig, sigmaLabel, toPlotly, valueAxis } from '../../../components/plot';
+import { DEPTHS, LazyPlot, PLOT_COLORS, baseLayout, colorAt, colorBar, plotConfig, sigmaLabel, toPlotly, valueAxis, webglAvailable } from '../../../components/plot';
 import { ErrorNotice, Progress } from '../../../components/Notice';
 import { Panel } from '../../../components/Panel';
 import { useTsPoints } from '../api';
@@ -19,8 +19,12 @@ export interface TsPanelProps {
 
 /** CT against SA for every cast, over σ contours at the view's reference pressure computed here. */
 export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onColourBy, onSelectCast, height = 420 }: TsPanelProps) {
-  const ts = useTsPoints(cruiseId, 4);
-  const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId) : null), [ts.data, refPressure, colourBy, selectedCastId]);
+  // WebGL draws every 4th level of every cast; SVG, which cannot carry ~50 000 points at speed,
+  // every 16th.
+  const [gl] = useState(webglAvailable);
+  const every = gl ? 4 : 16;
+  const ts = useTsPoints(cruiseId, every);
+  const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, gl ? 'scattergl' : 'scatter') : null), [ts.data, refPressure, colourBy, selectedCastId, gl]);
 
   return (
     <Panel
@@ -47,14 +51,14 @@ export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onCol
           height={height}
           data={figure.data}
           layout={figure.layout}
-          config={plotConfig()}
+          config={TS_CONFIG}
           onClick={(event: PlotMouseEvent) => {
             const castId = event.points?.[0]?.customdata as unknown;
             if (typeof castId === 'string') onSelectCast(castId);
           }}
           caption={
             <>
-              Every 4th level of every cast. Contours: {sigmaLabel(refPressure)} (kg/m³) at {refPressure} dbar from the 75-term TEOS-10 density, computed in the browser.
+              Every {every === 4 ? '4th' : `${every}th`} level of every cast. Contours: {sigmaLabel(refPressure)} (kg/m³) at {refPressure} dbar from the 75-term TEOS-10 density, computed in the browser.
               {selectedCastId && ' The selected station is drawn dark; click a point to select its station.'}
             </>
           }
@@ -64,7 +68,15 @@ export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onCol
   );
 }
 
-export function buildTsFigure(casts: readonly TsCast[], refPressure: number, colourBy: 'pressure' | 'station', selectedCastId: string | null) {
+const TS_CONFIG = plotConfig();
+
+export function buildTsFigure(
+  casts: readonly TsCast[],
+  refPressure: number,
+  colourBy: 'pressure' | 'station',
+  selectedCastId: string | null,
+  pointType: 'scattergl' | 'scatter' = 'scattergl',
+) {
   const extent = tsExtent(casts);
   const data: Data[] = [];
   if (extent) {
@@ -94,7 +106,7 @@ export function buildTsFigure(casts: readonly TsCast[], refPressure: number, col
     const faded = anySelected && !selected;
     const stationColour = colorAt(DEPTHS, xMax > xMin ? 0.15 + (0.85 * (c.x - xMin)) / (xMax - xMin) : 0.6);
     return {
-      type: 'scattergl',
+      type: pointType,
       mode: 'markers',
       name: c.station,
       x: c.SA,
