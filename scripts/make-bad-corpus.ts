@@ -4,6 +4,7 @@
 import { mkdirSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import yazl from 'yazl';
+import { mulberry32 } from './lib/prng';
 
 const OUT = join(import.meta.dirname, '..', 'fixtures', 'bad');
 
@@ -16,17 +17,7 @@ export type BadEntry = {
   what: string;
 };
 
-/** mulberry32: a small seeded PRNG, enough for picking positions. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = mulberry32;
 const rand = prng(20260304);
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)];
 const int = (lo: number, hi: number): number => lo + Math.floor(rand() * (hi - lo + 1));

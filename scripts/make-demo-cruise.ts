@@ -11,20 +11,12 @@ import { join } from 'node:path';
 import { CT_from_t } from '../shared/seawater/conversions';
 import { sigma0 } from '../shared/seawater/density';
 import { p_from_z } from '../shared/seawater/depth';
+import { mulberry32 } from './lib/prng';
 
 const OUT = join(import.meta.dirname, '..', 'fixtures', 'demo');
 const CASTS = join(OUT, 'casts');
 
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = mulberry32;
 const rand = prng(2604);
 /** Roughly Gaussian noise of standard deviation sd (sum of four uniforms). */
 const noise = (sd: number): number => (rand() + rand() + rand() + rand() - 2) * sd * Math.sqrt(3);

@@ -19,17 +19,7 @@ import { Nsquared } from '../../shared/seawater/stability';
 import { geo_strf_dyn_height, geo_strf_velocity } from '../../shared/seawater/geostrophy';
 import { spiciness0 } from '../../shared/seawater/spiciness';
 
-/** Small deterministic generator (mulberry32) so a failure can be reproduced. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = mulberry32;
 const rand = rng(20240611);
 const uniform = (lo: number, hi: number) => lo + (hi - lo) * rand();
 const uPS = 35.16504 / 35;
@@ -105,6 +95,7 @@ for pr in d['pairs']:
   out['pairs'].append([None if np.isnan(x) else x for x in v[:, 0].tolist()])
 json.dump(out, sys.stdout, allow_nan=False)
 `;
+import { mulberry32 } from '../../scripts/lib/prng';
 
 interface Ref {
   [k: string]: unknown;

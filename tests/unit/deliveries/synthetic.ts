@@ -9,18 +9,9 @@ import {
   type PressureRow,
   type Provenance,
 } from '../../../server/services/deliveries/table';
+import { mulberry32 } from '../../../scripts/lib/prng';
 
-/** mulberry32: a small seeded generator, uniform on [0, 1). */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export const rng = mulberry32;
 
 export function provenance(overrides: Partial<Provenance> = {}): Provenance {
   return {
