@@ -71,10 +71,10 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
         const cruise = (await Cruise.findByPk(ctx.cruiseId!))!;
         const members = await Membership.findAll({ where: { cruiseId: ctx.cruiseId! }, include: [User] });
         const link = `${deps.settings.PUBLIC_URL}/cruises/${cruise.id}/deliveries`;
-        const what = `${d.kind} delivery (${d.files.map((f) => f.filename).join(', ')})`;
+        const what = `${d.kind === 'package' ? 'data package' : `${d.kind} table`} (${d.files.map((f) => f.filename).join(', ')})`;
         await deps.mailer.send({ to: members.map((m) => (m as Membership & { User: User }).User.email), subject: `Sigmaline: ${cruise.name} — data released`,
-          text: `${req.user!.name} released a ${what} of ${cruise.name}.\n\nDownload it here:\n${link}\n\nProvisional research data; not for navigation or safety-of-life use.`,
-          html: `<p>${escapeHtml(req.user!.name)} released a ${escapeHtml(what)} of <b>${escapeHtml(cruise.name)}</b>.</p><p><a href="${escapeHtml(link)}">Open the deliveries</a></p><p><small>Provisional research data; not for navigation or safety-of-life use.</small></p>` });
+          text: `${req.user!.name} released the ${what} of ${cruise.name}.\n\nDownload it here:\n${link}\n\nProvisional research data; not for navigation or safety-of-life use.`,
+          html: `<p>${escapeHtml(req.user!.name)} released the ${escapeHtml(what)} of <b>${escapeHtml(cruise.name)}</b>.</p><p><a href="${escapeHtml(link)}">Open the deliveries</a></p><p><small>Provisional research data; not for navigation or safety-of-life use.</small></p>` });
         return deliveryJson(d);
       } }),
     defineRoute({ method: 'delete', path: '/deliveries/:id', summary: 'Delete a delivery that is not released', rule: { kind: 'member', roles: [...builders], cruise: deliveryCruise },
