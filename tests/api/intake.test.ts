@@ -94,6 +94,16 @@ describe('intake', () => {
     expect(res.status).toBe(413);
     expect(res.body.error.message).toMatch(/limit/);
   });
+  it('a locked cruise takes no more uploads (409), and the lock is audited', async () => {
+    const chief = await agentFor(t.app, 'i-chief@example.test');
+    expect((await chief.agent.patch(`/api/cruises/${cruiseId}`).set('x-csrf-token', chief.csrf).send({ locked: true })).body.locked).toBe(true);
+    const res = await upload([sample('plain-tab.tsv')]);
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('locked');
+    expect((await chief.agent.patch(`/api/cruises/${cruiseId}`).set('x-csrf-token', chief.csrf).send({ locked: false })).body.locked).toBe(false);
+    const trail = (await chief.agent.get(`/api/cruises/${cruiseId}/audit`)).body as { action: string }[];
+    expect(trail.map((a) => a.action)).toEqual(expect.arrayContaining(['lock', 'unlock']));
+  });
   it('a technician of another cruise cannot upload here (404), an analyst here may not (403)', async () => {
     expect((await upload([sample('plain.csv')], analyst)).status).toBe(403);
   });

@@ -3,6 +3,32 @@ import { Num } from '../../../components/Num';
 import { cruiseDays } from '../../../lib/format';
 import { roleLabel } from '../../auth';
 import type { Cruise } from '../types';
+import { useState } from 'react';
+import { Button } from '../../../components/Button';
+import { useUpdateCruise } from '../api';
+
+/** The chief scientist locks a cruise once its data are final: no more uploads; unlocking is audited too. */
+function LockControl({ cruise }: { cruise: Cruise }) {
+  const update = useUpdateCruise(cruise.id);
+  const [confirming, setConfirming] = useState(false);
+  if (cruise.role !== 'chief_scientist') return null;
+  if (!confirming) {
+    return (
+      <Button variant="quiet" size="sm" onClick={() => setConfirming(true)}>
+        {cruise.locked ? 'Unlock cruise' : 'Lock cruise'}
+      </Button>
+    );
+  }
+  return (
+    <div role="group" aria-label="Confirm lock" className="flex items-center gap-2 text-xs text-ink-soft">
+      <span>{cruise.locked ? 'Allow uploads again?' : 'Lock: no more uploads to this cruise.'}</span>
+      <Button size="sm" variant="primary" busy={update.isPending} onClick={() => update.mutate({ locked: !cruise.locked }, { onSuccess: () => setConfirming(false) })}>
+        {cruise.locked ? 'Unlock' : 'Lock'}
+      </Button>
+      <Button size="sm" variant="quiet" onClick={() => setConfirming(false)}>Back</Button>
+    </div>
+  );
+}
 
 export function CruiseHeader({ cruise }: { cruise: Cruise }) {
   const days = cruiseDays(cruise.startDate, cruise.endDate);
@@ -32,6 +58,7 @@ export function CruiseHeader({ cruise }: { cruise: Cruise }) {
           {cruise.region && <Meta term="Region">{cruise.region}</Meta>}
         </dl>
       }
+      actions={<LockControl cruise={cruise} />}
     />
   );
 }
