@@ -3,8 +3,9 @@ import { Num } from '../components/Num';
 import { EmptyState, Panel } from '../components/Panel';
 import { can } from '../features/auth';
 import { CastsTable, useCasts } from '../features/casts';
-import { AddStationForm, StationList, StationMap, useStations } from '../features/cruises';
+import { AddStationForm, AuditTrail, StationList, StationMap, useStations } from '../features/cruises';
 import { useCurrentCruise } from './CruiseLayout';
+
 
 export default function CruiseDesk() {
   const cruise = useCurrentCruise();
@@ -53,6 +54,10 @@ export default function CruiseDesk() {
         {casts.isPending && <Progress label="Loading the casts…" />}
         {casts.isError && <div className="p-4"><ErrorNotice error={casts.error} title="The casts could not be loaded" /></div>}
         {casts.isSuccess && <CastsTable casts={castList} />}
+      </Panel>
+
+      <Panel title="Audit trail" titleId="audit-trail">
+        <AuditTrail cruiseId={cruise.id} />
       </Panel>
     </div>
   );

@@ -20,3 +20,4 @@ export { StationMap } from './map/StationMap';
 export { fitStationFrame, degreeLabel, unwrapLongitudes } from './map/projection';
 export { cruiseSchema, stationSchema, newCruiseSchema, newStationSchema } from './types';
 export type { Cruise, Station, NewCruise, NewStation } from './types';
+export { AuditTrail, useAuditTrail } from './components/AuditTrail';
