@@ -1,6 +1,7 @@
 // createApp builds the Express app from its dependencies; server/index.ts only listens.
 import express, { type ErrorRequestHandler } from 'express';
 import helmet from 'helmet';
+import compression from 'compression';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Pool } from 'pg';
@@ -38,6 +39,8 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
   const settings = deps.settings;
   app.set('trust proxy', 'loopback');
   app.disable('x-powered-by');
+  // gzip for the client's files and JSON answers (the section route sends its own cached gzip)
+  app.use(compression({ threshold: 1024 }));
   app.use(helmet({
     contentSecurityPolicy: {
       directives: {

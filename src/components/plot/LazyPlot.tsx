@@ -3,7 +3,7 @@ import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent, PlotSelec
 import { Progress } from '../Notice';
 
 /**
- * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-dist-min` is a
+ * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-cartesian-dist-min` (the cartesian traces: scatter, heatmap, contour, bar — all our screens draw) is a
  * dynamic import, so Vite puts Plotly (≈4.6 MB, ≈1.4 MB gzip) in its own chunk that only screens
  * with a plot download; the first screen stays light. While it loads, the plot's box keeps its size
  * and shows progress; if the chunk cannot be fetched the box says so.
@@ -32,7 +32,7 @@ let loading: Promise<{ default: ComponentType<PlotProps> }> | null = null;
 /** Start fetching Plotly (e.g. on hover of a link to a plotting screen); safe to call repeatedly. */
 export function preloadPlotly(): Promise<{ default: ComponentType<PlotProps> }> {
   if (!loading) {
-    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(([factory, plotly]) => {
+    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-cartesian-dist-min')]).then(([factory, plotly]) => {
       const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
       const Plotly = (plotly as { default?: object }).default ?? plotly;
       performance.mark?.('plotly loaded');

@@ -5,4 +5,3 @@ export type { ColorScale, ColorScaleName } from './colormaps';
 export {
   PLOT_COLORS, SERIES, PLOT_FONT, MONO_FONT, valueAxis, pressureAxis, densityAxis, sigmaLabel, baseLayout, plotConfig, colorBar,
 } from './theme';
-export { webglAvailable } from './webgl';

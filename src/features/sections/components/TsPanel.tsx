@@ -1,6 +1,6 @@
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import type { Data, PlotMouseEvent } from 'plotly.js';
-import { DEPTHS, LazyPlot, PLOT_COLORS, baseLayout, colorAt, colorBar, plotConfig, sigmaLabel, toPlotly, valueAxis, webglAvailable } from '../../../components/plot';
+import { DEPTHS, LazyPlot, PLOT_COLORS, baseLayout, colorAt, colorBar, plotConfig, sigmaLabel, toPlotly, valueAxis } from '../../../components/plot';
 import { ErrorNotice, Progress } from '../../../components/Notice';
 import { Panel } from '../../../components/Panel';
 import { useTsPoints } from '../api';
@@ -19,12 +19,11 @@ export interface TsPanelProps {
 
 /** CT against SA for every cast, over σ contours at the view's reference pressure computed here. */
 export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onColourBy, onSelectCast, height = 420 }: TsPanelProps) {
-  // WebGL draws every 4th level of every cast; SVG, which cannot carry ~50 000 points at speed,
-  // every 16th.
-  const [gl] = useState(webglAvailable);
-  const every = gl ? 4 : 16;
+  // SVG points (the Plotly bundle we ship is the cartesian one, without WebGL traces, which our
+  // Content-Security-Policy would forbid anyway): every 16th level keeps it quick.
+  const every = 16;
   const ts = useTsPoints(cruiseId, every);
-  const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, gl ? 'scattergl' : 'scatter') : null), [ts.data, refPressure, colourBy, selectedCastId, gl]);
+  const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, 'scatter') : null), [ts.data, refPressure, colourBy, selectedCastId]);
 
   return (
     <Panel
@@ -58,7 +57,7 @@ export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onCol
           }}
           caption={
             <>
-              Every {every === 4 ? '4th' : `${every}th`} level of every cast. Contours: {sigmaLabel(refPressure)} (kg/m³) at {refPressure} dbar from the 75-term TEOS-10 density, computed in the browser.
+              Every {every}th level of every cast. Contours: {sigmaLabel(refPressure)} (kg/m³) at {refPressure} dbar from the 75-term TEOS-10 density, computed in the browser.
               {selectedCastId && ' The selected station is drawn dark; click a point to select its station.'}
             </>
           }
