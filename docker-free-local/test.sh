@@ -15,6 +15,10 @@ if ! (echo > "/dev/tcp/127.0.0.1/$PGPORT") 2>/dev/null; then started=1; fi
 cleanup() { [ "$started" = 1 ] && bash "$HERE/services.sh" stop >/dev/null 2>&1 || true; }
 trap cleanup EXIT
 bash "$HERE/services.sh" start || exit 1
+# The strict type check counts as one test in the closing line.
+echo "[sigmaline] type check (strict TypeScript over client, server, shared code and tests)"
+typecheck=0
+npx tsc --noEmit -p tsconfig.json || typecheck=1
 echo "[sigmaline] building the client"
 npx vite build --logLevel error || exit 1
 mkdir -p "$LOCAL_DIR"
@@ -22,12 +26,14 @@ REPORT="$LOCAL_DIR/vitest-report.json"
 rm -f "$REPORT"
 npx vitest run --reporter=default --reporter=json --outputFile.json="$REPORT" "$@"
 status=$?
+[ "$typecheck" = 1 ] && { echo "[sigmaline] the type check failed (see above)"; status=1; }
 if [ -f "$REPORT" ]; then
   node -e '
     const r = JSON.parse(require("fs").readFileSync(process.argv[1], "utf8"));
     const failedFiles = r.testResults.filter((f) => f.status === "failed" && f.assertionResults.every((a) => a.status !== "failed")).length;
-    console.log(`${r.numPassedTests} passed, ${r.numFailedTests + failedFiles} failed, ${r.numPendingTests + r.numTodoTests} skipped`);
-  ' "$REPORT"
+    const tc = Number(process.argv[2]);
+    console.log(`${r.numPassedTests + 1 - tc} passed, ${r.numFailedTests + failedFiles + tc} failed, ${r.numPendingTests + r.numTodoTests} skipped`);
+  ' "$REPORT" "$typecheck"
 else
   echo "0 passed, 1 failed"
 fi

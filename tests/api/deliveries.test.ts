@@ -77,7 +77,7 @@ describe('deliveries', () => {
     expect(compared).toBeGreaterThan(10);
     // spreadsheet read back with exceljs
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(await download(who.pi, d.id, 'xlsx'));
+    await wb.xlsx.load((await download(who.pi, d.id, 'xlsx')) as unknown as Parameters<typeof wb.xlsx.load>[0]);
     expect(wb.worksheets.map((w) => w.name)).toContain('Provenance');
     // NetCDF read back with netcdfjs
     const nc = new NetCDFReader(await download(who.pi, d.id, 'nc'));

@@ -21,7 +21,7 @@ export async function bench(): Promise<BenchResult[]> {
     for (const f of files) req = req.attach('files', join(dir, f));
     await req;
     await waitFor(async () => { const l = (await a.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[]; return l.length === files.length && l.every((x) => x.status === 'ready'); }, 300_000, 500);
-    const views = [
+    const views: Record<string, string | number>[] = [
       { property: 'CT', coord: 'pressure' }, { property: 'SA', coord: 'pressure' }, { property: 'CT', coord: 'density' },
       { property: 'SA', coord: 'density', ref: 2000 }, { property: 'oxygen', coord: 'pressure' }, { property: 'CT', coord: 'density', inversions: 'raw' },
     ];
