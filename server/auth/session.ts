@@ -23,7 +23,8 @@ declare global {
 export function sessionMiddleware(pool: Pool, secret: string, secure: boolean | 'auto'): RequestHandler {
   const PgStore = connectPgSimple(session);
   return session({
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 600 }),
+    // no touch: a session lives 12 h from sign-in (no write per request), then signs out
+    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 600, disableTouch: true }),
     name: 'sigmaline.sid',
     secret,
     resave: false,

@@ -7,7 +7,7 @@ import { Cast, DerivedVariable, SavedView } from '../models/index';
 import { audit } from '../lib/audit';
 import { compileFormula } from '../../shared/derived/index';
 import { readColumns } from '../services/columns';
-import { loadCruiseCasts, applyFlags, cached, dataVersion } from '../services/cruiseData';
+import { loadCruiseCasts, applyFlags, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { alongTrackDistance, geostrophicSection, transportPerLayer } from '../../shared/section/index';
 import { levelsOrError } from './sections';
 import { levelsForRange, sigmaRange } from '../services/sectionView';
@@ -53,6 +53,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'derived_variable', entityId: row.id, after: b }, transaction);
           return row;
         });
+        invalidateDataVersion(ctx.cruiseId!);
         res.status(201).json({ id: d.id, name: d.name, formula: d.formula, unit: d.unit, description: d.description, variables: f.variables });
       } }),
     defineRoute({ method: 'delete', path: '/cruises/:id/derived-variables/:varId', summary: 'Remove a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() },
@@ -64,6 +65,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
           await d.destroy({ transaction });
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'delete', entity: 'derived_variable', entityId: id, before: { name: d.name, formula: d.formula } }, transaction);
         });
+        invalidateDataVersion(ctx.cruiseId!);
         res.status(204).end();
       } }),
     defineRoute({ method: 'post', path: '/casts/:id/formula-preview', summary: 'Evaluate a formula on one cast', rule: { kind: 'member', roles: 'any', cruise: castCruise }, body: Preview,

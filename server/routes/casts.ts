@@ -5,6 +5,7 @@ import { badRequest, notFound } from '../lib/errors';
 import { Cast, CastColumn } from '../models/index';
 import { readColumns, encodeU8 } from '../services/columns';
 import { inversionsOfGoodLevels } from '../services/processCast';
+import { invalidateDataVersion } from '../services/cruiseData';
 import { audit } from '../lib/audit';
 import type { AppDeps } from '../lib/deps';
 
@@ -55,7 +56,7 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
         const cols = (await readColumns([c.id], ['pressure'])).get(c.id)!;
         const p = cols.columns.pressure;
         const variables = b.variable === 'all' ? ['temperature', 'salinity', 'conductivity', 'oxygen'] : [b.variable];
-        return deps.db.sequelize.transaction(async (transaction) => {
+        const result = await deps.db.sequelize.transaction(async (transaction) => {
           let changed = 0;
           const before: Record<string, number[]> = {};
           for (const v of variables) {
@@ -80,6 +81,8 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
           await audit({ cruiseId: c.cruiseId, userId: req.user!.id, action: 'set_flag', entity: 'cast', entityId: c.id, before: { flagsInRange: before }, after: { variable: b.variable, pFrom: b.pFrom, pTo: b.pTo, flag: b.flag, reason: b.reason ?? null, levels: changed } }, transaction);
           return { levels: changed };
         });
+        invalidateDataVersion(c.cruiseId);
+        return result;
       } }),
   ];
 }

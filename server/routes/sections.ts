@@ -5,7 +5,7 @@ import { badRequest, notFound } from '../lib/errors';
 import { LayerSet } from '../models/index';
 import { audit } from '../lib/audit';
 import { safeParseLevels, defaultLayerSets } from '../../shared/remap/index';
-import { isopycnalTable, pressureTable, cached, dataVersion } from '../services/cruiseData';
+import { isopycnalTable, pressureTable, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { csvStream } from '../services/deliveries/index';
 import { buildSectionView, SectionQuery } from '../services/sectionView';
 import type { AppDeps } from '../lib/deps';
@@ -83,6 +83,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'layer_set', entityId: r.id, after: b }, transaction);
           return r;
         });
+        invalidateDataVersion(ctx.cruiseId!);
         res.status(201).json({ id: row.id, name: row.name, referencePressure: row.referencePressure, levels: row.levels, count: n });
       } }),
     defineRoute({ method: 'patch', path: '/cruises/:id/layer-sets/:setId', summary: 'Edit a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody.partial(),
@@ -90,7 +91,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         const b = ctx.body as Partial<z.infer<typeof LayerSetBody>>;
         if (b.levels) levelsOrError(b.levels);
         if (!/^[0-9a-f-]{36}$/i.test(String(req.params.setId))) throw notFound('No such layer set.');
-        return deps.db.sequelize.transaction(async (transaction) => {
+        const out = await deps.db.sequelize.transaction(async (transaction) => {
           const r = await LayerSet.findOne({ where: { id: String(req.params.setId), cruiseId: ctx.cruiseId! }, transaction, lock: true });
           if (!r) throw notFound('No such layer set.');
           const before = { name: r.name, referencePressure: r.referencePressure, levels: r.levels };
@@ -98,6 +99,8 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'update', entity: 'layer_set', entityId: r.id, before, after: b }, transaction);
           return { id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length };
         });
+        invalidateDataVersion(ctx.cruiseId!);
+        return out;
       } }),
   ];
 }

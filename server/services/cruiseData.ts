@@ -25,8 +25,24 @@ export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
   });
 }
 
+// The version is read at most every half second per process: a change made through this process
+// drops it at once (invalidateDataVersion); one made by another process shows within 0.5 s.
+const VERSION_TTL_MS = 500;
+const versions = new Map<string, { at: number; v: string }>();
+export function invalidateDataVersion(cruiseId: string) {
+  versions.delete(cruiseId);
+}
+
 /** A short fingerprint of everything a grid of this cruise depends on. */
 export async function dataVersion(cruiseId: string): Promise<string> {
+  const hit = versions.get(cruiseId);
+  if (hit && Date.now() - hit.at < VERSION_TTL_MS) return hit.v;
+  const v = await readDataVersion(cruiseId);
+  versions.set(cruiseId, { at: Date.now(), v });
+  return v;
+}
+
+async function readDataVersion(cruiseId: string): Promise<string> {
   const [rows] = await Cast.sequelize!.query(
     `SELECT (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM casts WHERE cruise_id = :id) || ':' ||
             (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM layer_sets WHERE cruise_id = :id) || ':' ||

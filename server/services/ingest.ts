@@ -7,6 +7,7 @@ import { parseUpload } from '../parsers/index';
 import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
 import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
 import { writeColumns } from './columns';
+import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
 import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
@@ -104,6 +105,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
       await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
       return ids;
     });
+    invalidateDataVersion(upload.cruiseId);
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
   } catch (err) {
     await Upload.update({ status: 'queued', progress: 0 }, { where: { id: uploadId, status: { [Op.ne]: 'ready' } } }).catch(() => undefined);

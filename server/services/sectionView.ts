@@ -24,6 +24,8 @@ export const SectionQuery = z.object({
   threshold: z.coerce.number().positive().max(1).default(0.01),
   /** density frame only: add the isopycnal slope and the along-isopycnal and along-level gradients */
   gradients: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  /** significant digits of the grid values (a screen needs 6; exports use full precision) */
+  digits: z.coerce.number().int().min(3).max(17).optional(),
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
@@ -40,6 +42,11 @@ export async function propertyColumns(cruiseId: string, property: string, raw: C
     if (!f.ok) return null;
     try { return f.evaluate(c.columns); } catch { return null; }
   });
+}
+
+/** Grid values to `digits` significant digits (smaller answers for screens; null stays null). */
+function roundRows(rows: (number | null)[][], digits: number): (number | null)[][] {
+  return rows.map((row) => row.map((v) => (v === null ? null : Number(v.toPrecision(digits)))));
 }
 
 /** Default target levels when none are asked for: about 100 levels over the σ range the casts
@@ -113,6 +120,8 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     const rows = (a: Float64Array) => toRows(a, grid.x.length, grid.y.length);
     gradients = { units: { slope: 'm/m (z up)', gradient: `${UNITS[q.property] ?? 'unit'} per m` }, slope: rows(g.slope), alongLevel: rows(g.alongLevel), alongIsopycnal: rows(g.alongIsopycnal) };
   }
-  return { choices, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: grid.z }, pressure: dens.pressure ?? null, depth: dens.depth ?? null,
+  const r = (rows: (number | null)[][] | null | undefined) => (rows && q.digits ? roundRows(rows, q.digits) : rows ?? null);
+  if (gradients && q.digits) gradients = { ...gradients, slope: r(gradients.slope)!, alongLevel: r(gradients.alongLevel)!, alongIsopycnal: r(gradients.alongIsopycnal)! };
+  return { choices: { ...choices, digits: q.digits ?? null }, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: r(grid.z)! }, pressure: r(dens.pressure), depth: r(dens.depth),
     stations, bottom: grid.bottom, gaps: grid.gaps, medianSpacingKm: grid.medianSpacingKm, inversions, isopycnals, gradients };
 }

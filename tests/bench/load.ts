@@ -1,10 +1,10 @@
-// Load figures for `npm run bench` (needs the test services, see DEVELOPERS.md): the real app served
-// in-process on loopback with a cruise of a few real casts and an in-process worker; autocannon drives
+// Load figures for `npm run bench` (needs the test services, see DEVELOPERS.md): the real app as
+// deployed — one web process and one worker process, children of this one, on loopback — with a
+// cruise of a few real casts; autocannon, in this process, drives
 // 50 concurrent section reads (signed in) and, at the same time, 5 concurrent uploads of distinct cast
 // files into a second cruise, for 30 s (BENCH_LOAD_SECONDS), each stream also capped in count.
 // Latencies are every response's own time, from autocannon's `response` event.
 import autocannon from 'autocannon';
-import type { Server } from 'node:http';
 import { loadavg } from 'node:os';
 import type { BenchResult } from './modules';
 
@@ -21,17 +21,19 @@ export async function bench(): Promise<BenchResult[]> {
   process.env.NODE_ENV ??= 'test';
   process.env.LOG_LEVEL ??= 'warn';
   const { makeTestApp, createUser, addMember, PASSWORD } = await import('../api/helpers');
-  const { castCsv, freePort, multipart, Session, sleep } = await import('../api/fault-helpers');
+  const { castCsv, freePort, multipart, Session, sleep, spawnChild, serviceEnv, waitHttp } = await import('../api/fault-helpers');
   const { Cruise, Upload } = await import('../../server/models/index');
-  const { startWorkers } = await import('../../server/jobs/worker');
 
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   const loadBefore = loadavg()[0];
   const t = await makeTestApp({ PUBLIC_URL: base, LOG_LEVEL: 'warn', DB_POOL_MAX: '20' });
-  let server: Server | null = null;
+  let web: Awaited<ReturnType<typeof spawnChild>> | null = null;
+  // The ingest worker runs in its own process, as deployed (README: web processes and workers
+  // apart), so parsing and deriving casts do not hold up the web process's event loop.
+  const worker = spawnChild('load-worker', 'server/jobs/worker.ts', serviceEnv(t.settings, { WORKER_CONCURRENCY: '1', LOG_LEVEL: 'info' }));
   try {
-    await startWorkers(t.deps, { concurrency: 1 });
+    await worker.waitForLog(/workers started/, 60_000);
     const chief = await createUser('load-chief@example.test');
     const mk = (name: string) => Cruise.create({ name, ship: 'RV Load', startDate: '2026-05-01', endDate: '2026-05-20', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
     const section = await mk('Load section');
@@ -39,7 +41,9 @@ export async function bench(): Promise<BenchResult[]> {
     for (const c of [section, intake]) await addMember(chief.id, c.id, 'chief_scientist');
     const analyst = await createUser('load-analyst@example.test');
     await addMember(analyst.id, section.id, 'analyst');
-    server = await new Promise<Server>((resolve) => { const s = t.app.listen(port, '127.0.0.1', () => resolve(s)); });
+    // The web process is its own process too: this one only generates the load.
+    web = spawnChild('load-web', 'server/index.ts', serviceEnv(t.settings, { PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: base, LOG_LEVEL: 'warn', DB_POOL_MAX: '20' }));
+    await waitHttp(`${base}/api/health`, 60_000, web);
 
     // the section cruise: 8 casts along a line, 2 dbar to 3000 dbar, through the real intake
     const chiefS = new Session(base);
@@ -55,7 +59,7 @@ export async function bench(): Promise<BenchResult[]> {
     }
     const reader = new Session(base);
     await reader.signIn('load-analyst@example.test', PASSWORD);
-    const path = `/api/cruises/${section.id}/section?property=CT&coord=pressure`;
+    const path = `/api/cruises/${section.id}/section?property=CT&coord=pressure&digits=6`; // as the Section screen asks
     const warm = await reader.req('GET', path);
     if (warm.status !== 200) throw new Error(`load bench: section answered ${warm.status} ${JSON.stringify(warm.body).slice(0, 200)}`);
 
@@ -112,17 +116,11 @@ export async function bench(): Promise<BenchResult[]> {
       { name: 'upload latency p95', value: pct(upLat, 95), unit: 'ms' },
       { name: 'upload latency p99', value: pct(upLat, 99), unit: 'ms' },
       { name: 'upload errors (socket, timeout, non-2xx)', value: upErrors, unit: 'errors', target: 'zero errors' },
-      { name: 'uploads already ingested when the run ended (worker concurrency 1)', value: ingested, unit: 'uploads' },
+      { name: 'uploads already ingested when the run ended (one worker process, concurrency 1)', value: ingested, unit: 'uploads' },
     ];
   } finally {
-    if (server) {
-      // let requests still in flight finish before the pools close; cut what is left after 10 s
-      const s = server;
-      const cut = setTimeout(() => s.closeAllConnections(), 10_000);
-      s.closeIdleConnections();
-      await new Promise((res) => s.close(res));
-      clearTimeout(cut);
-    }
+    await web?.stop();
+    await worker.stop();
     await t.close();
   }
 }
