@@ -136,6 +136,8 @@ describe('Section screen in Chromium', () => {
     await page.getByRole('application').focus();
     await page.keyboard.press('ArrowRight');
     await page.waitForURL(/[?&]stn=/);
+    // the controls follow the URL once the screen has re-rendered (the frames may still be drawing)
+    await expect.poll(async () => (await controls(page)).interpolation, { timeout: 15_000 }).toBe('pchip');
     const shown = await controls(page);
     expect(shown).toMatchObject({ ref: '2000', interpolation: 'pchip' });
     expect(shown.cursor).toMatch(/Station cursor: CP-\d\d/);
