@@ -178,7 +178,9 @@ export function buildDataPackage(input: DataPackageInput): Readable {
   zip.on('error', fail);
 
   planned.forEach((entry, index) => {
-    zip.addReadStreamLazy(entry.path, { mtime, compress: entry.compress }, (cb) => {
+    // fast deflate (level 1): tens of MB of tables and raw casts, where level 6 costs seconds for a
+    // few per cent of size
+    zip.addReadStreamLazy(entry.path, { mtime, ...(entry.compress ? { compressionLevel: 1 } : { compress: false }) }, (cb) => {
       input.onProgress?.({ entry: entry.path, index, total });
       entry
         .produce()
