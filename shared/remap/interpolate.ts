@@ -76,8 +76,9 @@ export function firstCrossing(x: Float64Array, targets: Float64Array, out?: Brac
   }
   if (monotone) {
     const last = x[n - 1];
-    // Few targets on a long cast: a binary search each (O(m log n)); else one merge walk.
-    const search = m * 16 < n;
+    // Very few targets on a long cast: a binary search each (O(m log n)); else one merge walk,
+    // whose single predictable branch per level beats unpredictable bisection steps.
+    const search = m * 64 < n;
     let k = 0;
     for (let j = 0; j < m; j++) {
       const s = targets[j];

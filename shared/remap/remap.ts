@@ -144,19 +144,30 @@ function scanCast(cast: RemapCast): { keep: Int32Array | null; monotone: boolean
   const n = cast.p.length;
   const p = cast.p;
   const s = cast.sigma;
+  // Fast path, one predictable branch a level: every p and σ finite and σ never decreasing
+  // (x − x is 0 only for a finite x, so the sum is 0 only when both are finite).
+  let prev = -Infinity;
+  let i = 0;
+  for (; i < n; i++) {
+    const si = s[i];
+    const pi = p[i];
+    if (!(si >= prev && si - si + (pi - pi) === 0)) break;
+    prev = si;
+  }
+  if (i === n) return { keep: null, monotone: true };
   let bad = 0;
   let monotone = true;
-  let prev = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const si = s[i];
-    if (p[i] - p[i] !== 0 || si - si !== 0) { bad++; continue; }
-    if (si < prev) monotone = false;
-    prev = si;
+  prev = -Infinity;
+  for (let k = 0; k < n; k++) {
+    const sk = s[k];
+    if (p[k] - p[k] !== 0 || sk - sk !== 0) { bad++; continue; }
+    if (sk < prev) monotone = false;
+    prev = sk;
   }
   if (bad === 0) return { keep: null, monotone };
   const keep = new Int32Array(n - bad);
   let j = 0;
-  for (let i = 0; i < n; i++) if (Number.isFinite(p[i]) && Number.isFinite(s[i])) keep[j++] = i;
+  for (let k = 0; k < n; k++) if (Number.isFinite(p[k]) && Number.isFinite(s[k])) keep[j++] = k;
   return { keep, monotone };
 }
 
@@ -261,15 +272,29 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
   const sameProfile = handled.sigma === clean.sigma;
   const crossings = sameProfile ? crossingsRaw.slice() : opts.handling === 'sort' ? monotoneCrossings(sig, targets) : countCrossings(sig, targets);
   const sortedSig = monotone || order !== null;
-  const br = firstCrossing(sig, targets, undefined, sortedSig);
+  const mids = midLevels(targets);
+  let br: Bracket;
+  let brMid: Bracket;
+  if (sortedSig) {
+    // Mid-levels and targets interleave (mid₀ < t₀ < mid₁ < … < mid_m): one walk brackets both.
+    const both = new Float64Array(2 * m + 1);
+    for (let j = 0; j < m; j++) { both[2 * j] = mids[j]; both[2 * j + 1] = targets[j]; }
+    both[2 * m] = mids[m];
+    const all = firstCrossing(sig, both, undefined, true);
+    br = { index: new Int32Array(m), weight: new Float64Array(m) };
+    brMid = { index: new Int32Array(m + 1), weight: new Float64Array(m + 1) };
+    for (let j = 0; j <= m; j++) { brMid.index[j] = all.index[2 * j]; brMid.weight[j] = all.weight[2 * j]; }
+    for (let j = 0; j < m; j++) { br.index[j] = all.index[2 * j + 1]; br.weight[j] = all.weight[2 * j + 1]; }
+  } else {
+    br = firstCrossing(sig, targets, undefined, false);
+    brMid = firstCrossing(sig, mids, undefined, false);
+  }
   const pressure = evaluate(sig, handled.p, br, how, null);
   const depth = handled.z ? evaluate(sig, handled.z, br, how, null) : null;
   if (depth) for (let j = 0; j < m; j++) depth[j] = -depth[j];
   const props: Record<string, Float64Array> = {};
   for (const name of Object.keys(handled.props)) props[name] = evaluate(sig, handled.props[name], br, how, order);
 
-  const mids = midLevels(targets);
-  const brMid = firstCrossing(sig, mids, undefined, sortedSig);
   const pMid = evaluate(sig, handled.p, brMid, how, null);
   const zMid = handled.z ? evaluate(sig, handled.z, brMid, how, null) : null;
   const thickness = new Float64Array(m);
