@@ -7,6 +7,26 @@ import { QueryTypes } from 'sequelize';
 import { Membership, type Role } from '../models/index';
 import { HttpError, unauthorized, forbidden, notFound, badRequest } from './errors';
 
+// Memberships are read at most twice a second per process and user: a change made through this
+// process drops them at once (invalidateMemberships); one made by another web process is seen
+// within half a second. (A plain query: this runs on every cruise request.)
+const MEMBERSHIP_TTL_MS = 500;
+const memberships = new Map<string, { at: number; role: Role | null }>();
+export function invalidateMemberships(cruiseId: string) {
+  for (const key of memberships.keys()) if (key.endsWith(`:${cruiseId}`)) memberships.delete(key);
+}
+async function membershipOf(userId: string, cruiseId: string): Promise<{ role: Role } | null> {
+  const key = `${userId}:${cruiseId}`;
+  const hit = memberships.get(key);
+  if (hit && Date.now() - hit.at < MEMBERSHIP_TTL_MS) return hit.role ? { role: hit.role } : null;
+  const [m] = (await Membership.sequelize!.query('SELECT role FROM memberships WHERE user_id = :u AND cruise_id = :c', {
+    replacements: { u: userId, c: cruiseId }, type: QueryTypes.SELECT,
+  })) as { role: Role }[];
+  if (memberships.size > 10_000) memberships.clear();
+  memberships.set(key, { at: Date.now(), role: m?.role ?? null });
+  return m ?? null;
+}
+
 export type Rule =
   | { kind: 'public' }
   | { kind: 'signed_in' }
@@ -46,11 +66,8 @@ async function check(rule: Rule, req: Request): Promise<{ cruiseId: string | nul
   }
   const cruiseId = await rule.cruise(req);
   if (!cruiseId) throw notFound();
-  // Not a member: answer as if the cruise did not exist. (A plain query: this runs on every
-  // cruise request, and a model instance would only be thrown away.)
-  const [m] = (await Membership.sequelize!.query('SELECT role FROM memberships WHERE user_id = :u AND cruise_id = :c', {
-    replacements: { u: req.user.id, c: cruiseId }, type: QueryTypes.SELECT,
-  })) as { role: Role }[];
+  // Not a member: answer as if the cruise did not exist.
+  const m = await membershipOf(req.user.id, cruiseId);
   if (!m) throw notFound();
   if (rule.roles !== 'any' && !rule.roles.includes(m.role)) throw forbidden();
   return { cruiseId, role: m.role };

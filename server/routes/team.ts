@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
+import { defineRoute, byParam, invalidateMemberships, type RouteSpec } from '../lib/routeTable';
 import { HttpError, badRequest, conflict, notFound } from '../lib/errors';
 import { Cruise, Invitation, Membership, ROLES, User } from '../models/index';
 import { audit } from '../lib/audit';
@@ -70,7 +70,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
           await m.update({ role }, { transaction });
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'change_role', entity: 'membership', entityId: userId, before, after: { role } }, transaction);
           return { userId, role };
-        });
+        }).finally(() => invalidateMemberships(ctx.cruiseId!));
       } }),
     defineRoute({ method: 'delete', path: '/cruises/:id/members/:userId', summary: 'Remove a member', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
       handler: async (req, res, ctx) => {
@@ -84,6 +84,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
           await m.destroy({ transaction });
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'remove_member', entity: 'membership', entityId: userId, before: { role: m.role } }, transaction);
         });
+        invalidateMemberships(ctx.cruiseId!);
         res.status(204).end();
       } }),
     defineRoute({ method: 'get', path: '/invitations/:token', summary: 'What an invitation offers', rule: { kind: 'public' },
@@ -117,6 +118,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
           await audit({ cruiseId: inv.cruiseId, userId: u.id, action: 'accept_invitation', entity: 'membership', entityId: u.id, after: { role: inv.role } }, transaction);
           return u;
         });
+        invalidateMemberships(inv.cruiseId);
         const sessionUser = { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin };
         await signIn(req, sessionUser);
         return { user: userJson(sessionUser) };
