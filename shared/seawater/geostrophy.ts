@@ -123,7 +123,10 @@ function integrationGrid(p: ArrayLike<number>, p_ref: number, dp: number): { gri
       grid[g++] = uniform;
       k++;
     } else {
+      // The multiple is skipped for the level; a reference between the two must still get its point.
+      if (refAt < 0 && p_ref < p[lev]) { grid[g] = p_ref; refAt = g; g++; }
       grid[g] = p[lev];
+      if (refAt < 0 && p_ref === p[lev]) refAt = g;
       levelAt[lev++] = g;
       if (uniform < grid[g] + tol) k++; // the multiple is too close to the level to keep
       g++;

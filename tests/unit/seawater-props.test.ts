@@ -55,3 +55,18 @@ describe('density properties', () => {
     );
   });
 });
+
+// Regression (found by the property above): a reference pressure a hair above a whole-dbar
+// multiple, equal to a level, was dropped from the integration grid and every D came back NaN.
+describe('dynamic height reference on the integration grid', () => {
+  it('keeps a reference pressure that sits just past a grid multiple (analytic profile)', () => {
+    const p = [0, 3.4, 4.2, 16.3, 18.1, 59.0, 62.4, 88.4, 89.3, 118.1, 150.6, 156.0, 156.8, 160.7, 166.9, 240.9, 361.7, 373.00000000000006];
+    const SA = p.map((q) => 34.6 + 0.6 * Math.exp(-q / 400));
+    const CT = p.map((q) => 2 + 18 * Math.exp(-q / 300));
+    const D = geo_strf_dyn_height(SA, CT, p, p[p.length - 1]);
+    expect(D.every((v) => Number.isFinite(v))).toBe(true);
+    expect(D[D.length - 1]).toBe(0);
+    const D0 = geo_strf_dyn_height(SA, CT, p, 0);
+    p.forEach((_, k) => expect(Math.abs(D[k] - (D0[k] - D0[p.length - 1]))).toBeLessThan(1e-9));
+  });
+});
