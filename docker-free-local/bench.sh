@@ -10,7 +10,7 @@ bash "$HERE/npm.sh" || exit 1
 export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-error}"
 started=0
 if ! (echo > "/dev/tcp/127.0.0.1/$PGPORT") 2>/dev/null; then bash "$HERE/services.sh" start || exit 1; started=1; fi
-[ -f dist/index.html ] || npx vite build --logLevel error
+NODE_ENV=production npx vite build --logLevel error || exit 1
 npx tsx tests/bench/run.ts "$@"
 status=$?
 [ "$started" = 1 ] && bash "$HERE/services.sh" stop

@@ -15,7 +15,7 @@ trap cleanup EXIT INT TERM
 bash "$HERE/services.sh" start
 npx tsx server/migrate.ts
 echo "[sigmaline] building the client"
-npx vite build --logLevel error
+NODE_ENV=production npx vite build --logLevel error
 RUN_WORKER_IN_PROCESS=true npx tsx server/index.ts &
 SERVER_PID=$!
 for _ in $(seq 1 100); do curl -sf "http://127.0.0.1:$PORT/api/health" >/dev/null && break; sleep 0.3; done

@@ -20,7 +20,7 @@ echo "[sigmaline] type check (strict TypeScript over client, server, shared code
 typecheck=0
 npx tsc --noEmit -p tsconfig.json || typecheck=1
 echo "[sigmaline] building the client"
-npx vite build --logLevel error || exit 1
+NODE_ENV=production npx vite build --logLevel error || exit 1
 mkdir -p "$LOCAL_DIR"
 REPORT="$LOCAL_DIR/vitest-report.json"
 rm -f "$REPORT"
