@@ -6,7 +6,8 @@ import { join } from 'node:path';
 import { z } from 'zod';
 import { loadSettings } from './config';
 import { connectServices } from './services/index';
-import { Cruise, Membership, Station, Upload, User, type Role } from './models/index';
+import { Cruise, LayerSet, Membership, Station, Upload, User, type Role } from './models/index';
+import { defaultLayerSets } from '../shared/remap/index';
 import { hashPassword } from './auth/passwords';
 import { QUEUES } from './services/queue';
 
@@ -47,6 +48,10 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
       portEnd: demo.ports?.arrival ?? null, region: demo.region?.name ?? null, description: demo.description ?? null, createdBy: users['chief@sigmaline.test'].id });
     let order = 0;
     for (const s of demo.plannedStations) await Station.create({ cruiseId: cruise.id, name: s.station, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedBottomDepth ?? null, order: ++order });
+  }
+  // the default layer sets (σ0 for the upper ocean, σ2 below 1000 dbar) suit the demo section
+  if ((await LayerSet.count({ where: { cruiseId: cruise.id } })) === 0) {
+    for (const d of defaultLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: users['analyst@sigmaline.test'].id });
   }
   for (const a of DEMO_ACCOUNTS) {
     if (a.role === 'admin') continue;
