@@ -101,7 +101,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
           const levelsText = q.levels ?? (casts.length ? levelsForRange(...sigmaRange(casts, q.ref), 8) : '24.0:0.4:28.0');
           const boundaries = levelsOrError(levelsText);
           const choices = { pRef: q.pRef, ref: q.ref, levels: levelsText, bin: q.bin };
-          const convention = 'Positive velocity is to the left of the direction of travel along the section in the northern hemisphere sense of TEOS-10 geostrophy: v = ΔD/(f·L) from cast A to cast B.';
+          const convention = 'v = ΔD / (f·L) between adjacent casts A and B; positive is 90° to the left of the direction from A to B (looking along the section from its first cast: for a section run eastward, positive is northward).';
           if (casts.length < 2) return { choices, convention, pressure: [], pairs: [], velocity: [], layers: [] };
           const sec = geostrophicSection(casts.map((c) => { const k = applyFlags(c, [1, 2]); return { id: c.station, lon: c.longitude, lat: c.latitude, p: k.pressure, SA: k.SA, CT: k.CT }; }),
             { pRef: q.pRef, binSize: q.bin, sigmaRef: q.ref });
