@@ -37,11 +37,6 @@ function pt0Guess(SA: number, t: number, p: number): number {
 
 // The collapsed polynomial in y and its first two derivatives.
 
-/** g = Σ a_j y^j, J/kg. */
-function gAt(a: Float64Array, y: number): number {
-  return a[0] + y * (a[1] + y * (a[2] + y * (a[3] + y * (a[4] + y * (a[5] + y * (a[6] + y * a[7]))))));
-}
-
 /** ∂g/∂y = Σ j a_j y^(j−1), J/kg (∂g/∂t = ∂g/∂y / 40). Grouped in powers of y² (Estrin's
  * scheme) so that the Newton loop waits on a shorter chain of multiplications. */
 function gyAt(a: Float64Array, y: number): number {
@@ -60,9 +55,16 @@ function gyyAt(a: Float64Array, y: number): number {
  * this finds the temperature of the given entropy η at the pressure `a` was collapsed at.
  */
 function yOfEntropy(a: Float64Array, target: number, y0: number): number {
+  // ∂g/∂y and ∂²g/∂y² share their powers of y: evaluated together, from the coefficients read once.
+  const a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7];
+  const b1 = 2 * a2, b2 = 3 * a3, b3 = 4 * a4, b4 = 5 * a5, b5 = 6 * a6, b6 = 7 * a7;
+  const c0 = 2 * a2, c1 = 6 * a3, c2 = 12 * a4, c3 = 20 * a5, c4 = 30 * a6, c5 = 42 * a7;
   let y = y0;
   for (let n = 0; n < MAX_ITERATIONS; n++) {
-    const step = (gyAt(a, y) - target) / gyyAt(a, y);
+    const y2 = y * y;
+    const gy = a1 + b1 * y + y2 * (b2 + b3 * y + y2 * (b4 + b5 * y + y2 * b6));
+    const gyy = c0 + c1 * y + y2 * (c2 + c3 * y + y2 * (c4 + c5 * y));
+    const step = (gy - target) / gyy;
     y -= step;
     if (Math.abs(step) < Y_TOLERANCE) break;
   }
@@ -71,7 +73,12 @@ function yOfEntropy(a: Float64Array, target: number, y0: number): number {
 
 /** Potential enthalpy h0 = g − (T0 + t)·∂g/∂t at the collapsed pressure (0 dbar), J/kg. */
 function enthalpyAt(a: Float64Array, y: number): number {
-  return gAt(a, y) - ((T0 + tScale * y) * gyAt(a, y)) / tScale;
+  // g and ∂g/∂y in one pass over the coefficients (the same sums as gAt and gyAt).
+  const a0 = a[0], a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7];
+  const y2 = y * y;
+  const g = a0 + a1 * y + y2 * (a2 + a3 * y + y2 * (a4 + a5 * y + y2 * (a6 + a7 * y)));
+  const gy = a1 + 2 * a2 * y + y2 * (3 * a3 + 4 * a4 * y + y2 * (5 * a5 + 6 * a6 * y + y2 * 7 * a7));
+  return g - ((T0 + tScale * y) * gy) / tScale;
 }
 
 /**
