@@ -11,6 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { CT_from_t_batch } from '../../shared/seawater/conversions';
 import { SA_from_SP_batch } from '../../shared/seawater/saar';
+import { randomOceanPoints, type OceanBox } from '../reference/oceanPoints';
 
 export interface BenchRow {
   name: string;
@@ -37,26 +38,9 @@ print(json.dumps({
 }))
 `;
 
-/** Random ocean points from a fixed seed (a linear congruential generator, reproducible). */
-export function randomOceanPoints(n: number, seed = 20261201) {
-  let s = seed >>> 0;
-  const next = () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return s / 4294967296;
-  };
-  const SP = new Float64Array(n), t = new Float64Array(n), p = new Float64Array(n);
-  const lon = new Float64Array(n), lat = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    SP[i] = 2 + 40 * next();
-    t[i] = -2 + 37 * next();
-    p[i] = 6500 * next();
-    // Open-ocean boxes of the North Atlantic and the South Pacific, away from land.
-    const atlantic = next() < 0.5;
-    lon[i] = atlantic ? -50 + 25 * next() : -150 + 50 * next();
-    lat[i] = atlantic ? 20 + 25 * next() : -50 + 40 * next();
-  }
-  return { SP, t, p, lon, lat };
-}
+/** The benchmark's points: the open North Atlantic and South Pacific, from a fixed seed. */
+const BENCH_BOXES: OceanBox[] = [[-50, -25, 20, 45], [-150, -100, -50, -10]];
+export const benchOceanPoints = (n: number, seed = 20261201) => randomOceanPoints(n, seed, BENCH_BOXES);
 
 function bestOf3(fn: () => void): number {
   fn();
@@ -71,7 +55,7 @@ function bestOf3(fn: () => void): number {
 
 /** Time SA_from_SP_batch and CT_from_t_batch over n random ocean points, ours and python3-gsw's. */
 export function benchThermo(n: number, rounds = 3): BenchRow[] {
-  const { SP, t, p, lon, lat } = randomOceanPoints(n);
+  const { SP, t, p, lon, lat } = benchOceanPoints(n);
   const SA = SA_from_SP_batch(SP, p, lon, lat);
   const outSA = new Float64Array(n);
   const outCT = new Float64Array(n);

@@ -10,37 +10,11 @@ import {
 } from '../../shared/seawater/conversions';
 import { C_from_SP, SP_from_C } from '../../shared/seawater/pss78';
 import { SA_from_SP_batch } from '../../shared/seawater/saar';
+import { randomOceanPoints } from './oceanPoints';
 
 const N = 12_000;
 
-/** Open-ocean boxes [lon west, lon east, lat south, lat north], away from coasts and the Baltic. */
-const OCEAN_BOXES: [number, number, number, number][] = [
-  [-60, -20, 15, 45], // North Atlantic
-  [-35, 0, -45, -10], // South Atlantic
-  [150, 220, 10, 45], // North Pacific
-  [-150, -90, -50, -10], // South Pacific
-  [60, 95, -40, -5], // Indian Ocean
-  [0, 360, -70, -60], // Southern Ocean
-];
-
-function points(n: number) {
-  let s = 424242;
-  const next = () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return s / 4294967296;
-  };
-  const SP = new Float64Array(n), t = new Float64Array(n), p = new Float64Array(n);
-  const lon = new Float64Array(n), lat = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    SP[i] = 2 + 40 * next();
-    t[i] = -2 + 37 * next();
-    p[i] = 6500 * next();
-    const [w, e, so, no] = OCEAN_BOXES[i % OCEAN_BOXES.length];
-    lon[i] = w + (e - w) * next();
-    lat[i] = so + (no - so) * next();
-  }
-  return { SP, t, p, lon, lat };
-}
+const points = (n: number) => randomOceanPoints(n, 424242);
 
 const PYTHON = `
 import json, sys
