@@ -71,14 +71,11 @@ export function sigmaRange(casts: { columns: Record<string, Float64Array> }[], r
 }
 
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
-  const levelsText = q.levels ?? (await (async () => {
-    const cs = await loadCruiseCasts(cruiseId, []);
-    return cs.length ? levelsForRange(...sigmaRange(cs, q.ref)) : DEFAULT_LEVELS[q.ref];
-  })());
+  const all = await loadCruiseCasts(cruiseId, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
+  const levelsText = q.levels ?? (all.length ? levelsForRange(...sigmaRange(all, q.ref)) : DEFAULT_LEVELS[q.ref]);
   const parsed = safeParseLevels(levelsText);
   if (!parsed.ok) throw badRequest(`The levels are not valid: ${parsed.errors.join('; ')}`, parsed.errors.map((m) => ({ field: 'levels', message: m })));
   const targets = parsed.levels;
-  const all = await loadCruiseCasts(cruiseId, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
   const choices = { property: q.property, coord: q.coord, ref: q.ref, sigma: `sigma${q.ref / 1000}`, levels: levelsText, inversions: q.inversions, interpolation: q.interpolation,
     bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold };
   const raw = all.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);
