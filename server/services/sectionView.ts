@@ -2,7 +2,8 @@
 // with the stations, the bottom, isopycnals to draw over the pressure frame, and the inversion
 // warnings where they are. Every choice that made it is returned beside it.
 import { z } from 'zod';
-import { loadCruiseCasts, applyFlags, type CruiseCast } from './cruiseData';
+import { applyFlags, type CruiseCast } from './cruiseData';
+import { loadLineCasts, lineJson } from './lines';
 import { DerivedVariable } from '../models/index';
 import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
@@ -26,6 +27,8 @@ export const SectionQuery = z.object({
   gradients: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
   /** significant digits of the grid values (a screen needs 6; exports use full precision) */
   digits: z.coerce.number().int().min(3).max(17).optional(),
+  /** the line to draw (docs/lines.md); without it, the cruise's default line */
+  line: z.string().max(64).optional(),
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
@@ -71,15 +74,20 @@ export function sigmaRange(casts: { columns: Record<string, Float64Array> }[], r
 }
 
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
-  const all = await loadCruiseCasts(cruiseId, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
+  const resolved = await loadLineCasts(cruiseId, q.line, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
+  const all = resolved.casts;
+  const { stations: lineStations, ...lineRest } = lineJson(resolved);
+  const line = { ...lineRest, stations: lineStations.map(({ candidates: _c, ...s }) => s) };
   const levelsText = q.levels ?? (all.length ? levelsForRange(...sigmaRange(all, q.ref)) : DEFAULT_LEVELS[q.ref]);
   const parsed = safeParseLevels(levelsText);
   if (!parsed.ok) throw badRequest(`The levels are not valid: ${parsed.errors.join('; ')}`, parsed.errors.map((m) => ({ field: 'levels', message: m })));
   const targets = parsed.levels;
   const choices = { property: q.property, coord: q.coord, ref: q.ref, sigma: `sigma${q.ref / 1000}`, levels: levelsText, inversions: q.inversions, interpolation: q.interpolation,
-    bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold };
+    bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold, line: resolved.id };
+  const xById = new Map(resolved.stations.map((st) => [st.castId, st.x]));
   const raw = all.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);
-  if (!raw.length) return { choices, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, pressure: null, stations: [], bottom: [], gaps: [], inversions: [], isopycnals: [] };
+  if (!raw.length) return { choices, line, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, pressure: null, stations: [], bottom: [], gaps: [], inversions: [], isopycnals: [] };
+  const positions = raw.map((c) => xById.get(c.id)!);
   const values = await propertyColumns(cruiseId, q.property, raw);
   const casts: SectionCast[] = raw.map((c, i) => {
     const v = values[i] ?? new Float64Array(c.columns.pressure.length).fill(NaN);
@@ -88,14 +96,15 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     return { id: c.id, station: c.station, lon: c.longitude, lat: c.latitude, bottomDepth: c.bottomDepth, p: cols.pressure, z: cols.z, sigma, props: { [q.property]: cols[q.property] } };
   });
   const byId = new Map(raw.map((c) => [c.id, c]));
-  const common = { gapFactor: q.gapFactor, inversionThreshold: q.threshold };
+  const common = { gapFactor: q.gapFactor, inversionThreshold: q.threshold, positions };
   const grid = q.coord === 'pressure'
     ? buildPressureSection(casts, { property: q.property, binSize: q.bin, ...common })
     : buildDensitySection(casts, { property: q.property, targets, handling: q.inversions, interpolation: q.interpolation, ...common });
+  const lineInfo = new Map(resolved.stations.map((st) => [st.castId, { choice: st.choice, composite: st.composite, note: st.note }]));
   const stations = grid.casts.map((g) => {
     const c = byId.get(g.id)!;
     return { id: g.id, station: g.station, cast: c.cast, x: g.x, latitude: g.lat, longitude: g.lon, bottom: g.bottom, bottomDepth: g.bottomDepth,
-      deepest: c.columns.pressure[c.columns.pressure.length - 1] };
+      deepest: c.columns.pressure[c.columns.pressure.length - 1], ...lineInfo.get(g.id) };
   });
   const sigmaById = new Map(casts.map((c) => [c.id, c]));
   const inversions = grid.casts.flatMap((g) => g.inversions.map((v) => {
@@ -104,7 +113,7 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     return { castId: g.id, station: g.station, x: g.x, pTop: v.pTop, pBottom: v.pBottom, deficit: v.deficit, class: v.class, sigmaTop: at(v.pTop), sigmaBottom: at(v.pBottom) };
   }));
   const lineLevels = Float64Array.from(targets.filter((_, i) => i % Math.max(1, Math.round(targets.length / 14)) === 0));
-  const lines = q.coord === 'pressure' ? isopycnalLines(casts, lineLevels, q.inversions, q.interpolation) : null;
+  const lines = q.coord === 'pressure' ? isopycnalLines(casts, lineLevels, q.inversions, q.interpolation, { positions }) : null;
   const isopycnals = lines ? lines.sigma.map((sigma, j) => ({ sigma, p: lines.p[j] })) : [];
   const dens = grid as Partial<DensitySectionGrid>;
   let gradients = null;
@@ -119,6 +128,6 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   }
   const r = (rows: (number | null)[][] | null | undefined) => (rows && q.digits ? roundRows(rows, q.digits) : rows ?? null);
   if (gradients && q.digits) gradients = { ...gradients, slope: r(gradients.slope)!, alongLevel: r(gradients.alongLevel)!, alongIsopycnal: r(gradients.alongIsopycnal)! };
-  return { choices: { ...choices, digits: q.digits ?? null }, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: r(grid.z)! }, pressure: r(dens.pressure), depth: r(dens.depth),
+  return { choices: { ...choices, digits: q.digits ?? null }, line, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: r(grid.z)! }, pressure: r(dens.pressure), depth: r(dens.depth),
     stations, bottom: grid.bottom, gaps: grid.gaps, medianSpacingKm: grid.medianSpacingKm, inversions, isopycnals, gradients };
 }
