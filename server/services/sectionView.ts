@@ -7,7 +7,7 @@ import { loadLineCasts, lineJson } from './lines';
 import { DerivedVariable } from '../models/index';
 import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
-import { buildPressureSection, buildDensitySection, isopycnalLines, alongIsopycnalGradient, fromRows, toRows, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
+import { unwrapLongitudes, buildPressureSection, buildDensitySection, isopycnalLines, alongIsopycnalGradient, fromRows, toRows, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
 import { z_from_p } from '../../shared/seawater/index';
 import { safeParseLevels } from '../../shared/remap/index';
 import { badRequest } from '../lib/errors';
@@ -29,6 +29,8 @@ export const SectionQuery = z.object({
   digits: z.coerce.number().int().min(3).max(17).optional(),
   /** the line to draw (docs/lines.md); without it, the cruise's default line */
   line: z.string().max(64).optional(),
+  /** the x axis: distance along the line (km), or latitude or longitude where the line runs meridionally or zonally */
+  xAxis: z.enum(['distance', 'latitude', 'longitude']).default('distance'),
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
@@ -73,6 +75,24 @@ export function sigmaRange(casts: { columns: Record<string, Float64Array> }[], r
   return [min, max];
 }
 
+const X_UNITS = { distance: 'km', latitude: '°N', longitude: '°E' } as const;
+
+/**
+ * x of each station by the chosen axis, keyed by cast id: the distance along the line, or the
+ * latitude or the (unwrapped) longitude. A coordinate axis needs the line to run one way in it; a line
+ * that runs towards the south (or west) is drawn from its far end so x still increases.
+ */
+function axisPositions(stations: { castId: string; x: number; latitude: number; longitude: number }[], axis: SectionQuery['xAxis']): Map<string, number> {
+  if (axis === 'distance') return new Map(stations.map((st) => [st.castId, st.x]));
+  const v = axis === 'latitude' ? stations.map((st) => st.latitude) : Array.from(unwrapLongitudes(stations.map((st) => st.longitude)));
+  const up = v.every((x, i) => i === 0 || x > v[i - 1]);
+  const down = v.every((x, i) => i === 0 || x < v[i - 1]);
+  if (!up && !down) {
+    throw badRequest(`The line does not run one way in ${axis}: draw it against distance.`, [{ field: 'xAxis', message: `${axis} is not monotonic along the line` }]);
+  }
+  return new Map(stations.map((st, i) => [st.castId, v[i]]));
+}
+
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   const resolved = await loadLineCasts(cruiseId, q.line, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
   const all = resolved.casts;
@@ -83,10 +103,12 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   if (!parsed.ok) throw badRequest(`The levels are not valid: ${parsed.errors.join('; ')}`, parsed.errors.map((m) => ({ field: 'levels', message: m })));
   const targets = parsed.levels;
   const choices = { property: q.property, coord: q.coord, ref: q.ref, sigma: `sigma${q.ref / 1000}`, levels: levelsText, inversions: q.inversions, interpolation: q.interpolation,
-    bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold, line: resolved.id };
-  const xById = new Map(resolved.stations.map((st) => [st.castId, st.x]));
+    bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold, line: resolved.id, xAxis: q.xAxis, xUnit: X_UNITS[q.xAxis] };
+  const xById = axisPositions(resolved.stations, q.xAxis);
   const raw = all.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);
   if (!raw.length) return { choices, line, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, pressure: null, stations: [], bottom: [], gaps: [], inversions: [], isopycnals: [] };
+  // A line that runs south (or west) in the chosen coordinate is drawn from its far end.
+  if (raw.length > 1 && xById.get(raw[0].id)! > xById.get(raw[raw.length - 1].id)!) raw.reverse();
   const positions = raw.map((c) => xById.get(c.id)!);
   const values = await propertyColumns(cruiseId, q.property, raw);
   const casts: SectionCast[] = raw.map((c, i) => {
