@@ -7,7 +7,9 @@ import { buildCast } from './build';
 import { collectMetadata, type MetaPair } from './metadata';
 import { decodeText, fileError, ParseFailure, splitLines } from './text';
 
-export const EXCHANGE_FIRST_LINE = /^\s*CTD\s*,\s*([^,\s]*)\s*$/i;
+export const EXCHANGE_FIRST_LINE = /^\s*CTD\s*,\s*([^,\s]*)[\s,]*$/i;
+/** The first line of an exchange bottle file ("BOTTLE,20170123ABCDEF"). */
+export const EXCHANGE_BOTTLE_FIRST_LINE = /^\s*BOTTLE\s*,\s*([^,\s]*)[\s,]*$/i;
 
 function bad(file: string, line: number | null, message: string): ParseFailure {
   return new ParseFailure([fileError(file, line, null, 'exchange_bad_header', message)]);
