@@ -18,6 +18,8 @@ export function detectFormat(filename: string, bytes: Uint8Array): DetectedForma
   const firstReal = lines.find((l) => l.trim() !== '') ?? '';
   if (EXCHANGE_FIRST_LINE.test(firstReal)) return 'exchange';
   if (EXCHANGE_BOTTLE_FIRST_LINE.test(firstReal)) return 'exchangeBottle';
+  // The name breaks a tie: a data-office bottle file whose type line was lost.
+  if (/_hy1\.csv$/i.test(filename) && lines.some((l) => /^\s*EXPOCODE\s*,/i.test(l))) return 'exchangeBottle';
   if (lines.some((l) => /^\s*NUMBER_HEADERS\s*=/i.test(l))) return 'exchange';
   const header = lines.find((l) => l.trim() !== '' && !l.trimStart().startsWith('#'));
   if (header !== undefined) {

@@ -38,6 +38,7 @@ export const FILE_ERROR_CODES = [
   'exchange_bad_header',
   'exchange_missing_end',
   'exchange_bottle',
+  'missing_header',
   'netcdf_corrupt',
   'netcdf_unsupported',
   'netcdf_bad_structure',
