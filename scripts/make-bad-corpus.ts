@@ -6,6 +6,7 @@ import { join } from 'node:path';
 import yazl from 'yazl';
 import { mulberry32 } from './lib/prng';
 import { writeNetcdf, type NcVariable } from '../server/services/deliveries/netcdf';
+import { acquisitionSamples } from './lib/acquisitionSamples';
 
 const OUT = join(import.meta.dirname, '..', 'fixtures', 'bad');
 
@@ -521,6 +522,37 @@ async function zips(): Promise<void> {
   add('netcdf-hot-water.nc', cf({ temp: ps.map(() => 80) }), { expect: 'temperature_out_of_range', what: 'temperature 80 °C at every level' });
   add('netcdf-latitude.nc', cf({ lat: 95 }), { expect: 'latitude_out_of_range', what: 'latitude 95°' });
   add('netcdf-ragged-overrun.nc', cf({ rowSize: [30, 30] }), { expect: 'netcdf_bad_structure', what: 'row_size adds up to more levels than the file has' });
+}
+
+
+// ---- malformed acquisition text exports (no random numbers here either) -----------------------
+{
+  const good = acquisitionSamples()['acquisition-two-pairs.txt'].split('\n');
+  if (good[good.length - 1] === '') good.pop();
+  const endAt = good.indexOf('*END*'); // 0-based
+  const firstData = endAt + 1;
+  const mod = (f: (ls: string[]) => void): string => {
+    const ls = [...good];
+    f(ls);
+    return join_(ls);
+  };
+  add('acquisition-no-end.txt', mod((ls) => ls.splice(endAt, 1)), { expect: 'acquisition_missing_end', line: endAt + 1, what: 'no *END* line: data inside the header' });
+  add('acquisition-header-only.txt', join_(good.slice(0, endAt)), { expect: 'acquisition_missing_end', what: 'a header that never ends' });
+  add('acquisition-declaration-gap.txt', mod((ls) => { const i = ls.findIndex((l) => l.startsWith('# name 3 =')); ls.splice(i, 1); }), {
+    expect: 'acquisition_bad_header', what: 'column declarations 0, 1, 2, 4, … (3 missing)' });
+  add('acquisition-bad-flag-text.txt', mod((ls) => { const i = ls.findIndex((l) => l.startsWith('# bad_flag')); ls[i] = '# bad_flag = none'; }), {
+    expect: 'acquisition_bad_header', line: good.findIndex((l) => l.startsWith('# bad_flag')) + 1, what: 'a bad_flag that is not a number' });
+  add('acquisition-no-temperature.txt', mod((ls) => {
+    for (const n of [1, 2]) { const i = ls.findIndex((l) => l.startsWith(`# name ${n} =`)); ls[i] = ls[i].replace(/Temperature(, 2)? \[ITS-90, deg C\]/, 'Sensor $1 [V]'); }
+  }), { expect: 'missing_column', what: 'no column declared as a temperature' });
+  add('acquisition-field-count.txt', mod((ls) => { ls[firstData + 30] = ls[firstData + 30].trim().split(/\s+/).slice(0, 7).join('  '); }), {
+    expect: 'field_count', line: firstData + 31, what: 'a data line with 7 of 11 fields' });
+  add('acquisition-text-in-data.txt', mod((ls) => { const f = ls[firstData + 5].trim().split(/\s+/); f[1] = 'warm'; ls[firstData + 5] = f.join('  '); }), {
+    expect: 'text_in_numeric', line: firstData + 6, column: 2, what: 'text in the temperature column' });
+  add('acquisition-nmea-latitude.txt', mod((ls) => { const i = ls.findIndex((l) => l.startsWith('* NMEA Latitude')); ls[i] = '* NMEA Latitude = 95 00.00 N'; }), {
+    expect: 'latitude_out_of_range', line: good.findIndex((l) => l.startsWith('* NMEA Latitude')) + 1, what: 'an NMEA latitude of 95°' });
+  const whole = join_(good);
+  add('acquisition-truncated.txt', whole.slice(0, whole.length - 30), { expect: 'truncated', line: good.length, what: 'cut off in the last data line' });
 }
 
 async function main(): Promise<void> {

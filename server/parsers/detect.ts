@@ -4,8 +4,9 @@ import { detectDelimiter } from './plain';
 import { looksLikeStationTable } from './stationTable';
 import { isZip } from './zip';
 import { isHdf5, isNetcdf3 } from './ncfile';
+import { looksLikeAcquisitionExport } from './acquisition';
 
-export type DetectedFormat = 'zip' | 'netcdf' | 'hdf5' | 'exchange' | 'exchangeBottle' | 'stationTable' | 'plain';
+export type DetectedFormat = 'zip' | 'netcdf' | 'hdf5' | 'exchange' | 'exchangeBottle' | 'acquisition' | 'stationTable' | 'plain';
 
 export function detectFormat(filename: string, bytes: Uint8Array): DetectedFormat {
   if (isZip(bytes) || /\.zip$/i.test(filename)) return 'zip';
@@ -21,6 +22,7 @@ export function detectFormat(filename: string, bytes: Uint8Array): DetectedForma
   // The name breaks a tie: a data-office bottle file whose type line was lost.
   if (/_hy1\.csv$/i.test(filename) && lines.some((l) => /^\s*EXPOCODE\s*,/i.test(l))) return 'exchangeBottle';
   if (lines.some((l) => /^\s*NUMBER_HEADERS\s*=/i.test(l))) return 'exchange';
+  if (looksLikeAcquisitionExport(lines)) return 'acquisition';
   const header = lines.find((l) => l.trim() !== '' && !l.trimStart().startsWith('#'));
   if (header !== undefined) {
     const d = detectDelimiter(header);

@@ -8,6 +8,7 @@ import { parsePlain } from './plain';
 import { parseStationTable } from './stationTable';
 import { fileError, ParseFailure } from './text';
 import { parseNetcdf } from './netcdf';
+import { parseAcquisition } from './acquisition';
 
 function bottleRefusal(file: string): FileError {
   return fileError(file, 1, null, 'exchange_bottle',
@@ -49,6 +50,10 @@ function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedForma
     if (fmt === 'netcdf') {
       const r = parseNetcdf(file, bytes, { columnMapping: mapping });
       return { ok: true, casts: r.casts, stations: [], warnings: r.warnings };
+    }
+    if (fmt === 'acquisition') {
+      const r = parseAcquisition(file, bytes, { columnMapping: mapping });
+      return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
     }
     if (fmt === 'hdf5') return { ok: false, errors: [hdf5Refusal(file)] };
     if (fmt === 'exchangeBottle') return { ok: false, errors: [bottleRefusal(file)] };
