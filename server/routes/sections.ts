@@ -74,7 +74,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         const rows = await LayerSet.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['referencePressure', 'ASC'], ['name', 'ASC']] });
         return rows.map((r) => ({ id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length }));
       } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/layer-sets', summary: 'Create a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody,
+    defineRoute({ method: 'post', path: '/cruises/:id/layer-sets', changesData: true, summary: 'Create a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof LayerSetBody>;
         const n = levelsOrError(b.levels).length;
@@ -86,7 +86,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         invalidateDataVersion(ctx.cruiseId!);
         res.status(201).json({ id: row.id, name: row.name, referencePressure: row.referencePressure, levels: row.levels, count: n });
       } }),
-    defineRoute({ method: 'patch', path: '/cruises/:id/layer-sets/:setId', summary: 'Edit a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody.partial(),
+    defineRoute({ method: 'patch', path: '/cruises/:id/layer-sets/:setId', changesData: true, summary: 'Edit a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody.partial(),
       handler: async (req, _res, ctx) => {
         const b = ctx.body as Partial<z.infer<typeof LayerSetBody>>;
         if (b.levels) levelsOrError(b.levels);

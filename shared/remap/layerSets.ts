@@ -30,7 +30,11 @@ const decimals = (s: string): number => {
   return m ? m[1].length : 0;
 };
 
-const number = z.string().trim().regex(/^[+-]?(\d+(\.\d*)?|\.\d+)$/, 'not a number');
+/** Most decimals a level may be written with: σ levels finer than 10⁻⁶ kg/m³ mean nothing (density
+ * from TEOS-10 is good to about 10⁻³ kg/m³, from memory), and more would only cost. */
+export const MAX_LEVEL_DECIMALS = 6;
+const number = z.string().trim().regex(/^[+-]?(\d{1,6}(\.\d*)?|\.\d+)$/, 'not a number')
+  .refine((t) => decimals(t) <= MAX_LEVEL_DECIMALS, `at most ${MAX_LEVEL_DECIMALS} decimals`);
 
 const rangeSpec = z
   .string()
