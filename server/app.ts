@@ -8,6 +8,7 @@ import type { Pool } from 'pg';
 import pg from 'pg';
 import { sessionMiddleware, configurePassport, csrfGuard } from './auth/session';
 import { warmPasswordCheck } from './auth/passwords';
+import { configureCache } from './services/cruiseData';
 import { HttpError, errorBody } from './lib/errors';
 import { logger } from './lib/logger';
 import { mountRoutes, type RouteSpec } from './lib/routeTable';
@@ -50,6 +51,7 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
   // nobody can pick their own address for the sign-in limits or claim https.
   app.set('trust proxy', trustProxy(settings.TRUST_PROXY));
   warmPasswordCheck();
+  configureCache({ maxBytes: settings.SECTION_CACHE_MAX_BYTES });
   app.disable('x-powered-by');
   // gzip for the client's files and JSON answers (the section route sends its own cached gzip)
   app.use(compression({ threshold: 1024 }));

@@ -26,7 +26,7 @@ const Settings = z.object({
   // --- hardening (docs/security.md) ---
   /** Bytes one upload may inflate to in all (a zip's entries together). A dozen raw 24 Hz casts of
    * 100 000+ scans is about 150 MB of text. */
-  UPLOAD_MAX_INFLATED_BYTES: z.coerce.number().int().positive().default(400 * 1024 * 1024),
+  UPLOAD_MAX_INFLATED_BYTES: z.coerce.number().int().positive().default(256 * 1024 * 1024),
   /** Levels one cast may keep. A full-depth raw 24 Hz downcast (6000 dbar at 1 m/s) is ~150 000 scans. */
   CAST_MAX_LEVELS: z.coerce.number().int().positive().default(500_000),
   /** Bytes the per-process cache of sections, T–S points and geostrophy may hold. */

@@ -1,5 +1,6 @@
 // Analysis routes: derived variables and their preview, the T–S points, geostrophy, saved views.
 import { z } from 'zod';
+import { binQuery } from '../lib/bounds';
 import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { badRequest, conflict, notFound } from '../lib/errors';
@@ -28,7 +29,7 @@ const GeoQuery = z.object({
   pRef: z.union([z.literal('deepest_common'), z.coerce.number().min(0).max(11000)]).default('deepest_common'),
   ref: z.coerce.number().refine((v) => [0, 1000, 2000, 3000, 4000].includes(v), 'one of 0, 1000, 2000, 3000, 4000').default(0),
   levels: z.string().max(20000).optional(),
-  bin: z.coerce.number().positive().max(500).default(20),
+  bin: binQuery(20),
 });
 const NewView = z.object({ name: z.string().trim().min(1).max(100), query: z.string().max(4000) });
 const RESERVED = new Set(['pressure', 'temperature', 'SP', 'SA', 'CT', 'pt0', 'sigma0', 'sigma1', 'sigma2', 'sigma3', 'sigma4', 'rho', 'spiciness0', 'z', 'depth', 'oxygen', 'N2', 'p_mid', 'conductivity']);

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { binBody } from '../lib/bounds';
 import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { HttpError, notFound } from '../lib/errors';
@@ -20,7 +21,7 @@ const NewDelivery = z.object({
   levels: z.string().trim().max(20000).optional(),
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
-  bin: z.number().positive().max(500).default(2),
+  bin: binBody(2),
   flags: z.array(z.number().int().min(1).max(9)).min(1).max(9).default([1, 2]),
   formats: z.array(z.enum(['csv', 'xlsx', 'nc'])).min(1).max(3),
 });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { binQuery } from '../lib/bounds';
 import { gzipSync } from 'node:zlib';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { badRequest, notFound } from '../lib/errors';
@@ -21,7 +22,7 @@ export const IsopycnalQuery = z.object({
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
   flags, extras,
 });
-const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras });
+const PressureQuery = z.object({ bin: binQuery(2), flags, extras });
 const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
 
 export function defaultLevels(refP: number): string {
