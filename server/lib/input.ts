@@ -42,13 +42,24 @@ function queryValues(v: unknown): string[] {
   return [];
 }
 
-/** The first problem with the request's path parameters, query or body, or null. */
-export function inputProblem(req: Request): HttpError | null {
+/** Ids in the path: `:id` (which finds the cruise) before the rule runs, `:userId`, `:setId`, … after
+ * it, so that a non-member learns nothing about what lies under a cruise. */
+export function idProblem(req: Request, which: 'id' | 'children'): HttpError | null {
   for (const [name, value] of Object.entries(req.params ?? {})) {
     if (typeof value !== 'string') continue;
-    if (value.includes('\u0000')) return badRequest('The path may not hold a NUL character.', [{ field: name, message: 'NUL character' }], 'bad_text');
-    if ((name === 'id' || /Id$/.test(name)) && !isUuid(value)) return badRequest(`The ${name} in the path is not an id.`, [{ field: name, message: 'not a UUID' }], 'bad_id');
+    const wanted = which === 'id' ? name === 'id' : name !== 'id' && /Id$/.test(name);
+    if (wanted && !isUuid(value)) return badRequest(`The ${name} in the path is not an id.`, [{ field: name, message: 'not a UUID' }], 'bad_id');
   }
+  return null;
+}
+
+/** The first problem with the request's path (NUL, the `:id`), query or body, or null. */
+export function inputProblem(req: Request): HttpError | null {
+  for (const [name, value] of Object.entries(req.params ?? {})) {
+    if (typeof value === 'string' && value.includes('\u0000')) return badRequest('The path may not hold a NUL character.', [{ field: name, message: 'NUL character' }], 'bad_text');
+  }
+  const id = idProblem(req, 'id');
+  if (id) return id;
   const q = (req.query ?? {}) as Record<string, unknown>;
   for (const name of Object.keys(q)) {
     if (isPrototypeKey(name) || name.includes('\u0000')) return badRequest(`"${name.replace(/\u0000/g, '\\0')}" is not a query parameter.`, [{ field: name, message: 'reserved name' }], 'bad_query');

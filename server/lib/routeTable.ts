@@ -6,7 +6,7 @@ import type { z } from 'zod';
 import { QueryTypes } from 'sequelize';
 import { Membership, type Role } from '../models/index';
 import { HttpError, unauthorized, forbidden, notFound, badRequest } from './errors';
-import { inputProblem, isUuid } from './input';
+import { idProblem, inputProblem, isUuid } from './input';
 
 // Memberships are read at most twice a second per process and user: a change made through this
 // process drops them at once (invalidateMemberships); one made by another web process is seen
@@ -116,7 +116,13 @@ export function mountRoutes(router: Router, specs: RouteSpec[]) {
       const problem = inputProblem(req);
       if (problem) return next(problem);
       check(spec.rule, req)
-        .then(async (ctx) => { await checkLock(spec, req, ctx.cruiseId); (req as Request & { routeCtx?: object }).routeCtx = ctx; next(); })
+        .then(async (ctx) => {
+          const child = idProblem(req, 'children');
+          if (child) throw child;
+          await checkLock(spec, req, ctx.cruiseId);
+          (req as Request & { routeCtx?: object }).routeCtx = ctx;
+          next();
+        })
         .catch(next);
     };
     const before = (spec.before ?? []).map((mw): RequestHandler => (req, res, next) => mw(req, res, (err?: unknown) => next(clientBodyError(err))));
