@@ -47,7 +47,7 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
         const units = Object.fromEntries(Object.entries(cols.units).filter(([k]) => !k.startsWith('x:') && !k.startsWith('flag:')));
         return { ...castSummary(c), metadata: c.metadata, notes: c.notes, fitness: c.fitness, inversions: c.inversions, columns, units, extras, flags };
       } }),
-    defineRoute({ method: 'post', path: '/casts/:id/flags', summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable', rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise }, body: FlagEdit,
+    defineRoute({ method: 'post', path: '/casts/:id/flags', changesData: true, summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable', rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise }, body: FlagEdit,
       handler: async (req, _res, ctx) => {
         const b = ctx.body as z.infer<typeof FlagEdit>;
         if (b.pTo < b.pFrom) throw badRequest('The range ends above where it starts.', [{ field: 'pTo', message: 'must be ≥ pFrom' }]);

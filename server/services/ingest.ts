@@ -29,7 +29,8 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     throw new IngestFault(`object storage unavailable: ${(err as Error).message}`);
   }
   const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
-  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES });
+  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES,
+    zipLimits: { maxTotalBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES }, maxLevels: deps.settings.CAST_MAX_LEVELS });
   await upload.update({ progress: 0.3 });
   if (!parsed.ok) {
     await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
