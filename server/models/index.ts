@@ -2,6 +2,8 @@
 // migrations in server/migrations (never by sync), so the two must agree.
 import { DataTypes, Model, Sequelize, type InferAttributes, type InferCreationAttributes, type CreationOptional, type ForeignKey } from 'sequelize';
 
+import { initQcModels } from './qc';
+
 export const ROLES = ['chief_scientist', 'technician', 'analyst', 'pi'] as const;
 export type Role = (typeof ROLES)[number];
 
@@ -254,6 +256,8 @@ export function initModels(sequelize: Sequelize) {
     params: { type: DataTypes.JSONB, allowNull: false }, formats: { type: DataTypes.JSONB, allowNull: false }, status: { type: DataTypes.TEXT, defaultValue: 'queued' },
     progress: { type: DataTypes.DOUBLE, defaultValue: 0 }, files: { type: DataTypes.JSONB, defaultValue: [] }, error: DataTypes.TEXT,
     released: { type: DataTypes.BOOLEAN, defaultValue: false }, releasedAt: DataTypes.DATE, releasedBy: DataTypes.UUID, createdBy: DataTypes.UUID, ...ts }, opts('deliveries'));
+
+  initQcModels(sequelize); // the QC desk's tables (server/models/qc.ts)
 
   User.hasMany(Membership, { foreignKey: 'userId' });
   Membership.belongsTo(User, { foreignKey: 'userId' });
