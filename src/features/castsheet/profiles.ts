@@ -148,3 +148,39 @@ export function validateFlagForm(values: FlagFormValues, pressure: readonly (num
     edit: { variable: values.variable as FlagVariable, pFrom, pTo, flag: flag as FlagEdit['flag'], ...(reason ? { reason } : {}) },
   };
 }
+
+/** How an inversion the intake found is handled now. */
+export interface InversionHandling {
+  /** still raising a warning (in the cast's current inversions) */
+  warned: boolean;
+  /** levels of its light water flagged 3 or 4 in temperature, salinity or conductivity */
+  flagged: number;
+  /** the density-inversion proposal over it, if any */
+  proposal: 'pending' | 'accepted' | 'rejected' | null;
+  /** one line for the table */
+  text: string;
+}
+
+/**
+ * For each inversion found at intake: is it still warned, were its levels flagged, what became of its proposal.
+ * A rejected proposal means the technician judged the inversion real (or left it for later analysis).
+ */
+export function inversionHandling(intake: readonly CastInversion[], current: readonly CastInversion[], flags: CastDetail['flags'],
+  proposals: readonly { test: string; iFrom: number; iTo: number; status: 'pending' | 'accepted' | 'rejected' }[]): InversionHandling[] {
+  return intake.map((inv) => {
+    const from = inv.class === 'spike' ? inv.iTop + 1 : inv.iTop;
+    let flagged = 0;
+    for (let i = from; i <= inv.iBottom; i++) {
+      if (['temperature', 'salinity', 'conductivity'].some((v) => flags[v]?.[i] === 3 || flags[v]?.[i] === 4)) flagged++;
+    }
+    const warned = current.some((c) => c.iTop <= inv.iBottom && inv.iTop <= c.iBottom);
+    const prop = proposals.find((p) => p.test === 'density_inversion' && p.iFrom <= inv.iBottom && inv.iTop <= p.iTo)?.status ?? null;
+    const parts: string[] = [];
+    if (flagged) parts.push(`${flagged} ${flagged === 1 ? 'level' : 'levels'} flagged`);
+    parts.push(warned ? 'still warned' : 'no longer warned');
+    if (prop === 'rejected') parts.push('proposal rejected: kept as real');
+    else if (prop === 'pending') parts.push('proposal pending');
+    else if (prop === 'accepted') parts.push('proposal accepted');
+    return { warned, flagged, proposal: prop, text: parts.join(' · ') };
+  });
+}

@@ -107,3 +107,68 @@ export interface FlagEdit {
   flag: 1 | 2 | 3 | 4 | 9;
   reason?: string;
 }
+
+export const flagResultWithChangeSchema = z.object({ levels: z.number().int().nonnegative(), changeId: z.string().optional() });
+
+export const QC_TEST_IDS = [
+  'pressure_increasing', 'global_range', 'regional_range', 'spike', 'gradient', 'density_inversion', 'stuck_value', 'sensor_pair',
+] as const;
+export type QcTestId = (typeof QC_TEST_IDS)[number];
+
+export const proposalSchema = z.object({
+  id: z.string(),
+  test: z.enum(QC_TEST_IDS),
+  variable: z.enum(['temperature', 'salinity', 'conductivity', 'oxygen', 'all']),
+  iFrom: z.number().int(),
+  iTo: z.number().int(),
+  pFrom: z.number(),
+  pTo: z.number(),
+  levels: z.number().int(),
+  flag: z.number().int(),
+  detail: z.string(),
+  status: z.enum(['pending', 'accepted', 'rejected']),
+  decidedAt: z.string().nullable(),
+});
+export type Proposal = z.infer<typeof proposalSchema>;
+
+export const castQcSchema = z.object({
+  tests: z.array(z.object({ id: z.enum(QC_TEST_IDS), label: z.string(), source: z.string() })),
+  proposals: z.array(proposalSchema),
+  intakeInversions: z.array(inversionSchema),
+});
+export type CastQc = z.infer<typeof castQcSchema>;
+
+export const flagLogEntrySchema = z.object({
+  id: z.string(),
+  at: z.string(),
+  who: z.string().nullable(),
+  variable: z.string(),
+  pFrom: z.number(),
+  pTo: z.number(),
+  levels: z.number().int(),
+  from: z.record(z.string(), z.array(z.number())),
+  to: z.union([z.number(), z.literal('restored')]),
+  reason: z.string().nullable(),
+  source: z.enum(['manual', 'proposal', 'undo']),
+  proposalId: z.string().nullable(),
+  undoes: z.string().nullable(),
+  undoneBy: z.string().nullable(),
+  undoable: z.boolean(),
+});
+export type FlagLogEntry = z.infer<typeof flagLogEntrySchema>;
+
+export const neighboursSchema = z.object({
+  order: z.string(),
+  neighbours: z.array(z.object({
+    id,
+    station: label,
+    cast: label,
+    role: z.enum(['previous', 'next']),
+    columns: z.record(z.string(), column.optional()),
+    extras: z.record(z.string(), column),
+  })),
+});
+export type Neighbours = z.infer<typeof neighboursSchema>;
+export type Neighbour = Neighbours['neighbours'][number];
+
+export const pendingSchema = z.array(z.object({ castId: id, pending: z.number().int() }));

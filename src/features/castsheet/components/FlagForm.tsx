@@ -4,7 +4,7 @@ import { SelectField, TextField } from '../../../components/Field';
 import { ErrorNotice, InfoNotice } from '../../../components/Notice';
 import { useSetFlag } from '../api';
 import { FLAG_CHOICES, FLAG_VARIABLE_LABELS, levelsInRange, validateFlagForm, type FlagFormValues } from '../profiles';
-import { FLAG_VARIABLES } from '../types';
+import { FLAG_VARIABLES, type FlagVariable } from '../types';
 
 const EMPTY: FlagFormValues = { variable: '', pFrom: '', pTo: '', flag: '', reason: '' };
 
@@ -12,8 +12,9 @@ export interface FlagFormProps {
   cruiseId: string;
   castId: string;
   pressure: readonly (number | null)[];
-  /** A range picked on the plot; each new pick fills the two pressure fields. */
-  picked?: { pFrom: number; pTo: number; at: number } | null;
+  /** A range picked on the plot or in a table; each new pick fills the pressure fields (and the variable and
+   * flag when the pick names them: a proposal, an inversion, a flagged range). */
+  picked?: { pFrom: number; pTo: number; at: number; variable?: string; flag?: number } | null;
   /** The range as typed, for the plot to outline (null when it is not two numbers in order). */
   onRangeChange?: (range: { pFrom: number; pTo: number } | null) => void;
   /** Ask the plot to switch box-select on. */
@@ -33,7 +34,10 @@ export function FlagForm({ cruiseId, castId, pressure, picked, onRangeChange, on
 
   useEffect(() => {
     if (picked) {
-      setValues((v) => ({ ...v, pFrom: String(picked.pFrom), pTo: String(picked.pTo) }));
+      const variable = (FLAG_VARIABLES as readonly string[]).includes(picked.variable ?? '') ? (picked.variable as FlagVariable) : null;
+      const flag = FLAG_CHOICES.some((c) => c.value === picked.flag) ? String(picked.flag) : null;
+      setValues((v) => ({ ...v, pFrom: String(picked.pFrom), pTo: String(picked.pTo), ...(variable ? { variable } : {}), ...(flag ? { flag } : {}) }));
+      setDone(null);
       setErrors((e) => ({ ...e, pFrom: undefined, pTo: undefined }));
     }
   }, [picked]);
@@ -88,13 +92,18 @@ export function FlagForm({ cruiseId, castId, pressure, picked, onRangeChange, on
       <div className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs text-ink-muted">
         {onPickOnPlot && (
           <Button size="sm" variant={picking ? 'primary' : 'secondary'} onClick={onPickOnPlot} aria-pressed={picking}>
-            {picking ? 'Drag a box on the plot…' : 'Pick the range on the plot'}
+            {picking ? 'Drag on the plot, any direction…' : 'Pick the range on the plot'}
           </Button>
         )}
         <span aria-live="polite">
           {preview == null ? 'Type a range or pick it on the plot.' : <><span className="font-mono tabular-nums">{preview}</span> {preview === 1 ? 'level' : 'levels'} in the range</>}
         </span>
       </div>
+      <p className="text-xs text-ink-soft" data-testid="flag-preview">
+        {preview == null || preview === 0 || !values.variable || !values.flag
+          ? 'Choose the variable, the range and the flag; the count of levels it will change shows here.'
+          : `Set flag will flag ${preview} ${preview === 1 ? 'level' : 'levels'} of ${values.variable === 'all' ? 'every sensor' : FLAG_VARIABLE_LABELS[values.variable].toLowerCase()} as ${values.flag}.`}
+      </p>
       <TextField
         label="Reason"
         optional={!(values.flag === '3' || values.flag === '4' || values.flag === '9')}
