@@ -137,7 +137,8 @@ export interface FlagLogEntry {
   levels: number;
   /** the distinct flags the change replaced, per variable */
   from: Record<string, number[]>;
-  to: number | 'restored';
+  /** the flag set, or for an undo the flags it restored */
+  to: number | number[];
   reason: string | null;
   source: 'manual' | 'proposal' | 'undo';
   proposalId: string | null;
@@ -153,10 +154,12 @@ export async function flagLog(castId: string): Promise<FlagLogEntry[]> {
   const users = await User.findAll({ where: { id: [...new Set(rows.map((r) => r.userId).filter((x): x is string => !!x))] }, attributes: ['id', 'name', 'email'] });
   const name = new Map(users.map((u) => [u.id, u.name || u.email]));
   const live = rows.filter((r) => !r.undoneById && r.source !== 'undo');
+  const byId = new Map(rows.map((r) => [String(r.id), r]));
+  const distinct = (prior: PriorFlags) => [...new Set(Object.values(prior).flatMap((x) => x.values))].sort();
   return rows.map((r) => ({
     id: String(r.id), at: r.createdAt.toISOString(), who: r.userId ? name.get(r.userId) ?? null : null, variable: r.variable, pFrom: r.pFrom, pTo: r.pTo,
     levels: r.levels, from: Object.fromEntries(Object.entries(r.prior).map(([v, x]) => [v, [...new Set(x.values)].sort()])),
-    to: r.source === 'undo' ? 'restored' : r.flag, reason: r.reason, source: r.source, proposalId: r.proposalId, undoes: r.undoesId ? String(r.undoesId) : null,
+    to: r.source === 'undo' ? distinct(byId.get(String(r.undoesId))?.prior ?? {}) : r.flag, reason: r.reason, source: r.source, proposalId: r.proposalId, undoes: r.undoesId ? String(r.undoesId) : null,
     undoneBy: r.undoneById ? String(r.undoneById) : null,
     undoable: r.source !== 'undo' && !r.undoneById && !live.some((l) => BigInt(l.id) > BigInt(r.id) && overlaps(l.prior, r.prior)),
   }));

@@ -97,6 +97,9 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   const [picked, setPicked] = useState<Picked | null>(null);
   const [range, setRange] = useState<{ pFrom: number; pTo: number } | null>(null);
   const [currentId, setCurrentId] = useState<string | null>(null);
+  // neighbouring stations differ most in the upper ocean; a window there makes the overlay readable
+  const [upper, setUpper] = useState(false);
+  const pWindow = useMemo<[number, number] | null>(() => (upper ? [0, 1500] : null), [upper]);
   const mayFlag = (cruise.role === 'technician' || cruise.role === 'chief_scientist') && !cruise.locked;
 
   const qc = useCastQc(cast.id);
@@ -170,12 +173,25 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   const neighbourText = neighbours.length
     ? `Overlaid: ${neighbours.map((n) => `${n.role} station ${n.station}`).join(', ')} (neighbours in ${neighboursQ.data?.order ?? 'station plan'} order).`
     : neighboursQ.isPending ? 'Loading the neighbouring casts…' : 'No neighbouring cast to overlay.';
-  const figureProps = { cast, inversions: inversionSet.inversions, proposals, selecting: picking, onSelectRange: pick, range };
+  const figureProps = { cast, inversions: inversionSet.inversions, proposals, selecting: picking, onSelectRange: pick, range,
+    pWindow };
 
   return (
     <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
       <div className="flex min-w-0 flex-col gap-4">
-        <Panel title="Measured profiles" titleId="measured" actions={<span className="text-2xs text-ink-muted">{neighbourText}</span>}>
+        <Panel title="Measured profiles" titleId="measured" actions={
+          <span className="flex items-center gap-2 text-2xs text-ink-muted">
+            {neighbourText}
+            <span className="flex" role="group" aria-label="Pressure window">
+              {([false, true] as const).map((u) => (
+                <button key={String(u)} type="button" aria-pressed={upper === u} onClick={() => setUpper(u)}
+                  className={`h-6 border border-paper-rule px-2 text-2xs first:rounded-l last:rounded-r ${upper === u ? 'bg-ink text-paper' : 'text-ink-soft hover:bg-ink-wash'}`}>
+                  {u ? 'Upper 1500 dbar' : 'Full depth'}
+                </button>
+              ))}
+            </span>
+          </span>
+        }>
           <ProfileFigure {...figureProps} panels={measured} height={460}
             label={`Measured profiles of station ${cast.station} cast ${cast.cast}: ${measured.map((p) => p.title).join(', ')} against pressure`} />
           <Legend />

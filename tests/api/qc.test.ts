@@ -98,6 +98,7 @@ describe('proposals', () => {
     const log2 = (await get(`/casts/${castId}/flag-log`)).body;
     expect(log2.map((e: { source: string; undoable: boolean }) => [e.source, e.undoable])).toEqual([['undo', false], ['proposal', false]]);
     expect(log2[1].undoneBy).toBe(log2[0].id);
+    expect(log2[0]).toMatchObject({ from: { salinity: [3] }, to: [2], undoes: log[0].id });
     expect((await post(`/casts/${castId}/flag-log/undo`, { changeId: log[0].id })).status).toBe(409); // already undone
     expect((await post(`/casts/${castId}/flag-log/undo`, { changeId: log2[0].id })).status).toBe(409); // an undo is not undone
     expect((await post(`/casts/${castId}/flag-log/undo`, { changeId: 'x' })).status).toBe(400);

@@ -80,6 +80,28 @@ describe('cast sheet QC desk', () => {
     await page.screenshot({ path: join(SHOTS, 'castsheet-qc-1920.png'), fullPage: false });
     await page.screenshot({ path: join(SHOTS, 'castsheet-qc-1920-full.png'), fullPage: true });
 
+    // the neighbours differ from this cast by less than a pixel at full depth: zoom into the upper 1500 dbar to see them
+    await page.getByRole('button', { name: 'Upper 1500 dbar' }).click();
+    await page.waitForTimeout(800);
+    await page.screenshot({ path: join(SHOTS, 'castsheet-neighbours-upper-1920.png'), fullPage: false });
+    // and a zoom box (drag in zoom mode) on the temperature panel around 200 dbar, where CP-02 and CP-04 part from CP-03
+    const tPlot = figure(page, 'Measured profiles of').locator('.js-plotly-plot');
+    const box = await tPlot.evaluate((gd) => {
+      type Ax = { _offset: number; c2p: (v: number) => number };
+      const fl = (gd as unknown as { _fullLayout: { xaxis: Ax; yaxis: Ax } })._fullLayout;
+      const r = gd.getBoundingClientRect();
+      const x = (v: number) => r.left + fl.xaxis._offset + fl.xaxis.c2p(v);
+      const y = (v: number) => r.top + fl.yaxis._offset + fl.yaxis.c2p(v);
+      return { x0: x(17.4), x1: x(18.2), y0: y(160), y1: y(240) };
+    });
+    await page.mouse.move(box.x0, box.y0);
+    await page.mouse.down();
+    await page.mouse.move(box.x1, box.y1, { steps: 8 });
+    await page.mouse.up();
+    await page.waitForTimeout(800);
+    await figure(page, 'Measured profiles of').screenshot({ path: join(SHOTS, 'castsheet-neighbours-zoom-1920.png') });
+    await page.getByRole('button', { name: 'Full depth' }).click();
+
     // keyboard: j goes to the proposal and fills the form; a accepts it
     await page.locator('body').press('j');
     await expect.poll(() => page.getByLabel('From (dbar)').inputValue()).toBe('1204');

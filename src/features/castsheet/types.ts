@@ -147,7 +147,7 @@ export const flagLogEntrySchema = z.object({
   pTo: z.number(),
   levels: z.number().int(),
   from: z.record(z.string(), z.array(z.number())),
-  to: z.union([z.number(), z.literal('restored')]),
+  to: z.union([z.number(), z.array(z.number())]),
   reason: z.string().nullable(),
   source: z.enum(['manual', 'proposal', 'undo']),
   proposalId: z.string().nullable(),

@@ -41,7 +41,7 @@ export function FlagLog({ entries, mayUndo, busy, error, onUndo, onPick }: {
                 </button>
                 <br /><span className="text-ink-muted">{e.levels} {e.levels === 1 ? 'level' : 'levels'}</span>
               </td>
-              <td className="px-2 py-1 font-mono">{e.source === 'undo' ? `${fromText(e.from)} → as before` : `${fromText(e.from)} → ${e.to}`}</td>
+              <td className="px-2 py-1 font-mono">{Array.isArray(e.to) ? `${fromText(e.from)} → ${e.to.join('/') || '—'} (restored)` : `${fromText(e.from)} → ${e.to}`}</td>
               <td className="px-2 py-1">
                 {e.reason ?? '—'}
                 {e.source === 'proposal' && <span className="block text-2xs text-ink-muted">accepted proposal</span>}

@@ -52,6 +52,8 @@ export interface ProfileFigureProps {
   onSelectRange?: (pick: Pick) => void;
   range?: { pFrom: number; pTo: number } | null;
   height?: number;
+  /** the pressure window shown, dbar (null: the whole cast) */
+  pWindow?: [number, number] | null;
 }
 
 const pickIdx = (values: readonly (number | null)[], idx: number[]) => idx.map((i) => values[i] ?? null);
@@ -62,7 +64,7 @@ const pickIdx = (values: readonly (number | null)[], idx: number[]) => idx.map((
  * warning accent and pending proposals as a violet band. A drag in select mode picks the pressure span it
  * covers, whatever its direction; a click on an inversion, proposal or flag mark picks that range.
  */
-export function ProfileFigure({ cast, panels, label, inversions, proposals, selecting = false, onSelectRange, range, height = 520 }: ProfileFigureProps) {
+export function ProfileFigure({ cast, panels, label, inversions, proposals, selecting = false, onSelectRange, range, height = 520, pWindow = null }: ProfileFigureProps) {
   const { data, layout } = useMemo(() => {
     const width = (1 - GAP * (panels.length - 1)) / panels.length;
     const traces: Data[] = [];
@@ -76,7 +78,7 @@ export function ProfileFigure({ cast, panels, label, inversions, proposals, sele
         const st = NEIGHBOUR_STYLE[o.role];
         traces.push({
           type: 'scatter', mode: 'lines', name: `${o.name} ${panel.key}`, x: [...o.v], y: [...o.p], xaxis: axis, yaxis: 'y',
-          line: { color: st.color, width: 0.9, dash: st.dash }, opacity: 0.85, connectgaps: false,
+          line: { color: st.color, width: 1.4, dash: st.dash }, opacity: 0.9, connectgaps: false,
           hovertemplate: `${o.name}<br>${panel.title} %{x:.${panel.digits}f}<br>p %{y:.1f} dbar<extra></extra>`,
         } as Data);
       }
@@ -138,7 +140,7 @@ export function ProfileFigure({ cast, panels, label, inversions, proposals, sele
     });
     const layout: Partial<Layout> = baseLayout({
       ...axes,
-      yaxis: pressureAxis({ anchor: 'x', rangemode: 'tozero' }),
+      yaxis: pressureAxis({ anchor: 'x', rangemode: 'tozero', ...(pWindow ? { range: [pWindow[1], pWindow[0]], autorange: false } : {}) }),
       margin: { l: 60, r: 12, t: 44, b: 12 },
       shapes: shapes as Layout['shapes'],
       dragmode: selecting ? 'select' : 'zoom',
@@ -147,10 +149,10 @@ export function ProfileFigure({ cast, panels, label, inversions, proposals, sele
       hovermode: 'closest',
       font: { family: '"Source Sans 3", system-ui, sans-serif', size: 12, color: PLOT_COLORS.inkSoft },
       hoverlabel: { bgcolor: PLOT_COLORS.paper, bordercolor: PLOT_COLORS.ink, font: { family: MONO_FONT, size: 11, color: PLOT_COLORS.inkStrong } },
-      uirevision: cast.id,
+      uirevision: `${cast.id}:${pWindow ? pWindow.join('-') : 'all'}`,
     });
     return { data: traces, layout };
-  }, [cast, panels, inversions, proposals, selecting, range]);
+  }, [cast, panels, inversions, proposals, selecting, range, pWindow]);
 
   return (
     <LazyPlot
