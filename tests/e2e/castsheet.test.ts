@@ -127,32 +127,45 @@ describe('cast sheet QC desk', () => {
     // a sideways drag on the temperature panel picks the pressure span it covers
     await page.setViewportSize({ width: 1280, height: 800 });
     await drawn(page);
-    await page.getByRole('button', { name: 'Pick the range on the plot' }).click();
     const plot = figure(page, 'Measured profiles of').locator('.js-plotly-plot');
     await plot.scrollIntoViewIfNeeded();
     const geo = await plot.evaluate((gd) => {
       const fl = (gd as unknown as { _fullLayout: { yaxis: { _offset: number; p2c: (px: number) => number }; xaxis: { _offset: number; _length: number } } })._fullLayout;
       const r = gd.getBoundingClientRect();
-      return { left: r.left + fl.xaxis._offset, width: fl.xaxis._length, top: r.top + fl.yaxis._offset, p2c: [fl.yaxis.p2c(200), fl.yaxis.p2c(230)] };
+      return { left: r.left + fl.xaxis._offset, width: fl.xaxis._length, top: r.top + fl.yaxis._offset, p: [fl.yaxis.p2c(250), fl.yaxis.p2c(200), fl.yaxis.p2c(208)] };
     });
-    const x0 = geo.left + geo.width * 0.15;
-    const x1 = geo.left + geo.width * 0.85;
-    await page.mouse.move(x0, geo.top + 200);
-    await page.mouse.down();
-    await page.mouse.move((x0 + x1) / 2, geo.top + 215, { steps: 5 });
-    await page.mouse.move(x1, geo.top + 230, { steps: 5 });
-    await page.mouse.up();
-    const [pa, pb] = geo.p2c;
+    const x0 = geo.left + geo.width * 0.1;
+    const x1 = geo.left + geo.width * 0.9;
+    const drag = async (ya: number, yb: number) => {
+      await page.getByRole('button', { name: 'Pick the range on the plot' }).click();
+      await page.mouse.move(x0, geo.top + ya);
+      await page.mouse.down();
+      await page.mouse.move((x0 + x1) / 2, geo.top + (ya + yb) / 2, { steps: 6 });
+      await page.mouse.move(x1, geo.top + yb, { steps: 6 });
+      await page.mouse.up();
+    };
+    // purely sideways (no height at all): the level nearest the drag, never "0 levels" (this failed before the fix)
+    await drag(250, 250);
     await expect.poll(() => page.getByLabel('From (dbar)').inputValue(), { timeout: 10_000 }).not.toBe('1204');
+    const one = Number(await page.getByLabel('From (dbar)').inputValue());
+    expect(await page.getByLabel('To (dbar)').inputValue()).toBe(String(one));
+    expect(Math.abs(one - geo.p[0])).toBeLessThanOrEqual(1.01);
+    await page.getByText('1 level in the range').waitFor();
+    // a shallow sideways drag, 8 px down across the panel: the levels of the pressure span those 8 px cover
+    await drag(200, 208);
+    await expect.poll(() => page.getByLabel('From (dbar)').inputValue(), { timeout: 10_000 }).not.toBe(String(one));
+    const [, pa, pb] = geo.p;
     const from = Number(await page.getByLabel('From (dbar)').inputValue());
     const to = Number(await page.getByLabel('To (dbar)').inputValue());
-    // the levels (2 dbar apart) inside the dragged span [pa, pb]
-    expect(from).toBeGreaterThanOrEqual(pa);
-    expect(from).toBeLessThan(pa + 2.01);
-    expect(to).toBeLessThanOrEqual(pb);
-    expect(to).toBeGreaterThan(pb - 2.01);
+    // the levels (2 dbar apart) inside the dragged span [pa, pb], within a pixel's worth of pressure
+    const px = (pb - pa) / 8;
+    expect(from).toBeGreaterThanOrEqual(pa - px);
+    expect(from).toBeLessThan(pa + 2.01 + px);
+    expect(to).toBeLessThanOrEqual(pb + px);
+    expect(to).toBeGreaterThan(pb - 2.01 - px);
     const levels = Math.round((to - from) / 2) + 1;
     expect(levels).toBeGreaterThan(3);
+    expect(levels).toBeLessThan(1000); // not the whole cast
     await page.getByLabel('Variable').selectOption('temperature');
     await page.getByLabel('Flag', { exact: true }).selectOption('3');
     await page.getByLabel(/^Reason/).fill('thermistor noise on the downcast');

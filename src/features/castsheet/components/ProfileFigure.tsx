@@ -144,8 +144,10 @@ export function ProfileFigure({ cast, panels, label, inversions, proposals, sele
       margin: { l: 60, r: 12, t: 44, b: 12 },
       shapes: shapes as Layout['shapes'],
       dragmode: selecting ? 'select' : 'zoom',
-      // any direction: a sideways drag picks the pressure span it covers (a 'v' box had no height sideways)
-      selectdirection: 'any',
+      // The box always takes the drag's pressure extent, whatever its direction ('any' would turn a shallow
+      // sideways drag into a full-depth band); a span thinner than the level spacing is snapped to the nearest
+      // level by spanOfSelection (a sideways drag used to give From = To and 0 levels).
+      selectdirection: 'v',
       hovermode: 'closest',
       font: { family: '"Source Sans 3", system-ui, sans-serif', size: 12, color: PLOT_COLORS.inkSoft },
       hoverlabel: { bgcolor: PLOT_COLORS.paper, bordercolor: PLOT_COLORS.ink, font: { family: MONO_FONT, size: 11, color: PLOT_COLORS.inkStrong } },
