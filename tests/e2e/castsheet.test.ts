@@ -92,7 +92,7 @@ describe('cast sheet QC desk', () => {
       const r = gd.getBoundingClientRect();
       const x = (v: number) => r.left + fl.xaxis._offset + fl.xaxis.c2p(v);
       const y = (v: number) => r.top + fl.yaxis._offset + fl.yaxis.c2p(v);
-      return { x0: x(17.4), x1: x(18.2), y0: y(160), y1: y(240) };
+      return { x0: x(15.5), x1: x(20.5), y0: y(160), y1: y(240) };
     });
     await page.mouse.move(box.x0, box.y0);
     await page.mouse.down();
