@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient }
 import { z } from 'zod';
 import { http } from '../../lib/http';
 import { cruiseKeys } from '../cruises';
-import { sectionKeys } from '../sections/keys';
+import { sectionKeys } from '../sections';
 import { castKeys } from './keys';
 import {
   castDetailSchema, castQcSchema, flagLogEntrySchema, flagResultWithChangeSchema, neighboursSchema, pendingSchema, type FlagEdit, type QcTestId,
