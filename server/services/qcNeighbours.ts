@@ -7,24 +7,40 @@ import { readColumns } from './columns';
 import { notFound } from '../lib/errors';
 
 const trackOrder = (a: Cast, b: Cast) =>
-  (a.time?.getTime() ?? Infinity) - (b.time?.getTime() ?? Infinity) || a.station.localeCompare(b.station) || a.cast.localeCompare(b.cast);
+  (a.time?.getTime() ?? Infinity) - (b.time?.getTime() ?? Infinity) ||
+  a.station.localeCompare(b.station) ||
+  a.cast.localeCompare(b.cast);
 
 /** The casts before and after `cast` along its line (today: the station plan; else track order). */
-export async function neighbourStations(cast: Cast): Promise<{ previous: Cast | null; next: Cast | null; order: 'station plan' | 'track' }> {
-  const casts = await Cast.findAll({ where: { cruiseId: cast.cruiseId }, attributes: ['id', 'cruiseId', 'station', 'cast', 'time', 'latitude', 'longitude'] });
+export async function neighbourStations(
+  cast: Cast,
+): Promise<{ previous: Cast | null; next: Cast | null; order: 'station plan' | 'track' }> {
+  const casts = await Cast.findAll({
+    where: { cruiseId: cast.cruiseId },
+    attributes: ['id', 'cruiseId', 'station', 'cast', 'time', 'latitude', 'longitude'],
+  });
   const plan = await Station.findAll({ where: { cruiseId: cast.cruiseId }, attributes: ['name', 'order'] });
   const rank = new Map(plan.map((s) => [s.name, s.order]));
   if (rank.has(cast.station)) {
     // first cast of each occupied, planned station, in plan order
     const byStation = new Map<string, Cast>();
-    for (const c of [...casts].sort(trackOrder)) if (rank.has(c.station) && !byStation.has(c.station)) byStation.set(c.station, c);
+    for (const c of [...casts].sort(trackOrder))
+      if (rank.has(c.station) && !byStation.has(c.station)) byStation.set(c.station, c);
     const stations = [...byStation.keys()].sort((a, b) => rank.get(a)! - rank.get(b)!);
     const k = stations.indexOf(cast.station);
-    return { previous: k > 0 ? byStation.get(stations[k - 1])! : null, next: k >= 0 && k < stations.length - 1 ? byStation.get(stations[k + 1])! : null, order: 'station plan' };
+    return {
+      previous: k > 0 ? byStation.get(stations[k - 1])! : null,
+      next: k >= 0 && k < stations.length - 1 ? byStation.get(stations[k + 1])! : null,
+      order: 'station plan',
+    };
   }
   const sorted = [...casts].sort(trackOrder);
   const k = sorted.findIndex((c) => c.id === cast.id);
-  return { previous: k > 0 ? sorted[k - 1] : null, next: k >= 0 && k < sorted.length - 1 ? sorted[k + 1] : null, order: 'track' };
+  return {
+    previous: k > 0 ? sorted[k - 1] : null,
+    next: k >= 0 && k < sorted.length - 1 ? sorted[k + 1] : null,
+    order: 'track',
+  };
 }
 
 const COLUMNS = ['pressure', 'temperature', 'SP', 'conductivity', 'oxygen', 'SA', 'CT'];
@@ -45,7 +61,10 @@ export async function neighboursOf(castId: string): Promise<{ order: string; nei
   const c = await Cast.findByPk(castId);
   if (!c) throw notFound();
   const { previous, next, order } = await neighbourStations(c);
-  const list = [previous && { cast: previous, role: 'previous' as const }, next && { cast: next, role: 'next' as const }].filter((x) => !!x);
+  const list = [
+    previous && { cast: previous, role: 'previous' as const },
+    next && { cast: next, role: 'next' as const },
+  ].filter((x) => !!x);
   const cols = await readColumns(list.map((x) => x.cast.id));
   return {
     order,
@@ -53,7 +72,14 @@ export async function neighboursOf(castId: string): Promise<{ order: string; nei
       const all = cols.get(cast.id)!.columns;
       const extras: Record<string, (number | null)[]> = {};
       for (const [k, v] of Object.entries(all)) if (k.startsWith('x:')) extras[k.slice(2)] = json(v)!;
-      return { id: cast.id, station: cast.station, cast: cast.cast, role, columns: Object.fromEntries(COLUMNS.map((n) => [n, json(all[n])])), extras };
+      return {
+        id: cast.id,
+        station: cast.station,
+        cast: cast.cast,
+        role,
+        columns: Object.fromEntries(COLUMNS.map((n) => [n, json(all[n])])),
+        extras,
+      };
     }),
   };
 }

@@ -4,13 +4,31 @@
  * accepts or rejects each (server/services/qcProposals.ts).
  */
 import {
-  GLOBAL_RANGE, GRADIENT_THRESHOLDS, PAIR_TOLERANCE, SPIKE_THRESHOLDS, densityInversion, globalRange, gradientTest,
-  pressureIncreasing, rangeRegionAt, regionalRange, sensorPairDifference, spikeTest, stuckProfile, stuckRun,
+  GLOBAL_RANGE,
+  GRADIENT_THRESHOLDS,
+  PAIR_TOLERANCE,
+  SPIKE_THRESHOLDS,
+  densityInversion,
+  globalRange,
+  gradientTest,
+  pressureIncreasing,
+  rangeRegionAt,
+  regionalRange,
+  sensorPairDifference,
+  spikeTest,
+  stuckProfile,
+  stuckRun,
   type QcVariable,
 } from './tests';
 
 export const QC_TESTS = [
-  'pressure_increasing', 'global_range', 'regional_range', 'spike', 'gradient', 'density_inversion', 'stuck_value',
+  'pressure_increasing',
+  'global_range',
+  'regional_range',
+  'spike',
+  'gradient',
+  'density_inversion',
+  'stuck_value',
   'sensor_pair',
 ] as const;
 export type QcTestId = (typeof QC_TESTS)[number];
@@ -85,66 +103,123 @@ const fmt = (v: number, d = 4) => (Number.isFinite(v) ? Number(v.toFixed(d)).toS
 export function runQc(profile: QcProfile, opts: QcOptions): QcProposal[] {
   const p = profile.pressure;
   const out: QcProposal[] = [];
-  const push = (test: QcTestId, variable: QcFlagVariable, indices: number[], flag: 3 | 4, say: (a: number, b: number) => string) => {
+  const push = (
+    test: QcTestId,
+    variable: QcFlagVariable,
+    indices: number[],
+    flag: 3 | 4,
+    say: (a: number, b: number) => string,
+  ) => {
     for (const [a, b] of runsOf(indices)) {
-      out.push({ test, variable, iFrom: a, iTo: b, pFrom: p[a], pTo: p[b], levels: b - a + 1, flag, detail: say(a, b) });
+      out.push({
+        test,
+        variable,
+        iFrom: a,
+        iTo: b,
+        pFrom: p[a],
+        pTo: p[b],
+        levels: b - a + 1,
+        flag,
+        detail: say(a, b),
+      });
     }
   };
   const measured: [QcFlagVariable, Float64Array | undefined, string][] = [
-    ['temperature', profile.temperature, '°C'], ['salinity', profile.salinity, ''],
-    ['conductivity', profile.conductivity, 'mS/cm'], ['oxygen', profile.oxygen, 'µmol/kg'],
+    ['temperature', profile.temperature, '°C'],
+    ['salinity', profile.salinity, ''],
+    ['conductivity', profile.conductivity, 'mS/cm'],
+    ['oxygen', profile.oxygen, 'µmol/kg'],
   ];
 
   // pressure increasing: the levels are flagged on every sensor (the whole scan is misplaced)
   const pinc = pressureIncreasing(p);
-  if (pinc.length) push('pressure_increasing', 'temperature', pinc, 4, () => 'pressure not greater than the levels above');
+  if (pinc.length)
+    push('pressure_increasing', 'temperature', pinc, 4, () => 'pressure not greater than the levels above');
   const pneg = globalRange(p, 'pressure');
-  if (pneg.length) push('global_range', 'temperature', pneg, 4, () => `pressure below ${GLOBAL_RANGE.pressure.min} dbar`);
+  if (pneg.length)
+    push('global_range', 'temperature', pneg, 4, () => `pressure below ${GLOBAL_RANGE.pressure.min} dbar`);
 
   for (const [v, values, unit] of measured) {
     if (!values) continue;
     const r = GLOBAL_RANGE[v as QcVariable];
     push('global_range', v, globalRange(values, v), 4, (a, b) =>
-      `${fmt(values[a])}${a === b ? '' : '…'} ${unit} outside ${r.min} to ${r.max}`.replace(/ {2}/g, ' '));
+      `${fmt(values[a])}${a === b ? '' : '…'} ${unit} outside ${r.min} to ${r.max}`.replace(/ {2}/g, ' '),
+    );
   }
   const region = rangeRegionAt(profile.longitude, profile.latitude);
   if (region) {
     for (const [v, values] of measured) {
       if (!values) continue;
       const lim = region.limits[v];
-      if (lim) push('regional_range', v, regionalRange(values, v, profile.longitude, profile.latitude), 4, () => `outside ${lim.min} to ${lim.max} (${region.name})`);
+      if (lim)
+        push(
+          'regional_range',
+          v,
+          regionalRange(values, v, profile.longitude, profile.latitude),
+          4,
+          () => `outside ${lim.min} to ${lim.max} (${region.name})`,
+        );
     }
   }
   for (const [v, values, unit] of measured) {
     const t = SPIKE_THRESHOLDS[v];
     if (!values || !t) continue;
-    push('spike', v, spikeTest(values, p, t), 4, (a) => `spike at ${fmt(p[a], 1)} dbar (threshold ${p[a] < t.boundary ? t.shallow : t.deep} ${unit})`.replace(' )', ')'));
+    push('spike', v, spikeTest(values, p, t), 4, (a) =>
+      `spike at ${fmt(p[a], 1)} dbar (threshold ${p[a] < t.boundary ? t.shallow : t.deep} ${unit})`.replace(' )', ')'),
+    );
   }
   for (const [v, values, unit] of measured) {
     const t = GRADIENT_THRESHOLDS[v];
     if (!values || !t) continue;
-    push('gradient', v, gradientTest(values, p, t), 4, (a) => `gradient at ${fmt(p[a], 1)} dbar (threshold ${p[a] < t.boundary ? t.shallow : t.deep} ${unit})`.replace(' )', ')'));
+    push('gradient', v, gradientTest(values, p, t), 4, (a) =>
+      `gradient at ${fmt(p[a], 1)} dbar (threshold ${p[a] < t.boundary ? t.shallow : t.deep} ${unit})`.replace(
+        ' )',
+        ')',
+      ),
+    );
   }
   if (profile.sigma0) {
     const { intervals } = densityInversion(p, profile.sigma0, opts.inversionThreshold);
     for (const inv of intervals) {
-      out.push({ test: 'density_inversion', variable: 'salinity', iFrom: inv.iFrom, iTo: inv.iTo, pFrom: p[inv.iFrom], pTo: p[inv.iTo],
-        levels: inv.iTo - inv.iFrom + 1, flag: 3,
-        detail: `${inv.class}, σ0 deficit ${fmt(inv.deficit)} kg/m³ (threshold ${opts.inversionThreshold})` });
+      out.push({
+        test: 'density_inversion',
+        variable: 'salinity',
+        iFrom: inv.iFrom,
+        iTo: inv.iTo,
+        pFrom: p[inv.iFrom],
+        pTo: p[inv.iTo],
+        levels: inv.iTo - inv.iFrom + 1,
+        flag: 3,
+        detail: `${inv.class}, σ0 deficit ${fmt(inv.deficit)} kg/m³ (threshold ${opts.inversionThreshold})`,
+      });
     }
   }
   for (const [v, values] of measured) {
     if (!values) continue;
     const whole = stuckProfile(values);
-    if (whole.length) { push('stuck_value', v, whole, 4, (a) => `every level reads ${fmt(values[a])}`); continue; }
+    if (whole.length) {
+      push('stuck_value', v, whole, 4, (a) => `every level reads ${fmt(values[a])}`);
+      continue;
+    }
     push('stuck_value', v, stuckRun(values, p), 4, (a, b) => `${b - a + 1} levels read ${fmt(values[a])}`);
   }
   for (const pair of profile.pairs ?? []) {
-    const primary = pair.variable === 'temperature' ? profile.temperature : pair.variable === 'salinity' ? profile.salinity : profile.conductivity;
+    const primary =
+      pair.variable === 'temperature'
+        ? profile.temperature
+        : pair.variable === 'salinity'
+          ? profile.salinity
+          : profile.conductivity;
     const tol = PAIR_TOLERANCE[pair.variable];
     if (!primary || tol == null) continue;
-    push('sensor_pair', pair.variable, sensorPairDifference(primary, pair.values, tol), 3, (a, b) =>
-      `${pair.variable} − ${pair.name} up to ${fmt(maxAbsDiff(primary, pair.values, a, b))} (tolerance ${tol})`);
+    push(
+      'sensor_pair',
+      pair.variable,
+      sensorPairDifference(primary, pair.values, tol),
+      3,
+      (a, b) =>
+        `${pair.variable} − ${pair.name} up to ${fmt(maxAbsDiff(primary, pair.values, a, b))} (tolerance ${tol})`,
+    );
   }
   return out;
 }
@@ -159,11 +234,17 @@ function maxAbsDiff(a: Float64Array, b: Float64Array, from: number, to: number):
 export function secondarySensorsOf(extras: Record<string, Float64Array>): NonNullable<QcProfile['pairs']> {
   const out: NonNullable<QcProfile['pairs']> = [];
   for (const [name, values] of Object.entries(extras)) {
-    const m = /^(temperature|temp|t|ctdtmp|salinity|sal|sp|ctdsal|conductivity|cond|c|ctdcond)_?(2|b|secondary|sec)$/i.exec(name);
+    const m =
+      /^(temperature|temp|t|ctdtmp|salinity|sal|sp|ctdsal|conductivity|cond|c|ctdcond)_?(2|b|secondary|sec)$/i.exec(
+        name,
+      );
     if (!m) continue;
     const root = m[1].toLowerCase();
-    const variable = ['temperature', 'temp', 't', 'ctdtmp'].includes(root) ? 'temperature'
-      : ['salinity', 'sal', 'sp', 'ctdsal'].includes(root) ? 'salinity' : 'conductivity';
+    const variable = ['temperature', 'temp', 't', 'ctdtmp'].includes(root)
+      ? 'temperature'
+      : ['salinity', 'sal', 'sp', 'ctdsal'].includes(root)
+        ? 'salinity'
+        : 'conductivity';
     out.push({ variable, name, values });
   }
   return out;
@@ -173,12 +254,23 @@ export function secondarySensorsOf(extras: Record<string, Float64Array>): NonNul
  * The profile the tests read, from a cast's stored columns (names as in server/services/processCast.ts:
  * pressure, temperature, SP, conductivity, oxygen, sigma0, and extras as `x:<name>`).
  */
-export function qcProfileFromColumns(columns: Record<string, Float64Array>, latitude: number, longitude: number): QcProfile {
+export function qcProfileFromColumns(
+  columns: Record<string, Float64Array>,
+  latitude: number,
+  longitude: number,
+): QcProfile {
   const extras: Record<string, Float64Array> = {};
   for (const [k, v] of Object.entries(columns)) if (k.startsWith('x:')) extras[k.slice(2)] = v;
   return {
-    pressure: columns.pressure, temperature: columns.temperature, salinity: columns.SP, conductivity: columns.conductivity,
-    oxygen: columns.oxygen, sigma0: columns.sigma0, latitude, longitude, pairs: secondarySensorsOf(extras),
+    pressure: columns.pressure,
+    temperature: columns.temperature,
+    salinity: columns.SP,
+    conductivity: columns.conductivity,
+    oxygen: columns.oxygen,
+    sigma0: columns.sigma0,
+    latitude,
+    longitude,
+    pairs: secondarySensorsOf(extras),
   };
 }
 

@@ -43,7 +43,10 @@ export function pressureIncreasing(p: Float64Array): number[] {
 // Global and regional ranges
 
 /** A closed interval of acceptable values. */
-export interface Range { min: number; max: number }
+export interface Range {
+  min: number;
+  max: number;
+}
 
 /**
  * Global range limits (Argo real-time test 6; Wong et al., Argo QC manual; from memory): in-situ temperature
@@ -89,12 +92,25 @@ export interface RangeRegion {
 export const RANGE_REGIONS: readonly RangeRegion[] = [
   {
     name: 'Red Sea',
-    polygon: [[40, 10], [50, 20], [30, 30], [40, 10]],
+    polygon: [
+      [40, 10],
+      [50, 20],
+      [30, 30],
+      [40, 10],
+    ],
     limits: { temperature: { min: 21.7, max: 40 }, salinity: { min: 2, max: 41 } },
   },
   {
     name: 'Mediterranean Sea',
-    polygon: [[-6, 30], [40, 30], [35, 40], [20, 42], [15, 50], [5, 40], [-6, 30]],
+    polygon: [
+      [-6, 30],
+      [40, 30],
+      [35, 40],
+      [20, 42],
+      [15, 50],
+      [5, 40],
+      [-6, 30],
+    ],
     limits: { temperature: { min: 10, max: 40 }, salinity: { min: 2, max: 40 } },
   },
 ];
@@ -129,7 +145,11 @@ export function regionalRange(values: Float64Array, variable: QcVariable, lon: n
 // Spike and gradient
 
 /** Thresholds above and below 500 dbar, in the variable's unit. */
-export interface DepthThresholds { shallow: number; deep: number; boundary: number }
+export interface DepthThresholds {
+  shallow: number;
+  deep: number;
+  boundary: number;
+}
 
 /**
  * Spike test thresholds (Argo real-time test 9; Wong et al., Argo QC manual; from memory): temperature 6 °C
@@ -217,7 +237,11 @@ export function stuckProfile(values: Float64Array, minLevels = 3): number[] {
  */
 export const STUCK_RUN = { minLevels: 25, minSpan: 50 } as const;
 
-export function stuckRun(values: Float64Array, p: Float64Array, opts: { minLevels?: number; minSpan?: number } = {}): number[] {
+export function stuckRun(
+  values: Float64Array,
+  p: Float64Array,
+  opts: { minLevels?: number; minSpan?: number } = {},
+): number[] {
   const minLevels = opts.minLevels ?? STUCK_RUN.minLevels;
   const minSpan = opts.minSpan ?? STUCK_RUN.minSpan;
   const out: number[] = [];
@@ -246,7 +270,11 @@ export function stuckRun(values: Float64Array, p: Float64Array, opts: { minLevel
  * the levels lighter than the parcel above fail — for a spike its light levels, for an overturn the whole
  * interval from the heavy parcel down.
  */
-export function densityInversion(p: Float64Array, sigma0: Float64Array, threshold: number): { indices: number[]; intervals: { iFrom: number; iTo: number; deficit: number; class: string }[] } {
+export function densityInversion(
+  p: Float64Array,
+  sigma0: Float64Array,
+  threshold: number,
+): { indices: number[]; intervals: { iFrom: number; iTo: number; deficit: number; class: string }[] } {
   const found = detectInversions(p, sigma0, { threshold });
   const indices: number[] = [];
   const intervals: { iFrom: number; iTo: number; deficit: number; class: string }[] = [];
@@ -266,7 +294,11 @@ export function densityInversion(p: Float64Array, sigma0: Float64Array, threshol
  * ship CTDs carry duplicate temperature and conductivity sensors which, calibrated, agree to about 0.002 °C
  * and 0.002 in salinity; five times that, 0.01 °C, 0.01 (PSS-78) and 0.01 mS/cm, is taken as a drift.
  */
-export const PAIR_TOLERANCE: Partial<Record<QcVariable, number>> = { temperature: 0.01, salinity: 0.01, conductivity: 0.01 };
+export const PAIR_TOLERANCE: Partial<Record<QcVariable, number>> = {
+  temperature: 0.01,
+  salinity: 0.01,
+  conductivity: 0.01,
+};
 
 /**
  * Sensor-pair difference (ours; see {@link PAIR_TOLERANCE}): the levels where the primary and secondary

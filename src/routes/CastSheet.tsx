@@ -5,10 +5,36 @@ import { EmptyState, Panel } from '../components/Panel';
 import { sigmaLabel } from '../components/plot/theme';
 import { useCasts } from '../features/casts';
 import {
-  CastMeta, CastStepper, derivedPanels, FitnessTable, FlagForm, FlagLog, InversionTable, inversionHandling, inversionsAt, measuredPanels,
-  NEIGHBOUR_STYLE, ProfileFigure, PROPOSAL_COLOR, ProposalList, REFERENCE_PRESSURES, sigmaProfile, TsPanel, useCast, useCastQc,
-  useDecideProposals, useFlagLog, useNeighbours, usePendingProposals, useQcKeys, useUndoFlagChange,
-  type CastDetail, type CastInversion, type Decision, type Pick, type Proposal,
+  CastMeta,
+  CastStepper,
+  derivedPanels,
+  FitnessTable,
+  FlagForm,
+  FlagLog,
+  InversionTable,
+  inversionHandling,
+  inversionsAt,
+  measuredPanels,
+  NEIGHBOUR_STYLE,
+  ProfileFigure,
+  PROPOSAL_COLOR,
+  ProposalList,
+  REFERENCE_PRESSURES,
+  sigmaProfile,
+  TsPanel,
+  useCast,
+  useCastQc,
+  useDecideProposals,
+  useFlagLog,
+  useNeighbours,
+  usePendingProposals,
+  useQcKeys,
+  useUndoFlagChange,
+  type CastDetail,
+  type CastInversion,
+  type Decision,
+  type Pick,
+  type Proposal,
 } from '../features/castsheet';
 import type { CastSummary } from '../features/casts';
 import { isApiError } from '../lib/http';
@@ -23,11 +49,15 @@ function FirstCast({ cruiseId }: { cruiseId: string }) {
   if (casts.data.length === 0) {
     return (
       <Panel title="Casts">
-        <EmptyState title="No casts yet">Casts appear as files come through intake; each opens here as a cast sheet.</EmptyState>
+        <EmptyState title="No casts yet">
+          Casts appear as files come through intake; each opens here as a cast sheet.
+        </EmptyState>
       </Panel>
     );
   }
-  return <Navigate replace to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(casts.data[0].id)}`} />;
+  return (
+    <Navigate replace to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(casts.data[0].id)}`} />
+  );
 }
 
 export default function CastSheet() {
@@ -49,7 +79,8 @@ function CastSheetOf({ castId }: { castId: string }) {
         <h2 className="text-lg font-semibold text-ink-strong">
           {cast.data ? (
             <>
-              Station <span className="font-mono">{cast.data.station}</span> <span className="font-normal text-ink-muted">·</span> cast{' '}
+              Station <span className="font-mono">{cast.data.station}</span>{' '}
+              <span className="font-normal text-ink-muted">·</span> cast{' '}
               <span className="font-mono">{cast.data.cast}</span>
             </>
           ) : (
@@ -70,18 +101,47 @@ function CastSheetOf({ castId }: { castId: string }) {
   );
 }
 
-
 type Picked = Pick & { at: number };
 
 function Legend() {
   return (
     <p className="flex flex-wrap gap-x-4 gap-y-1 border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted">
-      <span className="inline-flex items-center gap-1"><span className="inline-block h-2.5 w-3 border border-warn bg-warn-wash" aria-hidden /> inversion</span>
-      <span className="inline-flex items-center gap-1"><span className="inline-block h-2.5 w-3 border border-dotted" style={{ borderColor: PROPOSAL_COLOR, background: 'rgba(107,79,143,0.14)' }} aria-hidden /> pending proposal</span>
-      <span className="inline-flex items-center gap-1"><span className="inline-block size-2 rounded-full border border-[#8a6d1f]" aria-hidden /> flag 3</span>
-      <span className="inline-flex items-center gap-1"><span className="font-mono text-warn-strong" aria-hidden>×</span> flag 4</span>
-      <span className="inline-flex items-center gap-1"><span className="inline-block w-4 border-t border-dashed" style={{ borderColor: NEIGHBOUR_STYLE.previous.color }} aria-hidden /> previous station</span>
-      <span className="inline-flex items-center gap-1"><span className="inline-block w-4 border-t border-dotted" style={{ borderColor: NEIGHBOUR_STYLE.next.color }} aria-hidden /> next station</span>
+      <span className="inline-flex items-center gap-1">
+        <span className="inline-block h-2.5 w-3 border border-warn bg-warn-wash" aria-hidden /> inversion
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span
+          className="inline-block h-2.5 w-3 border border-dotted"
+          style={{ borderColor: PROPOSAL_COLOR, background: 'rgba(107,79,143,0.14)' }}
+          aria-hidden
+        />{' '}
+        pending proposal
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span className="inline-block size-2 rounded-full border border-[#8a6d1f]" aria-hidden /> flag 3
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span className="font-mono text-warn-strong" aria-hidden>
+          ×
+        </span>{' '}
+        flag 4
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span
+          className="inline-block w-4 border-t border-dashed"
+          style={{ borderColor: NEIGHBOUR_STYLE.previous.color }}
+          aria-hidden
+        />{' '}
+        previous station
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span
+          className="inline-block w-4 border-t border-dotted"
+          style={{ borderColor: NEIGHBOUR_STYLE.next.color }}
+          aria-hidden
+        />{' '}
+        next station
+      </span>
     </p>
   );
 }
@@ -117,26 +177,36 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   const derived = useMemo(() => derivedPanels(cast, sigma, ref, neighbours), [cast, sigma, ref, neighbours]);
   // At σ0 the table lists what the intake found, each with how it is handled now.
   const intake = ref === 0 && qc.data ? qc.data.intakeInversions : null;
-  const handling = useMemo(() => (intake ? inversionHandling(intake, cast.inversions, cast.flags, proposals) : null), [intake, cast, proposals]);
+  const handling = useMemo(
+    () => (intake ? inversionHandling(intake, cast.inversions, cast.flags, proposals) : null),
+    [intake, cast, proposals],
+  );
 
   const pick = useCallback((p: Pick) => {
     setPicked({ ...p, at: Date.now() });
     setPicking(false);
   }, []);
   const pickInversion = (inv: CastInversion) =>
-    pick({ pFrom: inv.class === 'spike' ? cast.columns.pressure[inv.iTop + 1] ?? inv.pTop : inv.pTop, pTo: inv.pBottom, variable: 'salinity' });
+    pick({
+      pFrom: inv.class === 'spike' ? (cast.columns.pressure[inv.iTop + 1] ?? inv.pTop) : inv.pTop,
+      pTo: inv.pBottom,
+      variable: 'salinity',
+    });
   const pickProposal = (p: Proposal) => {
     setCurrentId(p.id);
     pick({ pFrom: p.pFrom, pTo: p.pTo, variable: p.variable, flag: p.flag });
   };
 
   // the keyboard steps through the pending proposals (all of them once none is pending)
-  const steppable = proposals.some((p) => p.status === 'pending') ? proposals.filter((p) => p.status === 'pending') : proposals;
+  const steppable = proposals.some((p) => p.status === 'pending')
+    ? proposals.filter((p) => p.status === 'pending')
+    : proposals;
   const current = proposals.find((p) => p.id === currentId) ?? null;
   const step = (d: 1 | -1) => {
     if (steppable.length === 0) return;
     const k = steppable.findIndex((p) => p.id === currentId);
-    const next = steppable[k < 0 ? (d === 1 ? 0 : steppable.length - 1) : (k + d + steppable.length) % steppable.length];
+    const next =
+      steppable[k < 0 ? (d === 1 ? 0 : steppable.length - 1) : (k + d + steppable.length) % steppable.length];
     pickProposal(next);
     document.querySelector(`[data-proposal="${next.id}"]`)?.scrollIntoView({ block: 'nearest' });
   };
@@ -149,7 +219,10 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
       },
     });
   };
-  const pendingCasts = useMemo(() => new Set((pendingQ.data ?? []).filter((x) => x.pending > 0).map((x) => x.castId)), [pendingQ.data]);
+  const pendingCasts = useMemo(
+    () => new Set((pendingQ.data ?? []).filter((x) => x.pending > 0).map((x) => x.castId)),
+    [pendingQ.data],
+  );
   const toPendingCast = (d: 1 | -1) => {
     const k = casts.findIndex((c) => c.id === cast.id);
     for (let j = 1; j < casts.length; j++) {
@@ -163,8 +236,12 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   useQcKeys({
     nextProposal: () => step(1),
     previousProposal: () => step(-1),
-    accept: mayFlag ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'accept' }) : undefined,
-    reject: mayFlag ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'reject' }) : undefined,
+    accept: mayFlag
+      ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'accept' })
+      : undefined,
+    reject: mayFlag
+      ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'reject' })
+      : undefined,
     nextPendingCast: () => toPendingCast(1),
     previousPendingCast: () => toPendingCast(-1),
   });
@@ -172,28 +249,50 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   const pendingHere = proposals.filter((p) => p.status === 'pending').length;
   const neighbourText = neighbours.length
     ? `Overlaid: ${neighbours.map((n) => `${n.role} station ${n.station}`).join(', ')} (neighbours in ${neighboursQ.data?.order ?? 'station plan'} order).`
-    : neighboursQ.isPending ? 'Loading the neighbouring casts…' : 'No neighbouring cast to overlay.';
-  const figureProps = { cast, inversions: inversionSet.inversions, proposals, selecting: picking, onSelectRange: pick, range,
-    pWindow };
+    : neighboursQ.isPending
+      ? 'Loading the neighbouring casts…'
+      : 'No neighbouring cast to overlay.';
+  const figureProps = {
+    cast,
+    inversions: inversionSet.inversions,
+    proposals,
+    selecting: picking,
+    onSelectRange: pick,
+    range,
+    pWindow,
+  };
 
   return (
     <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
       <div className="flex min-w-0 flex-col gap-4">
-        <Panel title="Measured profiles" titleId="measured" actions={
-          <span className="flex items-center gap-2 text-2xs text-ink-muted">
-            {neighbourText}
-            <span className="flex" role="group" aria-label="Pressure window">
-              {([false, true] as const).map((u) => (
-                <button key={String(u)} type="button" aria-pressed={upper === u} onClick={() => setUpper(u)}
-                  className={`h-6 border border-paper-rule px-2 text-2xs first:rounded-l last:rounded-r ${upper === u ? 'bg-ink text-paper' : 'text-ink-soft hover:bg-ink-wash'}`}>
-                  {u ? 'Upper 1500 dbar' : 'Full depth'}
-                </button>
-              ))}
+        <Panel
+          title="Measured profiles"
+          titleId="measured"
+          actions={
+            <span className="flex items-center gap-2 text-2xs text-ink-muted">
+              {neighbourText}
+              <span className="flex" role="group" aria-label="Pressure window">
+                {([false, true] as const).map((u) => (
+                  <button
+                    key={String(u)}
+                    type="button"
+                    aria-pressed={upper === u}
+                    onClick={() => setUpper(u)}
+                    className={`h-6 border border-paper-rule px-2 text-2xs first:rounded-l last:rounded-r ${upper === u ? 'bg-ink text-paper' : 'text-ink-soft hover:bg-ink-wash'}`}
+                  >
+                    {u ? 'Upper 1500 dbar' : 'Full depth'}
+                  </button>
+                ))}
+              </span>
             </span>
-          </span>
-        }>
-          <ProfileFigure {...figureProps} panels={measured} height={460}
-            label={`Measured profiles of station ${cast.station} cast ${cast.cast}: ${measured.map((p) => p.title).join(', ')} against pressure`} />
+          }
+        >
+          <ProfileFigure
+            {...figureProps}
+            panels={measured}
+            height={460}
+            label={`Measured profiles of station ${cast.station} cast ${cast.cast}: ${measured.map((p) => p.title).join(', ')} against pressure`}
+          />
           <Legend />
         </Panel>
         <Panel
@@ -222,36 +321,67 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
             </label>
           }
         >
-          <ProfileFigure {...figureProps} panels={derived} height={460}
-            label={`Profiles of station ${cast.station} cast ${cast.cast}: CT, SA, ${sigmaLabel(ref)} and N² against pressure`} />
+          <ProfileFigure
+            {...figureProps}
+            panels={derived}
+            height={460}
+            label={`Profiles of station ${cast.station} cast ${cast.cast}: CT, SA, ${sigmaLabel(ref)} and N² against pressure`}
+          />
           <p className="border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted">
-            {sigmaLabel(ref)} computed in this browser from SA and CT (TEOS-10, 75-term polynomial); N² as stored at intake.
+            {sigmaLabel(ref)} computed in this browser from SA and CT (TEOS-10, 75-term polynomial); N² as stored at
+            intake.
           </p>
         </Panel>
         <Panel title="T–S diagram, with the neighbouring stations" titleId="ts">
           <TsPanel cast={cast} neighbours={neighbours} height={400} />
         </Panel>
-        <Panel title={ref === 0 ? 'Density inversions: found at intake, and how each is handled now' : 'Density inversions'} titleId="inversions">
+        <Panel
+          title={ref === 0 ? 'Density inversions: found at intake, and how each is handled now' : 'Density inversions'}
+          titleId="inversions"
+        >
           <InversionTable
             inversions={intake ?? inversionSet.inversions}
-            source={intake ? `σ₀ as found at intake (deficit over ${INVERSION_THRESHOLD} kg/m³), kept whatever is flagged since` : inversionSet.source}
+            source={
+              intake
+                ? `σ₀ as found at intake (deficit over ${INVERSION_THRESHOLD} kg/m³), kept whatever is flagged since`
+                : inversionSet.source
+            }
             handling={handling}
             onPick={mayFlag ? pickInversion : undefined}
           />
         </Panel>
         <Panel title="Flag log" titleId="flag-log">
-          {log.isError ? <ErrorNotice error={log.error} title="The flag log could not be loaded" /> : (
-            <FlagLog entries={log.data ?? []} mayUndo={mayFlag} busy={undo.isPending} error={undo.error}
-              onUndo={(id) => undo.mutate(id)} onPick={(e) => pick({ pFrom: e.pFrom, pTo: e.pTo, variable: e.variable })} />
+          {log.isError ? (
+            <ErrorNotice error={log.error} title="The flag log could not be loaded" />
+          ) : (
+            <FlagLog
+              entries={log.data ?? []}
+              mayUndo={mayFlag}
+              busy={undo.isPending}
+              error={undo.error}
+              onUndo={(id) => undo.mutate(id)}
+              onPick={(e) => pick({ pFrom: e.pFrom, pTo: e.pTo, variable: e.variable })}
+            />
           )}
         </Panel>
       </div>
       <div className="flex flex-col gap-4">
         <Panel title={pendingHere ? `Proposed flags · ${pendingHere} pending` : 'Proposed flags'} titleId="proposals">
-          {qc.isError ? <ErrorNotice error={qc.error} title="The proposals could not be loaded" /> : qc.data ? (
-            <ProposalList qc={qc.data} currentId={currentId} mayDecide={mayFlag} busy={decide.isPending} error={decide.error}
-              onPick={pickProposal} onDecide={onDecide} />
-          ) : <Progress label="Loading the proposals…" />}
+          {qc.isError ? (
+            <ErrorNotice error={qc.error} title="The proposals could not be loaded" />
+          ) : qc.data ? (
+            <ProposalList
+              qc={qc.data}
+              currentId={currentId}
+              mayDecide={mayFlag}
+              busy={decide.isPending}
+              error={decide.error}
+              onPick={pickProposal}
+              onDecide={onDecide}
+            />
+          ) : (
+            <Progress label="Loading the proposals…" />
+          )}
         </Panel>
         {mayFlag && (
           <Panel title="Quality flags" titleId="flags">
@@ -284,8 +414,8 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
           )}
         </Panel>
         <p className="px-1 text-2xs text-ink-muted">
-          Proposals come from automatic tests and are not flags until a technician accepts them. Data on this desk are provisional
-          research data, not for navigation.
+          Proposals come from automatic tests and are not flags until a technician accepts them. Data on this desk are
+          provisional research data, not for navigation.
         </p>
       </div>
     </div>

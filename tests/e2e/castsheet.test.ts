@@ -22,35 +22,68 @@ beforeAll(async () => {
   const { Cruise } = await import('../../server/models/index');
   await startWorkers(srv.t.deps, { concurrency: 2 });
   const tech = await createUser(TECH, { name: 'Ilse Varga' });
-  const c = await Cruise.create({ name: 'Corrow Passage', ship: 'RV Tessellate', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+  const c = await Cruise.create({
+    name: 'Corrow Passage',
+    ship: 'RV Tessellate',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: tech.id,
+  });
   cruiseId = c.id;
   await addMember(tech.id, c.id, 'technician');
   api = await agentFor(srv.t.app, TECH);
   const dir = join(process.cwd(), 'fixtures/demo');
   // the station plan first, so the neighbours follow it
-  const plan = await api.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', api.csrf).attach('files', join(dir, 'stations.csv'));
+  const plan = await api.agent
+    .post(`/api/cruises/${c.id}/uploads`)
+    .set('x-csrf-token', api.csrf)
+    .attach('files', join(dir, 'stations.csv'));
   expect(plan.status).toBe(202);
-  await waitFor(async () => ((await api.agent.get(`/api/uploads/${plan.body.uploads[0].id}`)).body.status === 'ready' ? true : null), 60_000);
+  await waitFor(
+    async () =>
+      (await api.agent.get(`/api/uploads/${plan.body.uploads[0].id}`)).body.status === 'ready' ? true : null,
+    60_000,
+  );
   let req = api.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', api.csrf);
-  for (const s of ['CP-02', 'CP-03', 'CP-04', 'CP-10', 'CP-11']) req = req.attach('files', join(dir, 'casts', `${s}.csv`));
+  for (const s of ['CP-02', 'CP-03', 'CP-04', 'CP-10', 'CP-11'])
+    req = req.attach('files', join(dir, 'casts', `${s}.csv`));
   expect((await req).status).toBe(202);
-  await waitFor(async () => {
-    const list = (await api.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-    return list.length === 6 && list.every((u) => u.status === 'ready') ? true : null;
-  }, 90_000, 500);
-  for (const cast of (await api.agent.get(`/api/cruises/${c.id}/casts`)).body as { id: string; station: string }[]) castOf[cast.station] = cast.id;
+  await waitFor(
+    async () => {
+      const list = (await api.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+      return list.length === 6 && list.every((u) => u.status === 'ready') ? true : null;
+    },
+    90_000,
+    500,
+  );
+  for (const cast of (await api.agent.get(`/api/cruises/${c.id}/casts`)).body as { id: string; station: string }[])
+    castOf[cast.station] = cast.id;
   chromium = await launch();
 }, 150_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 const figure = (page: Page, label: string) => page.locator(`figure[aria-label^="${label}"]`);
 async function drawn(page: Page) {
-  for (const l of ['Measured profiles of', 'Profiles of', 'T–S diagram']) await figure(page, l).and(page.locator('[data-plot-drawn]')).waitFor({ timeout: 40_000 });
+  for (const l of ['Measured profiles of', 'Profiles of', 'T–S diagram'])
+    await figure(page, l).and(page.locator('[data-plot-drawn]')).waitFor({ timeout: 40_000 });
 }
 /** Names of the traces Plotly holds for a figure. */
 const traceNames = (page: Page, label: string) =>
-  figure(page, label).locator('.js-plotly-plot').evaluate((gd) => (gd as unknown as { data: { name?: string }[] }).data.map((t) => t.name ?? ''));
-const flagsOf = async (castId: string) => (await api.agent.get(`/api/casts/${castId}`)).body as { columns: { pressure: number[] }; flags: Record<string, number[]> };
+  figure(page, label)
+    .locator('.js-plotly-plot')
+    .evaluate((gd) => (gd as unknown as { data: { name?: string }[] }).data.map((t) => t.name ?? ''));
+const flagsOf = async (castId: string) =>
+  (await api.agent.get(`/api/casts/${castId}`)).body as {
+    columns: { pressure: number[] };
+    flags: Record<string, number[]>;
+  };
 
 describe('cast sheet QC desk', () => {
   it('shows neighbours and pending proposals; keys accept; the flag log undoes; a sideways drag flags its span', async () => {
@@ -60,7 +93,9 @@ describe('cast sheet QC desk', () => {
     await page.goto(`${srv.url}/cruises/${cruiseId}/casts/${castOf['CP-03']}`);
     await page.getByRole('heading', { name: /Station CP-03/ }).waitFor();
     await drawn(page);
-    await page.getByText('Overlaid: previous station CP-02, next station CP-04 (neighbours in station plan order).').waitFor();
+    await page
+      .getByText('Overlaid: previous station CP-02, next station CP-04 (neighbours in station plan order).')
+      .waitFor();
     await page.getByRole('heading', { name: 'Proposed flags · 1 pending' }).waitFor();
 
     // every panel carries both neighbours: measured (t, SP, O₂, fluorescence), derived (CT, SA, σ), T–S
@@ -69,7 +104,9 @@ describe('cast sheet QC desk', () => {
     expect(measured.filter((n) => n.startsWith('next · CP-04')).length).toBe(4);
     const derived = await traceNames(page, 'Profiles of');
     expect(derived.filter((n) => n.startsWith('previous · CP-02')).length).toBe(3);
-    expect(await traceNames(page, 'T–S diagram')).toEqual(expect.arrayContaining(['previous · CP-02', 'next · CP-04', 'station CP-03']));
+    expect(await traceNames(page, 'T–S diagram')).toEqual(
+      expect.arrayContaining(['previous · CP-02', 'next · CP-04', 'station CP-03']),
+    );
     expect(measured.some((n) => n.endsWith('proposals'))).toBe(true);
 
     await page.waitForLoadState('networkidle');
@@ -112,7 +149,10 @@ describe('cast sheet QC desk', () => {
     await page.getByRole('heading', { name: 'Proposed flags', exact: true }).waitFor();
     const log = page.getByRole('table', { name: 'Flag log' });
     await log.getByText('accepted proposal').waitFor();
-    await page.getByRole('table', { name: 'Density inversions' }).getByText('1 level flagged · no longer warned · proposal accepted').waitFor();
+    await page
+      .getByRole('table', { name: 'Density inversions' })
+      .getByText('1 level flagged · no longer warned · proposal accepted')
+      .waitFor();
     const i1204 = (await flagsOf(castOf['CP-03'])).columns.pressure.indexOf(1204);
     expect((await flagsOf(castOf['CP-03'])).flags.salinity[i1204]).toBe(3);
 
@@ -121,7 +161,10 @@ describe('cast sheet QC desk', () => {
     await page.getByRole('heading', { name: 'Proposed flags · 1 pending' }).waitFor();
     await log.getByText('undone by #2').waitFor();
     expect((await flagsOf(castOf['CP-03'])).flags.salinity[i1204]).toBe(2);
-    await page.getByRole('table', { name: 'Density inversions' }).getByText('still warned · proposal pending').waitFor();
+    await page
+      .getByRole('table', { name: 'Density inversions' })
+      .getByText('still warned · proposal pending')
+      .waitFor();
     await page.screenshot({ path: join(SHOTS, 'castsheet-flaglog-undo-1920.png'), fullPage: true });
 
     // a sideways drag on the temperature panel picks the pressure span it covers
@@ -130,9 +173,21 @@ describe('cast sheet QC desk', () => {
     const plot = figure(page, 'Measured profiles of').locator('.js-plotly-plot');
     await plot.scrollIntoViewIfNeeded();
     const geo = await plot.evaluate((gd) => {
-      const fl = (gd as unknown as { _fullLayout: { yaxis: { _offset: number; p2c: (px: number) => number }; xaxis: { _offset: number; _length: number } } })._fullLayout;
+      const fl = (
+        gd as unknown as {
+          _fullLayout: {
+            yaxis: { _offset: number; p2c: (px: number) => number };
+            xaxis: { _offset: number; _length: number };
+          };
+        }
+      )._fullLayout;
       const r = gd.getBoundingClientRect();
-      return { left: r.left + fl.xaxis._offset, width: fl.xaxis._length, top: r.top + fl.yaxis._offset, p: [fl.yaxis.p2c(250), fl.yaxis.p2c(200), fl.yaxis.p2c(208)] };
+      return {
+        left: r.left + fl.xaxis._offset,
+        width: fl.xaxis._length,
+        top: r.top + fl.yaxis._offset,
+        p: [fl.yaxis.p2c(250), fl.yaxis.p2c(200), fl.yaxis.p2c(208)],
+      };
     });
     const x0 = geo.left + geo.width * 0.1;
     const x1 = geo.left + geo.width * 0.9;
@@ -169,7 +224,10 @@ describe('cast sheet QC desk', () => {
     await page.getByLabel('Variable').selectOption('temperature');
     await page.getByLabel('Flag', { exact: true }).selectOption('3');
     await page.getByLabel(/^Reason/).fill('thermistor noise on the downcast');
-    await page.getByTestId('flag-preview').getByText(`Set flag will flag ${levels} levels of temperature as 3.`).waitFor();
+    await page
+      .getByTestId('flag-preview')
+      .getByText(`Set flag will flag ${levels} levels of temperature as 3.`)
+      .waitFor();
     await page.getByRole('button', { name: 'Set flag' }).click();
     await page.getByText(new RegExp(`Flag 3 set on ${levels} levels of temperature`)).waitFor();
     const after = await flagsOf(castOf['CP-03']);
@@ -188,7 +246,11 @@ describe('cast sheet QC desk', () => {
     await page.getByRole('heading', { name: /Proposed flags · \d+ pending/ }).waitFor();
     await page.locator('body').press('j');
     await page.locator('body').press('r');
-    await page.getByRole('table', { name: 'Density inversions' }).getByText(/proposal rejected: kept as real/).first().waitFor();
+    await page
+      .getByRole('table', { name: 'Density inversions' })
+      .getByText(/proposal rejected: kept as real/)
+      .first()
+      .waitFor();
     await page.screenshot({ path: join(SHOTS, 'castsheet-overturn-rejected-1280.png'), fullPage: true });
 
     expect(chromium.offLoopback).toEqual([]);

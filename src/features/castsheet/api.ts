@@ -5,7 +5,14 @@ import { cruiseKeys } from '../cruises';
 import { sectionKeys } from '../sections';
 import { castKeys } from './keys';
 import {
-  castDetailSchema, castQcSchema, flagLogEntrySchema, flagResultWithChangeSchema, neighboursSchema, pendingSchema, type FlagEdit, type QcTestId,
+  castDetailSchema,
+  castQcSchema,
+  flagLogEntrySchema,
+  flagResultWithChangeSchema,
+  neighboursSchema,
+  pendingSchema,
+  type FlagEdit,
+  type QcTestId,
 } from './types';
 
 export const castQuery = (castId: string) =>
@@ -23,14 +30,18 @@ const enc = encodeURIComponent;
 
 /** The proposals of the automatic tests for a cast, and the inversions its intake found. */
 export function useCastQc(castId: string) {
-  return useQuery({ queryKey: castKeys.qc(castId), queryFn: ({ signal }) => http(`/api/casts/${enc(castId)}/qc`, { schema: castQcSchema, signal }) });
+  return useQuery({
+    queryKey: castKeys.qc(castId),
+    queryFn: ({ signal }) => http(`/api/casts/${enc(castId)}/qc`, { schema: castQcSchema, signal }),
+  });
 }
 
 /** Every flag change of a cast, newest first. */
 export function useFlagLog(castId: string) {
   return useQuery({
     queryKey: castKeys.flagLog(castId),
-    queryFn: ({ signal }) => http(`/api/casts/${enc(castId)}/flag-log`, { schema: z.array(flagLogEntrySchema), signal }),
+    queryFn: ({ signal }) =>
+      http(`/api/casts/${enc(castId)}/flag-log`, { schema: z.array(flagLogEntrySchema), signal }),
   });
 }
 
@@ -56,8 +67,14 @@ export function usePendingProposals(cruiseId: string) {
  * the cruise's cast list and pending counts, and every section product of the cruise.
  */
 function invalidateFlags(queryClient: QueryClient, cruiseId: string, castId: string) {
-  for (const key of [castKeys.detail(castId), castKeys.qc(castId), castKeys.flagLog(castId), castKeys.pending(cruiseId), cruiseKeys.casts(cruiseId),
-    sectionKeys.data(cruiseId)]) {
+  for (const key of [
+    castKeys.detail(castId),
+    castKeys.qc(castId),
+    castKeys.flagLog(castId),
+    castKeys.pending(cruiseId),
+    cruiseKeys.casts(cruiseId),
+    sectionKeys.data(cruiseId),
+  ]) {
     void queryClient.invalidateQueries({ queryKey: key });
   }
 }
@@ -84,7 +101,11 @@ export function useDecideProposals(cruiseId: string, castId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (d: Decision) =>
-      http(`/api/casts/${enc(castId)}/qc/decisions`, { method: 'POST', body: d, schema: z.object({ decided: z.number(), levels: z.number() }) }),
+      http(`/api/casts/${enc(castId)}/qc/decisions`, {
+        method: 'POST',
+        body: d,
+        schema: z.object({ decided: z.number(), levels: z.number() }),
+      }),
     onSuccess: () => invalidateFlags(queryClient, cruiseId, castId),
   });
 }
@@ -94,7 +115,11 @@ export function useUndoFlagChange(cruiseId: string, castId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (changeId: string) =>
-      http(`/api/casts/${enc(castId)}/flag-log/undo`, { method: 'POST', body: { changeId }, schema: flagResultWithChangeSchema }),
+      http(`/api/casts/${enc(castId)}/flag-log/undo`, {
+        method: 'POST',
+        body: { changeId },
+        schema: flagResultWithChangeSchema,
+      }),
     onSuccess: () => invalidateFlags(queryClient, cruiseId, castId),
   });
 }

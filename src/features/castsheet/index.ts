@@ -1,11 +1,27 @@
 export { castKeys } from './keys';
 export {
-  castQuery, useCast, useSetFlag, useCastQc, useFlagLog, useNeighbours, usePendingProposals, useDecideProposals, useUndoFlagChange,
+  castQuery,
+  useCast,
+  useSetFlag,
+  useCastQc,
+  useFlagLog,
+  useNeighbours,
+  usePendingProposals,
+  useDecideProposals,
+  useUndoFlagChange,
 } from './api';
 export type { Decision } from './api';
 export {
-  REFERENCE_PRESSURES, INVERSION_THRESHOLD, sigmaProfile, inversionsAt, flaggedLevels, FLAG_CHOICES, FLAG_VARIABLE_LABELS,
-  levelsInRange, validateFlagForm, inversionHandling,
+  REFERENCE_PRESSURES,
+  INVERSION_THRESHOLD,
+  sigmaProfile,
+  inversionsAt,
+  flaggedLevels,
+  FLAG_CHOICES,
+  FLAG_VARIABLE_LABELS,
+  levelsInRange,
+  validateFlagForm,
+  inversionHandling,
 } from './profiles';
 export type { FlagFormValues, FlagFormResult, InversionSet, InversionHandling } from './profiles';
 export { rangeOfSelection, snapToLevels, spanOfSelection, flaggedRuns } from './picking';
@@ -23,4 +39,15 @@ export { ProposalList } from './components/ProposalList';
 export { FlagLog } from './components/FlagLog';
 export { useQcKeys, typingInField } from './keyboard';
 export { castDetailSchema, inversionSchema, FLAG_VARIABLES } from './types';
-export type { CastDetail, CastInversion, FitnessEntry, FlagEdit, FlagVariable, Proposal, CastQc, FlagLogEntry, Neighbour, QcTestId } from './types';
+export type {
+  CastDetail,
+  CastInversion,
+  FitnessEntry,
+  FlagEdit,
+  FlagVariable,
+  Proposal,
+  CastQc,
+  FlagLogEntry,
+  Neighbour,
+  QcTestId,
+} from './types';

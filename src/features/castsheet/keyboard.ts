@@ -27,7 +27,14 @@ export function useQcKeys(handlers: QcKeyHandlers) {
     const onKey = (e: KeyboardEvent) => {
       if (e.altKey || e.ctrlKey || e.metaKey || typingInField(e.target)) return;
       const h = ref.current;
-      const action = { j: h.nextProposal, k: h.previousProposal, a: h.accept, r: h.reject, '}': h.nextPendingCast, '{': h.previousPendingCast }[e.key];
+      const action = {
+        j: h.nextProposal,
+        k: h.previousProposal,
+        a: h.accept,
+        r: h.reject,
+        '}': h.nextPendingCast,
+        '{': h.previousPendingCast,
+      }[e.key];
       if (!action) return;
       e.preventDefault();
       action();

@@ -25,7 +25,10 @@ export function rangeOfSelection(event: PlotSelectionEvent | undefined): [number
  * The levels a drag covers, as the pressures of the first and last level inside its pressure span; a span
  * thinner than the level spacing (a sideways drag) takes the level nearest its middle. Null without levels.
  */
-export function snapToLevels(span: [number, number], pressure: readonly (number | null)[]): { pFrom: number; pTo: number } | null {
+export function snapToLevels(
+  span: [number, number],
+  pressure: readonly (number | null)[],
+): { pFrom: number; pTo: number } | null {
   const [a, b] = span;
   let lo = Infinity;
   let hi = -Infinity;
@@ -33,7 +36,10 @@ export function snapToLevels(span: [number, number], pressure: readonly (number 
   const mid = (a + b) / 2;
   for (const p of pressure) {
     if (p == null) continue;
-    if (p >= a && p <= b) { lo = Math.min(lo, p); hi = Math.max(hi, p); }
+    if (p >= a && p <= b) {
+      lo = Math.min(lo, p);
+      hi = Math.max(hi, p);
+    }
     if (nearest == null || Math.abs(p - mid) < Math.abs(nearest - mid)) nearest = p;
   }
   if (lo <= hi) return { pFrom: lo, pTo: hi };
@@ -41,14 +47,20 @@ export function snapToLevels(span: [number, number], pressure: readonly (number 
 }
 
 /** What a box selection picks: the levels of its pressure span, whatever the drag's direction. */
-export function spanOfSelection(event: PlotSelectionEvent | undefined, pressure: readonly (number | null)[]): Pick | null {
+export function spanOfSelection(
+  event: PlotSelectionEvent | undefined,
+  pressure: readonly (number | null)[],
+): Pick | null {
   const r = rangeOfSelection(event);
   return r ? snapToLevels(r, pressure) : null;
 }
 
 /** Runs of consecutive levels with the same flag 3 or 4 in the flags of the named variables. */
-export function flaggedRuns(flags: CastDetail['flags'], sources: readonly string[], pressure: readonly (number | null)[]):
-  { flag: 3 | 4; variable: string; indices: number[]; pFrom: number; pTo: number }[] {
+export function flaggedRuns(
+  flags: CastDetail['flags'],
+  sources: readonly string[],
+  pressure: readonly (number | null)[],
+): { flag: 3 | 4; variable: string; indices: number[]; pFrom: number; pTo: number }[] {
   const out: { flag: 3 | 4; variable: string; indices: number[]; pFrom: number; pTo: number }[] = [];
   for (const name of sources) {
     const f = flags[name];
@@ -57,7 +69,10 @@ export function flaggedRuns(flags: CastDetail['flags'], sources: readonly string
     f.forEach((v, i) => {
       if (v === 3 || v === 4) {
         if (cur && cur.flag === v && cur.indices[cur.indices.length - 1] === i - 1) cur.indices.push(i);
-        else { cur = { flag: v, variable: name, indices: [i], pFrom: pressure[i] ?? NaN, pTo: pressure[i] ?? NaN }; out.push(cur); }
+        else {
+          cur = { flag: v, variable: name, indices: [i], pFrom: pressure[i] ?? NaN, pTo: pressure[i] ?? NaN };
+          out.push(cur);
+        }
         cur.pTo = pressure[i] ?? cur.pTo;
       } else cur = null;
     });

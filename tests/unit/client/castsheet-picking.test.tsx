@@ -23,20 +23,47 @@ describe('picking a range on the plot', () => {
   });
   it('groups flagged levels into runs by flag', () => {
     const f = new Array(50).fill(2);
-    f[3] = 3; f[4] = 3; f[5] = 4; f[9] = 3;
-    expect(flaggedRuns({ salinity: f }, ['salinity'], pressure).map((r) => [r.flag, r.pFrom, r.pTo])).toEqual([[3, 8, 10], [4, 12, 12], [3, 20, 20]]);
+    f[3] = 3;
+    f[4] = 3;
+    f[5] = 4;
+    f[9] = 3;
+    expect(flaggedRuns({ salinity: f }, ['salinity'], pressure).map((r) => [r.flag, r.pFrom, r.pTo])).toEqual([
+      [3, 8, 10],
+      [4, 12, 12],
+      [3, 20, 20],
+    ]);
   });
 });
 
 describe('inversions found at intake, handled now', () => {
-  const spike: CastInversion = { iTop: 9, iBottom: 10, pTop: 20, pBottom: 22, depthTop: null, depthBottom: null, deficit: 0.03, minN2: null, class: 'spike', levels: 1 };
+  const spike: CastInversion = {
+    iTop: 9,
+    iBottom: 10,
+    pTop: 20,
+    pBottom: 22,
+    depthTop: null,
+    depthBottom: null,
+    deficit: 0.03,
+    minN2: null,
+    class: 'spike',
+    levels: 1,
+  };
   it('flagged and silenced', () => {
     const flags = { salinity: Object.assign(new Array(50).fill(2), { 10: 3 }) };
-    const h = inversionHandling([spike], [], flags, [{ test: 'density_inversion', iFrom: 10, iTo: 10, status: 'accepted' }]);
-    expect(h[0]).toMatchObject({ warned: false, flagged: 1, proposal: 'accepted', text: '1 level flagged · no longer warned · proposal accepted' });
+    const h = inversionHandling([spike], [], flags, [
+      { test: 'density_inversion', iFrom: 10, iTo: 10, status: 'accepted' },
+    ]);
+    expect(h[0]).toMatchObject({
+      warned: false,
+      flagged: 1,
+      proposal: 'accepted',
+      text: '1 level flagged · no longer warned · proposal accepted',
+    });
   });
   it('kept as real when its proposal was rejected', () => {
-    const h = inversionHandling([spike], [spike], {}, [{ test: 'density_inversion', iFrom: 10, iTo: 10, status: 'rejected' }]);
+    const h = inversionHandling([spike], [spike], {}, [
+      { test: 'density_inversion', iFrom: 10, iTo: 10, status: 'rejected' },
+    ]);
     expect(h[0].text).toBe('still warned · proposal rejected: kept as real');
   });
 });

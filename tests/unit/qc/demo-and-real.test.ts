@@ -15,14 +15,22 @@ const OPTS = { inversionThreshold: 0.01 };
 function proposalsOf(c: ParsedCast): QcProposal[] {
   const r = processCast(c, OPTS);
   if (!r.ok) throw new Error(JSON.stringify(r.errors));
-  const cols = Object.fromEntries(r.cast.columns.filter((x) => x.kind !== 'flag').map((x) => [x.name, x.values as Float64Array]));
+  const cols = Object.fromEntries(
+    r.cast.columns.filter((x) => x.kind !== 'flag').map((x) => [x.name, x.values as Float64Array]),
+  );
   return runQc(qcProfileFromColumns(cols, c.metadata.latitude!, c.metadata.longitude!), OPTS);
 }
 
 describe('invented demo casts (fixtures/demo, a behaviour check, not a reference)', () => {
   const dir = join(process.cwd(), 'fixtures/demo/casts');
-  const planted = JSON.parse(readFileSync(join(process.cwd(), 'fixtures/demo/planted.json'), 'utf8')).planted as
-    { station: string; file: string; kind: string; pressure?: number; pTop?: number; pBottom?: number }[];
+  const planted = JSON.parse(readFileSync(join(process.cwd(), 'fixtures/demo/planted.json'), 'utf8')).planted as {
+    station: string;
+    file: string;
+    kind: string;
+    pressure?: number;
+    pTop?: number;
+    pBottom?: number;
+  }[];
   it('no proposal on a stable cast; each planted inversion proposed where it was planted, and nothing else', async () => {
     const files = readdirSync(dir).filter((f) => /\.csv$/.test(f));
     expect(files.length).toBeGreaterThanOrEqual(40);
@@ -36,7 +44,10 @@ describe('invented demo casts (fixtures/demo, a behaviour check, not a reference
         if (props.length) stableWithProposals.push(`${f}: ${props.map((x) => `${x.test} ${x.pFrom}`).join(', ')}`);
         continue;
       }
-      expect(props.map((x) => x.test), f).toEqual(['density_inversion']);
+      expect(
+        props.map((x) => x.test),
+        f,
+      ).toEqual(['density_inversion']);
       if (plant.kind === 'spike') expect(props[0].pFrom, f).toBe(plant.pressure);
       else {
         expect(props[0].pFrom, f).toBeGreaterThanOrEqual(plant.pTop! - 4);

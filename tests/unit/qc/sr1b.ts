@@ -20,7 +20,10 @@ function entries(buf: Buffer): Promise<{ name: string; bytes: Buffer }[]> {
           if (err2 || !s) return reject(err2);
           const chunks: Buffer[] = [];
           s.on('data', (c: Buffer) => chunks.push(c));
-          s.on('end', () => { out.push({ name: e.fileName, bytes: Buffer.concat(chunks) }); zip.readEntry(); });
+          s.on('end', () => {
+            out.push({ name: e.fileName, bytes: Buffer.concat(chunks) });
+            zip.readEntry();
+          });
         });
       });
       zip.on('end', () => resolve(out));
@@ -30,7 +33,9 @@ function entries(buf: Buffer): Promise<{ name: string; bytes: Buffer }[]> {
 }
 
 export async function readSr1b(): Promise<ParsedCast[]> {
-  const files = (await entries(readFileSync(ZIP))).filter((e) => e.name.endsWith('.nc')).sort((a, b) => a.name.localeCompare(b.name));
+  const files = (await entries(readFileSync(ZIP)))
+    .filter((e) => e.name.endsWith('.nc'))
+    .sort((a, b) => a.name.localeCompare(b.name));
   return files.map(({ name, bytes }) => {
     const nc = new NetCDFReader(bytes);
     const col = (v: string) => Float64Array.from(nc.getDataVariable(v) as number[], (x) => (x < -900 ? NaN : x));
@@ -40,10 +45,16 @@ export async function readSr1b(): Promise<ParsedCast[]> {
     const lat = (nc.getDataVariable('latitude') as number[])[0];
     const lon = (nc.getDataVariable('longitude') as number[])[0];
     return {
-      file: name, format: 'exchange', vertical: 'pressure',
+      file: name,
+      format: 'exchange',
+      vertical: 'pressure',
       metadata: { station, cast: '1', latitude: lat, longitude: lon, time: null, bottomDepth: null, extra: {} },
       columns: { pressure: p, temperature: col('temperature'), salinity: col('salinity'), oxygen: col('oxygen') },
-      units: { oxygen: 'umol/kg' }, extras: {}, flags: {}, profile: { levels: n, downcastEnd: n - 1, hasUpcast: false, reversals: 0 }, notes: [],
+      units: { oxygen: 'umol/kg' },
+      extras: {},
+      flags: {},
+      profile: { levels: n, downcastEnd: n - 1, hasUpcast: false, reversals: 0 },
+      notes: [],
     } satisfies ParsedCast;
   });
 }

@@ -3,14 +3,33 @@
 // Team, "Argo Quality Control Manual for CTD and Trajectory Data", v3.x — from memory, see shared/qc/tests.ts).
 import { describe, expect, it } from 'vitest';
 import {
-  GLOBAL_RANGE, GRADIENT_THRESHOLDS, PAIR_TOLERANCE, SPIKE_THRESHOLDS, countByTest, densityInversion, globalRange, gradientTest,
-  insidePolygon, pressureIncreasing, rangeRegionAt, regionalRange, runQc, runsOf, secondarySensorsOf, sensorPairDifference,
-  spikeTest, stuckProfile, stuckRun, type QcProfile,
+  GLOBAL_RANGE,
+  GRADIENT_THRESHOLDS,
+  PAIR_TOLERANCE,
+  SPIKE_THRESHOLDS,
+  countByTest,
+  densityInversion,
+  globalRange,
+  gradientTest,
+  insidePolygon,
+  pressureIncreasing,
+  rangeRegionAt,
+  regionalRange,
+  runQc,
+  runsOf,
+  secondarySensorsOf,
+  sensorPairDifference,
+  spikeTest,
+  stuckProfile,
+  stuckRun,
+  type QcProfile,
 } from '../../../shared/qc';
 import { sigma0 } from '../../../shared/seawater/density';
 
 /** An invented smooth profile on 2 dbar levels: warm fresh surface over cold salty deep water. */
-function profile(n = 1000): Required<Pick<QcProfile, 'pressure' | 'temperature' | 'salinity' | 'oxygen' | 'sigma0'>> & QcProfile {
+function profile(
+  n = 1000,
+): Required<Pick<QcProfile, 'pressure' | 'temperature' | 'salinity' | 'oxygen' | 'sigma0'>> & QcProfile {
   const p = new Float64Array(n);
   const t = new Float64Array(n);
   const s = new Float64Array(n);
@@ -21,11 +40,11 @@ function profile(n = 1000): Required<Pick<QcProfile, 'pressure' | 'temperature' 
     s[i] = 34.7 - 0.4 * Math.exp(-p[i] / 600) + 1e-4 * Math.sin(i * 1.3);
     o[i] = 220 - 60 * Math.exp(-((p[i] - 800) ** 2) / 2e5);
   }
-  const sg = Float64Array.from(p, (_, i) => sigma0(s[i] * 35.16504 / 35, t[i]));
+  const sg = Float64Array.from(p, (_, i) => sigma0((s[i] * 35.16504) / 35, t[i]));
   return { pressure: p, temperature: t, salinity: s, oxygen: o, sigma0: sg, latitude: -40, longitude: -20 };
 }
 const resigma = (pr: ReturnType<typeof profile>) => {
-  pr.sigma0 = Float64Array.from(pr.pressure, (_, i) => sigma0(pr.salinity[i] * 35.16504 / 35, pr.temperature[i]));
+  pr.sigma0 = Float64Array.from(pr.pressure, (_, i) => sigma0((pr.salinity[i] * 35.16504) / 35, pr.temperature[i]));
 };
 const OPTS = { inversionThreshold: 0.01 };
 
@@ -69,7 +88,14 @@ describe('regional range (Argo test 7)', () => {
     expect(rangeRegionAt(38, 20)?.name).toBe('Red Sea');
     expect(rangeRegionAt(18, 35)?.name).toBe('Mediterranean Sea');
     expect(rangeRegionAt(-30, -35)).toBeNull();
-    expect(insidePolygon(0, 0, [[-1, -1], [1, -1], [1, 1], [-1, 1]])).toBe(true);
+    expect(
+      insidePolygon(0, 0, [
+        [-1, -1],
+        [1, -1],
+        [1, 1],
+        [-1, 1],
+      ]),
+    ).toBe(true);
   });
   it('Red Sea water colder than 21.7 °C fails there, not in the open ocean', () => {
     const t = Float64Array.from([25, 22, 21.6, 21.8]);
@@ -159,14 +185,26 @@ describe('sensor pair difference (ours)', () => {
   });
   it('recognises secondary sensors by name and leaves other extras alone', () => {
     const a = new Float64Array(3);
-    expect(secondarySensorsOf({ temperature2: a, ctdsal_2: a, cond_secondary: a, fluorescence: a }).map((x) => [x.name, x.variable]))
-      .toEqual([['temperature2', 'temperature'], ['ctdsal_2', 'salinity'], ['cond_secondary', 'conductivity']]);
+    expect(
+      secondarySensorsOf({ temperature2: a, ctdsal_2: a, cond_secondary: a, fluorescence: a }).map((x) => [
+        x.name,
+        x.variable,
+      ]),
+    ).toEqual([
+      ['temperature2', 'temperature'],
+      ['ctdsal_2', 'salinity'],
+      ['cond_secondary', 'conductivity'],
+    ]);
   });
 });
 
 describe('proposals', () => {
   it('group consecutive levels and count per test', () => {
-    expect(runsOf([1, 2, 3, 7, 9, 10])).toEqual([[1, 3], [7, 7], [9, 10]]);
+    expect(runsOf([1, 2, 3, 7, 9, 10])).toEqual([
+      [1, 3],
+      [7, 7],
+      [9, 10],
+    ]);
     const pr = profile();
     pr.temperature[600] += 2.5;
     pr.salinity[700] = 45;
