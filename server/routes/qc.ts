@@ -23,6 +23,8 @@ const Decide = z
     path: ['ids'],
   });
 
+const NeighbourQuery = z.object({ line: z.uuid().optional() });
+
 const Undo = z.object({ changeId: z.string().regex(/^\d{1,18}$/, 'a flag-log entry number') });
 
 export function qcRoutes(deps: AppDeps): RouteSpec[] {
@@ -67,7 +69,9 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
       path: '/casts/:id/neighbours',
       summary: 'The previous and next station’s casts along the line, for overlays',
       rule: { kind: 'member', roles: 'any', cruise: castCruise },
-      handler: async (req) => neighboursOf(String(req.params.id)),
+      query: NeighbourQuery,
+      handler: async (req, _res, ctx) =>
+        neighboursOf(String(req.params.id), (ctx.query as z.infer<typeof NeighbourQuery>).line ?? null),
     }),
     defineRoute({
       method: 'get',

@@ -1,8 +1,9 @@
-// The casts a technician compares a cast with: the previous and the next station of its line. Until the cruise
-// has lines (server/services/lines.ts), a line is the station plan: stations in their planned order, the
-// occupied ones only; a cast whose station is not planned falls back on track order. `neighbourStations` is the
-// one place that decides; point it at the line when lines exist.
+// The casts a technician compares a cast with: the previous and the next station of its line (the cruise's
+// default line unless one is named; server/services/lines.ts), each with the cast the line draws there. A cast
+// whose station is not on the line (off-line, excluded) falls back on the station plan, then on track order.
+// `neighbourStations` is the one place that decides.
 import { Cast, Station } from '../models/index';
+import { loadLineCasts } from './lines';
 import { readColumns } from './columns';
 import { notFound } from '../lib/errors';
 
@@ -11,10 +12,24 @@ const trackOrder = (a: Cast, b: Cast) =>
   a.station.localeCompare(b.station) ||
   a.cast.localeCompare(b.cast);
 
-/** The casts before and after `cast` along its line (today: the station plan; else track order). */
+/** The casts before and after `cast` along its line (else along the station plan, else in track order). */
 export async function neighbourStations(
   cast: Cast,
-): Promise<{ previous: Cast | null; next: Cast | null; order: 'station plan' | 'track' }> {
+  lineId?: string | null,
+): Promise<{ previous: Cast | null; next: Cast | null; order: string }> {
+  const line = await loadLineCasts(cast.cruiseId, lineId ?? null, ['pressure']);
+  const k0 = line.stations.findIndex((s) => s.station === cast.station);
+  if (k0 >= 0) {
+    const prev = line.stations[k0 - 1];
+    const next = line.stations[k0 + 1];
+    const rows = await Cast.findAll({ where: { id: [prev?.castId, next?.castId].filter((x): x is string => !!x) } });
+    const byId = new Map(rows.map((r) => [r.id, r]));
+    return {
+      previous: prev ? (byId.get(prev.castId) ?? null) : null,
+      next: next ? (byId.get(next.castId) ?? null) : null,
+      order: `the line “${line.name}”`,
+    };
+  }
   const casts = await Cast.findAll({
     where: { cruiseId: cast.cruiseId },
     attributes: ['id', 'cruiseId', 'station', 'cast', 'time', 'latitude', 'longitude'],
@@ -31,7 +46,7 @@ export async function neighbourStations(
     return {
       previous: k > 0 ? byStation.get(stations[k - 1])! : null,
       next: k >= 0 && k < stations.length - 1 ? byStation.get(stations[k + 1])! : null,
-      order: 'station plan',
+      order: 'the station plan',
     };
   }
   const sorted = [...casts].sort(trackOrder);
@@ -39,7 +54,7 @@ export async function neighbourStations(
   return {
     previous: k > 0 ? sorted[k - 1] : null,
     next: k >= 0 && k < sorted.length - 1 ? sorted[k + 1] : null,
-    order: 'track',
+    order: 'track order',
   };
 }
 
@@ -57,10 +72,13 @@ export interface NeighbourProfile {
 }
 
 /** The neighbouring casts with their measured and TEOS-10 columns (and extras), for overlays. */
-export async function neighboursOf(castId: string): Promise<{ order: string; neighbours: NeighbourProfile[] }> {
+export async function neighboursOf(
+  castId: string,
+  lineId?: string | null,
+): Promise<{ order: string; neighbours: NeighbourProfile[] }> {
   const c = await Cast.findByPk(castId);
   if (!c) throw notFound();
-  const { previous, next, order } = await neighbourStations(c);
+  const { previous, next, order } = await neighbourStations(c, lineId);
   const list = [
     previous && { cast: previous, role: 'previous' as const },
     next && { cast: next, role: 'next' as const },

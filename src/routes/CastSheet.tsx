@@ -248,7 +248,7 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
 
   const pendingHere = proposals.filter((p) => p.status === 'pending').length;
   const neighbourText = neighbours.length
-    ? `Overlaid: ${neighbours.map((n) => `${n.role} station ${n.station}`).join(', ')} (neighbours in ${neighboursQ.data?.order ?? 'station plan'} order).`
+    ? `Overlaid: ${neighbours.map((n) => `${n.role} station ${n.station}`).join(', ')} (neighbours along ${neighboursQ.data?.order ?? 'the line'}).`
     : neighboursQ.isPending
       ? 'Loading the neighbouring casts…'
       : 'No neighbouring cast to overlay.';

@@ -227,9 +227,9 @@ describe('proposals', () => {
 });
 
 describe('neighbours', () => {
-  it('are the previous and next cast (track order without a station plan)', async () => {
+  it('are the previous and next station of the default line, each with the cast the line draws', async () => {
     const n = (await get(`/casts/${castOf['CP-03']}/neighbours`)).body;
-    expect(n.order).toBe('track');
+    expect(n.order).toBe('the line “All stations”');
     expect(n.neighbours.map((x: { station: string; role: string }) => [x.role, x.station])).toEqual([
       ['previous', 'CP-02'],
       ['next', 'CP-04'],
@@ -237,5 +237,20 @@ describe('neighbours', () => {
     expect(n.neighbours[0].columns.temperature.length).toBe(n.neighbours[0].columns.pressure.length);
     const first = (await get(`/casts/${castOf['CP-02']}/neighbours`)).body;
     expect(first.neighbours.map((x: { station: string }) => x.station)).toEqual(['CP-03']);
+  });
+  it('follow a named line, and refuse a line id that is not a uuid', async () => {
+    const line = await post(
+      `/cruises/${cruiseId}/lines`,
+      { name: 'Reversed', stations: ['CP-04', 'CP-03', 'CP-02'] },
+      who.analyst,
+    );
+    expect(line.status).toBe(201);
+    const n = (await get(`/casts/${castOf['CP-03']}/neighbours?line=${line.body.id}`)).body;
+    expect(n.order).toBe('the line “Reversed”');
+    expect(n.neighbours.map((x: { station: string; role: string }) => [x.role, x.station])).toEqual([
+      ['previous', 'CP-04'],
+      ['next', 'CP-02'],
+    ]);
+    expect((await get(`/casts/${castOf['CP-03']}/neighbours?line=nope`)).status).toBe(400);
   });
 });

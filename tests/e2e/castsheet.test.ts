@@ -94,7 +94,7 @@ describe('cast sheet QC desk', () => {
     await page.getByRole('heading', { name: /Station CP-03/ }).waitFor();
     await drawn(page);
     await page
-      .getByText('Overlaid: previous station CP-02, next station CP-04 (neighbours in station plan order).')
+      .getByText('Overlaid: previous station CP-02, next station CP-04 (neighbours along the line “All stations”).')
       .waitFor();
     await page.getByRole('heading', { name: 'Proposed flags · 1 pending' }).waitFor();
 
