@@ -7,6 +7,7 @@ import { parseUpload } from '../parsers/index';
 import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
 import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
 import { writeColumns } from './columns';
+import { recordQcAtIntake } from './qcProposals';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
 import { logger } from '../lib/logger';
@@ -102,6 +103,8 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
         await writeColumns(cast.id, out.columns, transaction);
         ids.push(cast.id);
       }
+      // QC desk: proposals of the automatic tests and what the intake found (server/services/qcProposals.ts)
+      await recordQcAtIntake(deps, { cruiseId: upload.cruiseId, castIds: ids, processed }, { reprocess: !!opts.reprocess }, transaction);
       await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: parsed.warnings, errors: [] }, { transaction });
       await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
       return ids;
