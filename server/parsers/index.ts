@@ -25,6 +25,8 @@ export type ParseOptions = {
   columnMapping?: Record<string, string>;
   maxBytes?: number; // of one file (and of each zip entry); default 50 MB
   zipLimits?: Partial<ZipLimits>;
+  /** Leave out (and list) a few unreadable lines of a text file instead of refusing it (see build.ts). */
+  salvage?: boolean;
 };
 export const DEFAULT_MAX_BYTES = 50 * 1024 * 1024;
 
@@ -41,7 +43,7 @@ function failureOf(file: string, e: unknown): One {
   return { ok: false, errors: [fileError(file, null, null, 'internal_error', `the file could not be read: ${msg}`)] };
 }
 
-function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedFormat, 'zip'>, mapping: Record<string, string> | undefined): One {
+function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedFormat, 'zip'>, mapping: Record<string, string> | undefined, salvage = false): One {
   try {
     if (fmt === 'stationTable') {
       const r = parseStationTable(file, bytes);
@@ -52,12 +54,12 @@ function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedForma
       return { ok: true, casts: r.casts, stations: [], warnings: r.warnings };
     }
     if (fmt === 'acquisition') {
-      const r = parseAcquisition(file, bytes, { columnMapping: mapping });
+      const r = parseAcquisition(file, bytes, { columnMapping: mapping, salvage });
       return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
     }
     if (fmt === 'hdf5') return { ok: false, errors: [hdf5Refusal(file)] };
     if (fmt === 'exchangeBottle') return { ok: false, errors: [bottleRefusal(file)] };
-    const r = fmt === 'exchange' ? parseExchange(file, bytes, { columnMapping: mapping }) : parsePlain(file, bytes, { columnMapping: mapping });
+    const r = fmt === 'exchange' ? parseExchange(file, bytes, { columnMapping: mapping, salvage }) : parsePlain(file, bytes, { columnMapping: mapping, salvage });
     return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
   } catch (e) {
     return failureOf(file, e);
@@ -106,7 +108,7 @@ export async function parseUpload(
     }
     const fmt = detectFormat(filename, bytes);
     if (fmt !== 'zip') {
-      const r = parseSingle(filename, bytes, fmt, mapping);
+      const r = parseSingle(filename, bytes, fmt, mapping, options.salvage);
       if (r.ok && r.stations.length > 0) applyStationTable(r.casts, r.stations, filename);
       return r;
     }
@@ -123,7 +125,7 @@ export async function parseUpload(
         warnings.push(fileError(f.path, null, null, 'skipped', `zip entry ${f.path} is not a cast file; skipped`));
         continue;
       }
-      const r = parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping);
+      const r = parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping, options.salvage);
       if (r.ok) {
         casts.push(...r.casts);
         if (r.stations.length > 0) tableFile = f.path;
