@@ -123,7 +123,7 @@ describe('remove and restore', () => {
     const live = (await liveCasts()).find((c) => c.station === 'R2')!;
     const row = (await Cast.findByPk(live.id))!.get({ plain: true }) as Record<string, unknown>;
     delete row.id;
-    await expect(Cast.create({ ...(row as never), sourceFile: 'copy.csv' })).rejects.toMatchObject({ name: 'SequelizeUniqueConstraintError' });
+    await expect(Cast.create({ ...row, sourceFile: 'copy.csv' } as never)).rejects.toMatchObject({ name: 'SequelizeUniqueConstraintError' });
     // remove R2, upload a new R2 (no conflict now), then restoring the old one would make two
     await post(chief, `/api/casts/${live.id}/remove`);
     const n = await settled(await upload(castFile('R2-new.csv', 'R2', { warm: 0.05 })));
