@@ -58,12 +58,14 @@ export class Upload extends Model<InferAttributes<Upload>, InferCreationAttribut
   declare storageKey: string;
   declare sha256: string;
   declare size: number;
-  declare status: CreationOptional<'queued' | 'processing' | 'ready' | 'failed'>;
+  declare status: CreationOptional<'queued' | 'processing' | 'ready' | 'failed' | 'awaiting_decision'>;
   declare progress: CreationOptional<number>;
   declare errors: CreationOptional<unknown[]>;
   declare warnings: CreationOptional<unknown[]>;
   declare castIds: CreationOptional<string[]>;
   declare unmappedHeaders: CreationOptional<string[] | null>;
+  /** Casts of the upload whose station and cast are already live (migration 003): replace them or not? */
+  declare conflicts: CreationOptional<{ items: UploadConflict[]; decision: 'replace' | 'keep' | null } | null>;
   declare attempts: CreationOptional<number>;
   declare createdBy: string | null;
   declare createdAt: CreationOptional<Date>;
@@ -87,9 +89,18 @@ export class Cast extends Model<InferAttributes<Cast>, InferCreationAttributes<C
   declare notes: CreationOptional<string[]>;
   declare sourceFile: string;
   declare sourceSha256: string;
+  // cast life (migration 003): removed (restorable), superseded by a corrected file, partly read
+  declare removedAt: CreationOptional<Date | null>;
+  declare removedBy: CreationOptional<string | null>;
+  declare supersededBy: CreationOptional<string | null>;
+  declare supersededAt: CreationOptional<Date | null>;
+  declare partlyRead: CreationOptional<PartlyRead | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
+export type UploadConflict = { file: string; station: string; cast: string; existingCastId: string; existingFile: string };
+/** A cast ingested without some bad lines: the lines, and the technician's decision (null: not yet). */
+export type PartlyRead = { dropped: { file: string; line: number | null; column: number | null; code: string; message: string }[]; decision: 'accepted' | null; decidedBy?: string; decidedAt?: string };
 /** One row per cast and variable: the whole profile as little-endian float64 bytes (see DEVELOPERS.md). */
 export class CastColumn extends Model<InferAttributes<CastColumn>, InferCreationAttributes<CastColumn>> {
   declare id: CreationOptional<number>;
@@ -237,7 +248,8 @@ export function initModels(sequelize: Sequelize) {
     size: { type: DataTypes.BIGINT, allowNull: false }, status: { type: DataTypes.TEXT, defaultValue: 'queued' },
     progress: { type: DataTypes.DOUBLE, defaultValue: 0 }, errors: { type: DataTypes.JSONB, defaultValue: [] },
     warnings: { type: DataTypes.JSONB, defaultValue: [] }, castIds: { type: DataTypes.JSONB, defaultValue: [] },
-    unmappedHeaders: { type: DataTypes.JSONB, allowNull: true }, attempts: { type: DataTypes.INTEGER, defaultValue: 0 },
+    unmappedHeaders: { type: DataTypes.JSONB, allowNull: true }, conflicts: { type: DataTypes.JSONB, allowNull: true },
+    attempts: { type: DataTypes.INTEGER, defaultValue: 0 },
     createdBy: DataTypes.UUID, ...ts }, opts('uploads'));
   Cast.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, uploadId: DataTypes.UUID,
     station: { type: DataTypes.TEXT, allowNull: false }, cast: { type: DataTypes.TEXT, allowNull: false },
@@ -246,7 +258,12 @@ export function initModels(sequelize: Sequelize) {
     inversionCount: { type: DataTypes.INTEGER, allowNull: false }, inversions: { type: DataTypes.JSONB, allowNull: false },
     fitness: { type: DataTypes.JSONB, defaultValue: {} }, metadata: { type: DataTypes.JSONB, defaultValue: {} },
     notes: { type: DataTypes.JSONB, defaultValue: [] }, sourceFile: { type: DataTypes.TEXT, allowNull: false },
-    sourceSha256: { type: DataTypes.TEXT, allowNull: false }, ...ts }, opts('casts'));
+    sourceSha256: { type: DataTypes.TEXT, allowNull: false },
+    removedAt: DataTypes.DATE, removedBy: DataTypes.UUID, supersededBy: DataTypes.UUID, supersededAt: DataTypes.DATE, partlyRead: DataTypes.JSONB,
+    ...ts }, { ...opts('casts'),
+    // Only live casts exist for the rest of the product: removed and superseded rows are history,
+    // read with Cast.unscoped() (cast life routes only).
+    defaultScope: { where: { removedAt: null, supersededBy: null } } });
   CastColumn.init({ id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true }, castId: { type: DataTypes.UUID, allowNull: false },
     name: { type: DataTypes.TEXT, allowNull: false }, unit: DataTypes.TEXT, kind: { type: DataTypes.TEXT, allowNull: false },
     values: { type: DataTypes.BLOB, allowNull: false } }, opts('cast_columns', false));

@@ -82,7 +82,7 @@ function bad(file: string, line: number | null, message: string): ParseFailure {
 export function parseAcquisition(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string> } = {},
+  options: { columnMapping?: Record<string, string>; salvage?: boolean } = {},
 ): { cast: ParsedCast; warnings: FileError[] } {
   const { text } = decodeText(file, bytes);
   const lines = splitLines(file, text);
@@ -249,5 +249,6 @@ export function parseAcquisition(
     notes,
     warnings,
     mapping: byName,
+    salvage: options.salvage,
   });
 }

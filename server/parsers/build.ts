@@ -21,7 +21,13 @@ export type RawTable = {
   notes: string[];
   warnings: FileError[];
   mapping?: Record<string, string>;
+  /** Drop the lines that cannot be read (and list them) instead of refusing the file, if they are few. */
+  salvage?: boolean;
 };
+
+/** At most this share of the data lines may be dropped by salvage (and never more than MAX_DROPPED). */
+export const SALVAGE_MAX_SHARE = 0.1;
+export const MAX_DROPPED = 100;
 
 const MAX_ERRORS = 25;
 
@@ -109,7 +115,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   }
   err.throwIfAny();
 
-  const n = t.rows.length;
+  let n = t.rows.length;
   if (n === 0) throw new ParseFailure([fileError(t.file, t.headerLine, null, 'no_data', 'the file has a header but no data lines')]);
 
   // Extras whose first value is text are text columns (sample labels, comments): not kept.
@@ -134,19 +140,32 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   const flagVals: (Uint8Array | null)[] = assignments.map((a) => (a.kind === 'flag' ? new Uint8Array(n) : null));
   const limits = assignments.map((a) => (a.kind === 'role' ? LIMITS[a.role] : undefined));
   const firstHeader = t.headers[0].trim().toLowerCase();
+  const salvage = t.salvage === true;
+  const dropped: FileError[] = [];
+  const badRows = new Set<number>();
+  /** A problem on one data line: in salvage mode the line is dropped and listed (true: go to the next line). */
+  const rowBad = (r: number, line: number, column: number | null, code: string, message: string): boolean => {
+    if (!salvage) {
+      err.add(line, column, code, message);
+      return false;
+    }
+    if (!badRows.has(r)) dropped.push(fileError(t.file, line, column, code, message));
+    badRows.add(r);
+    return true;
+  };
 
   rows: for (let r = 0; r < n; r++) {
     const row = t.rows[r];
     const line = t.rowLines[r];
     if (row.length > 0 && row[0].trim().toLowerCase() === firstHeader && classifyNumber(row[0].trim()).kind === 'text') {
-      err.add(line, 1, 'repeated_header', `line ${line} repeats the header row inside the data`);
+      if (rowBad(r, line, 1, 'repeated_header', `line ${line} repeats the header row inside the data`)) continue;
       if (err.full) break;
       continue;
     }
     if (row.length !== ncol) {
-      if (r === n - 1 && row.length < ncol)
-        err.add(line, row.length + 1, 'truncated', `the last line (${line}) has ${row.length} fields where the header has ${ncol}: the file looks truncated`);
-      else err.add(line, Math.min(row.length, ncol) + 1, 'field_count', `line ${line} has ${row.length} fields where the header has ${ncol}`);
+      const cut = r === n - 1 && row.length < ncol;
+      if (cut && rowBad(r, line, row.length + 1, 'truncated', `the last line (${line}) has ${row.length} fields where the header has ${ncol}: the file looks truncated`)) continue;
+      if (!cut && rowBad(r, line, Math.min(row.length, ncol) + 1, 'field_count', `line ${line} has ${row.length} fields where the header has ${ncol}`)) continue;
       if (err.full) break;
       continue;
     }
@@ -165,7 +184,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
         if (c.kind === 'num' && isFill(c.value)) fv[r] = 9;
         else if (c.kind === 'num' && Number.isInteger(c.value) && c.value >= 0 && c.value <= 9) fv[r] = c.value === 0 ? 9 : c.value;
         else {
-          err.add(line, j + 1, 'bad_flag', `line ${line}, column ${j + 1} (${colLabel(t, j)}): quality flag ${shown(s)} is not one of 1–9`);
+          if (rowBad(r, line, j + 1, 'bad_flag', `line ${line}, column ${j + 1} (${colLabel(t, j)}): quality flag ${shown(s)} is not one of 1–9`)) continue rows;
           if (err.full) break rows;
         }
         continue;
@@ -183,7 +202,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
         if (cv.ipts68) v = v / 1.00024;
         const lim = limits[j];
         if (lim && !cv.guessConductivity && (v < lim.min || v > lim.max)) {
-          err.add(line, j + 1, lim.code, `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is out of range; ${lim.what}`);
+          if (rowBad(r, line, j + 1, lim.code, `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is out of range; ${lim.what}`)) continue rows;
           if (err.full) break rows;
         }
         out[r] = v;
@@ -192,15 +211,35 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
       } else if (a.kind === 'extra' && (c.kind === 'nan' || c.kind === 'inf')) {
         out[r] = NaN;
       } else if (c.kind === 'nan' || c.kind === 'inf') {
-        err.add(line, j + 1, 'nan_inf', `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a finite number; write missing values as -999 or leave the field empty`);
+        if (rowBad(r, line, j + 1, 'nan_inf', `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a finite number; write missing values as -999 or leave the field empty`)) continue rows;
         if (err.full) break rows;
       } else {
-        err.add(line, j + 1, 'text_in_numeric', `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a number`);
+        if (rowBad(r, line, j + 1, 'text_in_numeric', `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a number`)) continue rows;
         if (err.full) break rows;
       }
     }
   }
   err.throwIfAny();
+  let rowLines = t.rowLines;
+  if (badRows.size > 0) {
+    // Salvage: a few bad lines are dropped and listed; too many and the file is refused as before.
+    const limit = Math.min(MAX_DROPPED, Math.floor(n * SALVAGE_MAX_SHARE));
+    if (badRows.size > limit) {
+      const more = badRows.size > 25 ? ` (the first 25 of ${badRows.size} bad lines; at most ${limit} can be left out)` : '';
+      throw new ParseFailure(dropped.slice(0, 25).map((e, k) => (k === 0 && more ? { ...e, message: e.message + more } : e)));
+    }
+    const good: number[] = [];
+    for (let r = 0; r < n; r++) if (!badRows.has(r)) good.push(r);
+    for (let j = 0; j < ncol; j++) {
+      const v = values[j];
+      if (v) values[j] = Float64Array.from(good, (r) => v[r]);
+      const f = flagVals[j];
+      if (f) flagVals[j] = Uint8Array.from(good, (r) => f[r]);
+    }
+    rowLines = good.map((r) => t.rowLines[r]);
+    n = good.length;
+    notes.push(`partly read: ${dropped.length} line${dropped.length > 1 ? 's' : ''} that could not be read left out (${dropped.map((e) => e.line).join(', ')})`);
+  }
 
   // Conductivity without a unit: seawater is 20–70 mS/cm, i.e. 2–7 S/m.
   const cj = roleCol.get('conductivity');
@@ -214,7 +253,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     } else notes.push(`${colLabel(t, cj)}: no unit given; values read as mS/cm`);
     for (let i = 0; i < n; i++) {
       const v = col[i];
-      if (v < 0 || v > 100) err.add(t.rowLines[i], cj + 1, 'conductivity_out_of_range', `line ${t.rowLines[i]}, column ${cj + 1} (${colLabel(t, cj)}): conductivity out of range 0..100 mS/cm`);
+      if (v < 0 || v > 100) err.add(rowLines[i], cj + 1, 'conductivity_out_of_range', `line ${rowLines[i]}, column ${cj + 1} (${colLabel(t, cj)}): conductivity out of range 0..100 mS/cm`);
       if (err.full) break;
     }
     err.throwIfAny();
@@ -330,6 +369,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     flags,
     profile: { levels: m, downcastEnd: deepest, hasUpcast, reversals },
     notes,
+    ...(dropped.length > 0 ? { dropped } : {}),
   };
   const checked = ParsedCastSchema.safeParse(cast);
   if (!checked.success)

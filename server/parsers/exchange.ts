@@ -18,7 +18,7 @@ function bad(file: string, line: number | null, message: string): ParseFailure {
 export function parseExchange(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string> } = {},
+  options: { columnMapping?: Record<string, string>; salvage?: boolean } = {},
 ): { cast: ParsedCast; warnings: FileError[] } {
   const { text } = decodeText(file, bytes);
   const lines = splitLines(file, text);
@@ -109,6 +109,7 @@ export function parseExchange(
     notes,
     warnings,
     mapping: options.columnMapping,
+    salvage: options.salvage,
   });
 }
 

@@ -26,6 +26,8 @@ export type ParseOptions = {
   maxBytes?: number; // of one file (and of each zip entry); default 50 MB
   zipLimits?: Partial<ZipLimits>;
   maxLevels?: number; // levels one cast may keep; default DEFAULT_MAX_LEVELS
+  /** Leave out (and list) a few unreadable lines of a text file instead of refusing it (see build.ts). */
+  salvage?: boolean;
 };
 export const DEFAULT_MAX_BYTES = 50 * 1024 * 1024;
 /** A full-depth raw 24 Hz downcast (6000 dbar at 1 m/s) is about 150 000 scans. */
@@ -53,7 +55,7 @@ function failureOf(file: string, e: unknown): One {
   return { ok: false, errors: [fileError(file, null, null, 'internal_error', `the file could not be read: ${msg}`)] };
 }
 
-function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedFormat, 'zip'>, mapping: Record<string, string> | undefined): One {
+function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedFormat, 'zip'>, mapping: Record<string, string> | undefined, salvage = false): One {
   try {
     if (fmt === 'stationTable') {
       const r = parseStationTable(file, bytes);
@@ -64,12 +66,12 @@ function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedForma
       return { ok: true, casts: r.casts, stations: [], warnings: r.warnings };
     }
     if (fmt === 'acquisition') {
-      const r = parseAcquisition(file, bytes, { columnMapping: mapping });
+      const r = parseAcquisition(file, bytes, { columnMapping: mapping, salvage });
       return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
     }
     if (fmt === 'hdf5') return { ok: false, errors: [hdf5Refusal(file)] };
     if (fmt === 'exchangeBottle') return { ok: false, errors: [bottleRefusal(file)] };
-    const r = fmt === 'exchange' ? parseExchange(file, bytes, { columnMapping: mapping }) : parsePlain(file, bytes, { columnMapping: mapping });
+    const r = fmt === 'exchange' ? parseExchange(file, bytes, { columnMapping: mapping, salvage }) : parsePlain(file, bytes, { columnMapping: mapping, salvage });
     return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
   } catch (e) {
     return failureOf(file, e);
@@ -118,7 +120,7 @@ export async function parseUpload(
     }
     const fmt = detectFormat(filename, bytes);
     if (fmt !== 'zip') {
-      const r = capLevels(parseSingle(filename, bytes, fmt, mapping), options.maxLevels ?? DEFAULT_MAX_LEVELS);
+      const r = capLevels(parseSingle(filename, bytes, fmt, mapping, options.salvage), options.maxLevels ?? DEFAULT_MAX_LEVELS);
       if (r.ok && r.stations.length > 0) applyStationTable(r.casts, r.stations, filename);
       return r;
     }
@@ -135,7 +137,7 @@ export async function parseUpload(
         warnings.push(fileError(f.path, null, null, 'skipped', `zip entry ${f.path} is not a cast file; skipped`));
         continue;
       }
-      const r = capLevels(parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping), options.maxLevels ?? DEFAULT_MAX_LEVELS);
+      const r = capLevels(parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping, options.salvage), options.maxLevels ?? DEFAULT_MAX_LEVELS);
       if (r.ok) {
         casts.push(...r.casts);
         if (r.stations.length > 0) tableFile = f.path;

@@ -53,7 +53,7 @@ function decimalComma(s: string): string {
 export function parsePlain(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string> } = {},
+  options: { columnMapping?: Record<string, string>; salvage?: boolean } = {},
 ): { cast: ParsedCast; warnings: FileError[] } {
   const { text, encoding } = decodeText(file, bytes);
   const lines = splitLines(file, text);
@@ -149,5 +149,6 @@ export function parsePlain(
     notes,
     warnings: [],
     mapping: options.columnMapping,
+    salvage: options.salvage,
   });
 }

@@ -15,7 +15,7 @@ export const castCruise = async (req: Request) => {
 const toJsonArray = (a: ArrayLike<number>) => Array.from(a, (v) => (Number.isFinite(v) ? v : null));
 
 export const castSummary = (c: Cast) => ({ id: c.id, station: c.station, cast: c.cast, latitude: c.latitude, longitude: c.longitude, time: c.time,
-  bottomDepth: c.bottomDepth, levels: c.levels, inversions: c.inversionCount, uploadId: c.uploadId, sourceFile: c.sourceFile });
+  bottomDepth: c.bottomDepth, levels: c.levels, inversions: c.inversionCount, uploadId: c.uploadId, sourceFile: c.sourceFile, partlyRead: c.partlyRead ?? null });
 
 const FlagEdit = z.object({
   variable: z.enum(['temperature', 'salinity', 'conductivity', 'oxygen', 'all']),

@@ -11,6 +11,7 @@ import { castRoutes } from './casts';
 import { sectionRoutes } from './sections';
 import { analysisRoutes } from './analysis';
 import { deliveryRoutes } from './deliveries';
+import { castLifeRoutes } from './castLife';
 import { settingsRoutes } from './settings';
 import { lineRoutes } from './lines';
 import { qcRoutes } from './qc';
@@ -19,7 +20,7 @@ type RouteFactory = (deps: AppDeps) => RouteSpec[];
 
 /** The route modules after the foundation's; add a new area's factory here. */
 export const extraRouteFactories: RouteFactory[] = [
-  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, qcRoutes,
+  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, qcRoutes, castLifeRoutes,
 ];
 
 /** Every route module, the foundation's first. */

@@ -13,7 +13,7 @@ import type { AppDeps } from '../lib/deps';
 import type { Request } from 'express';
 
 export const uploadJson = (u: Upload) => ({ id: u.id, filename: u.filename, status: u.status, progress: u.progress, size: Number(u.size), sha256: u.sha256,
-  errors: u.errors, warnings: u.warnings, castIds: u.castIds, unmappedHeaders: u.unmappedHeaders, createdAt: u.createdAt, updatedAt: u.updatedAt });
+  errors: u.errors, warnings: u.warnings, castIds: u.castIds, unmappedHeaders: u.unmappedHeaders, conflicts: u.conflicts ?? null, createdAt: u.createdAt, updatedAt: u.updatedAt });
 
 const uploadCruise = async (req: Request) => {
   const id = String(req.params.id);

@@ -10,6 +10,9 @@ import { writeColumns } from './columns';
 import { recordQcAtIntake } from './qcProposals';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
+import { liveKey, replacementGate, supersede, inversionsAfterFlags, type Gate } from './castLife';
+import { randomUUID } from 'node:crypto';
+import type { Transaction } from 'sequelize';
 import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 
@@ -31,7 +34,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
   }
   const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
   const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES,
-    zipLimits: { maxTotalBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES }, maxLevels: deps.settings.CAST_MAX_LEVELS });
+    zipLimits: { maxTotalBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES }, maxLevels: deps.settings.CAST_MAX_LEVELS, salvage: true });
   await upload.update({ progress: 0.3 });
   if (!parsed.ok) {
     await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
@@ -63,6 +66,10 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     await upload.update({ status: 'failed', progress: 1, errors });
     return;
   }
+  // Cast life: one live cast per station and cast; a corrected file asks whether it replaces.
+  const gate = opts.reprocess ? null : await replacementGate(upload, processed.map((p) => ({ file: p.parsed.file, station: p.parsed.metadata.station!, cast: p.parsed.metadata.cast ?? '1' })));
+  if (gate?.stop) return;
+  const skippedKeys = new Set((gate && !gate.stop ? gate.skipped : []).map((s) => liveKey(s.station, s.cast)));
   await upload.update({ progress: 0.7 });
 
   try {
@@ -75,6 +82,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
         else plan.set(r.station, await Station.create({ cruiseId: upload.cruiseId, name: r.station, latitude: r.latitude, longitude: r.longitude, plannedDepth: r.bottomDepth, order: ++order }, { transaction }));
       }
       for (const { parsed: c, out } of processed) {
+        if (skippedKeys.has(liveKey(c.metadata.station!, c.metadata.cast ?? '1'))) continue;
         const existing = await Cast.findOne({ where: { cruiseId: upload.cruiseId, sourceSha256: upload.sha256, sourceFile: c.file }, transaction });
         if (existing && !opts.reprocess) { ids.push(existing.id); continue; }
         if (existing) {
@@ -94,18 +102,23 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
           continue;
         }
         const md = c.metadata;
+        const life = await newVersionOf(gate, c, out, upload, deps.settings.INVERSION_THRESHOLD, transaction);
         const cast = await Cast.create({
           cruiseId: upload.cruiseId, uploadId: upload.id, station: md.station!, cast: md.cast ?? '1', latitude: md.latitude!, longitude: md.longitude!,
           time: md.time ? new Date(md.time) : null, bottomDepth: md.bottomDepth, levels: out.levels, inversionCount: out.inversions.length,
           inversions: out.inversions, fitness: out.fitness, metadata: { ...md.extra, format: c.format, units: c.units, profile: c.profile, saar: out.saar, mixedLayer: out.mld },
-          notes: [...c.notes, ...out.notes], sourceFile: c.file, sourceSha256: upload.sha256,
+          notes: [...c.notes, ...out.notes, ...life.notes], sourceFile: c.file, sourceSha256: upload.sha256, ...life.fields,
         }, { transaction });
+        if (life.replaced) await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: 'replace_cast', entity: 'cast', entityId: cast.id, before: { castId: life.replaced, file: life.replacedFile }, after: { file: c.file, upload: upload.id, flagsCarried: life.carried, notCarried: life.notCarried } }, transaction);
         await writeColumns(cast.id, out.columns, transaction);
         ids.push(cast.id);
       }
       // QC desk: proposals of the automatic tests and what the intake found (server/services/qcProposals.ts)
-      await recordQcAtIntake(deps, { cruiseId: upload.cruiseId, castIds: ids, processed }, { reprocess: !!opts.reprocess }, transaction);
-      await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: parsed.warnings, errors: [] }, { transaction });
+      // (the casts left out for an earlier version have no id here, so they are left out of the batch too)
+      const kept = processed.filter(({ parsed: c }) => !skippedKeys.has(liveKey(c.metadata.station!, c.metadata.cast ?? '1')));
+      await recordQcAtIntake(deps, { cruiseId: upload.cruiseId, castIds: ids, processed: kept }, { reprocess: !!opts.reprocess }, transaction);
+      const keptNote = skippedKeys.size ? [{ file: upload.filename, line: null, column: null, code: 'kept_earlier', message: `${skippedKeys.size} cast${skippedKeys.size > 1 ? 's' : ''} left out: the earlier versions were kept` }] : [];
+      await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: [...parsed.warnings, ...keptNote], errors: [] }, { transaction });
       await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
       return ids;
     });
@@ -115,4 +128,20 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     await Upload.update({ status: 'queued', progress: 0 }, { where: { id: uploadId, status: { [Op.ne]: 'ready' } } }).catch(() => undefined);
     throw err;
   }
+}
+
+/**
+ * The new cast's life fields: partly read (its dropped lines, awaiting a decision), and, when it
+ * replaces a live cast, a fixed id the earlier version points to, the carried flags and their note.
+ */
+async function newVersionOf(gate: Gate | null, c: ParsedCast, out: ProcessedCast, upload: Upload, threshold: number, transaction: Transaction) {
+  const partlyRead = c.dropped && c.dropped.length ? { dropped: c.dropped, decision: null } : null;
+  const old = gate && !gate.stop ? gate.replace.get(liveKey(c.metadata.station!, c.metadata.cast ?? '1')) : undefined;
+  if (!old) return { fields: { partlyRead }, notes: [] as string[], replaced: null, replacedFile: null, carried: 0, notCarried: [] as unknown[] };
+  const id = randomUUID();
+  const s = await supersede(old, id, out.columns, upload.createdBy, c.file, transaction);
+  // The carried edits belong to the new version's own trail too, so a later replacement carries them again.
+  for (const e of s.edits) await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: 'set_flag', entity: 'cast', entityId: id, after: { ...e, carriedFrom: old.id } }, transaction);
+  const inversions = s.carried > 0 ? inversionsAfterFlags(out.columns, threshold) : out.inversions;
+  return { fields: { id, partlyRead, inversions, inversionCount: inversions.length }, notes: [s.note], replaced: old.id, replacedFile: old.sourceFile, carried: s.carried, notCarried: s.notCarried };
 }

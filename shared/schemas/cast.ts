@@ -120,6 +120,8 @@ export const ParsedCastSchema = z
     flags: z.record(z.string(), u8),
     profile: CastProfileSchema,
     notes: z.array(z.string()),
+    /** Lines left out because they could not be read (salvage): the cast is "partly read". */
+    dropped: z.array(FileErrorSchema).optional(),
   })
   .superRefine((c, ctx) => {
     const n = c.profile.levels;
