@@ -2,6 +2,7 @@ import { Sequelize } from 'sequelize';
 import { initModels } from './models/index';
 import * as m001 from './migrations/001-initial';
 import * as m002 from './migrations/002-analysis-and-deliveries';
+import * as m004 from './migrations/004-lines';
 import * as m005 from './migrations/005-hardening';
 import type { QueryInterface } from 'sequelize';
 
@@ -21,6 +22,7 @@ export function connectDb(databaseUrl: string, opts: { poolMax?: number } = {}):
 
 type Migration = { name: string; up: (qi: QueryInterface) => Promise<void> };
 export const MIGRATIONS: Migration[] = [{ name: '001-initial', up: m001.up }, { name: '002-analysis-and-deliveries', up: m002.up },
+  { name: '004-lines', up: m004.up },
   { name: '005-hardening', up: m005.up },
 ];
 
