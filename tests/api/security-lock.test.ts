@@ -4,7 +4,7 @@
 // declare it fails the first test.
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeTestApp, createUser, addMember, agentFor, type TestApp } from './helpers';
-import { Cast, Cruise, Station, Upload } from '../../server/models/index';
+import { Cast, Cruise, Line, Station, Upload } from '../../server/models/index';
 import { ROLES, type Role } from '../../server/models/index';
 import type { RouteSpec } from '../../server/lib/routeTable';
 
@@ -28,12 +28,13 @@ beforeAll(async () => {
   const cast = await Cast.create({ cruiseId: c.id, uploadId: up.id, station: 'L1', cast: '1', latitude: 0, longitude: 0, time: null, bottomDepth: null, levels: 0,
     inversionCount: 0, inversions: [], sourceFile: 'x.csv', sourceSha256: 'e'.repeat(64) });
   ids.cast = cast.id;
+  ids.line = (await Line.create({ cruiseId: c.id, name: 'L', polyline: null, corridorKm: null, createdBy: chief.id })).id;
 }, 120_000);
 afterAll(async () => { await t?.close(); });
 
 const stateChangingMemberRoutes = () => (t.app.routes as RouteSpec[]).filter((r) => r.method !== 'get' && r.rule.kind === 'member');
 const urlFor = (r: RouteSpec) => {
-  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ZERO : ids.cruise;
+  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/lines/') ? ids.line : r.path.startsWith('/deliveries/') ? ZERO : ids.cruise;
   return '/api' + r.path.replace(':id', entity).replace(/:(\w+Id)\b/g, ZERO);
 };
 /** A plausible body: the lock must answer before the body is even looked at, so any body will do —
