@@ -28,13 +28,14 @@ beforeAll(async () => {
   const cast = await Cast.create({ cruiseId: c.id, uploadId: up.id, station: 'L1', cast: '1', latitude: 0, longitude: 0, time: null, bottomDepth: null, levels: 0,
     inversionCount: 0, inversions: [], sourceFile: 'x.csv', sourceSha256: 'e'.repeat(64) });
   ids.cast = cast.id;
-  ids.line = (await Line.create({ cruiseId: c.id, name: 'L', polyline: null, corridorKm: null, createdBy: chief.id })).id;
+  const line = await Line.create({ cruiseId: c.id, name: 'Lock line', stations: ['L1'], polyline: null, corridorKm: null, createdBy: chief.id });
+  ids.line = line.id;
 }, 120_000);
 afterAll(async () => { await t?.close(); });
 
 const stateChangingMemberRoutes = () => (t.app.routes as RouteSpec[]).filter((r) => r.method !== 'get' && r.rule.kind === 'member');
 const urlFor = (r: RouteSpec) => {
-  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/lines/') ? ids.line : r.path.startsWith('/deliveries/') ? ZERO : ids.cruise;
+  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ZERO : r.path.startsWith('/lines/') ? ids.line : ids.cruise;
   return '/api' + r.path.replace(':id', entity).replace(/:(\w+Id)\b/g, ZERO);
 };
 /** A plausible body: the lock must answer before the body is even looked at, so any body will do —
