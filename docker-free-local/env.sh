@@ -22,3 +22,5 @@ export MAIL_CAPTURE_URL="${MAIL_CAPTURE_URL:-http://127.0.0.1:$MAIL_HTTP_PORT}"
 export SESSION_SECRET="${SESSION_SECRET:-local-development-secret-change-me-in-production}"
 export PUBLIC_URL="${PUBLIC_URL:-http://127.0.0.1:$PORT}"
 export GSW_PYTHON="${GSW_PYTHON:-/usr/bin/python3}"
+# the AWS SDK's notice about newer Node versions (Node 20 and the SDK are pinned; see DEVELOPERS.md)
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED="${AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED:-true}"

@@ -62,7 +62,7 @@ export function inputProblem(req: Request): HttpError | null {
   if (id) return id;
   const q = (req.query ?? {}) as Record<string, unknown>;
   for (const name of Object.keys(q)) {
-    if (isPrototypeKey(name) || name.includes('\u0000')) return badRequest(`"${name.replace(/\u0000/g, '\\0')}" is not a query parameter.`, [{ field: name, message: 'reserved name' }], 'bad_query');
+    if (isPrototypeKey(name) || name.includes('\u0000')) return badRequest(`"${name.split('\u0000').join('\\0')}" is not a query parameter.`, [{ field: name, message: 'reserved name' }], 'bad_query');
     for (const value of queryValues(q[name])) {
       if (value.includes('\u0000')) return badRequest('The query may not hold a NUL character.', [{ field: name, message: 'NUL character' }], 'bad_text');
       if (value.split(',').some(isPrototypeKey)) return badRequest(`"${value.slice(0, 40)}" is not a valid value of ${name}.`, [{ field: name, message: 'reserved name' }], 'bad_query');

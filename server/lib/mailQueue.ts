@@ -17,7 +17,7 @@ export function queueMail(mailer: Mailer, task: Task): void {
 
 async function drain() {
   for (let next = tasks.shift(); next; next = tasks.shift()) {
-    let mail: OutgoingMail | null = null;
+    let mail: OutgoingMail | null;
     try {
       mail = await next.task();
     } catch (err) {

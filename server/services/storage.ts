@@ -3,6 +3,11 @@ import { S3Client, PutObjectCommand, GetObjectCommand, HeadBucketCommand, HeadOb
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import type { Readable } from 'node:stream';
 
+// The SDK prints a notice on every start that its releases after January 2027 need Node 22. The
+// project runs Node 20 with the SDK version pinned in the lock file (DEVELOPERS.md), so the notice
+// tells the user nothing they can act on; it is turned off unless asked for.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
+
 export type Storage = {
   bucket: string;
   put(key: string, body: Buffer | Readable, contentType?: string, contentLength?: number): Promise<void>;
