@@ -3,7 +3,7 @@
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { Delivery, Upload, User, type DeliveryFile } from '../models/index';
-import { isopycnalTable, pressureTable } from './cruiseData';
+import { isopycnalTable, pressureTable } from './deliveryTables';
 import { writeCsv, writeXlsx, tableToNetcdf, buildDataPackage, formatProvenanceText, DATA_CAUTION, type DeliveryTable } from './deliveries/index';
 import type { AppDeps } from '../lib/deps';
 

@@ -70,7 +70,8 @@ describe('deliveries', () => {
         const row = rows.find((r) => r.station === st.station && Math.abs(Number(r.sigma_level) - sec.grid.y[iy]) < 1e-9)!;
         const v = sec.grid.z[iy][ix];
         if (row.CT === '') { expect(v).toBeNull(); continue; }
-        expect(Math.abs(Number(row.CT) - v)).toBeLessThan(1e-12);
+        // written to 1e-6 °C (the stated precision): equal to the engine within half a step
+        expect(Math.abs(Number(row.CT) - v)).toBeLessThanOrEqual(5e-7 + 1e-12);
         compared++;
       }
     }
@@ -82,6 +83,62 @@ describe('deliveries', () => {
     // NetCDF read back with netcdfjs
     const nc = new NetCDFReader(await download(who.pi, d.id, 'nc'));
     expect(String(nc.getAttribute('Conventions'))).toBe('CF-1.10');
+  });
+  it('every table carries the api.md columns first, then cruise, line, time, bottom depth, flags and every variable', async () => {
+    const casts = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body as { id: string; station: string; time: string | null; bottomDepth: number | null }[];
+    const details = await Promise.all(casts.map(async (c) => (await who.analyst.agent.get(`/api/casts/${c.id}`)).body));
+    const measured = new Set<string>();
+    for (const d of details) for (const k of Object.keys(d.columns ?? {})) measured.add(k);
+    for (const d of details) for (const k of Object.keys(d.extras ?? {})) measured.add(`x:${k}`);
+    const api = ['station', 'cast', 'latitude', 'longitude', 'sigma_ref', 'sigma_level', 'pressure', 'depth', 'CT', 'SA', 'thickness', 'crossings', 'flags'];
+    const d = await build(who.analyst, { kind: 'isopycnal', ref: 0, levels: '26.0:0.1:27.5', formats: ['csv'], extras: undefined });
+    expect(d.status, d.error).toBe('ready');
+    for (const [label, csv] of [
+      ['delivery', (await download(who.analyst, d.id, 'csv')).toString('utf8')],
+      ['export', (await who.analyst.agent.get(`/api/cruises/${cruiseId}/exports/isopycnal.csv`).query({ ref: 0, levels: '26.0:0.1:27.5' })).text],
+    ] as const) {
+      const rows = parse(csv, { comment: '#', columns: true, skip_empty_lines: true }) as Record<string, string>[];
+      const cols = Object.keys(rows[0]);
+      expect(cols.slice(0, 19), label).toEqual([...api, 'cruise', 'line', 'time', 'bottom_depth', 'CT_flag', 'SA_flag']);
+      // every other variable the casts carry, each followed by its flag column
+      const rest = cols.slice(19);
+      for (let i = 0; i < rest.length; i += 2) expect(rest[i + 1]).toBe(`${rest[i]}_flag`);
+      if (measured.has('temperature')) expect(rest).toContain('t');
+      if (measured.has('oxygen')) expect(rest).toContain('oxygen');
+      for (const k of measured) if (k.startsWith('x:')) expect(rest.some((c) => c.endsWith(k.slice(2).replace(/[^A-Za-z0-9_]/g, '_')))).toBe(true);
+      expect(new Set(rows.map((r) => r.line))).toEqual(new Set(['default']));
+      const withTime = casts.find((c) => c.time)!;
+      const row = rows.find((r) => r.station === withTime.station)!;
+      expect(row.time).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ$/);
+      expect(Date.parse(row.time)).toBe(Date.parse(withTime.time!));
+      if (withTime.bottomDepth != null) expect(Number(row.bottom_depth)).toBeCloseTo(withTime.bottomDepth, 3);
+      // flags: WOCE 1–9 on every row; 9 exactly where the value is empty
+      for (const r of rows) for (const c of cols.filter((x) => x.endsWith('_flag'))) {
+        const v = r[c.slice(0, -5)];
+        expect(r[c], `${c}`).toMatch(/^[1-9]$/);
+        if (v === '') expect(r[c]).toBe('9');
+      }
+      // stated precision: no more decimals than the rule (pressure/depth 3, CT/SA/σ 6)
+      const dec = (s: string) => (/\.(\d+)/.exec(s)?.[1].length ?? 0);
+      for (const r of rows) {
+        for (const c of ['pressure', 'depth', 'thickness', 'bottom_depth']) expect(dec(r[c])).toBeLessThanOrEqual(3);
+        for (const c of ['CT', 'SA', 'sigma_level', 't', 'SP']) if (r[c] !== undefined) expect(dec(r[c])).toBeLessThanOrEqual(6);
+      }
+      expect(csv).toMatch(/^# precision: .*pressure, depth.*0\.001/m);
+      expect(csv).toMatch(/^# flag_rule: /m);
+      expect(csv).toMatch(/^# flag_history: /m);
+    }
+    // the pressure table likewise, with its bin count
+    const pd = await build(who.analyst, { kind: 'pressure', bin: 10, formats: ['csv'] });
+    const pcsv = (await download(who.analyst, pd.id, 'csv')).toString('utf8');
+    const ecsv = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/exports/pressure.csv`).query({ bin: 10 })).text;
+    const prow = (parse(pcsv, { comment: '#', columns: true, skip_empty_lines: true }) as Record<string, string>[]);
+    const erow = (parse(ecsv, { comment: '#', columns: true, skip_empty_lines: true }) as Record<string, string>[]);
+    expect(Object.keys(prow[0]).slice(0, 20)).toEqual(['station', 'cast', 'latitude', 'longitude', 'pressure', 'count', 'CT', 'SA', 'sigma0', 'depth', 't', 'SP',
+      'cruise', 'line', 'time', 'bottom_depth', 'CT_flag', 'SA_flag', 't_flag', 'SP_flag']);
+    expect(Object.keys(erow[0])).toEqual(Object.keys(prow[0]));
+    expect(prow.every((r) => Number(r.count) >= 1)).toBe(true);
+    for (const id of [d.id, pd.id]) await who.analyst.agent.delete(`/api/deliveries/${id}`).set('x-csrf-token', who.analyst.csrf);
   });
   it('one levels policy: the section, the export, geostrophy and a delivery use the same default levels', async () => {
     const layerSetOf = (csv: string) => /^# layer_set: (.*)$/m.exec(csv)?.[1]?.trim();
