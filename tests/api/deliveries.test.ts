@@ -8,6 +8,23 @@ import { NetCDFReader } from 'netcdfjs';
 import { makeTestApp, createUser, addMember, agentFor, waitFor, caughtMail, type TestApp } from './helpers';
 import { startWorkers } from '../../server/jobs/worker';
 import { Cruise } from '../../server/models/index';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { CF_NAMES_FROM_MEMORY } from '../unit/deliveries/cf-names';
+
+type PyCf = {
+  globals: Record<string, unknown>; time?: (string | null)[]; profile_id?: string[];
+  variables: Record<string, { dimensions: string[]; dtype: string; attributes: Record<string, unknown> }>;
+  checks: Record<string, { cells: number; masked: number; flag9: number; flag_fill: number; value_where_flag9: number; masked_where_flag_not9: number }>;
+};
+/** Read a NetCDF with Debian's python3-netcdf4 (tests/support/cf_readback.py). */
+function readCf(bytes: Buffer): PyCf {
+  const f = join(mkdtempSync(join(tmpdir(), 'sl-cf-')), 'd.nc');
+  writeFileSync(f, bytes);
+  const py = process.env.GSW_PYTHON ?? '/usr/bin/python3';
+  return JSON.parse(execFileSync(py, [join(process.cwd(), 'tests/support/cf_readback.py'), f], { encoding: 'utf8' })) as PyCf;
+}
 
 let t: TestApp;
 let cruiseId: string;
@@ -139,6 +156,65 @@ describe('deliveries', () => {
     expect(Object.keys(erow[0])).toEqual(Object.keys(prow[0]));
     expect(prow.every((r) => Number(r.count) >= 1)).toBe(true);
     for (const id of [d.id, pd.id]) await who.analyst.agent.delete(`/api/deliveries/${id}`).set('x-csrf-token', who.analyst.csrf);
+  });
+  it('NetCDF-CF read back with python3-netcdf4: time decoded, flags as ancillary variables, standard names, fill values masked', async () => {
+    const casts = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body as { station: string; cast: string; time: string | null; bottomDepth: number | null }[];
+    for (const kind of ['isopycnal', 'pressure'] as const) {
+      const d = await build(who.analyst, { kind, ref: 1000, levels: '30.0:0.25:32.0', bin: 20, formats: ['nc'] });
+      expect(d.status, d.error).toBe('ready');
+      const bytes = await download(who.analyst, d.id, 'nc');
+      const py = readCf(bytes); // Debian python3-netcdf4
+      expect(py.globals.featureType).toBe('profile');
+      expect(py.globals.Conventions).toBe('CF-1.10');
+      for (const g of ['cruise', 'line', 'expocode', 'software_version', 'processing_choices', 'precision', 'flag_rule', 'flag_history']) {
+        expect(typeof py.globals[g], g).toBe('string');
+      }
+      expect(py.globals.line).toBe('default');
+      expect(py.globals.reference_pressure).toBeUndefined();
+      // time: a CF time variable on the profile dimension, decoded to the casts' times
+      expect(py.variables.time.dimensions).toEqual(['profile']);
+      expect(new NetCDFReader(bytes).variables.map((v) => v.name)).toContain('CT_flag'); // netcdfjs reads it too
+      const ids = py.profile_id!;
+      ids.forEach((id, i) => {
+        const c = casts.find((x) => `${x.station}_${x.cast}` === String(id).replace(/\0+$/, '').trim());
+        expect(c, `profile ${JSON.stringify(id)} among ${casts.map((x) => `${x.station}_${x.cast}`).join(' ')}`).toBeDefined();
+        if (!c) return;
+        expect(py.time![i]).toBe(c.time ? new Date(c.time).toISOString().replace('.000Z', 'Z') : null);
+      });
+      expect(py.variables.bottom_depth.attributes.standard_name).toBe('sea_floor_depth_below_sea_surface');
+      // each measured variable has its flag variable, linked by ancillary_variables
+      for (const v of ['CT', 'SA', 't', 'SP']) {
+        const anc = py.variables[v].attributes.ancillary_variables;
+        expect(anc, v).toBe(`${v}_flag`);
+        const fa = py.variables[`${v}_flag`].attributes;
+        expect(fa.flag_values).toEqual([1, 2, 3, 4, 5, 6, 7, 9]);
+        expect(String(fa.flag_meanings).split(' ')).toHaveLength(8);
+        expect(py.variables[`${v}_flag`].dtype).toBe('int8');
+        // masked exactly where the flag says no value
+        const ck = py.checks[v];
+        expect(ck.value_where_flag9, v).toBe(0);
+        expect(ck.masked_where_flag_not9, v).toBe(0);
+        expect(ck.masked).toBeGreaterThanOrEqual(ck.flag9);
+        if (kind === 'isopycnal') expect(ck.flag9, `${v}: levels below the bottom are empty and flagged 9`).toBeGreaterThan(0);
+        expect(typeof py.variables[v].attributes._FillValue).toBe('number');
+      }
+      // every standard_name written is in the CF standard name table (from memory), with units that fit it
+      for (const [name, v] of Object.entries(py.variables)) {
+        const sn = v.attributes.standard_name as string | undefined;
+        if (!sn) continue;
+        const base = sn.replace(/ status_flag$/, '');
+        const known = CF_NAMES_FROM_MEMORY[base];
+        expect(known, `${name}: ${sn}`).toBeDefined();
+        if (!sn.endsWith(' status_flag') && v.attributes.units !== undefined) expect(known.units, `${name} units`).toContain(v.attributes.units);
+      }
+      // σ: the reference pressure as CF asks (scalar coordinate reference_pressure) and said on the σ variable
+      if (kind === 'isopycnal') {
+        expect(py.variables.sigma_ref.attributes.standard_name).toBe('reference_pressure');
+        expect(String(py.variables.sigma_level.attributes.comment)).toMatch(/referenced to 1000 dbar/);
+        expect(String(py.variables.CT.attributes.coordinates)).toContain('sigma_ref');
+      }
+      await who.analyst.agent.delete(`/api/deliveries/${d.id}`).set('x-csrf-token', who.analyst.csrf);
+    }
   });
   it('one levels policy: the section, the export, geostrophy and a delivery use the same default levels', async () => {
     const layerSetOf = (csv: string) => /^# layer_set: (.*)$/m.exec(csv)?.[1]?.trim();
