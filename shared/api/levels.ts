@@ -13,10 +13,9 @@
  * Nothing here imports from server/ or src/.
  */
 import { z } from 'zod';
+import { REFERENCE_PRESSURES, referencePressureSchema, type ReferencePressure } from './enums';
 
-/** Reference pressures of σ0 … σ4, dbar. */
-export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
-export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
+export { REFERENCE_PRESSURES, referencePressureSchema, type ReferencePressure };
 
 /** Most levels one set may hold (keeps a section request bounded). */
 export const MAX_LEVELS = 2000;
@@ -139,13 +138,6 @@ export const levelSpecSchema = z
       if (i > 0 && !(levels[i] > levels[i - 1])) ctx.addIssue({ code: 'custom', message: 'levels must be strictly increasing' });
     }
   });
-
-export const referencePressureSchema = z.coerce
-  .number()
-  .refine(
-    (v): v is ReferencePressure => (REFERENCE_PRESSURES as readonly number[]).includes(v),
-    'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar',
-  );
 
 /** Schema of a layer set as it arrives from a form or the database. */
 export const layerSetSchema = z

@@ -5,7 +5,7 @@ import type { CastDetail, CastInversion, FlagEdit, FlagVariable } from './types'
 /** Reference pressures offered for σ, dbar (TEOS-10's σ0 … σ4). */
 export { REFERENCE_PRESSURES, type ReferencePressure } from '../../../shared/api/levels';
 
-/** Smallest σ deficit counted as an inversion, kg/m³ (science.md §3.1; the intake uses the same). */
+/** Smallest σ deficit counted as an inversion, kg/m³ (docs/science.md §3.1; the intake uses the same). */
 export const INVERSION_THRESHOLD = 0.01;
 
 const toNaN = (v: number | null | undefined) => (v == null ? NaN : v);
