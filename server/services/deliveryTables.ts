@@ -12,6 +12,7 @@ import { castsOfLine, type DeliveryLine } from './deliveryLine';
 import { remapToIsopycnals, binToPressure, flagNames, type InversionHandling, type SigmaInterpolation } from '../../shared/remap/index';
 import { sigma_batch } from '../../shared/seawater/index';
 import { DEFAULT_LEVELS_RULE } from '../../shared/api/levels';
+import { variableInfo as catalogue } from '../../shared/api/variables';
 import {
   ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryColumn, type DeliveryRow, type DeliveryTable, type Provenance,
 } from './deliveries/index';
@@ -42,12 +43,10 @@ const CONTEXT_COLUMNS: DeliveryColumn[] = [
 const flagColumn = (of: string): DeliveryColumn => ({ name: `${of}_flag`, unit: null, type: 'number', long_name: `WOCE quality flag of ${of}` });
 
 /** Decimals of the contract columns (the rest come from the variable catalogue). */
-const DECIMALS: Record<string, number | null> = {
-  latitude: 6, longitude: 6, sigma_ref: 0, sigma_level: 6, pressure: 3, depth: 3, CT: 6, SA: 6, thickness: 3, crossings: 0,
-  count: 0, sigma0: 6, t: 6, SP: 6, bottom_depth: 3,
-};
+const DECIMALS: Record<string, number> = { latitude: 6, longitude: 6, sigma_ref: 0, sigma_level: 6, thickness: 3, crossings: 0, count: 0, bottom_depth: 3 };
+const decimalsOf = (name: string): number => DECIMALS[name] ?? catalogue(name === 't' ? 'temperature' : name)?.decimals ?? 6;
 const r = (name: string, v: number | null | undefined): number | null =>
-  v === null || v === undefined || !Number.isFinite(v) ? null : roundTo(v, DECIMALS[name] ?? 6);
+  v === null || v === undefined || !Number.isFinite(v) ? null : roundTo(v, decimalsOf(name));
 
 /** The cruise identifier a data office knows: the expocode the casts' files carry, else the cruise name. */
 async function cruiseLabel(cruiseId: string, name: string): Promise<{ label: string; expocode: string | null }> {

@@ -12,6 +12,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { CF_NAMES_FROM_MEMORY } from '../unit/deliveries/cf-names';
+import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../shared/api/flags';
 
 type PyCf = {
   globals: Record<string, unknown>; time?: (string | null)[]; profile_id?: string[];
@@ -141,7 +142,7 @@ describe('deliveries', () => {
         for (const c of ['pressure', 'depth', 'thickness', 'bottom_depth']) expect(dec(r[c])).toBeLessThanOrEqual(3);
         for (const c of ['CT', 'SA', 'sigma_level', 't', 'SP']) if (r[c] !== undefined) expect(dec(r[c])).toBeLessThanOrEqual(6);
       }
-      expect(csv).toMatch(/^# precision: .*pressure, depth.*0\.001/m);
+      expect(csv).toMatch(/^# precision: .*pressure 3 decimals, depth 3 decimals, CT 6 decimals, SA 6 decimals/m);
       expect(csv).toMatch(/^# flag_rule: /m);
       expect(csv).toMatch(/^# flag_history: /m);
     }
@@ -187,8 +188,8 @@ describe('deliveries', () => {
         const anc = py.variables[v].attributes.ancillary_variables;
         expect(anc, v).toBe(`${v}_flag`);
         const fa = py.variables[`${v}_flag`].attributes;
-        expect(fa.flag_values).toEqual([1, 2, 3, 4, 5, 6, 7, 9]);
-        expect(String(fa.flag_meanings).split(' ')).toHaveLength(8);
+        expect(fa.flag_values).toEqual([...WOCE_FLAGS]);
+        expect(String(fa.flag_meanings).split(' ')).toEqual(WOCE_FLAGS.map((f) => FLAG_MEANING_WORDS[f]));
         expect(py.variables[`${v}_flag`].dtype).toBe('int8');
         // masked exactly where the flag says no value
         const ck = py.checks[v];

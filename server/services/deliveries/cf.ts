@@ -20,6 +20,8 @@
 import { NC_FILL, maxStringBytes, writeNetcdf, type NcAttributes, type NcDataset, type NcDimension, type NcVariable } from './netcdf';
 import { ISOPYCNAL_FLAGS, columnIndex, parseFlags, type DeliveryColumn, type DeliveryTable } from './table';
 import { DATA_CAUTION, provenanceAttributes } from './provenance';
+import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../../shared/api/flags';
+import { VARIABLES } from '../../../shared/api/variables';
 
 export const CF_CONVENTIONS = 'CF-1.10';
 
@@ -28,6 +30,7 @@ export const CF_CONVENTIONS = 'CF-1.10';
  * memory (tests/unit/deliveries/cf-names.test.ts lists them with their canonical units).
  */
 export const CF_STANDARD_NAMES: Readonly<Record<string, string>> = Object.freeze({
+  ...Object.fromEntries(VARIABLES.filter((v) => v.standardName).map((v) => [v.name, v.standardName as string])),
   latitude: 'latitude',
   longitude: 'longitude',
   time: 'time',
@@ -79,9 +82,9 @@ export interface CfOptions {
 }
 
 const PROFILE_COLUMNS = new Set(['station', 'cast', 'latitude', 'longitude', 'time', 'cruise', 'line', 'bottom_depth']);
-/** WOCE CTD flag values and meanings (flag_values / flag_meanings of every *_flag variable). */
-export const WOCE_FLAG_VALUES = [1, 2, 3, 4, 5, 6, 7, 9];
-export const WOCE_FLAG_MEANINGS = 'not_calibrated acceptable questionable bad not_reported interpolated_over_gap despiked not_sampled';
+/** WOCE CTD flag values and meanings (flag_values / flag_meanings of every *_flag variable), shared/api/flags.ts. */
+export const WOCE_FLAG_VALUES: readonly number[] = WOCE_FLAGS;
+export const WOCE_FLAG_MEANINGS = WOCE_FLAGS.map((f) => FLAG_MEANING_WORDS[f]).join(' ');
 const FLAG_FILL = -127;
 const INTEGER_COLUMNS = new Set(['crossings', 'count']);
 const SIGMA_REF_COLUMN = /^sigma([0-4])$/;
@@ -337,7 +340,7 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
           ...(sn ? { standard_name: `${sn} status_flag` } : {}),
           _FillValue: { type: 'byte', value: [FLAG_FILL] },
           valid_range: { type: 'byte', value: [1, 9] },
-          flag_values: { type: 'byte', value: WOCE_FLAG_VALUES },
+          flag_values: { type: 'byte', value: [...WOCE_FLAG_VALUES] },
           flag_meanings: WOCE_FLAG_MEANINGS,
           coordinates: [...auxProfile, ...auxLevel].join(' '),
         },

@@ -1,23 +1,11 @@
-// What a delivery writes for each variable of a cast: the column name, unit, CF unit and standard
-// name, the precision it is written with, which quality flags it depends on, and how the exchange
-// format names it. One table so the CSV, the spreadsheet, the NetCDF and the exchange files agree.
+// What a delivery writes for each variable of a cast: the column name, which quality flags it depends
+// on, and how the exchange format names it; unit, standard name and decimals come from the variable
+// catalogue (shared/api/variables.ts), the flag scale from shared/api/flags.ts.
 //
-// Precision rule (stated in every file's provenance, PRECISION_RULE): a fixed number of decimals
-// per variable, far finer than what a CTD resolves (pressure and depth 0.001 dbar/m; CT, SA, t, SP,
-// σ 1e-6), so a read-back reproduces the engine's numbers to that step; variables the catalogue
-// does not know are written to 7 significant digits.
-
-/** WOCE CTD quality flags (the trade's 1–9 scale; meanings from memory of the WOCE manual). */
-export const WOCE_FLAGS = [
-  { value: 1, meaning: 'not_calibrated' },
-  { value: 2, meaning: 'acceptable' },
-  { value: 3, meaning: 'questionable' },
-  { value: 4, meaning: 'bad' },
-  { value: 5, meaning: 'not_reported' },
-  { value: 6, meaning: 'interpolated_over_gap' },
-  { value: 7, meaning: 'despiked' },
-  { value: 9, meaning: 'not_sampled' },
-] as const;
+// Precision rule (stated in every file's provenance, PRECISION_RULE): the catalogue's decimals per
+// variable, far finer than what a CTD resolves, so a read-back reproduces the engine's numbers to
+// that step; variables the catalogue does not know are written to 7 significant digits.
+import { VARIABLES, variableInfo as catalogue } from '../../../shared/api/variables';
 
 /** Order of severity used to combine flags (a value takes the worst of the flags it comes from). */
 const SEVERITY: Record<number, number> = { 2: 0, 1: 1, 6: 2, 7: 3, 3: 4, 4: 5, 5: 6, 8: 6, 9: 7 };
@@ -44,12 +32,16 @@ export interface VariableInfo {
   exchange?: { name: string; unit: string; decimals: number };
 }
 
+const decimalsOf = (name: string): number | null => catalogue(name)?.decimals ?? null;
+
 export const PRECISION_RULE =
-  'values rounded to fixed decimals per variable: latitude, longitude 1e-6 degree; pressure, depth, thickness, bottom_depth ' +
-  '0.001 (dbar, m); CT, SA, t, SP, sigma, pt0, spiciness0, conductivity 1e-6; oxygen 0.001; other variables 7 significant digits';
+  'values rounded to fixed decimals per variable: latitude, longitude 1e-6 degree; ' +
+  ['pressure', 'depth', 'CT', 'SA', 'sigma0', 'temperature', 'SP', 'conductivity', 'oxygen', 'pt0', 'spiciness0']
+    .map((n) => `${n} ${decimalsOf(n)} decimals`).join(', ') +
+  '; thickness and bottom_depth 3 decimals; other variables 7 significant digits';
 
 export const FLAG_RULE =
-  'WOCE flags per value (1 not calibrated/assessed, 2 acceptable, 3 questionable, 4 bad, 9 no value); a value computed ' +
+  'WOCE flags per value (1 not calibrated, 2 good, 3 questionable, 4 bad, 9 missing or no value); a value computed ' +
   'from several measured variables (CT from temperature and salinity) takes the worst of their flags; a value on an ' +
   'isopycnal the worst of the two measured levels it was interpolated between; a bin mean the worst of its samples; ' +
   'an empty cell is 9';
@@ -57,28 +49,25 @@ export const FLAG_RULE =
 const TS = ['temperature', 'salinity', 'conductivity'];
 const S = ['salinity', 'conductivity'];
 
-/** Known variables of a cast, in the order the tables write them after the contract columns. */
+/** A variable of the catalogue as a table column. */
+function fromCatalogue(key: string, column: string, flagsFrom: string[], exchange?: VariableInfo['exchange']): VariableInfo {
+  const c = catalogue(key)!;
+  return { key, column, unit: c.storedUnit === null ? null : c.cfUnit === '1' ? null : c.storedUnit.replace(/ \(.*\)$/, ''),
+    longName: c.label, ...(c.standardName ? { standardName: c.standardName } : {}), decimals: c.decimals, flagsFrom, ...(exchange ? { exchange } : {}) };
+}
+
+/** Known measured variables of a cast, in the order the tables write them after the contract columns. */
 export const KNOWN_VARIABLES: readonly VariableInfo[] = [
-  { key: 'temperature', column: 't', unit: 'degC', longName: 'In-situ temperature (ITS-90)', standardName: 'sea_water_temperature', decimals: 6,
-    flagsFrom: ['temperature'], exchange: { name: 'CTDTMP', unit: 'ITS-90', decimals: 4 } },
-  { key: 'SP', column: 'SP', unit: null, longName: 'Practical Salinity (PSS-78)', standardName: 'sea_water_practical_salinity', decimals: 6,
-    flagsFrom: S, exchange: { name: 'CTDSAL', unit: 'PSS-78', decimals: 4 } },
-  { key: 'conductivity', column: 'conductivity', unit: 'mS/cm', longName: 'Electrical conductivity',
-    standardName: 'sea_water_electrical_conductivity', decimals: 6, flagsFrom: ['conductivity'] },
-  { key: 'oxygen', column: 'oxygen', unit: 'umol/kg', longName: 'Dissolved oxygen',
-    standardName: 'moles_of_oxygen_per_unit_mass_in_sea_water', decimals: 3, flagsFrom: ['oxygen'],
-    exchange: { name: 'CTDOXY', unit: 'UMOL/KG', decimals: 1 } },
+  fromCatalogue('temperature', 't', ['temperature'], { name: 'CTDTMP', unit: 'ITS-90', decimals: 4 }),
+  fromCatalogue('SP', 'SP', S, { name: 'CTDSAL', unit: 'PSS-78', decimals: 4 }),
+  fromCatalogue('conductivity', 'conductivity', ['conductivity']),
+  fromCatalogue('oxygen', 'oxygen', ['oxygen'], { name: 'CTDOXY', unit: 'UMOL/KG', decimals: 1 }),
 ];
 
-/** Derived variables a request may add by name (stored with every cast). */
-export const DERIVED_VARIABLES: readonly VariableInfo[] = [
-  { key: 'pt0', column: 'pt0', unit: 'degC', longName: 'Potential temperature referenced to 0 dbar',
-    standardName: 'sea_water_potential_temperature', decimals: 6, flagsFrom: TS },
-  { key: 'spiciness0', column: 'spiciness0', unit: 'kg/m3', longName: 'Spiciness referenced to 0 dbar', decimals: 6, flagsFrom: TS },
-  ...[0, 1, 2, 3, 4].map((k): VariableInfo => ({ key: `sigma${k}`, column: `sigma${k}`, unit: 'kg/m3',
-    longName: `Potential density anomaly referenced to ${k * 1000} dbar`, standardName: 'sea_water_sigma_theta', decimals: 6, flagsFrom: TS })),
-  { key: 'rho', column: 'rho', unit: 'kg/m3', longName: 'In-situ density', standardName: 'sea_water_density', decimals: 6, flagsFrom: TS },
-];
+/** Derived variables a request may add by name (stored with every cast): the catalogue's sectionable derived ones. */
+export const DERIVED_VARIABLES: readonly VariableInfo[] = VARIABLES
+  .filter((v) => v.kind === 'derived' && v.sectionable && !['SA', 'CT'].includes(v.name))
+  .map((v) => fromCatalogue(v.name, v.name, TS));
 
 /** Flag keys behind CT and SA. */
 export const CT_FLAGS_FROM = TS;

@@ -19,4 +19,6 @@ export const CF_NAMES_FROM_MEMORY: Record<string, { units: string[] }> = {
   sea_water_electrical_conductivity: { units: ['S m-1', 'mS cm-1'] },
   moles_of_oxygen_per_unit_mass_in_sea_water: { units: ['mol kg-1', 'umol kg-1'] },
   cell_thickness: { units: ['m'] },
+  sea_water_reference_salinity: { units: ['g kg-1'] },
+  square_of_brunt_vaisala_frequency_in_sea_water: { units: ['s-2'] },
 };
