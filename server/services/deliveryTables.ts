@@ -291,3 +291,8 @@ export async function pressureTable(cruiseId: string, who: string, q: PressureRe
 }
 
 export { columnName };
+
+/** The line's casts with every column and flag, for the exchange files. */
+export async function lineCastsForDelivery(cruiseId: string, line: string | null): Promise<CruiseCast[]> {
+  return (await lineCasts(cruiseId, line)).casts;
+}

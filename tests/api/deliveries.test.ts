@@ -7,12 +7,13 @@ import ExcelJS from 'exceljs';
 import { NetCDFReader } from 'netcdfjs';
 import { makeTestApp, createUser, addMember, agentFor, waitFor, caughtMail, type TestApp } from './helpers';
 import { startWorkers } from '../../server/jobs/worker';
-import { Cruise } from '../../server/models/index';
+import { Cruise, User } from '../../server/models/index';
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { CF_NAMES_FROM_MEMORY } from '../unit/deliveries/cf-names';
 import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../shared/api/flags';
+import { unzip } from '../support/zip';
 
 type PyCf = {
   globals: Record<string, unknown>; time?: (string | null)[]; profile_id?: string[];
@@ -217,6 +218,75 @@ describe('deliveries', () => {
       await who.analyst.agent.delete(`/api/deliveries/${d.id}`).set('x-csrf-token', who.analyst.csrf);
     }
   });
+  it('exchange format: one CTD exchange file per cast, zipped per line, read back by our intake to the same numbers', async () => {
+    const d = await build(who.analyst, { kind: 'isopycnal', ref: 0, levels: '25.0:0.25:27.5', formats: ['exchange', 'csv'] });
+    expect(d.status, d.error).toBe('ready');
+    const names = d.files.map((f: { filename: string }) => f.filename);
+    // <cruise>_<line>_<kind>_<ref>.<ext>, safe characters; the cruise is the files' expocode
+    expect(names).toContain('99TS20260301_default_isopycnal_sigma0.csv');
+    expect(names).toContain('99TS20260301_default_exchange_ct1.zip');
+    for (const n of names) expect(n).toMatch(/^[A-Za-z0-9-]+_[A-Za-z0-9-]+_[a-z]+_[A-Za-z0-9]+\.(csv|xlsx|nc|zip)$/);
+    const zip = await download(who.analyst, d.id, 'exchange');
+    const entries = await unzip(zip);
+    const casts = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body as { id: string; station: string; cast: string }[];
+    expect(entries.size).toBe(casts.length);
+    for (const [name, body] of entries) {
+      expect(name).toMatch(/^99TS20260301_[A-Za-z0-9-]+_[A-Za-z0-9-]+_ct1\.csv$/);
+      const lines = body.toString('utf8').trimEnd().split('\n');
+      expect(lines[0]).toMatch(/^CTD,\d{8}[A-Z]+$/);
+      const nh = lines.findIndex((l) => /^NUMBER_HEADERS = \d+$/.test(l));
+      const n = Number(lines[nh].split('=')[1]);
+      const header = lines.slice(nh + 1, nh + n);
+      expect(header.map((l) => l.split(' = ')[0]).slice(0, 4)).toEqual(['EXPOCODE', 'SECT_ID', 'STNNBR', 'CASTNO']);
+      expect(lines[nh + n]).toMatch(/^CTDPRS,CTDTMP,CTDTMP_FLAG_W,CTDSAL,CTDSAL_FLAG_W/);
+      expect(lines[nh + n + 1]).toMatch(/^DBAR,ITS-90,,PSS-78,(,|$)/);
+      expect(lines[lines.length - 1]).toBe('END_DATA');
+    }
+    // our own intake reads the zip back into a second cruise
+    const b = await Cruise.create({ name: 'Round trip', ship: 'RV Delivery', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: null });
+    for (const role of ['technician', 'analyst'] as const) {
+      const u = await User.findOne({ where: { email: `d-${role}@example.test` } });
+      await addMember(u!.id, b.id, role);
+    }
+    const up = await who.technician.agent.post(`/api/cruises/${b.id}/uploads`).set('x-csrf-token', who.technician.csrf).attach('files', zip, 'exchange.zip');
+    expect(up.status, JSON.stringify(up.body)).toBe(202);
+    for (const u of up.body.uploads) {
+      const done = await waitFor(async () => { const r = await who.technician.agent.get(`/api/uploads/${u.id}`); return ['ready', 'failed'].includes(r.body.status) ? r.body : null; }, 60_000);
+      expect(done.status, JSON.stringify(done.errors)).toBe('ready');
+    }
+    const back = (await who.analyst.agent.get(`/api/cruises/${b.id}/casts`)).body as { id: string; station: string; cast: string }[];
+    expect(back.map((c) => `${c.station}/${c.cast}`).sort()).toEqual(casts.map((c) => `${c.station}/${c.cast}`).sort());
+    // measured columns equal at the written decimals (pressure 0.1 dbar, t and SP 1e-4); flags equal; CT within what the rounding allows
+    const written: Record<string, number> = { pressure: 1, temperature: 4, SP: 4 };
+    for (const c of casts) {
+      const a = (await who.analyst.agent.get(`/api/casts/${c.id}`)).body;
+      const bId = back.find((x) => x.station === c.station && x.cast === c.cast)!.id;
+      const r = (await who.analyst.agent.get(`/api/casts/${bId}`)).body;
+      for (const [k, dp] of Object.entries(written)) {
+        const va = a.columns[k] as (number | null)[];
+        const vb = r.columns[k] as (number | null)[];
+        expect(vb.length, k).toBe(va.length);
+        va.forEach((v, i) => { if (v === null) expect(vb[i]).toBeNull(); else expect(Math.abs(vb[i]! - Number(v.toFixed(dp))), `${k}[${i}]`).toBeLessThan(1e-9); });
+      }
+      for (const f of Object.keys(a.flags)) if (f !== 'conductivity') expect(r.flags[f], f).toEqual(a.flags[f]);
+      const cta = a.columns.CT as number[];
+      const ctb = r.columns.CT as number[];
+      cta.forEach((v, i) => { if (v !== null) expect(Math.abs(ctb[i] - v)).toBeLessThan(1.5e-4); });
+    }
+    // the section engine on both cruises: CT on the same isopycnals agrees to what 0.1 dbar and 1e-4 allow
+    const q = { property: 'CT', coord: 'density', ref: 0, levels: '25.0:0.25:27.5' };
+    const sa = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query(q)).body;
+    const sb = (await who.analyst.agent.get(`/api/cruises/${b.id}/section`).query(q)).body;
+    let compared = 0;
+    for (let iy = 0; iy < sa.grid.y.length; iy++) for (let ix = 0; ix < sa.grid.x.length; ix++) {
+      const u = sa.grid.z[iy][ix]; const v = sb.grid.z[iy][ix];
+      if (u === null || v === null) continue;
+      expect(Math.abs(u - v)).toBeLessThan(2e-3);
+      compared++;
+    }
+    expect(compared).toBeGreaterThan(10);
+    await who.analyst.agent.delete(`/api/deliveries/${d.id}`).set('x-csrf-token', who.analyst.csrf);
+  });
   it('one levels policy: the section, the export, geostrophy and a delivery use the same default levels', async () => {
     const layerSetOf = (csv: string) => /^# layer_set: (.*)$/m.exec(csv)?.[1]?.trim();
     for (const ref of [0, 2000]) {
@@ -243,15 +313,44 @@ describe('deliveries', () => {
     const zip = await download(who.analyst, d.id, 'zip');
     expect(zip.subarray(0, 2).toString()).toBe('PK');
   });
+  it('a delete is audited with the delivery as it was; a technician may not delete', async () => {
+    const d = await build(who.analyst, { kind: 'pressure', bin: 50, formats: ['csv'] });
+    expect((await who.technician.agent.delete(`/api/deliveries/${d.id}`).set('x-csrf-token', who.technician.csrf)).status).toBe(403);
+    expect((await who.analyst.agent.delete(`/api/deliveries/${d.id}`).set('x-csrf-token', who.analyst.csrf)).status).toBe(204);
+    const trail = (await who.pi.agent.get(`/api/cruises/${cruiseId}/audit`)).body as { action: string; entity: string; entityId: string; before: { files?: unknown[] } }[];
+    const del = trail.find((a) => a.action === 'delete' && a.entity === 'delivery' && a.entityId === d.id);
+    expect(del?.before?.files?.length).toBe(1);
+  });
   it('a technician may not build a delivery (403); an analyst may not release (403)', async () => {
     expect((await who.technician.agent.post(`/api/cruises/${cruiseId}/deliveries`).set('x-csrf-token', who.technician.csrf).send({ kind: 'pressure', formats: ['csv'] })).status).toBe(403);
     expect((await who.analyst.agent.post(`/api/deliveries/${deliveryId}/release`).set('x-csrf-token', who.analyst.csrf)).status).toBe(403);
   });
   it('the PI releases: members are e-mailed with the link, and the delivery is frozen and audited', async () => {
+    who.chief_scientist ??= await agentFor(t.app, 'd-chief@example.test');
+    const roles = ['technician', 'analyst', 'pi', 'chief_scientist'] as const;
+    /** For each role: what the screen is told (canDownload in the list) and what the route answers. */
+    const rights = async () => Object.fromEntries(await Promise.all(roles.map(async (role) => {
+      const list = (await who[role].agent.get(`/api/cruises/${cruiseId}/deliveries`)).body as { id: string; canDownload: boolean }[];
+      const screen = list.find((x) => x.id === deliveryId)!.canDownload;
+      const route = (await who[role].agent.get(`/api/deliveries/${deliveryId}/download?format=csv`).redirects(0)).status;
+      return [role, { screen, route }] as const;
+    })));
+    const before = await rights();
+    // before release: builders only, and the screen says exactly what the route does
+    for (const role of roles) expect(before[role].route, role).toBe(before[role].screen ? 302 : 403);
+    expect(before.technician.screen).toBe(false);
+    expect(before.analyst.screen).toBe(true);
     const res = await who.pi.agent.post(`/api/deliveries/${deliveryId}/release`).set('x-csrf-token', who.pi.csrf);
     expect(res.status).toBe(200);
     expect(res.body.released).toBe(true);
     const mail = await waitFor(async () => (await caughtMail()).find((m) => m.subject.includes('Delivery line') && m.text.includes(cruiseId)));
+    const after = await rights();
+    // after release: the e-mail goes to exactly those the screen and the route let download
+    const emails: Record<string, string> = { technician: 'd-technician@example.test', analyst: 'd-analyst@example.test', pi: 'd-pi@example.test', chief_scientist: 'd-chief@example.test' };
+    for (const role of roles) {
+      expect(after[role].route, role).toBe(after[role].screen ? 302 : 403);
+      expect(mail.to.includes(emails[role]), role).toBe(after[role].screen);
+    }
     expect(mail.to.sort()).toEqual(['d-analyst@example.test', 'd-chief@example.test', 'd-pi@example.test', 'd-technician@example.test']);
     expect(mail.text).toContain(`/cruises/${cruiseId}/deliveries`);
     expect((await who.pi.agent.delete(`/api/deliveries/${deliveryId}`).set('x-csrf-token', who.pi.csrf)).status).toBe(409);
