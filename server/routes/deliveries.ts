@@ -8,6 +8,7 @@ import { QUEUES } from '../services/queue';
 import { escapeHtml } from '../services/mailer';
 import { levelsOrError } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
+import { lineRow } from '../services/lines';
 import type { AppDeps } from '../lib/deps';
 import type { Role } from '../models/index';
 import { DELIVERY_BUILDERS, mayDownload, releaseRecipients } from '../services/deliveryAccess';
@@ -49,6 +50,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewDelivery>;
         if (b.kind !== 'pressure' && b.levels) levelsOrError(b.levels);
+        b.line = (await lineRow(ctx.cruiseId!, b.line)).id;
         const d = await deps.db.sequelize.transaction(async (transaction) => {
           const row = await Delivery.create({ cruiseId: ctx.cruiseId!, kind: b.kind, params: { ...b }, formats: b.formats, error: null, releasedAt: null, releasedBy: null, createdBy: req.user!.id }, { transaction });
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'delivery', entityId: row.id, after: b }, transaction);

@@ -10,6 +10,7 @@ import { cached, dataVersion, invalidateDataVersion } from '../services/cruiseDa
 import { isopycnalTable, pressureTable } from '../services/deliveryTables';
 import { csvStream, deliveryStem, type DeliveryTable } from '../services/deliveries/index';
 import { buildSectionView, SectionQuery } from '../services/sectionView';
+import { layerSetListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
 const ref = referencePressureSchema;
@@ -64,6 +65,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         else res.send(body.json);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/layer-sets', summary: 'Layer sets (target isopycnals per reference pressure)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: layerSetListResponseSchema,
       handler: async (_req, _res, ctx) => {
         const rows = await LayerSet.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['referencePressure', 'ASC'], ['name', 'ASC']] });
         return rows.map((r) => ({ id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length }));

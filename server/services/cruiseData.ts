@@ -43,7 +43,9 @@ async function readDataVersion(cruiseId: string): Promise<string> {
   const [rows] = await Cast.sequelize!.query(
     `SELECT (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM casts WHERE cruise_id = :id) || ':' ||
             (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM layer_sets WHERE cruise_id = :id) || ':' ||
-            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM derived_variables WHERE cruise_id = :id) AS v`,
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM derived_variables WHERE cruise_id = :id) || ':' ||
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM lines WHERE cruise_id = :id) || ':' ||
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM stations WHERE cruise_id = :id) AS v`,
     { replacements: { id: cruiseId } });
   return (rows as { v: string }[])[0].v;
 }

@@ -224,7 +224,7 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
   const columns = [...ISOPYCNAL_COLUMNS, ...CONTEXT_COLUMNS, flagColumn('CT'), flagColumn('SA'), ...plan.columns];
   const notes = [
     ...(isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : []),
-    `Line ${line.name}: ${casts.length} casts${line.note ? ` (${line.note})` : ''}.`,
+    line.note ?? `Line ${line.name}: ${casts.length} casts.`,
   ];
   return { kind: 'isopycnal', columns, rows,
     provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: levelsText, inversionHandling: q.handling,
@@ -287,7 +287,7 @@ export async function pressureTable(cruiseId: string, who: string, q: PressureRe
   const columns = [...PRESSURE_COLUMNS, ...CONTEXT_COLUMNS, flagColumn('CT'), flagColumn('SA'), flagColumn('t'), flagColumn('SP'), ...plan.columns];
   return { kind: 'pressure', columns, rows,
     provenance: await provenanceFor(cruiseId, who, { layerSet: `pressure bins of ${q.bin} dbar`, flagsIncluded: q.flags, line: line.name, expocode,
-      notes: [`Line ${line.name}: ${casts.length} casts${line.note ? ` (${line.note})` : ''}.`] }) };
+      notes: [line.note ?? `Line ${line.name}: ${casts.length} casts.`] }) };
 }
 
 export { columnName };

@@ -14,6 +14,7 @@ import { tmpdir } from 'node:os';
 import { CF_NAMES_FROM_MEMORY } from '../unit/deliveries/cf-names';
 import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../shared/api/flags';
 import { unzip } from '../support/zip';
+import { DEFAULT_LINE_NAME } from '../../server/services/lines';
 
 type PyCf = {
   globals: Record<string, unknown>; time?: (string | null)[]; profile_id?: string[];
@@ -125,7 +126,7 @@ describe('deliveries', () => {
       if (measured.has('temperature')) expect(rest).toContain('t');
       if (measured.has('oxygen')) expect(rest).toContain('oxygen');
       for (const k of measured) if (k.startsWith('x:')) expect(rest.some((c) => c.endsWith(k.slice(2).replace(/[^A-Za-z0-9_]/g, '_')))).toBe(true);
-      expect(new Set(rows.map((r) => r.line))).toEqual(new Set(['default']));
+      expect(new Set(rows.map((r) => r.line))).toEqual(new Set([DEFAULT_LINE_NAME]));
       const withTime = casts.find((c) => c.time)!;
       const row = rows.find((r) => r.station === withTime.station)!;
       expect(row.time).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ$/);
@@ -171,7 +172,7 @@ describe('deliveries', () => {
       for (const g of ['cruise', 'line', 'expocode', 'software_version', 'processing_choices', 'precision', 'flag_rule', 'flag_history']) {
         expect(typeof py.globals[g], g).toBe('string');
       }
-      expect(py.globals.line).toBe('default');
+      expect(py.globals.line).toBe(DEFAULT_LINE_NAME);
       expect(py.globals.reference_pressure).toBeUndefined();
       // time: a CF time variable on the profile dimension, decoded to the casts' times
       expect(py.variables.time.dimensions).toEqual(['profile']);
@@ -223,8 +224,8 @@ describe('deliveries', () => {
     expect(d.status, d.error).toBe('ready');
     const names = d.files.map((f: { filename: string }) => f.filename);
     // <cruise>_<line>_<kind>_<ref>.<ext>, safe characters; the cruise is the files' expocode
-    expect(names).toContain('99TS20260301_default_isopycnal_sigma0.csv');
-    expect(names).toContain('99TS20260301_default_exchange_ct1.zip');
+    expect(names).toContain('99TS20260301_All-stations_isopycnal_sigma0.csv');
+    expect(names).toContain('99TS20260301_All-stations_exchange_ct1.zip');
     for (const n of names) expect(n).toMatch(/^[A-Za-z0-9-]+_[A-Za-z0-9-]+_[a-z]+_[A-Za-z0-9]+\.(csv|xlsx|nc|zip)$/);
     const zip = await download(who.analyst, d.id, 'exchange');
     const entries = await unzip(zip);
