@@ -7,8 +7,9 @@ import { LayerSet } from '../models/index';
 import { audit } from '../lib/audit';
 import { levelsOrError } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
-import { isopycnalTable, pressureTable, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
-import { csvStream } from '../services/deliveries/index';
+import { cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
+import { isopycnalTable, pressureTable } from '../services/deliveryTables';
+import { csvStream, deliveryStem, type DeliveryTable } from '../services/deliveries/index';
 import { buildSectionView, SectionQuery } from '../services/sectionView';
 import { layerSetListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
@@ -22,10 +23,12 @@ export const IsopycnalQuery = z.object({
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
   flags, extras,
-  /** the line (docs/lines.md); without it, the default line */
-  line: z.string().max(64).optional(),
+  line: z.string().trim().min(1).max(100).optional(),
 });
-const PressureQuery = z.object({ bin: binQuery(2), flags, extras, line: z.string().max(64).optional() });
+const PressureQuery = z.object({ bin: binQuery(2), flags, extras, line: z.string().trim().min(1).max(100).optional() });
+/** `attachment; filename="<cruise>_<line>_<kind>_<ref>.csv"`, the delivery files' names. */
+const attachment = (t: DeliveryTable, kind: 'isopycnal' | 'pressure', ref: { sigmaRef?: number; bin?: number }) =>
+  `attachment; filename="${deliveryStem(t.provenance.expocode ?? t.provenance.cruise.name, t.provenance.line ?? 'default', kind, ref)}.csv"`;
 const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
 
 export function sectionRoutes(deps: AppDeps): RouteSpec[] {
@@ -35,9 +38,10 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/exports/isopycnal.csv', summary: 'The isopycnal table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: IsopycnalQuery,
       handler: async (req, res, ctx) => {
         const q = ctx.query as z.infer<typeof IsopycnalQuery>;
-        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: q.levels ?? null, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras, line: q.line });
+        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: q.levels ?? null, handling: q.inversions,
+          interpolation: q.interpolation, flags: q.flags, extras: q.extras, line: q.line ?? null });
         res.setHeader('content-type', 'text/csv; charset=utf-8');
-        res.setHeader('content-disposition', `attachment; filename="isopycnal-sigma${q.ref / 1000}.csv"`);
+        res.setHeader('content-disposition', attachment(table, 'isopycnal', { sigmaRef: q.ref }));
         csvStream(table).pipe(res);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/exports/pressure.csv', summary: 'The pressure-binned table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: PressureQuery,
@@ -45,7 +49,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         const q = ctx.query as z.infer<typeof PressureQuery>;
         const table = await pressureTable(ctx.cruiseId!, req.user!.email, q);
         res.setHeader('content-type', 'text/csv; charset=utf-8');
-        res.setHeader('content-disposition', `attachment; filename="pressure-${q.bin}dbar.csv"`);
+        res.setHeader('content-disposition', attachment(table, 'pressure', { bin: q.bin }));
         csvStream(table).pipe(res);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/section', summary: 'A section grid by pressure or by density, with stations, bottom, isopycnals and inversion markers', rule: { kind: 'member', roles: 'any', cruise: byParam() }, query: SectionQuery,

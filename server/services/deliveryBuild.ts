@@ -1,13 +1,21 @@
-// Builds a delivery into object storage: the regridded tables in each chosen format, or a zip data
-// package with the raw files, tables, a provenance README and a checksum manifest.
+// Builds a delivery into object storage: the regridded tables in each chosen format, the line's casts
+// as CTD exchange files (one zip), or a zip data package with the raw files, tables, exchange files,
+// a provenance README and a checksum manifest. File names: `<cruise>_<line>_<kind>_<ref>.<ext>`.
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { Delivery, Upload, User, type DeliveryFile } from '../models/index';
-import { isopycnalTable, pressureTable } from './cruiseData';
-import { writeCsv, writeXlsx, tableToNetcdf, buildDataPackage, formatProvenanceText, DATA_CAUTION, type DeliveryTable } from './deliveries/index';
+import { isopycnalTable, pressureTable, lineCastsForDelivery } from './deliveryTables';
+import {
+  writeCsv, writeXlsx, tableToNetcdf, buildDataPackage, formatProvenanceText, writeExchangeZip, deliveryStem, DATA_CAUTION,
+  type DeliveryTable, type DeliveryFormat,
+} from './deliveries/index';
 import type { AppDeps } from '../lib/deps';
 
-export type DeliveryParams = { kind: 'isopycnal' | 'pressure' | 'package'; ref: number; levels?: string; inversions: 'sort' | 'drop' | 'raw'; interpolation: 'linear' | 'pchip'; bin: number; flags: number[]; formats: ('csv' | 'xlsx' | 'nc')[]; line?: string };
+export type DeliveryFileFormat = 'csv' | 'xlsx' | 'nc' | 'exchange';
+export type DeliveryParams = {
+  kind: 'isopycnal' | 'pressure' | 'package'; line?: string | null; ref: number; levels?: string; inversions: 'sort' | 'drop' | 'raw';
+  interpolation: 'linear' | 'pchip'; bin: number; flags: number[]; formats: DeliveryFileFormat[]; extras?: string[];
+};
 
 const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 async function toBuffer(stream: Readable): Promise<Buffer> {
@@ -16,12 +24,31 @@ async function toBuffer(stream: Readable): Promise<Buffer> {
   return Buffer.concat(parts);
 }
 
+const cruiseOf = (t: DeliveryTable) => t.provenance.expocode ?? t.provenance.cruise.name;
+const lineOf = (t: DeliveryTable) => t.provenance.line ?? 'default';
+
 export async function deliveryTables(cruiseId: string, who: string, p: DeliveryParams): Promise<{ name: string; table: DeliveryTable }[]> {
-  const iso = () => isopycnalTable(cruiseId, who, { ref: p.ref, levels: p.levels ?? null, handling: p.inversions, interpolation: p.interpolation, flags: p.flags, extras: [], line: p.line });
-  const pres = () => pressureTable(cruiseId, who, { bin: p.bin, flags: p.flags, extras: [], line: p.line });
-  if (p.kind === 'isopycnal') return [{ name: `isopycnal-sigma${p.ref / 1000}`, table: await iso() }];
-  if (p.kind === 'pressure') return [{ name: `pressure-${p.bin}dbar`, table: await pres() }];
-  return [{ name: `isopycnal-sigma${p.ref / 1000}`, table: await iso() }, { name: `pressure-${p.bin}dbar`, table: await pres() }];
+  const extras = p.extras ?? [];
+  const iso = async () => {
+    const table = await isopycnalTable(cruiseId, who, { ref: p.ref, levels: p.levels ?? null, handling: p.inversions, interpolation: p.interpolation,
+      flags: p.flags, extras, line: p.line ?? null });
+    return { name: deliveryStem(cruiseOf(table), lineOf(table), 'isopycnal', { sigmaRef: p.ref }), table };
+  };
+  const pres = async () => {
+    const table = await pressureTable(cruiseId, who, { bin: p.bin, flags: p.flags, extras, line: p.line ?? null });
+    return { name: deliveryStem(cruiseOf(table), lineOf(table), 'pressure', { bin: p.bin }), table };
+  };
+  if (p.kind === 'isopycnal') return [await iso()];
+  if (p.kind === 'pressure') return [await pres()];
+  return [await iso(), await pres()];
+}
+
+/** The line's casts as a zip of exchange files, with its stem. */
+async function exchangeZip(cruiseId: string, p: DeliveryParams, table: DeliveryTable, folder?: string) {
+  const casts = await lineCastsForDelivery(cruiseId, p.line ?? null);
+  const expocode = cruiseOf(table);
+  const zip = await writeExchangeZip(casts, { expocode, line: lineOf(table), provenance: table.provenance }, folder);
+  return { stem: deliveryStem(expocode, lineOf(table), 'exchange', {}), zip, count: casts.length };
 }
 
 export async function buildDelivery(deps: AppDeps, deliveryId: string) {
@@ -39,18 +66,28 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
       await deps.storage.put(key, body, type);
       files.push({ format, filename, key, size: body.length, sha256: sha(body) });
     };
+    const first = tables[0].table;
     if (p.kind === 'package') {
       const uploads = await Upload.findAll({ where: { cruiseId: d.cruiseId, status: 'ready' }, order: [['createdAt', 'ASC']] });
-      const readme = [`Sigmaline data package — ${tables[0].table.provenance.cruise.name} (${tables[0].table.provenance.cruise.ship})`, '', DATA_CAUTION, '',
-        formatProvenanceText(tables[0].table.provenance), '', 'Contents: tables/ (regridded tables in each format), raw/ (the files as uploaded), MANIFEST.sha256 (sha256sum -c MANIFEST.sha256).'].join('\n');
-      const zip = await toBuffer(buildDataPackage({ tables, formats: p.formats, readme,
+      const exchange = p.formats.includes('exchange') ? await exchangeZip(d.cruiseId, p, first) : null;
+      const readme = [`Sigmaline data package — ${first.provenance.cruise.name} (${first.provenance.cruise.ship}), line ${lineOf(first)}`, '', DATA_CAUTION, '',
+        formatProvenanceText(first.provenance), '',
+        'Contents: tables/ (regridded tables in each format), exchange/ (one CTD exchange file per cast, when chosen), raw/ (the files as uploaded), ' +
+        'MANIFEST.sha256 (sha256sum -c MANIFEST.sha256).'].join('\n');
+      const zip = await toBuffer(buildDataPackage({ tables, formats: p.formats.filter((f): f is DeliveryFormat => f !== 'exchange'), readme,
+        extraFiles: exchange ? [{ path: `exchange/${exchange.stem}.zip`, describe: `CTD exchange files of the line's ${exchange.count} casts (zip)`,
+          read: async () => exchange.zip }] : [],
         rawFiles: uploads.map((u) => ({ key: u.storageKey, filename: u.filename, read: () => deps.storage.get(u.storageKey) })) }));
-      await put(`sigmaline-package-${d.id.slice(0, 8)}.zip`, 'zip', zip, 'application/zip');
+      await put(`${deliveryStem(cruiseOf(first), lineOf(first), 'package', { sigmaRef: p.ref })}.zip`, 'zip', zip, 'application/zip');
     } else {
       for (const { name, table } of tables) {
         if (p.formats.includes('csv')) await put(`${name}.csv`, 'csv', Buffer.from(writeCsv(table)), 'text/csv');
         if (p.formats.includes('xlsx')) await put(`${name}.xlsx`, 'xlsx', await writeXlsx(table), 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');
         if (p.formats.includes('nc')) await put(`${name}.nc`, 'nc', tableToNetcdf(table, { title: `${name} — ${table.provenance.cruise.name}` }), 'application/x-netcdf');
+      }
+      if (p.formats.includes('exchange')) {
+        const x = await exchangeZip(d.cruiseId, p, first);
+        await put(`${x.stem}.zip`, 'exchange', x.zip, 'application/zip');
       }
     }
     await d.update({ status: 'ready', progress: 1, files });

@@ -20,11 +20,17 @@
 import { NC_FILL, maxStringBytes, writeNetcdf, type NcAttributes, type NcDataset, type NcDimension, type NcVariable } from './netcdf';
 import { ISOPYCNAL_FLAGS, columnIndex, parseFlags, type DeliveryColumn, type DeliveryTable } from './table';
 import { DATA_CAUTION, provenanceAttributes } from './provenance';
+import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../../shared/api/flags';
+import { VARIABLES } from '../../../shared/api/variables';
 
 export const CF_CONVENTIONS = 'CF-1.10';
 
-/** CF standard names for the columns we write (CF standard name table). */
+/**
+ * CF standard names for the columns we write, checked against the CF standard name table from
+ * memory (tests/unit/deliveries/cf-names.test.ts lists them with their canonical units).
+ */
 export const CF_STANDARD_NAMES: Readonly<Record<string, string>> = Object.freeze({
+  ...Object.fromEntries(VARIABLES.filter((v) => v.standardName).map((v) => [v.name, v.standardName as string])),
   latitude: 'latitude',
   longitude: 'longitude',
   time: 'time',
@@ -34,6 +40,11 @@ export const CF_STANDARD_NAMES: Readonly<Record<string, string>> = Object.freeze
   SA: 'sea_water_absolute_salinity',
   SP: 'sea_water_practical_salinity',
   t: 'sea_water_temperature',
+  oxygen: 'moles_of_oxygen_per_unit_mass_in_sea_water',
+  conductivity: 'sea_water_electrical_conductivity',
+  bottom_depth: 'sea_floor_depth_below_sea_surface',
+  pt0: 'sea_water_potential_temperature',
+  rho: 'sea_water_density',
   thickness: 'cell_thickness',
   sigma_level: 'sea_water_sigma_theta',
   sigma_ref: 'reference_pressure',
@@ -52,6 +63,10 @@ export function cfUnits(unit: string | null): string | null {
   if (/^g ?\/ ?kg$|^g kg-1$/i.test(u)) return 'g kg-1';
   if (/^kg ?\/ ?m(3|\^3|³)$|^kg m-3$/i.test(u)) return 'kg m-3';
   if (/^(PSS-78|psu)$/i.test(u)) return '1';
+  if (/^(umol|µmol|μmol) ?\/ ?kg$/i.test(u)) return 'umol kg-1';
+  if (/^mS ?\/ ?cm$/i.test(u)) return 'mS cm-1';
+  if (/^S ?\/ ?m$/i.test(u)) return 'S m-1';
+  if (/^ISO 8601/.test(u)) return null;
   return u;
 }
 
@@ -66,7 +81,11 @@ export interface CfOptions {
   globalAttributes?: NcAttributes;
 }
 
-const PROFILE_COLUMNS = new Set(['station', 'cast', 'latitude', 'longitude', 'time']);
+const PROFILE_COLUMNS = new Set(['station', 'cast', 'latitude', 'longitude', 'time', 'cruise', 'line', 'bottom_depth']);
+/** WOCE CTD flag values and meanings (flag_values / flag_meanings of every *_flag variable), shared/api/flags.ts. */
+export const WOCE_FLAG_VALUES: readonly number[] = WOCE_FLAGS;
+export const WOCE_FLAG_MEANINGS = WOCE_FLAGS.map((f) => FLAG_MEANING_WORDS[f]).join(' ');
+const FLAG_FILL = -127;
 const INTEGER_COLUMNS = new Set(['crossings', 'count']);
 const SIGMA_REF_COLUMN = /^sigma([0-4])$/;
 
@@ -115,7 +134,8 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
 
   // --- profiles in order of first appearance
   const profileIndex = new Map<string, number>();
-  const profiles: { station: string; cast: string; lat: number; lon: number; time: number | null }[] = [];
+  const iBottom = columnIndex(table, 'bottom_depth');
+  const profiles: { station: string; cast: string; lat: number; lon: number; time: number | null; bottom: number | null }[] = [];
   const rowProfile = new Int32Array(table.rows.length);
   table.rows.forEach((row, r) => {
     const station = String(row[iStation] ?? '');
@@ -129,7 +149,7 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
     if (p === undefined) {
       p = profiles.length;
       profileIndex.set(key, p);
-      profiles.push({ station, cast, lat, lon, time });
+      profiles.push({ station, cast, lat, lon, time, bottom: iBottom >= 0 ? num(row[iBottom]) : null });
     } else {
       const q = profiles[p];
       if (q.lat !== lat || q.lon !== lon) throw new Error(`tableToNetcdf: station ${station} cast ${cast} has more than one position`);
@@ -239,6 +259,16 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
     data: profiles.map((p) => p.lon),
   });
   auxProfile.push('latitude', 'longitude');
+  if (iBottom >= 0) {
+    vars.push({
+      name: 'bottom_depth',
+      type: 'double',
+      dimensions: ['profile'],
+      attributes: { standard_name: 'sea_floor_depth_below_sea_surface', long_name: 'Depth of the sea floor at the cast', units: 'm', positive: 'down',
+        _FillValue: NC_FILL.double },
+      data: profiles.map((p) => p.bottom),
+    });
+  }
 
   // --- vertical coordinate(s)
   const auxLevel: string[] = [];
@@ -254,6 +284,11 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
         units: 'kg m-3',
         axis: 'Z',
         positive: 'down',
+        comment: singleRef
+          ? `Potential density anomaly (TEOS-10, from SA and CT) referenced to ${levels[0][1].ref} dbar; the reference pressure is the ` +
+            'scalar coordinate sigma_ref (standard_name reference_pressure), as the CF definition of sea_water_sigma_theta asks.'
+          : 'Potential density anomaly (TEOS-10, from SA and CT); the reference pressure of each level is sigma_ref(level) ' +
+            '(standard_name reference_pressure).',
       },
       data: levels.map(([, l]) => l.level),
     });
@@ -283,8 +318,36 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
   if (iTime >= 0) skip.add(iTime);
   if (iRef >= 0) skip.add(iRef);
   const scalarRefs = new Map<number, string>();
+  const names = new Set(table.columns.map((c) => c.name));
+  const flagOf = (name: string): string | null => (name.endsWith('_flag') && names.has(name.slice(0, -5)) ? name.slice(0, -5) : null);
   table.columns.forEach((col, c) => {
     if (skip.has(c) || PROFILE_COLUMNS.has(col.name)) return;
+    const of = flagOf(col.name);
+    if (of) {
+      const data = new Int8Array(nP * nL).fill(FLAG_FILL);
+      table.rows.forEach((row, r) => {
+        const v = num(row[c]);
+        if (v !== null) data[cellOfRow[r]] = v;
+      });
+      const ofCol = table.columns[columnIndex(table, of)];
+      const sn = ofCol.standard_name ?? CF_STANDARD_NAMES[of];
+      vars.push({
+        name: col.name,
+        type: 'byte',
+        dimensions: ['profile', levelDim],
+        attributes: {
+          long_name: `WOCE quality flag of ${of}`,
+          ...(sn ? { standard_name: `${sn} status_flag` } : {}),
+          _FillValue: { type: 'byte', value: [FLAG_FILL] },
+          valid_range: { type: 'byte', value: [1, 9] },
+          flag_values: { type: 'byte', value: [...WOCE_FLAG_VALUES] },
+          flag_meanings: WOCE_FLAG_MEANINGS,
+          coordinates: [...auxProfile, ...auxLevel].join(' '),
+        },
+        data,
+      });
+      return;
+    }
     const attrs = variableAttributes(col);
     const coordinates = [...auxProfile, ...auxLevel];
     if (col.name === 'flags') {
@@ -354,7 +417,8 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
       name: col.name,
       type: allInt ? 'int' : 'double',
       dimensions: ['profile', levelDim],
-      attributes: { ...attrs, _FillValue: allInt ? NC_FILL.int : NC_FILL.double, coordinates: coordinates.join(' ') },
+      attributes: { ...attrs, _FillValue: allInt ? NC_FILL.int : NC_FILL.double, coordinates: coordinates.join(' '),
+        ...(names.has(`${col.name}_flag`) ? { ancillary_variables: `${col.name}_flag` } : {}) },
       data: values,
     });
   });
@@ -373,6 +437,9 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
     comment: options.comment ? `${options.comment}\n${DATA_CAUTION}` : DATA_CAUTION,
     ...(options.references ? { references: options.references } : {}),
     table_kind: table.kind,
+    cruise: p.expocode ?? p.cruise.name,
+    ...(p.line ? { line: p.line } : {}),
+    ...(p.expocode ? { expocode: p.expocode } : {}),
     ...provenanceAttributes(p),
     ...(options.globalAttributes ?? {}),
   };

@@ -2,10 +2,11 @@
 //
 // - Numbers are written in the shortest form that parses back to the same float64
 //   (ECMAScript Number-to-String is exactly that); -0 keeps its sign; null/NaN are empty fields.
-// - String cells that a spreadsheet would take for a formula (first character = + - @, tab or CR)
-//   are prefixed with a single quote. Numbers are never touched, so -1.5 stays a number.
-// - RFC 4180 quoting: a field with a comma, double quote, CR or LF is quoted, quotes doubled; so is
-//   a field with `#`, so readers that take `#` as a comment mark anywhere keep the whole field.
+// - Text cells go through one function, csvText: a cell a spreadsheet would take for a formula
+//   (first non-blank character = + - @ or their full-width forms, or a leading tab/CR) gets a
+//   leading single quote; a cell holding any separator a spreadsheet locale may use (, ; tab |),
+//   a double quote, CR, LF, `#` or edge blanks is quoted (RFC 4180, quotes doubled), so a `;=…`
+//   payload stays inside one field whatever the locale's separator. Numbers are never touched.
 // - Lines end with CRLF (RFC 4180).
 import { Readable } from 'node:stream';
 import { ISOPYCNAL_COLUMNS, type DeliveryCell, type DeliveryColumn, type DeliveryRow, type DeliveryTable } from './table';
@@ -13,11 +14,20 @@ import { DATA_CAUTION, oneLine, provenanceEntries, type Provenance } from './pro
 
 export const CSV_EOL = '\r\n';
 
-const FORMULA_START = /^[=+\-@\t\r]/;
+// eslint-disable-next-line no-control-regex
+const FORMULA_START = /^[\s\u0000-\u001f]*[=+\-@\uFF1D\uFF0B\uFF0D\uFF20]|^[\t\r]/;
+/** Characters that make a field quoted: every locale's separators, quotes, line breaks, comment mark. */
+const NEEDS_QUOTES = /[,;\t|"\r\n#]|^\s|\s$/;
 
 /** Prefix a string that would start a spreadsheet formula with `'`. */
 export function neutraliseFormula(s: string): string {
   return FORMULA_START.test(s) ? `'${s}` : s;
+}
+
+/** The one quoting function for CSV text cells (see the file header). */
+export function csvText(s: string): string {
+  const v = neutraliseFormula(s);
+  return NEEDS_QUOTES.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
 }
 
 /** Shortest round-trip decimal form of a finite float64; '' for non-finite. */
@@ -26,15 +36,11 @@ export function formatNumber(n: number): string {
   return Number.isFinite(n) ? String(n) : '';
 }
 
-function quoteIfNeeded(s: string): string {
-  return /[",\r\n#]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 /** One CSV field. */
 export function formatCell(v: DeliveryCell | undefined): string {
   if (v === null || v === undefined) return '';
   if (typeof v === 'number') return formatNumber(v);
-  return quoteIfNeeded(neutraliseFormula(v));
+  return csvText(v);
 }
 
 /** One CSV record (no line ending). */
@@ -48,16 +54,9 @@ export function formatRow(row: readonly (DeliveryCell | undefined)[]): string {
 }
 
 function commentValue(s: string): string {
-  // A comment line is one field to a spreadsheet only until its first comma: neutralise each
-  // comma-separated piece as well, so no piece can start a formula.
-  return oneLine(s)
-    .split(',')
-    .map((piece, i) => {
-      if (i === 0) return piece;
-      const lead = piece.match(/^\s*/)?.[0] ?? '';
-      return lead + neutraliseFormula(piece.slice(lead.length));
-    })
-    .join(',');
+  // A comment line is one field to a spreadsheet only until its first separator (, ; tab or |,
+  // whatever the locale): neutralise each separated piece as well, so no piece can start a formula.
+  return oneLine(s).replace(/([,;\t|])([^,;\t|]*)/g, (_, sep: string, piece: string) => sep + neutraliseFormula(piece));
 }
 
 /** The `#` comment lines that head every CSV delivery (without line endings). */

@@ -6,3 +6,6 @@ export * from './xlsx';
 export * from './netcdf';
 export * from './cf';
 export * from './package';
+export * from './exchange';
+export * from './names';
+export * from './variables';

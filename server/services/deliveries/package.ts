@@ -47,6 +47,8 @@ export interface DataPackageInput {
   /** Modification time stamped on every entry (default: now). */
   mtime?: Date;
   onProgress?: (p: PackageProgress) => void;
+  /** Further entries at a path of their own (e.g. exchange/<file>), described in the README. */
+  extraFiles?: { path: string; describe: string; read: () => Promise<Buffer> }[];
 }
 
 export const README_NAME = 'README.txt';
@@ -139,7 +141,7 @@ export function buildDataPackage(input: DataPackageInput): Readable {
 
   for (const t of input.tables) {
     const stem = safeName(t.name, 'table').replace(/\.(csv|xlsx|nc)$/i, '');
-    for (const f of formats) {
+    for (const f of formats.filter((x): x is DeliveryFormat => ['csv', 'xlsx', 'nc'].includes(x))) {
       const path = unique(`tables/${stem}.${f}`, taken);
       const table = t.table;
       if (f === 'csv') {
@@ -153,6 +155,11 @@ export function buildDataPackage(input: DataPackageInput): Readable {
         described.push({ path, describe: `${t.name}: NetCDF-3 classic, CF-1.10` });
       }
     }
+  }
+  for (const x of input.extraFiles ?? []) {
+    const path = unique(x.path.split('/').map((seg) => safeName(seg)).join('/'), taken);
+    planned.push({ path, compress: true, produce: async () => Readable.from([await x.read()]) });
+    described.push({ path, describe: x.describe });
   }
   for (const r of input.rawFiles) {
     const path = unique(`raw/${safeName(r.filename, 'raw-file')}`, taken);

@@ -17,6 +17,14 @@ export const ProvenanceSchema = z.object({
   exportedAt: z.string(),
   cruise: z.object({ id: z.string(), name: z.string(), ship: z.string() }),
   notes: z.array(z.string()).optional(),
+  /** The line the table covers and the cruise's expocode where the files carry one. */
+  line: z.string().nullable().optional(),
+  expocode: z.string().nullable().optional(),
+  /** How values are rounded, and how flags per value are made (stated in every file). */
+  precision: z.string().optional(),
+  flagRule: z.string().optional(),
+  /** The technicians' flag edits, summarised (who set which flag on how many levels). */
+  flagHistory: z.array(z.string()).optional(),
 });
 
 export type Provenance = z.infer<typeof ProvenanceSchema>;
@@ -57,6 +65,11 @@ export function provenanceEntries(p: Provenance): ProvenanceEntry[] {
       value: p.flagsIncluded.length ? p.flagsIncluded.join(', ') : 'none',
     },
     { key: 'cruise', label: 'Cruise', value: `${p.cruise.name} (ship ${p.cruise.ship}; id ${p.cruise.id})` },
+    ...(p.expocode ? [{ key: 'expocode', label: 'Expocode', value: p.expocode }] : []),
+    ...(p.line ? [{ key: 'line', label: 'Line', value: p.line }] : []),
+    ...(p.precision ? [{ key: 'precision', label: 'Precision', value: p.precision }] : []),
+    ...(p.flagRule ? [{ key: 'flag_rule', label: 'Flags per value', value: p.flagRule }] : []),
+    ...(p.flagHistory ?? []).map((h) => ({ key: 'flag_history', label: 'Flag history', value: h })),
     { key: 'exported_by', label: 'Exported by', value: orNone(p.exportedBy) },
     { key: 'exported_at', label: 'Exported at', value: orNone(p.exportedAt) },
   ];
@@ -97,7 +110,16 @@ export function provenanceAttributes(p: Provenance): Record<string, string | num
     exported_by: p.exportedBy,
     exported_at: p.exportedAt,
   };
-  if (p.referencePressure !== null) attrs.reference_pressure_dbar = p.referencePressure;
+  if (p.expocode) attrs.expocode = p.expocode;
+  if (p.line) attrs.line = p.line;
+  if (p.precision) attrs.precision = p.precision;
+  if (p.flagRule) attrs.flag_rule = p.flagRule;
+  if (p.flagHistory?.length) attrs.flag_history = p.flagHistory.join('\n');
+  attrs.processing_choices = [
+    p.referencePressure === null ? null : `reference pressure ${p.referencePressure} dbar`,
+    p.layerSet ? `levels ${p.layerSet}` : null, p.inversionHandling ? `inversions ${p.inversionHandling}` : null,
+    p.interpolation ? `interpolation ${p.interpolation}` : null, `flags included ${p.flagsIncluded.join(' ') || 'none'}`,
+  ].filter(Boolean).join('; ');
   attrs.quality_flags_included = p.flagsIncluded.length ? p.flagsIncluded.join(' ') : 'none';
   if (p.notes && p.notes.length) attrs.processing_notes = p.notes.join('\n');
   return attrs;

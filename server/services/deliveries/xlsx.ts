@@ -1,11 +1,11 @@
 // Spreadsheet (xlsx) writer for delivery tables, with exceljs' streaming workbook writer (styles
 // off: they more than double the time of a 150 000-row sheet):
 // sheet 1 is the table (row 1 column names, row 2 units, both frozen; numbers as numbers, empty
-// cells for no value; string cells neutralised against formulas as in the CSV), sheet 2
+// cells for no value; text cells are typed string cells, which no spreadsheet evaluates, so they are
+// written as they are, with no leading quote), sheet 2
 // "Provenance" holds the method (one item a row) and the caution.
 import { PassThrough, type Writable } from 'node:stream';
 import ExcelJS from 'exceljs';
-import { neutraliseFormula } from './csv';
 import { DATA_CAUTION, provenanceEntries } from './provenance';
 import type { DeliveryTable } from './table';
 
@@ -33,7 +33,7 @@ export async function writeXlsxToStream(table: DeliveryTable, stream: Writable):
     const values: (number | string | null)[] = new Array(width);
     for (let i = 0; i < width; i++) {
       const v = row[i];
-      values[i] = typeof v === 'string' ? neutraliseFormula(v) : typeof v === 'number' && Number.isFinite(v) ? v : null;
+      values[i] = typeof v === 'string' ? v : typeof v === 'number' && Number.isFinite(v) ? v : null;
     }
     ws.addRow(values).commit();
   }
@@ -45,7 +45,7 @@ export async function writeXlsxToStream(table: DeliveryTable, stream: Writable):
     { key: 'value', width: 90 },
   ];
   ps.addRow(['item', 'value']).commit();
-  for (const e of provenanceEntries(p)) ps.addRow([e.label, neutraliseFormula(e.value)]).commit();
+  for (const e of provenanceEntries(p)) ps.addRow([e.label, e.value]).commit();
   ps.addRow(['Table', tableSheetName(table)]).commit();
   ps.addRow(['Rows', table.rows.length]).commit();
   ps.addRow(['Caution', DATA_CAUTION]).commit();

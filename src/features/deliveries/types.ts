@@ -4,7 +4,7 @@ const id = z.union([z.string(), z.number()]).transform(String);
 
 export const DELIVERY_KINDS = ['isopycnal', 'pressure', 'package'] as const;
 export type DeliveryKind = (typeof DELIVERY_KINDS)[number];
-export const DELIVERY_FORMATS = ['csv', 'xlsx', 'nc'] as const;
+export const DELIVERY_FORMATS = ['csv', 'xlsx', 'nc', 'exchange'] as const;
 export type DeliveryFormat = (typeof DELIVERY_FORMATS)[number];
 
 export const KIND_TEXT: Record<DeliveryKind, { label: string; explain: string }> = {
@@ -17,20 +17,11 @@ export const FORMAT_TEXT: Record<DeliveryFormat, string> = {
   csv: 'CSV',
   xlsx: 'Spreadsheet (.xlsx)',
   nc: 'NetCDF (CF-1.10)',
+  exchange: 'CTD exchange files (zip, one per cast)',
 };
 
-/** The community 1–9 quality-flag scale for water-column data, in our words. */
-export const FLAG_MEANINGS: Record<number, string> = {
-  1: 'not calibrated',
-  2: 'good',
-  3: 'questionable',
-  4: 'bad',
-  5: 'not reported',
-  6: 'interpolated over a gap',
-  7: 'despiked',
-  8: 'not used for CTD data',
-  9: 'missing',
-};
+/** The community 1–9 quality-flag scale for water-column data, in our words (shared/api/flags.ts). */
+export { FLAG_MEANINGS } from '../../../shared/api/flags';
 
 export const deliveryFileSchema = z.object({
   format: z.string(),
@@ -54,6 +45,8 @@ export const deliverySchema = z.object({
   createdBy: z.string().nullable().optional().default(null),
   createdAt: z.string(),
   error: z.string().nullable().optional().default(null),
+  /** The server's one download rule for the signed-in member (released: every role; before: builders). */
+  canDownload: z.boolean().optional().default(false),
 });
 export type Delivery = z.infer<typeof deliverySchema>;
 export const deliveryListSchema = z.array(deliverySchema);

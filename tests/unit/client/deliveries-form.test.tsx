@@ -48,7 +48,7 @@ const ready = {
   id: 'd1', kind: 'isopycnal', params: { ref: 2000, levels: '36.9:0.02:37.1', inversions: 'sort', interpolation: 'linear', flags: [2] },
   formats: ['csv', 'nc'], status: 'ready', progress: 1,
   files: [{ format: 'csv', filename: 'isopycnal-sigma2.csv', size: 48213, sha256: 'ab'.repeat(32) }, { format: 'nc', filename: 'isopycnal-sigma2.nc', size: 90112, sha256: 'cd'.repeat(32) }],
-  released: false, releasedAt: null, releasedBy: null, createdBy: 'analyst@sigmaline.test', createdAt: '2026-03-20T10:00:00Z', error: null,
+  released: false, releasedAt: null, releasedBy: null, createdBy: 'analyst@sigmaline.test', createdAt: '2026-03-20T10:00:00Z', error: null, canDownload: true,
 };
 const released = { ...ready, id: 'd0', released: true, releasedAt: '2026-03-19T08:00:00Z', releasedBy: 'pi@sigmaline.test' };
 const building = { ...ready, id: 'd2', kind: 'pressure', params: { bin: 2, flags: [2] }, status: 'building', progress: 0.4, files: [] };

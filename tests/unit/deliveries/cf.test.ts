@@ -48,7 +48,9 @@ describe('CF-1.10 NetCDF of delivery tables', () => {
     for (const g of ['title', 'source', 'history', 'comment', 'equation_of_state', 'saar_source', 'inversion_handling', 'layer_set', 'exported_by', 'exported_at', 'software_version']) {
       expect(typeof attr(py, null, g)).toBe('string');
     }
-    expect(attr(py, null, 'reference_pressure_dbar')).toBe(0);
+    // no global attribute named like the CF standard name; the choices are one documented text
+    expect(attr(py, null, 'reference_pressure_dbar')).toBeUndefined();
+    expect(attr(py, null, 'processing_choices')).toMatch(/reference pressure 0 dbar/);
     expect(attr(py, null, 'comment')).toMatch(/not for navigation or safety-of-life use/);
     expect(py.dimensions.profile.size).toBe(9);
     expect(py.dimensions.sigma_level.size).toBe(25);

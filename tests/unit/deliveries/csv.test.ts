@@ -5,8 +5,10 @@ import { csvStream, writeCsv } from '../../../server/services/deliveries/csv';
 import { ISOPYCNAL_COLUMNS, type DeliveryColumn, type DeliveryRow, type DeliveryTable } from '../../../server/services/deliveries/table';
 import { provenance, syntheticIsopycnalTable } from './synthetic';
 
-// The rule restated independently of the writer: string cells starting with = + - @ tab CR get a '.
-const neutralised = (s: string): string => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s);
+// The rule restated independently of the writer: string cells whose first non-blank character is
+// = + - @ (or the full-width forms), or that start with tab or CR, get a leading '.
+// eslint-disable-next-line no-control-regex
+const neutralised = (s: string): string => (/^[\s\u0000-\u001f]*[=+\-@＝＋－＠]|^[\t\r]/.test(s) ? `'${s}` : s);
 
 /** Read back with csv-parse: `#` lines are comments, the first record is the header. */
 function readBack(text: string): { header: string[]; records: string[][]; comments: string[] } {
@@ -94,13 +96,30 @@ describe('CSV writer', () => {
     expect(lines[2]).toBe(`'+1,-0`);
     expect(lines[3]).toBe(`'-1,-1e-300`);
     expect(lines[4]).toBe(`'@SUM(A1),5e-324`);
-    expect(lines[5]).toBe(`'\tx,1.7976931348623157e+308`);
+    expect(lines[5]).toBe(`"'\tx",1.7976931348623157e+308`); // quoted: a tab is a separator somewhere
     expect(lines[7]).toBe('ok,0.1');
     const { records } = readBack(text); // read back with csv-parse
     expect(records.map((r) => r[0])).toEqual(rows.map((r) => neutralised(r[0] as string)));
     expect(records.map((r) => Number(r[1]))).toEqual(rows.map((r) => r[1]));
     // no data line starts a formula, and no field read back starts one
     for (const rec of records) expect(/^[=+\-@\t\r]/.test(rec[0])).toBe(false);
+  });
+
+  it('quotes any locale separator so no `;=` payload becomes a formula in a `;` or tab locale (#14 item 9)', () => {
+    const columns: DeliveryColumn[] = [{ name: 's', unit: null, type: 'string' }, { name: 'n', unit: null, type: 'number' }];
+    const values = ['a;=1+1', 'K-07;@SUM(A1)', 'x\t=cmd', 'p|+1', ' =1', '＝1+1', 'semi;colon', 'plain'];
+    const text = writeCsv({ kind: 'pressure', columns, rows: values.map((v) => [v, 1]), provenance: provenance() });
+    const data = text.split('\r\n').filter((l) => l && !l.startsWith('#')).slice(1);
+    // read as a spreadsheet in each locale would: split on its separator, honouring RFC 4180 quotes
+    for (const delimiter of [',', ';', '\t', '|']) {
+      const recs = parse(data.join('\r\n'), { delimiter, relax_column_count: true, relax_quotes: true }) as string[][];
+      for (const rec of recs) for (const field of rec) expect(/^\s*[=+\-@＝＋－＠]/.test(field), `${delimiter}: ${field}`).toBe(false);
+    }
+    expect(data[0]).toBe('"a;=1+1",1');
+    expect(data[4]).toBe("' =1,1");
+    expect(data[5]).toBe("'＝1+1,1");
+    const { records } = readBack(text);
+    expect(records.map((r) => r[0])).toEqual(values.map(neutralised));
   });
 
   it('quotes commas, quotes and newlines (read back with csv-parse)', () => {
@@ -129,7 +148,7 @@ describe('CSV writer', () => {
       '# inversion_handling: drop',
       `# saar_source: ${prov.saarSource}`,
       `# exported_at: ${prov.exportedAt}`,
-      "# exported_by: Dr. P. I., '=cmd",
+      "# exported_by: Dr. P. I.,' =cmd",
       '# caution: Provisional research data; not for navigation or safety-of-life use',
       '# units: latitude=degrees_north; longitude=degrees_east; sigma_ref=dbar',
     ]) {

@@ -32,7 +32,7 @@ export function provenanceOf(d: Delivery, layerSets: readonly LayerSetChoice[], 
   }
   if (d.kind !== 'isopycnal') rows.push({ term: 'Pressure bin', value: `${str(p.bin) ?? '2'} dbar` });
   const flags = Array.isArray(p.flags) ? (p.flags as unknown[]).filter((f): f is number => typeof f === 'number') : null;
-  rows.push({ term: 'Flags included', value: flags ? flags.map((f) => `${f} ${FLAG_MEANINGS[f] ?? ''}`.trim()).join(', ') : '—' });
+  rows.push({ term: 'Flags included', value: flags ? flags.map((f) => `${f} ${(FLAG_MEANINGS as Record<number, string>)[f] ?? ''}`.trim()).join(', ') : '—' });
   rows.push({ term: 'Built by', value: `${nameOf(d.createdBy)}, ${formatUtc(d.createdAt)}` });
   if (d.released) rows.push({ term: 'Released by', value: `${nameOf(d.releasedBy)}, ${formatUtc(d.releasedAt)}` });
   return rows;
@@ -62,6 +62,7 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets, nameOf }: { crui
   const release = useReleaseDelivery(cruiseId);
   const remove = useDeleteDelivery(cruiseId);
   const [confirming, setConfirming] = useState(false);
+  const [confirmingDelete, setConfirmingDelete] = useState(false);
   const building = d.status === 'queued' || d.status === 'building';
   const titleId = `delivery-${d.id}`;
 
@@ -79,8 +80,8 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets, nameOf }: { crui
             <Button size="sm" variant="primary" onClick={() => setConfirming(true)}>Release…</Button>
           )}
           {canDeliver.remove(role) && !d.released && (
-            <Button size="sm" variant="danger" busy={remove.isPending} onClick={() => remove.mutate(d.id)} aria-label={`Delete this ${KIND_TEXT[d.kind].label.toLowerCase()}`}>
-              Delete
+            <Button size="sm" variant="danger" onClick={() => setConfirmingDelete(true)} aria-label={`Delete this ${KIND_TEXT[d.kind].label.toLowerCase()}…`}>
+              Delete…
             </Button>
           )}
         </div>
@@ -102,7 +103,13 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets, nameOf }: { crui
             </div>
           ))}
         </dl>
-        {d.status === 'ready' && (
+        {d.status === 'ready' && !d.canDownload && (
+          <p className="text-sm text-ink-soft">
+            Not released yet: until the principal investigator releases it, only the PI, the chief scientist and analysts can
+            download it. The release e-mail goes to every member once they can.
+          </p>
+        )}
+        {d.status === 'ready' && d.canDownload && (
           <div>
             <p className="mb-1 text-xs font-semibold uppercase tracking-[0.1em] text-ink-soft">Download</p>
             <ul className="grid grid-cols-[auto_minmax(0,1fr)_auto] items-baseline gap-x-3 gap-y-1 text-sm">
@@ -130,7 +137,7 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets, nameOf }: { crui
         <div role="alertdialog" aria-labelledby={`${titleId}-confirm`} aria-describedby={`${titleId}-confirm-text`} className="mt-3 border border-ink/40 bg-paper-raised p-3">
           <p id={`${titleId}-confirm`} className="font-semibold text-ink-strong">Release this delivery to the team?</p>
           <p id={`${titleId}-confirm-text`} className="mt-1 text-sm text-ink-soft">
-            Every member of the cruise is e-mailed a link to it. Once released, the delivery is frozen: its files and choices can no longer change and it cannot be deleted.
+            Every member of the cruise is e-mailed a link to it, and every member may then download it. Once released, the delivery is frozen: its files and choices can no longer change and it cannot be deleted.
           </p>
           {release.isError && <div className="mt-2"><ErrorNotice error={release.error} title="The delivery was not released" /></div>}
           <div className="mt-2 flex gap-2">
@@ -138,6 +145,21 @@ function DeliveryItem({ cruiseId, delivery: d, role, layerSets, nameOf }: { crui
               Release and e-mail the team
             </Button>
             <Button size="sm" onClick={() => setConfirming(false)}>Cancel</Button>
+          </div>
+        </div>
+      )}
+      {confirmingDelete && (
+        <div role="alertdialog" aria-labelledby={`${titleId}-delete`} aria-describedby={`${titleId}-delete-text`} className="mt-3 border border-warn/60 bg-paper-raised p-3">
+          <p id={`${titleId}-delete`} className="font-semibold text-ink-strong">Delete this {KIND_TEXT[d.kind].label.toLowerCase()}?</p>
+          <p id={`${titleId}-delete-text`} className="mt-1 text-sm text-ink-soft">
+            Its files ({d.files.map((f) => f.filename).join(', ') || 'none yet'}) are removed. The deletion is recorded in the audit trail with
+            who deleted it and the choices it was built with.
+          </p>
+          <div className="mt-2 flex gap-2">
+            <Button variant="danger" size="sm" busy={remove.isPending} onClick={() => remove.mutate(d.id, { onSuccess: () => setConfirmingDelete(false) })}>
+              Delete it
+            </Button>
+            <Button size="sm" onClick={() => setConfirmingDelete(false)}>Keep it</Button>
           </div>
         </div>
       )}
