@@ -3,13 +3,12 @@
 // (or $GSW_PYTHON) in one batch call on the same points. The target is the reference's own
 // agreement: |ΔSA| ≤ 1e-9 g/kg everywhere the atlas has a value (south of 86° S the reference
 // answers NaN and we answer SR with a note; those points are left out, as are none else).
-import { execFileSync } from 'node:child_process';
 import { beforeAll, describe, expect, it } from 'vitest';
 import atlasFile from '../../shared/seawater/data/saar-atlas.json';
 import { SA_from_SP_batch } from '../../shared/seawater/saar';
 import { randomWholeOceanPoints, type AtlasCell } from './oceanPoints';
+import { runPythonJson } from './python';
 
-const PYTHON_BIN = process.env.GSW_PYTHON ?? '/usr/bin/python3';
 const PYTHON = `
 import json, sys
 import numpy as np
@@ -43,7 +42,7 @@ function atlasCells(): AtlasCell[] {
 
 function reference(pts: Points): { version: string; SA: (number | null)[] } {
   const input = JSON.stringify({ SP: [...pts.SP], p: [...pts.p], lon: [...pts.lon], lat: [...pts.lat] });
-  return JSON.parse(execFileSync(PYTHON_BIN, ['-c', PYTHON], { input, maxBuffer: 1 << 28, encoding: 'utf8' }));
+  return runPythonJson(PYTHON, { input });
 }
 
 function worst(pts: Points, ref: (number | null)[]) {
