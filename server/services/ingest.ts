@@ -3,9 +3,9 @@
 // one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
 import { Op } from 'sequelize';
 import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
-import { parseUpload } from '../parsers/index';
-import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
-import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
+import { inversionsOfGoodLevels } from './processCast';
+import { computePool } from '../jobs/computePool';
+import { recordIngestTiming } from '../jobs/ingestTimings';
 import { writeColumns } from './columns';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
@@ -14,8 +14,9 @@ import type { AppDeps } from '../lib/deps';
 
 export class IngestFault extends Error {}
 
-export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { reprocess?: boolean } = {}): Promise<void> {
+export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { reprocess?: boolean; queuedAt?: Date } = {}): Promise<void> {
   const { sequelize } = deps.db;
+  const t0 = performance.now();
   const upload = await Upload.findByPk(uploadId);
   if (!upload) return; // deleted meanwhile
   if (upload.status === 'ready' && !opts.reprocess) return; // a retried job after success: nothing to do
@@ -29,39 +30,29 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     throw new IngestFault(`object storage unavailable: ${(err as Error).message}`);
   }
   const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
-  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES });
-  await upload.update({ progress: 0.3 });
-  if (!parsed.ok) {
-    await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
-    return;
-  }
-
   // Station tables: fill or update the plan; casts without a position take it from the plan.
   const stations = await Station.findAll({ where: { cruiseId: upload.cruiseId } });
   const plan = new Map(stations.map((s) => [s.name, s]));
-  const rowsByStation = new Map<string, StationRow>(parsed.stations.map((r) => [r.station, r]));
+  const tFetched = performance.now();
 
-  const errors: FileError[] = [];
-  const processed: { parsed: ParsedCast; out: ProcessedCast }[] = [];
-  for (const c of parsed.casts) {
-    const row = c.metadata.station ? rowsByStation.get(c.metadata.station) : undefined;
-    const planned = c.metadata.station ? plan.get(c.metadata.station) : undefined;
-    const md = { ...c.metadata };
-    md.latitude ??= row?.latitude ?? planned?.latitude ?? null;
-    md.longitude ??= row?.longitude ?? planned?.longitude ?? null;
-    md.bottomDepth ??= row?.bottomDepth ?? null;
-    md.time ??= row?.time ?? null;
-    if (!md.station) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: no station identifier (add a "# station:" line or a station table).` }); continue; }
-    if (md.latitude == null || md.longitude == null) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).` }); continue; }
-    const result = processCast({ ...c, metadata: md }, { inversionThreshold: deps.settings.INVERSION_THRESHOLD });
-    if (!result.ok) { errors.push(...result.errors); continue; }
-    processed.push({ parsed: { ...c, metadata: md }, out: result.cast });
-  }
-  if (errors.length) {
-    await upload.update({ status: 'failed', progress: 1, errors });
+  // Parse and derive in a worker thread, never on this process's event loop.
+  let progressWrite: Promise<unknown> = Promise.resolve();
+  const computed = await computePool().run({
+    filename: upload.filename, bytes, mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES, inversionThreshold: deps.settings.INVERSION_THRESHOLD,
+    plan: Object.fromEntries(stations.map((s) => [s.name, { latitude: s.latitude, longitude: s.longitude }])),
+  }, () => { progressWrite = Upload.update({ progress: 0.3 }, { where: { id: uploadId, status: 'processing' } }).catch(() => undefined); });
+  await progressWrite;
+  if (computed.kind === 'parse_failed') {
+    await upload.update({ status: 'failed', progress: 1, errors: computed.errors, unmappedHeaders: computed.unmappedHeaders });
     return;
   }
-  await upload.update({ progress: 0.7 });
+  if (computed.kind === 'invalid') {
+    await upload.update({ status: 'failed', progress: 1, errors: computed.errors });
+    return;
+  }
+  const parsed = { stations: computed.stations, warnings: computed.warnings };
+  const processed = computed.processed;
+  const tComputed = performance.now();
 
   try {
     const castIds = await sequelize.transaction(async (transaction) => {
@@ -106,6 +97,13 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
       return ids;
     });
     invalidateDataVersion(upload.cruiseId);
+    const tStored = performance.now();
+    recordIngestTiming({
+      uploadId, casts: castIds.length, levels: processed.reduce((n, p) => n + p.out.levels, 0),
+      queueWaitMs: opts.queuedAt ? Math.max(0, Date.now() - (tStored - t0) - opts.queuedAt.getTime()) : null,
+      fetchMs: tFetched - t0, parseMs: computed.timings.parseMs, deriveMs: computed.timings.deriveMs,
+      computeWaitMs: Math.max(0, tComputed - tFetched - computed.timings.parseMs - computed.timings.deriveMs), storeMs: tStored - tComputed,
+    });
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
   } catch (err) {
     await Upload.update({ status: 'queued', progress: 0 }, { where: { id: uploadId, status: { [Op.ne]: 'ready' } } }).catch(() => undefined);

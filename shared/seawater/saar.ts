@@ -269,6 +269,25 @@ export function SA_from_SP(SP: number, p: number, lon: number, lat: number): num
 }
 
 /**
+ * SA_from_SP over a cast's columns at one position, and where the atlas is silent there
+ * (`silent[i] = 1`: SA = SR used), with one atlas look-up a level. SP unitless, p dbar → SA g/kg.
+ */
+export function SA_from_SP_cast(SP: Float64Array, p: Float64Array, lon: number, lat: number, SA: Float64Array, silent: Uint8Array): void {
+  const a = atlas ?? loadAtlas();
+  const x = wrapLon(lon);
+  const baltic = balticAt(a.baltic, x, lat);
+  const posOk = lon >= LON_RANGE[0] && lon <= LON_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1];
+  for (let i = 0; i < SP.length; i++) {
+    const s = SP[i], pi = p[i];
+    silent[i] = 0;
+    if (!(posOk && s >= SP_RANGE[0] && s <= SP_RANGE[1] && pi >= P_RANGE[0] && pi <= P_RANGE[1])) { SA[i] = NaN; continue; }
+    if (baltic) { SA[i] = SA_from_SP_Baltic(s); continue; }
+    const ratio = saarAt(a, pi, x, lat);
+    if (ratio !== ratio) { silent[i] = 1; SA[i] = uPS * s; } else SA[i] = uPS * s * (1 + ratio);
+  }
+}
+
+/**
  * SA_from_SP over a cast's columns (SP, p) at one or many positions (lon, lat as numbers or
  * columns) → SA g/kg. Allocates only the output.
  */
