@@ -5,9 +5,9 @@
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { logger } from '../lib/logger';
-import type { ComputeRequest, ComputeResult } from './ingestCompute';
+import { parsedTransferables, type DeriveOutcome, type DeriveRequest, type ParseOutcome, type ParseRequest } from './ingestCompute';
 
-type Pending = { id: number; req: ComputeRequest; onParsed?: () => void; resolve: (r: ComputeResult) => void; reject: (e: Error) => void };
+type Pending = { id: number; op: 'parse' | 'derive'; req: ParseRequest | DeriveRequest; transfer: ArrayBuffer[]; resolve: (r: never) => void; reject: (e: Error) => void };
 type Slot = { worker: Worker; ready: Promise<void>; task: Pending | null };
 
 export class ComputePool {
@@ -25,10 +25,20 @@ export class ComputePool {
     await Promise.all(this.slots.map((s) => s.ready));
   }
 
-  run(req: ComputeRequest, onParsed?: () => void): Promise<ComputeResult> {
+  /** Parse (and inflate) an upload in a thread. */
+  parse(req: ParseRequest): Promise<ParseOutcome> {
+    return this.submit('parse', req, []);
+  }
+
+  /** Derive some casts in a thread; their column buffers move to it (the caller must not reuse them). */
+  derive(req: DeriveRequest): Promise<DeriveOutcome> {
+    return this.submit('derive', req, parsedTransferables(req.casts));
+  }
+
+  private submit<T>(op: 'parse' | 'derive', req: ParseRequest | DeriveRequest, transfer: ArrayBuffer[]): Promise<T> {
     if (this.closed) return Promise.reject(new Error('compute pool closed'));
-    return new Promise((resolve, reject) => {
-      this.queue.push({ id: this.nextId++, req, onParsed, resolve, reject });
+    return new Promise<T>((resolve, reject) => {
+      this.queue.push({ id: this.nextId++, op, req, transfer, resolve: resolve as (r: never) => void, reject });
       this.pump();
     });
   }
@@ -44,11 +54,10 @@ export class ComputePool {
     worker.unref();
     let markReady!: () => void;
     const slot: Slot = { worker, ready: new Promise<void>((r) => { markReady = r; }), task: null };
-    worker.on('message', (m: { type: 'ready' | 'parsed' | 'done' | 'error'; id?: number; result?: ComputeResult; message?: string }) => {
+    worker.on('message', (m: { type: 'ready' | 'done' | 'error'; id?: number; result?: never; message?: string }) => {
       if (m.type === 'ready') { markReady(); return; }
       const t = slot.task;
       if (!t || t.id !== m.id) return;
-      if (m.type === 'parsed') { t.onParsed?.(); return; }
       slot.task = null;
       if (m.type === 'done') t.resolve(m.result!);
       else t.reject(new Error(`ingest computation failed: ${m.message}`));
@@ -73,8 +82,9 @@ export class ComputePool {
       if (slot.task || !this.queue.length) continue;
       const t = this.queue.shift()!;
       slot.task = t;
-      // copy the bytes for the thread; the caller's buffer may be a slice of a pooled one
-      slot.worker.postMessage({ id: t.id, req: t.req });
+      // the upload's bytes are copied (the caller's buffer may be a slice of a pooled one); parsed
+      // columns are moved
+      slot.worker.postMessage({ id: t.id, op: t.op, req: t.req }, t.transfer);
     }
   }
 }

@@ -8,42 +8,48 @@ import { processCast, type ProcessedCast } from '../services/processCast';
 
 export type PlannedStation = { latitude: number | null; longitude: number | null };
 
-export type ComputeRequest = {
+export type ParseRequest = {
   filename: string;
   bytes: Uint8Array;
   mapping: Record<string, string>;
   maxBytes: number;
-  inversionThreshold: number;
-  /** The cruise's planned stations by name (positions for casts that carry none). */
-  plan: Record<string, PlannedStation>;
 };
 
 /** A parsed cast without its columns (they live on in `out.columns`), as the store needs it. */
 export type CastHead = Omit<ParsedCast, 'columns' | 'extras' | 'flags'>;
 
-export type ComputeTimings = { parseMs: number; deriveMs: number };
+export type ParseOutcome =
+  | { kind: 'parse_failed'; errors: FileError[]; unmappedHeaders: string[] | null; parseMs: number }
+  | { kind: 'parsed'; casts: ParsedCast[]; stations: StationRow[]; warnings: FileError[]; parseMs: number };
 
-export type ComputeResult =
-  | { kind: 'parse_failed'; errors: FileError[]; unmappedHeaders: string[] | null; timings: ComputeTimings }
-  | { kind: 'invalid'; errors: FileError[]; timings: ComputeTimings }
-  | { kind: 'ok'; stations: StationRow[]; warnings: FileError[]; processed: { parsed: CastHead; out: ProcessedCast }[]; timings: ComputeTimings };
+export type DeriveRequest = {
+  casts: ParsedCast[];
+  stations: StationRow[];
+  /** The cruise's planned stations by name (positions for casts that carry none). */
+  plan: Record<string, PlannedStation>;
+  inversionThreshold: number;
+};
+export type DeriveOutcome = { errors: FileError[]; processed: { parsed: CastHead; out: ProcessedCast }[]; deriveMs: number };
 
-/** Parse and derive one upload. `onParsed` is called between the two halves (for progress). */
-export async function computeUpload(req: ComputeRequest, onParsed?: () => void): Promise<ComputeResult> {
+/** The first half: parse (and inflate) the upload. */
+export async function parseForIngest(req: ParseRequest): Promise<ParseOutcome> {
   const t0 = performance.now();
   const bytes = Buffer.from(req.bytes.buffer, req.bytes.byteOffset, req.bytes.byteLength);
   const parsed = await parseUpload(req.filename, bytes, { columnMapping: req.mapping, maxBytes: req.maxBytes });
-  const t1 = performance.now();
-  if (!parsed.ok) {
-    return { kind: 'parse_failed', errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null, timings: { parseMs: t1 - t0, deriveMs: 0 } };
-  }
-  onParsed?.();
+  const parseMs = performance.now() - t0;
+  if (!parsed.ok) return { kind: 'parse_failed', errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null, parseMs };
+  return { kind: 'parsed', casts: parsed.casts, stations: parsed.stations, warnings: parsed.warnings, parseMs };
+}
 
+/** The second half, for some of an upload's casts: positions from the station table or the plan,
+ * then every derived column (processCast). Casts come back in the order given. */
+export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
+  const t0 = performance.now();
   // Station tables: casts without a position take it from the table, else from the plan.
-  const rowsByStation = new Map<string, StationRow>(parsed.stations.map((r) => [r.station, r]));
+  const rowsByStation = new Map<string, StationRow>(req.stations.map((r) => [r.station, r]));
   const errors: FileError[] = [];
   const processed: { parsed: CastHead; out: ProcessedCast }[] = [];
-  for (const c of parsed.casts) {
+  for (const c of req.casts) {
     const row = c.metadata.station ? rowsByStation.get(c.metadata.station) : undefined;
     const planned = c.metadata.station ? req.plan[c.metadata.station] : undefined;
     const md = { ...c.metadata };
@@ -58,15 +64,24 @@ export async function computeUpload(req: ComputeRequest, onParsed?: () => void):
     const { columns: _c, extras: _e, flags: _f, ...head } = c;
     processed.push({ parsed: { ...head, metadata: md }, out: result.cast });
   }
-  const timings = { parseMs: t1 - t0, deriveMs: performance.now() - t1 };
-  if (errors.length) return { kind: 'invalid', errors, timings };
-  return { kind: 'ok', stations: parsed.stations, warnings: parsed.warnings, processed, timings };
+  return { errors, processed, deriveMs: performance.now() - t0 };
 }
 
-/** The distinct buffers of a result's columns, to hand them over to another thread without a copy. */
-export function transferablesOf(r: ComputeResult): ArrayBuffer[] {
-  if (r.kind !== 'ok') return [];
+/** The distinct buffers of parsed casts' columns, to hand them to another thread without a copy. */
+export function parsedTransferables(casts: ParsedCast[]): ArrayBuffer[] {
   const seen = new Set<ArrayBuffer>();
-  for (const { out } of r.processed) for (const col of out.columns) if (col.values.buffer instanceof ArrayBuffer) seen.add(col.values.buffer);
+  const add = (a: ArrayBufferView | undefined) => { if (a && a.buffer instanceof ArrayBuffer) seen.add(a.buffer); };
+  for (const c of casts) {
+    for (const v of Object.values(c.columns)) add(v);
+    for (const e of Object.values(c.extras)) add(e.values);
+    for (const f of Object.values(c.flags)) add(f);
+  }
+  return [...seen];
+}
+
+/** The distinct buffers of derived casts' columns. */
+export function derivedTransferables(processed: { out: ProcessedCast }[]): ArrayBuffer[] {
+  const seen = new Set<ArrayBuffer>();
+  for (const { out } of processed) for (const col of out.columns) if (col.values.buffer instanceof ArrayBuffer) seen.add(col.values.buffer);
   return [...seen];
 }

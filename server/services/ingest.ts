@@ -6,7 +6,7 @@ import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/inde
 import { inversionsOfGoodLevels } from './processCast';
 import { computePool } from '../jobs/computePool';
 import { recordIngestTiming } from '../jobs/ingestTimings';
-import { writeColumns } from './columns';
+import { writeColumns, writeColumnsOfCasts, type StoredColumn } from './columns';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
 import { logger } from '../lib/logger';
@@ -35,28 +35,35 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
   const plan = new Map(stations.map((s) => [s.name, s]));
   const tFetched = performance.now();
 
-  // Parse and derive in a worker thread, never on this process's event loop.
-  let progressWrite: Promise<unknown> = Promise.resolve();
-  const computed = await computePool().run({
-    filename: upload.filename, bytes, mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES, inversionThreshold: deps.settings.INVERSION_THRESHOLD,
-    plan: Object.fromEntries(stations.map((s) => [s.name, { latitude: s.latitude, longitude: s.longitude }])),
-  }, () => { progressWrite = Upload.update({ progress: 0.3 }, { where: { id: uploadId, status: 'processing' } }).catch(() => undefined); });
-  await progressWrite;
-  if (computed.kind === 'parse_failed') {
-    await upload.update({ status: 'failed', progress: 1, errors: computed.errors, unmappedHeaders: computed.unmappedHeaders });
+  // Parse, then derive, in the compute pool's threads, never on this process's event loop; the
+  // casts of a zip are shared out over the threads.
+  const pool = computePool();
+  const parsedUpload = await pool.parse({ filename: upload.filename, bytes, mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES });
+  if (parsedUpload.kind === 'parse_failed') {
+    await upload.update({ status: 'failed', progress: 1, errors: parsedUpload.errors, unmappedHeaders: parsedUpload.unmappedHeaders });
     return;
   }
-  if (computed.kind === 'invalid') {
-    await upload.update({ status: 'failed', progress: 1, errors: computed.errors });
+  await Upload.update({ progress: 0.3 }, { where: { id: uploadId, status: 'processing' } });
+  const planned = Object.fromEntries(stations.map((s) => [s.name, { latitude: s.latitude, longitude: s.longitude }]));
+  const shares = Math.max(1, Math.min(pool.size, parsedUpload.casts.length));
+  const per = Math.ceil(parsedUpload.casts.length / shares);
+  const derivedParts = await Promise.all(Array.from({ length: shares }, (_, k) => pool.derive({
+    casts: parsedUpload.casts.slice(k * per, (k + 1) * per), stations: parsedUpload.stations, plan: planned, inversionThreshold: deps.settings.INVERSION_THRESHOLD,
+  })));
+  const derivedErrors = derivedParts.flatMap((d) => d.errors);
+  if (derivedErrors.length) {
+    await upload.update({ status: 'failed', progress: 1, errors: derivedErrors });
     return;
   }
-  const parsed = { stations: computed.stations, warnings: computed.warnings };
-  const processed = computed.processed;
+  const parsed = { stations: parsedUpload.stations, warnings: parsedUpload.warnings };
+  const processed = derivedParts.flatMap((d) => d.processed);
+  const computed = { timings: { parseMs: parsedUpload.parseMs, deriveMs: derivedParts.reduce((s, d) => s + d.deriveMs, 0) } };
   const tComputed = performance.now();
 
   try {
     const castIds = await sequelize.transaction(async (transaction) => {
       const ids: string[] = [];
+      const pendingColumns: { castId: string; columns: StoredColumn[] }[] = [];
       let order = (Math.max(0, ...stations.map((s) => s.order)));
       for (const r of parsed.stations) {
         const s = plan.get(r.station);
@@ -89,9 +96,10 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
           inversions: out.inversions, fitness: out.fitness, metadata: { ...md.extra, format: c.format, units: c.units, profile: c.profile, saar: out.saar, mixedLayer: out.mld },
           notes: [...c.notes, ...out.notes], sourceFile: c.file, sourceSha256: upload.sha256,
         }, { transaction });
-        await writeColumns(cast.id, out.columns, transaction);
+        pendingColumns.push({ castId: cast.id, columns: out.columns });
         ids.push(cast.id);
       }
+      await writeColumnsOfCasts(pendingColumns, transaction);
       await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: parsed.warnings, errors: [] }, { transaction });
       await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
       return ids;
@@ -102,7 +110,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
       uploadId, casts: castIds.length, levels: processed.reduce((n, p) => n + p.out.levels, 0),
       queueWaitMs: opts.queuedAt ? Math.max(0, Date.now() - (tStored - t0) - opts.queuedAt.getTime()) : null,
       fetchMs: tFetched - t0, parseMs: computed.timings.parseMs, deriveMs: computed.timings.deriveMs,
-      computeWaitMs: Math.max(0, tComputed - tFetched - computed.timings.parseMs - computed.timings.deriveMs), storeMs: tStored - tComputed,
+      computeWaitMs: Math.max(0, tComputed - tFetched - computed.timings.parseMs - computed.timings.deriveMs / shares), storeMs: tStored - tComputed,
     });
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
   } catch (err) {
