@@ -23,8 +23,11 @@ export async function writeColumns(castId: string, cols: StoredColumn[], transac
   await writeColumnsOfCasts([{ castId, columns: cols }], transaction);
 }
 
-/** Rows of one INSERT at most (PostgreSQL takes 65 535 parameters a statement; 5 a row). */
+/** Rows and bytes of one INSERT at most (PostgreSQL takes 65 535 parameters a statement; 5 a
+ * row). The byte bound keeps each message small enough that building it never holds up the
+ * event loop for long (a raw 24 Hz zip holds ~100 MB of columns). */
 const ROWS_PER_INSERT = 2000;
+const BYTES_PER_INSERT = 4 * 1024 * 1024;
 
 /**
  * The columns of several casts in as few statements as possible. The bytes go as binary query
@@ -35,8 +38,11 @@ export async function writeColumnsOfCasts(casts: { castId: string; columns: Stor
   const sequelize = CastColumn.sequelize!;
   const rows = casts.flatMap((c) => c.columns.map((col) => [c.castId, col.name, col.unit, col.kind,
     col.values instanceof Float64Array ? encodeF64(col.values) : encodeU8(col.values)] as const));
-  for (let start = 0; start < rows.length; start += ROWS_PER_INSERT) {
-    const chunk = rows.slice(start, start + ROWS_PER_INSERT);
+  for (let start = 0; start < rows.length;) {
+    let end = start, bytes = 0;
+    while (end < rows.length && end - start < ROWS_PER_INSERT && (end === start || bytes + rows[end][4].length <= BYTES_PER_INSERT)) bytes += rows[end++][4].length;
+    const chunk = rows.slice(start, end);
+    start = end;
     const bind: unknown[] = [];
     const tuples = chunk.map((r) => {
       const b = bind.length;
