@@ -9,24 +9,10 @@ import type { Server } from 'node:http';
 import { makeTestApp, createUser, addMember, agentFor, type TestApp } from './helpers';
 import { Cast, Cruise, Upload } from '../../server/models/index';
 import { startWorkers } from '../../server/jobs/worker';
-import { sleep, zipBuffer } from './fault-helpers';
+import { rawCastCsv, sleep, zipBuffer } from './fault-helpers';
 
 const CASTS = 12;
 const SCANS = 100_000;
-
-/** A raw 24 Hz descent: 1 dbar/s with ship heave (±1.5 dbar, 8 s period), so pressure reverses. */
-function rawCast(k: number): string {
-  const lines = [`# station: RAW${k + 1}`, '# cast: 1', `# latitude: ${(-42 - k * 0.1).toFixed(4)}`, `# longitude: ${(-25 + k * 0.1).toFixed(4)}`,
-    '# time: 2026-04-02T03:00:00Z', 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]'];
-  for (let i = 0; i < SCANS; i++) {
-    const s = i / 24;
-    const p = 3 + s + 1.5 * Math.sin((2 * Math.PI * s) / 8);
-    const t = 2 + 18 * Math.exp(-p / 650) + 0.001 * Math.sin(i * 0.7 + k);
-    const sal = 34.7 + 0.8 * Math.exp(-p / 450) + 0.0005 * Math.cos(i * 0.3 + k);
-    lines.push(`${p.toFixed(3)},${t.toFixed(4)},${sal.toFixed(4)}`);
-  }
-  return lines.join('\n') + '\n';
-}
 
 let t: TestApp;
 let server: Server;
@@ -53,7 +39,7 @@ describe('liveness during a large ingest', () => {
     const c = await Cruise.create({ name: 'Liveness', ship: 'RV Probe', startDate: '2026-04-01', endDate: '2026-04-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
     await addMember(tech.id, c.id, 'technician');
     const a = await agentFor(t.app, 'live-tech@example.test');
-    const zip = await zipBuffer(Array.from({ length: CASTS }, (_, k) => ({ name: `raw/cast${String(k + 1).padStart(2, '0')}.csv`, data: rawCast(k) })));
+    const zip = await zipBuffer(Array.from({ length: CASTS }, (_, k) => ({ name: `raw/cast${String(k + 1).padStart(2, '0')}.csv`, data: rawCastCsv(k, SCANS) })));
 
     // the probe: one request every 0.2 s, each timed on its own
     const answers: { ms: number; status: number }[] = [];
