@@ -215,7 +215,7 @@ function balticAt(b: Float64Array, x: number, lat: number): boolean {
   const first = b[0], last = b[3 * (rows - 1)], step = b[3] - b[0];
   // The edges are straight between the tabulated latitudes, and half a step beyond the ends.
   if (!(lat > first - step && lat < last + step)) return false;
-  let i = Math.min(Math.max(Math.floor((lat - first) / step), 0), rows - 2);
+  const i = Math.min(Math.max(Math.floor((lat - first) / step), 0), rows - 2);
   const w = (lat - b[3 * i]) / step;
   const west = b[3 * i + 1] + w * (b[3 * (i + 1) + 1] - b[3 * i + 1]);
   const east = b[3 * i + 2] + w * (b[3 * (i + 1) + 2] - b[3 * i + 2]);
