@@ -3,10 +3,11 @@
 // one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
 import { Op } from 'sequelize';
 import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
-import { parseUpload } from '../parsers/index';
 import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
-import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
-import { writeColumns } from './columns';
+import { inversionsOfGoodLevels, type ProcessedCast } from './processCast';
+import { computePool } from '../jobs/computePool';
+import { recordIngestTiming } from '../jobs/ingestTimings';
+import { writeColumns, writeColumnsOfCasts, type StoredColumn } from './columns';
 import { recordQcAtIntake } from './qcProposals';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
@@ -18,8 +19,9 @@ import type { AppDeps } from '../lib/deps';
 
 export class IngestFault extends Error {}
 
-export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { reprocess?: boolean } = {}): Promise<void> {
+export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { reprocess?: boolean; queuedAt?: Date } = {}): Promise<void> {
   const { sequelize } = deps.db;
+  const t0 = performance.now();
   const upload = await Upload.findByPk(uploadId);
   if (!upload) return; // deleted meanwhile
   if (upload.status === 'ready' && !opts.reprocess) return; // a retried job after success: nothing to do
@@ -33,39 +35,38 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     throw new IngestFault(`object storage unavailable: ${(err as Error).message}`);
   }
   const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
-  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES,
-    zipLimits: { maxTotalBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES }, maxLevels: deps.settings.CAST_MAX_LEVELS, salvage: true });
-  await upload.update({ progress: 0.3 });
-  if (!parsed.ok) {
-    await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
-    return;
-  }
-
   // Station tables: fill or update the plan; casts without a position take it from the plan.
   const stations = await Station.findAll({ where: { cruiseId: upload.cruiseId } });
   const plan = new Map(stations.map((s) => [s.name, s]));
-  const rowsByStation = new Map<string, StationRow>(parsed.stations.map((r) => [r.station, r]));
+  const tFetched = performance.now();
 
-  const errors: FileError[] = [];
-  const processed: { parsed: ParsedCast; out: ProcessedCast }[] = [];
-  for (const c of parsed.casts) {
-    const row = c.metadata.station ? rowsByStation.get(c.metadata.station) : undefined;
-    const planned = c.metadata.station ? plan.get(c.metadata.station) : undefined;
-    const md = { ...c.metadata };
-    md.latitude ??= row?.latitude ?? planned?.latitude ?? null;
-    md.longitude ??= row?.longitude ?? planned?.longitude ?? null;
-    md.bottomDepth ??= row?.bottomDepth ?? null;
-    md.time ??= row?.time ?? null;
-    if (!md.station) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: no station identifier (add a "# station:" line or a station table).` }); continue; }
-    if (md.latitude == null || md.longitude == null) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).` }); continue; }
-    const result = processCast({ ...c, metadata: md }, { inversionThreshold: deps.settings.INVERSION_THRESHOLD });
-    if (!result.ok) { errors.push(...result.errors); continue; }
-    processed.push({ parsed: { ...c, metadata: md }, out: result.cast });
-  }
-  if (errors.length) {
-    await upload.update({ status: 'failed', progress: 1, errors });
+  // Parse, then derive, in the compute pool's threads, never on this process's event loop; the
+  // casts of a zip are shared out over the threads.
+  const pool = computePool();
+  const parsedUpload = await pool.parse({
+    filename: upload.filename, bytes, mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES,
+    maxInflatedBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES, maxLevels: deps.settings.CAST_MAX_LEVELS, salvage: true,
+  });
+  if (parsedUpload.kind === 'parse_failed') {
+    await upload.update({ status: 'failed', progress: 1, errors: parsedUpload.errors, unmappedHeaders: parsedUpload.unmappedHeaders });
     return;
   }
+  await Upload.update({ progress: 0.3 }, { where: { id: uploadId, status: 'processing' } });
+  const planned = Object.fromEntries(stations.map((s) => [s.name, { latitude: s.latitude, longitude: s.longitude }]));
+  const shares = Math.max(1, Math.min(pool.size, parsedUpload.casts.length));
+  const per = Math.ceil(parsedUpload.casts.length / shares);
+  const derivedParts = await Promise.all(Array.from({ length: shares }, (_, k) => pool.derive({
+    casts: parsedUpload.casts.slice(k * per, (k + 1) * per), stations: parsedUpload.stations, plan: planned, inversionThreshold: deps.settings.INVERSION_THRESHOLD,
+  })));
+  const derivedErrors = derivedParts.flatMap((d) => d.errors);
+  if (derivedErrors.length) {
+    await upload.update({ status: 'failed', progress: 1, errors: derivedErrors });
+    return;
+  }
+  const parsed = { stations: parsedUpload.stations, warnings: parsedUpload.warnings };
+  const processed = derivedParts.flatMap((d) => d.processed);
+  const computed = { timings: { parseMs: parsedUpload.parseMs, deriveMs: derivedParts.reduce((s, d) => s + d.deriveMs, 0) } };
+  const tComputed = performance.now();
   // Cast life: one live cast per station and cast; a corrected file asks whether it replaces.
   const gate = opts.reprocess ? null : await replacementGate(upload, processed.map((p) => ({ file: p.parsed.file, station: p.parsed.metadata.station!, cast: p.parsed.metadata.cast ?? '1' })));
   if (gate?.stop) return;
@@ -75,6 +76,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
   try {
     const castIds = await sequelize.transaction(async (transaction) => {
       const ids: string[] = [];
+      const pendingColumns: { castId: string; columns: StoredColumn[] }[] = [];
       let order = (Math.max(0, ...stations.map((s) => s.order)));
       for (const r of parsed.stations) {
         const s = plan.get(r.station);
@@ -110,9 +112,10 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
           notes: [...c.notes, ...out.notes, ...life.notes], sourceFile: c.file, sourceSha256: upload.sha256, ...life.fields,
         }, { transaction });
         if (life.replaced) await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: 'replace_cast', entity: 'cast', entityId: cast.id, before: { castId: life.replaced, file: life.replacedFile }, after: { file: c.file, upload: upload.id, flagsCarried: life.carried, notCarried: life.notCarried } }, transaction);
-        await writeColumns(cast.id, out.columns, transaction);
+        pendingColumns.push({ castId: cast.id, columns: out.columns });
         ids.push(cast.id);
       }
+      await writeColumnsOfCasts(pendingColumns, transaction);
       // QC desk: proposals of the automatic tests and what the intake found (server/services/qcProposals.ts)
       // (the casts left out for an earlier version have no id here, so they are left out of the batch too)
       const kept = processed.filter(({ parsed: c }) => !skippedKeys.has(liveKey(c.metadata.station!, c.metadata.cast ?? '1')));
@@ -123,6 +126,13 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
       return ids;
     });
     invalidateDataVersion(upload.cruiseId);
+    const tStored = performance.now();
+    recordIngestTiming({
+      uploadId, casts: castIds.length, levels: processed.reduce((n, p) => n + p.out.levels, 0),
+      queueWaitMs: opts.queuedAt ? Math.max(0, Date.now() - (tStored - t0) - opts.queuedAt.getTime()) : null,
+      fetchMs: tFetched - t0, parseMs: computed.timings.parseMs, deriveMs: computed.timings.deriveMs,
+      computeWaitMs: Math.max(0, tComputed - tFetched - computed.timings.parseMs - computed.timings.deriveMs / shares), storeMs: tStored - tComputed,
+    });
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
   } catch (err) {
     await Upload.update({ status: 'queued', progress: 0 }, { where: { id: uploadId, status: { [Op.ne]: 'ready' } } }).catch(() => undefined);
@@ -134,7 +144,7 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
  * The new cast's life fields: partly read (its dropped lines, awaiting a decision), and, when it
  * replaces a live cast, a fixed id the earlier version points to, the carried flags and their note.
  */
-async function newVersionOf(gate: Gate | null, c: ParsedCast, out: ProcessedCast, upload: Upload, threshold: number, transaction: Transaction) {
+async function newVersionOf(gate: Gate | null, c: Pick<ParsedCast, 'file' | 'metadata' | 'dropped'>, out: ProcessedCast, upload: Upload, threshold: number, transaction: Transaction) {
   const partlyRead = c.dropped && c.dropped.length ? { dropped: c.dropped, decision: null } : null;
   const old = gate && !gate.stop ? gate.replace.get(liveKey(c.metadata.station!, c.metadata.cast ?? '1')) : undefined;
   if (!old) return { fields: { partlyRead }, notes: [] as string[], replaced: null, replacedFile: null, carried: 0, notCarried: [] as unknown[] };

@@ -1,11 +1,17 @@
-// Background jobs on pg-boss, in the same PostgreSQL database as the app.
+// Background jobs on pg-boss, in the same PostgreSQL database as the app. A sent job also wakes
+// the workers at once (NOTIFY on JOB_CHANNEL; every worker LISTENs), so no job waits for a poll;
+// pg-boss's own polling stays as the fallback when a notification is lost.
 import PgBoss from 'pg-boss';
+import pg from 'pg';
 
 export const QUEUES = { ingest: 'ingest-upload', delivery: 'build-delivery' } as const;
+export const JOB_CHANNEL = 'sigmaline_jobs';
 
 export type Queue = {
   boss: PgBoss;
   send(name: string, data: object, opts?: PgBoss.SendOptions): Promise<string | null>;
+  /** Calls `onJob(queue name)` whenever a job is sent (by any process); returns a stop function. */
+  listen(onJob: (name: string) => void): Promise<() => Promise<void>>;
   check(): Promise<void>;
   stop(): Promise<void>;
 };
@@ -23,12 +29,48 @@ export async function createQueue(databaseUrl: string, opts: { max?: number; exp
     // (otherwise a changed JOB_EXPIRE_SECONDS would never take effect after the first start).
     await boss.updateQueue(name, policy);
   }
+  const listeners = new Set<() => Promise<void>>();
   return {
     boss,
-    send: (name, data, o) => boss.send(name, data, o ?? {}),
+    async send(name, data, o) {
+      const id = await boss.send(name, data, o ?? {});
+      if (id) await boss.getDb().executeSql('SELECT pg_notify($1, $2)', [JOB_CHANNEL, name]).catch(() => undefined);
+      return id;
+    },
+    async listen(onJob) {
+      let stopped = false;
+      let client: pg.Client | null = null;
+      const connect = async (): Promise<void> => {
+        if (stopped) return;
+        const c = new pg.Client({ connectionString: databaseUrl });
+        c.on('notification', (n) => { if (n.channel === JOB_CHANNEL) onJob(n.payload ?? ''); });
+        // a lost connection only slows the workers down to polling; reconnect in the background
+        c.on('error', () => { c.end().catch(() => undefined); if (client === c) { client = null; setTimeout(() => { connect().catch(() => undefined); }, 1000).unref(); } });
+        try {
+          await c.connect();
+          await c.query(`LISTEN ${JOB_CHANNEL}`);
+          client = c;
+        } catch {
+          c.end().catch(() => undefined);
+          if (!stopped) setTimeout(() => { connect().catch(() => undefined); }, 1000).unref();
+        }
+      };
+      await connect();
+      const stop = async () => {
+        stopped = true;
+        listeners.delete(stop);
+        await client?.end().catch(() => undefined);
+        client = null;
+      };
+      listeners.add(stop);
+      return stop;
+    },
     async check() {
       await boss.getQueue(QUEUES.ingest);
     },
-    stop: () => boss.stop({ graceful: true, timeout: 5000 }),
+    async stop() {
+      await Promise.all([...listeners].map((s) => s()));
+      await boss.stop({ graceful: true, timeout: 5000 });
+    },
   };
 }

@@ -20,19 +20,29 @@ export interface CoordinateFitness {
   segments: PressureSegment[];
 }
 
-/**
- * Measure of the part of [lo, hi] covered by two or more of the value ranges, given the sorted
- * breakpoints and the prefix measure P(b_i) of "covered at least twice" up to each breakpoint.
- */
-function coveredTwice(bp: Float64Array, prefix: Float64Array, count: Int32Array, v: number): number {
-  // P(v) = prefix at the last breakpoint ≤ v, plus the partial elementary segment.
-  let lo = 0;
-  let hi = bp.length;
-  while (lo < hi) { const mid = (lo + hi) >>> 1; if (bp[mid] <= v) lo = mid + 1; else hi = mid; }
-  const i = lo - 1;
-  if (i < 0) return 0;
-  if (i >= bp.length - 1) return prefix[bp.length - 1];
-  return prefix[i] + (count[i] >= 2 ? v - bp[i] : 0);
+/** Sort keys[0..m) ascending, carrying order[] along: insertion sort while the input is nearly
+ * sorted (a profile's levels in its dominant direction), a full sort of the pairs once it is not. */
+function sortByKey(keys: Float64Array, order: Int32Array, m: number, value: Float64Array): void {
+  let budget = 8 * m;
+  for (let i = 1; i < m; i++) {
+    const x = keys[i], o = order[i];
+    let j = i - 1;
+    while (j >= 0 && keys[j] > x) {
+      keys[j + 1] = keys[j];
+      order[j + 1] = order[j];
+      j--;
+      if (--budget < 0) {
+        keys[j + 1] = x;
+        order[j + 1] = o;
+        // keys[q] is V[order[q]]: sort the level indices by their values
+        order.subarray(0, m).sort((u, w) => value[u] - value[w]);
+        for (let q = 0; q < m; q++) keys[q] = value[order[q]];
+        return;
+      }
+    }
+    keys[j + 1] = x;
+    order[j + 1] = o;
+  }
 }
 
 /**
@@ -43,16 +53,21 @@ function coveredTwice(bp: Float64Array, prefix: Float64Array, count: Int32Array,
  * intervals (Δv = 0) count as multi-valued in full.
  */
 export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateFitness {
-  const keep: number[] = [];
-  for (let i = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(v[i])) keep.push(i);
-  const n = keep.length;
+  // The usable levels, packed (no per-level objects: this runs for 8 variables of every cast).
+  let P = p, V = v, n = 0;
+  for (let i = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(v[i])) n++;
+  if (n !== p.length) {
+    P = new Float64Array(n);
+    V = new Float64Array(n);
+    for (let i = 0, k = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(v[i])) { P[k] = p[i]; V[k++] = v[i]; }
+  }
   if (n < 2) return { monotonicShare: 0, multiValuedShare: 0, direction: 'none', segments: [] };
   let spanUp = 0;
   let spanDown = 0;
   let total = 0;
   for (let k = 0; k < n - 1; k++) {
-    const dp = p[keep[k + 1]] - p[keep[k]];
-    const dv = v[keep[k + 1]] - v[keep[k]];
+    const dp = P[k + 1] - P[k];
+    const dv = V[k + 1] - V[k];
     total += dp;
     if (dv > 0) spanUp += dp;
     else if (dv < 0) spanDown += dp;
@@ -62,40 +77,43 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
   const segments: PressureSegment[] = [];
   let open = -1;
   for (let k = 0; k < n - 1; k++) {
-    const dv = v[keep[k + 1]] - v[keep[k]];
+    const dv = V[k + 1] - V[k];
     const good = sign !== 0 && dv * sign > 0;
     if (good && open < 0) open = k;
-    if (!good && open >= 0) { segments.push({ pTop: p[keep[open]], pBottom: p[keep[k]] }); open = -1; }
+    if (!good && open >= 0) { segments.push({ pTop: P[open], pBottom: P[k] }); open = -1; }
   }
-  if (open >= 0) segments.push({ pTop: p[keep[open]], pBottom: p[keep[n - 1]] });
+  if (open >= 0) segments.push({ pTop: P[open], pBottom: P[n - 1] });
 
-  // Coverage count of the value axis by the non-flat intervals' closed ranges.
-  const events: number[] = [];
-  for (let k = 0; k < n - 1; k++) {
-    const a = v[keep[k]];
-    const b = v[keep[k + 1]];
-    if (a !== b) events.push(Math.min(a, b), Math.max(a, b));
+  // Coverage count of the value axis by the non-flat intervals' closed ranges. Their end points
+  // are levels' values: each such level gets the rank of its value among the distinct end points
+  // (bp), found by sorting the levels by value — listed in the dominant direction, a nearly
+  // monotonic profile comes nearly sorted — so no interval needs a search.
+  const order = new Int32Array(n);
+  const keys = new Float64Array(n);
+  let m = 0;
+  for (let j = 0; j < n; j++) {
+    const k = sign < 0 ? n - 1 - j : j;
+    if ((k > 0 && V[k - 1] !== V[k]) || (k < n - 1 && V[k] !== V[k + 1])) { order[m] = k; keys[m++] = V[k]; }
   }
-  const bpAll = Float64Array.from(events).sort();
-  const bpList: number[] = [];
-  for (let i = 0; i < bpAll.length; i++) if (i === 0 || bpAll[i] !== bpAll[i - 1]) bpList.push(bpAll[i]);
-  const bp = Float64Array.from(bpList);
+  sortByKey(keys, order, m, V);
+  const rank = new Int32Array(n);
+  const bpAll = new Float64Array(m);
+  let nb = 0;
+  for (let i = 0; i < m; i++) {
+    if (i === 0 || keys[i] !== bpAll[nb - 1]) bpAll[nb++] = keys[i];
+    rank[order[i]] = nb - 1;
+  }
+  const bp = bpAll.subarray(0, nb);
   const diff = new Int32Array(bp.length + 1);
-  const find = (x: number): number => {
-    let lo = 0;
-    let hi = bp.length;
-    while (lo < hi) { const mid = (lo + hi) >>> 1; if (bp[mid] < x) lo = mid + 1; else hi = mid; }
-    return lo;
-  };
   for (let k = 0; k < n - 1; k++) {
-    const a = v[keep[k]];
-    const b = v[keep[k + 1]];
-    if (a === b) continue;
-    diff[find(Math.min(a, b))]++;
-    diff[find(Math.max(a, b))]--;
+    const ra = rank[k];
+    const rb = rank[k + 1];
+    if (V[k] === V[k + 1]) continue;
+    diff[ra < rb ? ra : rb]++;
+    diff[ra < rb ? rb : ra]--;
   }
   const count = new Int32Array(bp.length); // count[i] covers (bp[i], bp[i+1])
-  const prefix = new Float64Array(bp.length);
+  const prefix = new Float64Array(bp.length); // measure covered twice or more below bp[i]
   let c = 0;
   for (let i = 0; i < bp.length; i++) {
     c += diff[i];
@@ -104,13 +122,14 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
   }
   let multi = 0;
   for (let k = 0; k < n - 1; k++) {
-    const a = v[keep[k]];
-    const b = v[keep[k + 1]];
-    const dp = p[keep[k + 1]] - p[keep[k]];
+    const a = V[k];
+    const b = V[k + 1];
+    const dp = P[k + 1] - P[k];
     if (a === b) { multi += dp; continue; }
     const lo = Math.min(a, b);
     const hi = Math.max(a, b);
-    const shared = coveredTwice(bp, prefix, count, hi) - coveredTwice(bp, prefix, count, lo);
+    // the part of [lo, hi] covered twice: the prefix measure at its two end points
+    const shared = prefix[a < b ? rank[k + 1] : rank[k]] - prefix[a < b ? rank[k] : rank[k + 1]];
     multi += (dp * shared) / (hi - lo);
   }
   return {

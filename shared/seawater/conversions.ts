@@ -120,6 +120,20 @@ export function CT_from_t(SA: number, t: number, p: number): number {
   return enthalpyAt(aRef, y0) / cp0;
 }
 
+/**
+ * pt0_from_t and CT_from_t of one parcel from one Newton solve (the same sums as the two
+ * functions above, which each solve for pt0): pair[0] = pt0 °C, pair[1] = CT °C; NaN outside the
+ * range. SA g/kg, t °C (ITS-90), p dbar.
+ */
+export function pt0_CT_from_t(SA: number, t: number, p: number, pair: Float64Array): void {
+  if (!inRange(SA, t, p)) { pair[0] = NaN; pair[1] = NaN; return; }
+  collapsePair(SA, p, 0, aInSitu, aRef);
+  const y = t / tScale;
+  const y0 = yOfEntropy(aRef, gyAt(aInSitu, y), pt0Guess(SA, t, p) / tScale);
+  pair[0] = tScale * y0;
+  pair[1] = enthalpyAt(aRef, y0) / cp0;
+}
+
 /** Solve h0(SA, pt) = cp0·CT for y = pt/40 with `aRef` collapsed at 0 dbar. */
 function yOfCT(CT: number): number {
   const target = cp0 * CT;

@@ -5,14 +5,14 @@
  * (see their files for the papers); nothing is computed here that is not in one of them.
  */
 import { z } from 'zod';
-import { CT_from_t, pt0_from_t } from './conversions';
+import { pt0_CT_from_t } from './conversions';
 import { SP_from_C } from './pss78';
-import { SA_from_SP, SAAR } from './saar';
-import { checkRange } from './ranges';
-import { rho, sigma_pr, SIGMA_REFERENCE_PRESSURES } from './density';
-import { z_from_p } from './depth';
+import { SA_from_SP_cast } from './saar';
+import { checkRange, P_RANGE, SP_RANGE, T_RANGE } from './ranges';
+import { rho_batch, sigma_batch, SIGMA_REFERENCE_PRESSURES } from './density';
+import { depth_from_p_batch } from './depth';
 import { Nsquared } from './stability';
-import { spiciness0 } from './spiciness';
+import { spiciness0_batch } from './spiciness';
 import { mixed_layer_depth, type MldResult } from './mld';
 
 const column = z.union([z.instanceof(Float64Array), z.array(z.number().or(z.nan()))]);
@@ -102,24 +102,28 @@ export function deriveCast(input: CastInput): DerivedCast {
   }
 
   const SA = new Float64Array(n), CT = new Float64Array(n), pt0 = new Float64Array(n);
-  const sig = SIGMA_REFERENCE_PRESSURES.map(() => new Float64Array(n));
-  const rhoCol = new Float64Array(n), spic = new Float64Array(n), depth = new Float64Array(n);
+  const depth = new Float64Array(n);
   const reasons: (string | null)[] = new Array(n).fill(null);
   const fallback: (string | null)[] = new Array(n).fill(null);
+  // Column by column with the batch kernels (nothing allocated per level); the words for a level
+  // that cannot be used are only written where one is out of range.
+  const silent = new Uint8Array(n);
+  SA_from_SP_cast(SP, p, lon, lat, SA, silent);
+  const pair = new Float64Array(2);
   for (let i = 0; i < n; i++) {
-    reasons[i] = checkRange({ SP: SP[i], t: t[i], p: p[i] });
-    SA[i] = SA_from_SP(SP[i], p[i], lon, lat);
-    if (Number.isFinite(SA[i]) && !SAAR(p[i], lon, lat).inAtlas) {
-      fallback[i] = 'no Absolute Salinity Anomaly Ratio atlas value here: SA = SR (Reference Salinity) used';
+    pt0_CT_from_t(SA[i], t[i], p[i], pair);
+    pt0[i] = pair[0];
+    CT[i] = pair[1];
+    if (silent[i] && SA[i] === SA[i]) fallback[i] = 'no Absolute Salinity Anomaly Ratio atlas value here: SA = SR (Reference Salinity) used';
+    if (!(SP[i] >= SP_RANGE[0] && SP[i] <= SP_RANGE[1] && t[i] >= T_RANGE[0] && t[i] <= T_RANGE[1] && p[i] >= P_RANGE[0] && p[i] <= P_RANGE[1])) {
+      reasons[i] = checkRange({ SP: SP[i], t: t[i], p: p[i] });
     }
-    CT[i] = CT_from_t(SA[i], t[i], p[i]);
-    pt0[i] = pt0_from_t(SA[i], t[i], p[i]);
-    if (reasons[i] === null && !Number.isFinite(CT[i])) reasons[i] = checkRange({ SA: SA[i], t: t[i], p: p[i] }) ?? 'Conservative Temperature could not be computed';
-    for (let r = 0; r < sig.length; r++) sig[r][i] = sigma_pr(SA[i], CT[i], SIGMA_REFERENCE_PRESSURES[r]);
-    rhoCol[i] = rho(SA[i], CT[i], p[i]);
-    spic[i] = spiciness0(SA[i], CT[i]);
-    depth[i] = -z_from_p(p[i], lat);
+    if (reasons[i] === null && CT[i] !== CT[i]) reasons[i] = checkRange({ SA: SA[i], t: t[i], p: p[i] }) ?? 'Conservative Temperature could not be computed';
   }
+  const sig = SIGMA_REFERENCE_PRESSURES.map((pr) => sigma_batch(SA, CT, pr));
+  const rhoCol = rho_batch(SA, CT, p);
+  const spic = spiciness0_batch(SA, CT);
+  depth_from_p_batch(p, lat, depth);
   notes.push(...collectNotes('sr_fallback', fallback), ...collectNotes('out_of_range', reasons));
 
   // N² needs pressure increasing; a cast with reversals is reported, not silently reordered.

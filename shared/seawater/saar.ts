@@ -6,7 +6,10 @@
 // estimating Absolute Salinity", Ocean Science 8, 1123–1134, interpolated as that paper does:
 // linearly in pressure between the atlas levels (held at the deepest level of the cell below
 // it), bilinearly in longitude and latitude inside a 4° cell, and where a corner of the cell has
-// no value (land, or below that column's bottom) with the mean of the corners that have one.
+// no value (land, or below that column's bottom) with the mean of the corners that have one at
+// that level (0 where none has), as the reference library python3-gsw 3.6.16 does. The nodes at
+// 0° E and 360° E are distinct columns of the atlas (the reference's differ); longitudes are
+// taken modulo 360 into [0, 360), so a point just west of 0° E reads the cell 356–360° E.
 // In the Baltic Sea, SA = (35.16504 − 0.087)/35·SP + 0.087 g/kg (Feistel et al. 2010, Ocean
 // Science 6, 91–141). Where no corner of the cell has a value the atlas is silent: SA falls
 // back to SR, and `SA_from_SP_detail` says so, so the cast's notes can.
@@ -29,6 +32,7 @@ interface AtlasFile {
   saar_base64: string;
   cell_deepest_level: { values: number[] };
   baltic: { rows: [number, number, number][] };
+  panama: { line_lon: number[]; line_lat: number[]; cells: { lon_cell: number; lat_cell: number; above_base64: string; below_base64: string; outside_base64: string }[] };
 }
 
 interface Atlas {
@@ -44,7 +48,11 @@ interface Atlas {
   saar: Float64Array;
   /** Deepest level index read in each cell, per [lat cell][lon cell], −1 for a cell without values. */
   deepest: Int32Array;
+  cellsPerRow: number;
   baltic: Float64Array; // rows of [lat, west, east]
+  /** Cells the Panama box touches: corner values per level (× 4) for points in the box above or
+   * below the line, and outside the box. */
+  panama: Map<number, { above: Float64Array; below: Float64Array; outside: Float64Array }>;
 }
 
 let atlas: Atlas | null = null;
@@ -75,8 +83,13 @@ function loadAtlas(): Atlas {
     lon0: file.longitudes.first, dlon: file.longitudes.step, nx,
     lat0: file.latitudes.first, dlat: file.latitudes.step, ny,
     p: Float64Array.from(file.pressures), nz,
-    saar, deepest,
+    saar, deepest, cellsPerRow: nx - 1,
     baltic: Float64Array.from(file.baltic.rows.flat()),
+    panama: new Map(file.panama.cells.map((c) => [c.lat_cell * (nx - 1) + c.lon_cell, {
+      above: new Float64Array(decodeBase64(c.above_base64).slice().buffer),
+      below: new Float64Array(decodeBase64(c.below_base64).slice().buffer),
+      outside: new Float64Array(decodeBase64(c.outside_base64).slice().buffer),
+    }])),
   };
   return atlas;
 }
@@ -86,57 +99,55 @@ export function SR_from_SP(SP: number): number {
   return uPS * SP;
 }
 
-/** The corner values of one cell at one level, with missing corners replaced by the mean of the others. */
-function cellAt(a: Atlas, k: number, ix: number, iy: number, corners: Float64Array, lon: number, lat: number): boolean {
-  const base = k * a.nx * a.ny;
-  corners[0] = a.saar[base + iy * a.nx + ix];
-  corners[1] = a.saar[base + iy * a.nx + ix + 1];
-  corners[2] = a.saar[base + (iy + 1) * a.nx + ix + 1];
-  corners[3] = a.saar[base + (iy + 1) * a.nx + ix];
-  if (lon >= PANAMA_LON[0] && lon <= PANAMA_LON[PANAMA_LON.length - 1] && lat >= 0 && lat <= PANAMA_LAT[0]) {
-    applyPanamaBarrier(corners, lon, lat, a.lon0 + ix * a.dlon, a.lat0 + iy * a.dlat, a.dlon, a.dlat);
+/**
+ * The corner values of one cell at one level, as the reference library reads them: a corner
+ * without a value takes the mean of the corners that have one, and where no corner at that level
+ * has a value all four read 0 (McDougall et al. 2012 §3; the behaviour of python3-gsw 3.6.16).
+ * Inside the Panama box, where the reference counts only the corners on the point's side of the
+ * isthmus, the cell's corner values for that side come from the atlas file's Panama table.
+ */
+function cellAt(a: Atlas, k: number, ix: number, iy: number, corners: Float64Array, x: number, lat: number): void {
+  const base = k * a.nx * a.ny + iy * a.nx + ix;
+  corners[0] = a.saar[base];
+  corners[1] = a.saar[base + 1];
+  corners[2] = a.saar[base + a.nx + 1];
+  corners[3] = a.saar[base + a.nx];
+  const cell = a.panama.size ? a.panama.get(iy * a.cellsPerRow + ix) : undefined;
+  if (cell) {
+    const inBox = x >= PANAMA_LON[0] && x <= PANAMA_LON[PANAMA_LON.length - 1] - 0.001 && lat >= PANAMA_LAT[PANAMA_LAT.length - 1] &&
+      lat <= PANAMA_LAT[0];
+    const side = !inBox ? cell.outside : panamaLat(x) <= lat ? cell.above : cell.below;
+    for (let c = 0; c < 4; c++) corners[c] = side[4 * k + c];
+    return;
   }
+  if (corners[0] === corners[0] && corners[1] === corners[1] && corners[2] === corners[2] && corners[3] === corners[3]) return;
   let sum = 0, count = 0;
   for (let c = 0; c < 4; c++) {
-    if (!Number.isNaN(corners[c])) {
+    if (corners[c] === corners[c]) {
       sum += corners[c];
       count++;
     }
   }
-  if (count === 0) return false;
-  if (count < 4) {
-    const mean = sum / count;
-    for (let c = 0; c < 4; c++) if (Number.isNaN(corners[c])) corners[c] = mean;
-  }
-  return true;
+  const mean = count === 0 ? 0 : sum / count;
+  for (let c = 0; c < 4; c++) if (corners[c] !== corners[c]) corners[c] = mean;
 }
 
 // The Isthmus of Panama as a polyline (°E, °N): atlas corners on the other side of it from the
 // point do not count, so Pacific and Caribbean water are not averaged across the land bridge
 // (McDougall et al. 2012, §3).
-const PANAMA_LON = [260.0, 272.59, 276.5, 278.65, 280.73, 295.217];
-const PANAMA_LAT = [19.55, 13.97, 9.6, 8.1, 9.33, 0.0];
+// The nodes are the reference library's (python3-gsw 3.6.16): its values jump across exactly this
+// line (last node 292° E, 3.4° N), found by bisection in scripts/gsw/make_saar_atlas.py.
+const PANAMA_LON = [260.0, 272.59, 276.5, 278.65, 280.73, 292.0];
+const PANAMA_LAT = [19.55, 13.97, 9.6, 8.1, 9.33, 3.4];
 
+/** Latitude of the barrier line at lon, straight between its nodes and extended along its end
+ * segments outside them (as the reference library evaluates it for cell corners beyond the ends). */
 function panamaLat(lon: number): number {
-  for (let i = 0; i < PANAMA_LON.length - 1; i++) {
-    if (lon <= PANAMA_LON[i + 1]) {
-      const w = (lon - PANAMA_LON[i]) / (PANAMA_LON[i + 1] - PANAMA_LON[i]);
-      return PANAMA_LAT[i] + w * (PANAMA_LAT[i + 1] - PANAMA_LAT[i]);
-    }
-  }
-  return PANAMA_LAT[PANAMA_LAT.length - 1];
-}
-
-/** Mark as missing the corners of a cell that lie across the Panama barrier from (lon, lat). */
-function applyPanamaBarrier(corners: Float64Array, lon: number, lat: number, lonW: number, latS: number, dlon: number, dlat: number): void {
-  const above = lat > panamaLat(lon);
-  const lonE = lonW + dlon, latN = latS + dlat;
-  const cornerLon = [lonW, lonE, lonE, lonW];
-  const cornerLat = [latS, latS, latN, latN];
-  for (let c = 0; c < 4; c++) {
-    const cl = Math.min(Math.max(cornerLon[c], PANAMA_LON[0]), PANAMA_LON[PANAMA_LON.length - 1]);
-    if (cornerLat[c] > panamaLat(cl) !== above) corners[c] = NaN;
-  }
+  const n = PANAMA_LON.length;
+  let i = 0;
+  while (i < n - 2 && lon > PANAMA_LON[i + 1]) i++;
+  const w = (lon - PANAMA_LON[i]) / (PANAMA_LON[i + 1] - PANAMA_LON[i]);
+  return PANAMA_LAT[i] + w * (PANAMA_LAT[i + 1] - PANAMA_LAT[i]);
 }
 
 const upper = new Float64Array(4);
@@ -148,6 +159,9 @@ export interface SAARValue {
   inAtlas: boolean;
 }
 
+/** Longitude in [0, 360) °E, the atlas's own range (a point just west of 0° E reads the 360° E column). */
+const wrapLon = (lon: number) => (lon >= 0 && lon < 360 ? lon : lon - 360 * Math.floor(lon / 360));
+
 /** The atlas interpolation proper: SAAR at (p, lon in 0–360 °E, lat), NaN where the atlas is silent. */
 function saarAt(a: Atlas, p: number, x: number, lat: number): number {
   if (!(lat >= a.lat0 && lat <= a.lat0 + a.dlat * (a.ny - 1))) return NaN;
@@ -157,9 +171,10 @@ function saarAt(a: Atlas, p: number, x: number, lat: number): number {
   if (iy >= a.ny - 1) iy = a.ny - 2;
   const kMax = a.deepest[iy * (a.nx - 1) + ix];
   if (kMax < 0) return NaN;
-  // Below the deepest level of the cell the ratio is held at its value there.
+  // Below the deepest level the cell reads, the ratio is held at its value there; above the
+  // first level (0 dbar) the first pair of levels is extended, as the reference does.
   const levels = a.p;
-  const pc = p < levels[0] ? levels[0] : p > levels[kMax] ? levels[kMax] : p;
+  const pc = p > levels[kMax] ? levels[kMax] : p;
   // The level pair that brackets pc, by bisection.
   let lo = 0, hi = a.nz - 1;
   while (hi - lo > 1) {
@@ -171,16 +186,12 @@ function saarAt(a: Atlas, p: number, x: number, lat: number): number {
   const r = (x - (a.lon0 + ix * a.dlon)) / a.dlon;
   const s = (lat - (a.lat0 + iy * a.dlat)) / a.dlat;
   const tz = (pc - levels[k]) / (levels[k + 1] - levels[k]);
-  const hasUpper = cellAt(a, k, ix, iy, upper, x, lat);
-  const hasLower = cellAt(a, k + 1, ix, iy, lower, x, lat);
-  if (!hasUpper && !hasLower) return NaN;
-  const vu = hasUpper
-    ? (1 - s) * (upper[0] + r * (upper[1] - upper[0])) + s * (upper[3] + r * (upper[2] - upper[3]))
-    : NaN;
-  const vl = hasLower
-    ? (1 - s) * (lower[0] + r * (lower[1] - lower[0])) + s * (lower[3] + r * (lower[2] - lower[3]))
-    : vu;
-  return hasUpper ? vu + tz * (vl - vu) : vl;
+  cellAt(a, k, ix, iy, upper, x, lat);
+  const vu = (1 - s) * (upper[0] + r * (upper[1] - upper[0])) + s * (upper[3] + r * (upper[2] - upper[3]));
+  if (tz === 0) return vu;
+  cellAt(a, k + 1, ix, iy, lower, x, lat);
+  const vl = (1 - s) * (lower[0] + r * (lower[1] - lower[0])) + s * (lower[3] + r * (lower[2] - lower[3]));
+  return vu + tz * (vl - vu);
 }
 
 /**
@@ -190,13 +201,13 @@ function saarAt(a: Atlas, p: number, x: number, lat: number): number {
  */
 export function SAAR(p: number, lon: number, lat: number): SAARValue {
   if (!(Number.isFinite(p) && Number.isFinite(lon) && Number.isFinite(lat))) return { value: NaN, inAtlas: false };
-  const v = saarAt(loadAtlas(), p, ((lon % 360) + 360) % 360, lat);
+  const v = saarAt(loadAtlas(), p, wrapLon(lon), lat);
   return Number.isNaN(v) ? { value: 0, inAtlas: false } : { value: v, inAtlas: true };
 }
 
 /** True inside the Baltic Sea region of Feistel et al. (2010), from the edges in the atlas file. */
 export function inBaltic(lon: number, lat: number): boolean {
-  return balticAt(loadAtlas().baltic, ((lon % 360) + 360) % 360, lat);
+  return balticAt(loadAtlas().baltic, wrapLon(lon), lat);
 }
 
 function balticAt(b: Float64Array, x: number, lat: number): boolean {
@@ -204,7 +215,7 @@ function balticAt(b: Float64Array, x: number, lat: number): boolean {
   const first = b[0], last = b[3 * (rows - 1)], step = b[3] - b[0];
   // The edges are straight between the tabulated latitudes, and half a step beyond the ends.
   if (!(lat > first - step && lat < last + step)) return false;
-  let i = Math.min(Math.max(Math.floor((lat - first) / step), 0), rows - 2);
+  const i = Math.min(Math.max(Math.floor((lat - first) / step), 0), rows - 2);
   const w = (lat - b[3 * i]) / step;
   const west = b[3 * i + 1] + w * (b[3 * (i + 1) + 1] - b[3 * i + 1]);
   const east = b[3 * i + 2] + w * (b[3 * (i + 1) + 2] - b[3 * i + 2]);
@@ -251,10 +262,29 @@ export function SA_from_SP(SP: number, p: number, lon: number, lat: number): num
   if (!(SP >= SP_RANGE[0] && SP <= SP_RANGE[1] && p >= P_RANGE[0] && p <= P_RANGE[1] &&
     lon >= LON_RANGE[0] && lon <= LON_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1])) return NaN;
   const a = atlas ?? loadAtlas();
-  const x = lon < 0 ? lon + 360 : lon >= 360 ? lon - 360 : lon;
+  const x = wrapLon(lon);
   if (balticAt(a.baltic, x, lat)) return SA_from_SP_Baltic(SP);
   const ratio = saarAt(a, p, x, lat);
   return uPS * SP * (Number.isNaN(ratio) ? 1 : 1 + ratio);
+}
+
+/**
+ * SA_from_SP over a cast's columns at one position, and where the atlas is silent there
+ * (`silent[i] = 1`: SA = SR used), with one atlas look-up a level. SP unitless, p dbar → SA g/kg.
+ */
+export function SA_from_SP_cast(SP: Float64Array, p: Float64Array, lon: number, lat: number, SA: Float64Array, silent: Uint8Array): void {
+  const a = atlas ?? loadAtlas();
+  const x = wrapLon(lon);
+  const baltic = balticAt(a.baltic, x, lat);
+  const posOk = lon >= LON_RANGE[0] && lon <= LON_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1];
+  for (let i = 0; i < SP.length; i++) {
+    const s = SP[i], pi = p[i];
+    silent[i] = 0;
+    if (!(posOk && s >= SP_RANGE[0] && s <= SP_RANGE[1] && pi >= P_RANGE[0] && pi <= P_RANGE[1])) { SA[i] = NaN; continue; }
+    if (baltic) { SA[i] = SA_from_SP_Baltic(s); continue; }
+    const ratio = saarAt(a, pi, x, lat);
+    if (ratio !== ratio) { silent[i] = 1; SA[i] = uPS * s; } else SA[i] = uPS * s * (1 + ratio);
+  }
 }
 
 /**

@@ -272,3 +272,17 @@ export async function startOwnPostgres() {
     },
   };
 }
+
+/** A raw 24 Hz descent: 1 dbar/s with ship heave (±1.5 dbar, 8 s period), so pressure reverses. */
+export function rawCastCsv(k: number, scans = 100_000): string {
+  const lines = [`# station: RAW${k + 1}`, '# cast: 1', `# latitude: ${(-42 - k * 0.1).toFixed(4)}`, `# longitude: ${(-25 + k * 0.1).toFixed(4)}`,
+    '# time: 2026-04-02T03:00:00Z', 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]'];
+  for (let i = 0; i < scans; i++) {
+    const s = i / 24;
+    const p = 3 + s + 1.5 * Math.sin((2 * Math.PI * s) / 8);
+    const t = 2 + 18 * Math.exp(-p / 650) + 0.001 * Math.sin(i * 0.7 + k);
+    const sal = 34.7 + 0.8 * Math.exp(-p / 450) + 0.0005 * Math.cos(i * 0.3 + k);
+    lines.push(`${p.toFixed(3)},${t.toFixed(4)},${sal.toFixed(4)}`);
+  }
+  return lines.join('\n') + '\n';
+}

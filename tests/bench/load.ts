@@ -11,6 +11,7 @@ import type { BenchResult } from './modules';
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 30);
 const READERS = 50;
 const UPLOADERS = Number(process.env.BENCH_LOAD_UPLOADERS ?? 5); // 0: reads alone, to compare
+const RAW_UPLOADERS = Number(process.env.BENCH_LOAD_RAW_UPLOADERS ?? 2); // each sends raw 24 Hz casts
 
 function pct(sorted: number[], p: number) {
   if (!sorted.length) return NaN;
@@ -21,7 +22,7 @@ export async function bench(): Promise<BenchResult[]> {
   process.env.NODE_ENV ??= 'test';
   process.env.LOG_LEVEL ??= 'warn';
   const { makeTestApp, createUser, addMember, PASSWORD } = await import('../api/helpers');
-  const { castCsv, freePort, multipart, Session, sleep, spawnChild, serviceEnv, waitHttp } = await import('../api/fault-helpers');
+  const { castCsv, freePort, multipart, rawCastCsv, Session, sleep, spawnChild, serviceEnv, waitHttp } = await import('../api/fault-helpers');
   const { Cruise, Upload } = await import('../../server/models/index');
 
   const port = await freePort();
@@ -72,6 +73,17 @@ export async function bench(): Promise<BenchResult[]> {
       return multipart([{ filename: `load-${n}.csv`, data: castCsv({ station: `U${n}`, latitude: -30 - (n % 50) * 0.1, longitude: -15 - (n % 37) * 0.1, maxP: 400, step: 2, seed: 10_000 + n }) }], 'files', BOUNDARY).body;
     };
 
+    // raw 24 Hz casts (100 000 scans, ~3 MB each) for the raw uploaders: one body made once, each
+    // request a distinct file (its station line differs)
+    const rawLines = rawCastCsv(0).split('\n');
+    let nRaw = 0;
+    const nextRawBody = () => {
+      nRaw++;
+      return multipart([{ filename: `raw-${nRaw}.csv`, data: [`# station: RAWLOAD${nRaw}`, ...rawLines.slice(1)].join('\n') }], 'files', BOUNDARY).body;
+    };
+    const rawLat: number[] = [];
+    const rawStatus = new Map<number, number>();
+
     const readLat: number[] = [];
     const upLat: number[] = [];
     const readStatus = new Map<number, number>();
@@ -93,7 +105,15 @@ export async function bench(): Promise<BenchResult[]> {
         setupRequest: ((req: autocannon.Request) => ({ ...req, body: nextBody() })) as never,
       }],
     }, (status, ms) => { upLat.push(ms); count(upStatus, status); });
-    const [r, u] = await Promise.all([reads, uploads]);
+    const raws = RAW_UPLOADERS === 0 ? Promise.resolve({ errors: 0, timeouts: 0 } as autocannon.Result) : run({
+      url: base, connections: RAW_UPLOADERS, duration: SECONDS, maxOverallRequests: 20_000, timeout: 30,
+      requests: [{
+        method: 'POST', path: `/api/cruises/${intake.id}/uploads`,
+        headers: { cookie: chiefS.cookie!, 'x-csrf-token': chiefS.csrf!, 'content-type': boundary },
+        setupRequest: ((req: autocannon.Request) => ({ ...req, body: nextRawBody() })) as never,
+      }],
+    }, (status, ms) => { rawLat.push(ms); count(rawStatus, status); });
+    const [r, u, w] = await Promise.all([reads, uploads, raws]);
     const sectionBytes = JSON.stringify(warm.body).length;
     readLat.sort((a, b) => a - b);
     upLat.sort((a, b) => a - b);
@@ -101,7 +121,8 @@ export async function bench(): Promise<BenchResult[]> {
     const readErrors = r.errors + r.timeouts + non2xx(readStatus);
     const upErrors = u.errors + u.timeouts + non2xx(upStatus);
     const ingested = await Upload.count({ where: { cruiseId: intake.id, status: 'ready' } });
-    const label = `${READERS} readers + ${UPLOADERS} uploaders, ${SECONDS} s`;
+    const rawErrors = w.errors + w.timeouts + non2xx(rawStatus);
+    const label = `${READERS} readers + ${UPLOADERS} uploaders + ${RAW_UPLOADERS} raw 24 Hz uploaders, ${SECONDS} s`;
     if (readErrors + upErrors > 0) console.log(`[load] statuses: reads ${JSON.stringify([...readStatus])}, uploads ${JSON.stringify([...upStatus])}, socket errors ${r.errors}/${u.errors}, timeouts ${r.timeouts}/${u.timeouts}`);
     return [
       { name: 'machine load average (1 min) when this module started, 2 cores shared with other work', value: loadBefore, unit: '' },
@@ -116,6 +137,8 @@ export async function bench(): Promise<BenchResult[]> {
       { name: 'upload latency p95', value: pct(upLat, 95), unit: 'ms' },
       { name: 'upload latency p99', value: pct(upLat, 99), unit: 'ms' },
       { name: 'upload errors (socket, timeout, non-2xx)', value: upErrors, unit: 'errors', target: 'zero errors' },
+      { name: 'raw 24 Hz casts (100 000 scans) accepted (202) during the run', value: rawStatus.get(202) ?? 0, unit: 'uploads' },
+      { name: 'raw upload errors (socket, timeout, non-2xx)', value: rawErrors, unit: 'errors', target: 'zero errors' },
       { name: 'uploads already ingested when the run ended (one worker process, concurrency 1)', value: ingested, unit: 'uploads' },
     ];
   } finally {

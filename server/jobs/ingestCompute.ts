@@ -1,0 +1,96 @@
+// The CPU-bound half of an ingest: parse the uploaded bytes (inflating a zip), fill positions from
+// the station table or the cruise's plan, and derive every cast (server/services/processCast.ts).
+// Pure: no I/O, so it runs in a worker thread (server/jobs/computePool.ts) and never on the web
+// process's event loop. The store half stays in server/services/ingest.ts.
+import { parseUpload } from '../parsers/index';
+import type { FileError, ParsedCast, StationRow } from '../../shared/schemas/cast';
+import { processCast, type ProcessedCast } from '../services/processCast';
+
+export type PlannedStation = { latitude: number | null; longitude: number | null };
+
+export type ParseRequest = {
+  filename: string;
+  bytes: Uint8Array;
+  mapping: Record<string, string>;
+  maxBytes: number;
+  /** total inflated bytes a zip may hold */
+  maxInflatedBytes?: number;
+  /** levels one cast may keep */
+  maxLevels?: number;
+  /** leave out (and list) a few unreadable lines of a text file instead of refusing it */
+  salvage?: boolean;
+};
+
+/** A parsed cast without its columns (they live on in `out.columns`), as the store needs it. */
+export type CastHead = Omit<ParsedCast, 'columns' | 'extras' | 'flags'>;
+
+export type ParseOutcome =
+  | { kind: 'parse_failed'; errors: FileError[]; unmappedHeaders: string[] | null; parseMs: number }
+  | { kind: 'parsed'; casts: ParsedCast[]; stations: StationRow[]; warnings: FileError[]; parseMs: number };
+
+export type DeriveRequest = {
+  casts: ParsedCast[];
+  stations: StationRow[];
+  /** The cruise's planned stations by name (positions for casts that carry none). */
+  plan: Record<string, PlannedStation>;
+  inversionThreshold: number;
+};
+export type DeriveOutcome = { errors: FileError[]; processed: { parsed: CastHead; out: ProcessedCast }[]; deriveMs: number };
+
+/** The first half: parse (and inflate) the upload. */
+export async function parseForIngest(req: ParseRequest): Promise<ParseOutcome> {
+  const t0 = performance.now();
+  const bytes = Buffer.from(req.bytes.buffer, req.bytes.byteOffset, req.bytes.byteLength);
+  const parsed = await parseUpload(req.filename, bytes, {
+    columnMapping: req.mapping, maxBytes: req.maxBytes, maxLevels: req.maxLevels, salvage: req.salvage,
+    zipLimits: req.maxInflatedBytes ? { maxTotalBytes: req.maxInflatedBytes } : undefined,
+  });
+  const parseMs = performance.now() - t0;
+  if (!parsed.ok) return { kind: 'parse_failed', errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null, parseMs };
+  return { kind: 'parsed', casts: parsed.casts, stations: parsed.stations, warnings: parsed.warnings, parseMs };
+}
+
+/** The second half, for some of an upload's casts: positions from the station table or the plan,
+ * then every derived column (processCast). Casts come back in the order given. */
+export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
+  const t0 = performance.now();
+  // Station tables: casts without a position take it from the table, else from the plan.
+  const rowsByStation = new Map<string, StationRow>(req.stations.map((r) => [r.station, r]));
+  const errors: FileError[] = [];
+  const processed: { parsed: CastHead; out: ProcessedCast }[] = [];
+  for (const c of req.casts) {
+    const row = c.metadata.station ? rowsByStation.get(c.metadata.station) : undefined;
+    const planned = c.metadata.station ? req.plan[c.metadata.station] : undefined;
+    const md = { ...c.metadata };
+    md.latitude ??= row?.latitude ?? planned?.latitude ?? null;
+    md.longitude ??= row?.longitude ?? planned?.longitude ?? null;
+    md.bottomDepth ??= row?.bottomDepth ?? null;
+    md.time ??= row?.time ?? null;
+    if (!md.station) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: no station identifier (add a "# station:" line or a station table).` }); continue; }
+    if (md.latitude == null || md.longitude == null) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).` }); continue; }
+    const result = processCast({ ...c, metadata: md }, { inversionThreshold: req.inversionThreshold });
+    if (!result.ok) { errors.push(...result.errors); continue; }
+    const { columns: _c, extras: _e, flags: _f, ...head } = c;
+    processed.push({ parsed: { ...head, metadata: md }, out: result.cast });
+  }
+  return { errors, processed, deriveMs: performance.now() - t0 };
+}
+
+/** The distinct buffers of parsed casts' columns, to hand them to another thread without a copy. */
+export function parsedTransferables(casts: ParsedCast[]): ArrayBuffer[] {
+  const seen = new Set<ArrayBuffer>();
+  const add = (a: ArrayBufferView | undefined) => { if (a && a.buffer instanceof ArrayBuffer) seen.add(a.buffer); };
+  for (const c of casts) {
+    for (const v of Object.values(c.columns)) add(v);
+    for (const e of Object.values(c.extras)) add(e.values);
+    for (const f of Object.values(c.flags)) add(f);
+  }
+  return [...seen];
+}
+
+/** The distinct buffers of derived casts' columns. */
+export function derivedTransferables(processed: { out: ProcessedCast }[]): ArrayBuffer[] {
+  const seen = new Set<ArrayBuffer>();
+  for (const { out } of processed) for (const col of out.columns) if (col.values.buffer instanceof ArrayBuffer) seen.add(col.values.buffer);
+  return [...seen];
+}
