@@ -14,12 +14,13 @@ import { deliveryRoutes } from './deliveries';
 import { castLifeRoutes } from './castLife';
 import { settingsRoutes } from './settings';
 import { lineRoutes } from './lines';
+import { qcRoutes } from './qc';
 
 type RouteFactory = (deps: AppDeps) => RouteSpec[];
 
 /** The route modules after the foundation's; add a new area's factory here. */
 export const extraRouteFactories: RouteFactory[] = [
-  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, castLifeRoutes,
+  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, qcRoutes, castLifeRoutes,
 ];
 
 /** Every route module, the foundation's first. */

@@ -7,6 +7,7 @@ import { parseUpload } from '../parsers/index';
 import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
 import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
 import { writeColumns } from './columns';
+import { recordQcAtIntake } from './qcProposals';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
 import { liveKey, replacementGate, supersede, inversionsAfterFlags, type Gate } from './castLife';
@@ -32,7 +33,8 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     throw new IngestFault(`object storage unavailable: ${(err as Error).message}`);
   }
   const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
-  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES, salvage: true });
+  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES,
+    zipLimits: { maxTotalBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES }, maxLevels: deps.settings.CAST_MAX_LEVELS, salvage: true });
   await upload.update({ progress: 0.3 });
   if (!parsed.ok) {
     await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
@@ -111,6 +113,10 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
         await writeColumns(cast.id, out.columns, transaction);
         ids.push(cast.id);
       }
+      // QC desk: proposals of the automatic tests and what the intake found (server/services/qcProposals.ts);
+      // casts left out because the earlier versions were kept are not in ids, so not in the batch either
+      const stored = processed.filter((p) => !skippedKeys.has(liveKey(p.parsed.metadata.station!, p.parsed.metadata.cast ?? '1')));
+      await recordQcAtIntake(deps, { cruiseId: upload.cruiseId, castIds: ids, processed: stored }, { reprocess: !!opts.reprocess }, transaction);
       const keptNote = skippedKeys.size ? [{ file: upload.filename, line: null, column: null, code: 'kept_earlier', message: `${skippedKeys.size} cast${skippedKeys.size > 1 ? 's' : ''} left out: the earlier versions were kept` }] : [];
       await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: [...parsed.warnings, ...keptNote], errors: [] }, { transaction });
       await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
