@@ -2,7 +2,7 @@ import { ErrorNotice, Progress } from '../components/Notice';
 import { Num } from '../components/Num';
 import { EmptyState, Panel } from '../components/Panel';
 import { can } from '../features/auth';
-import { CastsTable, useCasts } from '../features/casts';
+import { CastsTable, RemovedCasts, useCasts } from '../features/casts';
 import { AddStationForm, AuditTrail, StationList, StationMap, useStations } from '../features/cruises';
 import { useCurrentCruise } from './CruiseLayout';
 
@@ -53,7 +53,13 @@ export default function CruiseDesk() {
       <Panel title="Casts" titleId="casts">
         {casts.isPending && <Progress label="Loading the casts…" />}
         {casts.isError && <div className="p-4"><ErrorNotice error={casts.error} title="The casts could not be loaded" /></div>}
-        {casts.isSuccess && <CastsTable casts={castList} />}
+        {casts.isSuccess && (
+          <CastsTable
+            casts={castList}
+            actions={{ cruiseId: cruise.id, canRemove: can.editCruise(cruise.role) && !cruise.locked, canDecide: can.uploadCasts(cruise.role) && !cruise.locked }}
+          />
+        )}
+        <RemovedCasts cruiseId={cruise.id} canRestore={can.editCruise(cruise.role) && !cruise.locked} />
       </Panel>
 
       <Panel title="Audit trail" titleId="audit-trail">

@@ -180,3 +180,25 @@ export function sendFailureText(error: unknown): string {
   if (isApiError(error)) return error.message;
   return error instanceof Error ? error.message : 'The file could not be sent.';
 }
+
+/** Answer an upload whose casts would replace live ones: replace them (history kept) or keep the earlier ones. */
+export function useReplaceDecision(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ uploadId, replace }: { uploadId: string; replace: boolean }) =>
+      http(`/api/uploads/${encodeURIComponent(uploadId)}/replace-decision`, { method: 'POST', body: { replace }, schema: uploadSchema }),
+    onSuccess: (upload) => {
+      queryClient.setQueryData(intakeKeys.upload(upload.id), upload);
+      void queryClient.invalidateQueries({ queryKey: intakeKeys.uploads(cruiseId) });
+    },
+  });
+}
+
+/** Remove an upload that produced no cast. */
+export function useRemoveUpload(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (uploadId: string) => http(`/api/uploads/${encodeURIComponent(uploadId)}`, { method: 'DELETE' }),
+    onSuccess: () => void queryClient.invalidateQueries({ queryKey: intakeKeys.uploads(cruiseId) }),
+  });
+}

@@ -1,6 +1,6 @@
 export { intakeKeys } from './keys';
 export {
-  uploadsQuery, useUploads, useUpload, useColumnMapping, useSaveColumnMapping, useRetryUpload, useSendFiles, POLL_MS, PARALLEL_SENDS,
+  uploadsQuery, useUploads, useUpload, useColumnMapping, useSaveColumnMapping, useRetryUpload, useReplaceDecision, useRemoveUpload, useSendFiles, POLL_MS, PARALLEL_SENDS,
 } from './api';
 export type { Outgoing } from './api';
 export { sendFile, resetUploadToken } from './send';

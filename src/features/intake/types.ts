@@ -18,7 +18,7 @@ const problemList = z
   .nullish()
   .transform((v) => v ?? []);
 
-export const UPLOAD_STATUSES = ['queued', 'processing', 'ready', 'failed'] as const;
+export const UPLOAD_STATUSES = ['queued', 'processing', 'ready', 'failed', 'awaiting_decision'] as const;
 export const uploadStatusSchema = z.enum(UPLOAD_STATUSES);
 export type UploadStatus = z.infer<typeof uploadStatusSchema>;
 
@@ -36,6 +36,14 @@ export const uploadSchema = z.object({
   /** Headers the parser did not recognise; the mapping step asks what they are. */
   unmappedHeaders: z.array(z.string()).nullish().transform((v) => v ?? null),
   duplicate: z.boolean().optional(),
+  /** Casts of this upload whose station and cast are already live: replace them, or keep the earlier ones? */
+  conflicts: z
+    .object({
+      items: z.array(z.object({ file: z.string(), station: z.string(), cast: z.string(), existingCastId: z.string(), existingFile: z.string() })),
+      decision: z.enum(['replace', 'keep']).nullable(),
+    })
+    .nullish()
+    .transform((v) => v ?? null),
   createdAt: z.string().nullish().transform((v) => v ?? null),
   updatedAt: z.string().nullish().transform((v) => v ?? null),
 });

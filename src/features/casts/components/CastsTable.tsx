@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import {
   columnFilteringFeature,
@@ -19,6 +19,9 @@ import {
 import { EmptyState } from '../../../components/Panel';
 import { formatLatitude, formatLongitude, formatUtc, plural } from '../../../lib/format';
 import type { CastSummary } from '../types';
+import { Button } from '../../../components/Button';
+import { ErrorNotice } from '../../../components/Notice';
+import { useCastLife } from '../api';
 
 const features = tableFeatures({
   rowSortingFeature,
@@ -38,7 +41,12 @@ const columns = helper.columns([
   helper.accessor('station', {
     header: 'Station',
     sortFn: 'alphanumeric',
-    cell: (info) => <CastLink castId={info.row.original.id} station={info.row.original.station} cast={info.row.original.cast} />,
+    cell: (info) => (
+      <>
+        <CastLink castId={info.row.original.id} station={info.row.original.station} cast={info.row.original.cast} />
+        <PartlyReadMark cast={info.row.original} />
+      </>
+    ),
     meta: { align: 'left' },
   }),
   helper.accessor('cast', { header: 'Cast', sortFn: 'alphanumeric', meta: { align: 'left' } }),
@@ -90,6 +98,44 @@ const columns = helper.columns([
   }),
 ]);
 
+/** What this person may do to a cast from the table: remove it (chief scientist), decide on a partly read one (intake). */
+export interface CastActions {
+  cruiseId: string;
+  canRemove: boolean;
+  canDecide: boolean;
+}
+
+function LifeButtons({ cast, actions }: { cast: CastSummary; actions: CastActions }) {
+  const life = useCastLife(actions.cruiseId);
+  const pending = cast.partlyRead && cast.partlyRead.decision === null;
+  const what = `station ${cast.station} cast ${cast.cast}`;
+  return (
+    <span className="inline-flex items-center gap-1 font-sans">
+      {pending && actions.canDecide && (
+        <>
+          <Button size="sm" variant="secondary" busy={life.isPending} onClick={() => life.mutate({ castId: cast.id, action: 'accept' })} aria-label={`Accept the partly read ${what}`}>Accept</Button>
+          <Button size="sm" variant="quiet" disabled={life.isPending} onClick={() => life.mutate({ castId: cast.id, action: 'reject' })} aria-label={`Reject the partly read ${what}`}>Reject</Button>
+        </>
+      )}
+      {actions.canRemove && (
+        <Button size="sm" variant="quiet" busy={life.isPending && !pending} onClick={() => life.mutate({ castId: cast.id, action: 'remove' })} aria-label={`Remove ${what}`}>Remove</Button>
+      )}
+      {life.isError && <ErrorNotice error={life.error} title="Not done" />}
+    </span>
+  );
+}
+
+/** "partly read": some lines of the file were left out; the title lists them. */
+function PartlyReadMark({ cast }: { cast: CastSummary }) {
+  if (!cast.partlyRead) return null;
+  const lines = cast.partlyRead.dropped.map((d) => `line ${d.line ?? '?'}${d.column ? `, column ${d.column}` : ''}: ${d.message}`).join('\n');
+  return (
+    <span title={lines} className="ml-2 rounded-sm border border-warn/50 px-1 font-sans text-2xs uppercase tracking-[0.06em] text-warn-strong">
+      partly read{cast.partlyRead.decision ? ' · accepted' : ` · ${cast.partlyRead.dropped.length} lines left out`}
+    </span>
+  );
+}
+
 /** The station name opens the cast sheet (the table always sits inside `/cruises/:id`). */
 function CastLink({ castId, station, cast }: { castId: string; station: string; cast: string }) {
   const { id = '' } = useParams();
@@ -105,15 +151,23 @@ interface ColumnMetaAlign {
 }
 
 /** The cruise's casts: sortable by any column, filtered by station or cast, inversions flagged in the warm accent. */
-export function CastsTable({ casts }: { casts: readonly CastSummary[] }) {
+export function CastsTable({ casts, actions }: { casts: readonly CastSummary[]; actions?: CastActions }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'station', desc: false }]);
   const [globalFilter, setGlobalFilter] = useState('');
   const [columnFilters, setColumnFilters] = useState<ColumnFiltersState>([]);
   const [data] = useStableData(casts);
 
+  const withActions = actions && (actions.canRemove || actions.canDecide);
+  const shown = useMemo(
+    () =>
+      withActions
+        ? [...columns, helper.display({ id: 'life', header: '', cell: (info) => <LifeButtons cast={info.row.original} actions={actions} /> })]
+        : columns,
+    [withActions, actions],
+  );
   const table = useTable({
     features,
-    columns,
+    columns: shown,
     data,
     state: { sorting, globalFilter, columnFilters },
     onSortingChange: setSorting,
@@ -218,7 +272,7 @@ export function CastsTable({ casts }: { casts: readonly CastSummary[] }) {
             ))}
             {rows.length === 0 && (
               <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center font-sans text-ink-muted">
+                <td colSpan={shown.length} className="px-3 py-6 text-center font-sans text-ink-muted">
                   No cast matches the filter.
                 </td>
               </tr>

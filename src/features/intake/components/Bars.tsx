@@ -34,6 +34,7 @@ const STATUS_TEXT: Record<UploadStatus, string> = {
   processing: 'Processing',
   ready: 'Ready',
   failed: 'Failed',
+  awaiting_decision: 'Your call',
 };
 
 export function StatusBadge({ status }: { status: UploadStatus }) {
