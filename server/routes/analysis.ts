@@ -10,8 +10,9 @@ import { readColumns } from '../services/columns';
 import { applyFlags, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { geostrophicSection, transportPerLayer } from '../../shared/section/index';
 import { loadLineCasts } from '../services/lines';
-import { levelsOrError } from './sections';
-import { levelsForRange, sigmaRange } from '../services/sectionView';
+import { resolveLayerBoundaries } from '../services/levels';
+import { referencePressureSchema } from '../../shared/api/levels';
+import { derivedVariableListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
 const uuidOr404 = (v: unknown, what: string) => { if (typeof v !== 'string' || !/^[0-9a-f-]{36}$/i.test(v)) throw notFound(`No such ${what}.`); return v; };
@@ -28,7 +29,7 @@ const lineParam = z.string().max(64).optional();
 const TsQuery = z.object({ every: z.coerce.number().int().min(1).max(1000).default(4), line: lineParam });
 const GeoQuery = z.object({
   pRef: z.union([z.literal('deepest_common'), z.coerce.number().min(0).max(11000)]).default('deepest_common'),
-  ref: z.coerce.number().refine((v) => [0, 1000, 2000, 3000, 4000].includes(v), 'one of 0, 1000, 2000, 3000, 4000').default(0),
+  ref: referencePressureSchema.default(0),
   levels: z.string().max(20000).optional(),
   bin: z.coerce.number().positive().max(500).default(20),
   /** pairs of adjacent stations closer than this, km, are skipped and named */
@@ -44,6 +45,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
   const formulaError = (message: string, position: number | null) => badRequest(`The formula is not valid: ${message}`, [{ field: 'formula', message, position }], 'bad_formula');
   return [
     defineRoute({ method: 'get', path: '/cruises/:id/derived-variables', summary: "The cruise's derived variables (mathjs formulas over cast columns)", rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: derivedVariableListResponseSchema,
       handler: async (_req, _res, ctx) => (await DerivedVariable.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['name', 'ASC']] }))
         .map((d) => ({ id: d.id, name: d.name, formula: d.formula, unit: d.unit, description: d.description })) }),
     defineRoute({ method: 'post', path: '/cruises/:id/derived-variables', summary: 'Define a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewVariable,
@@ -105,9 +107,8 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
           const resolved = await loadLineCasts(ctx.cruiseId!, q.line, []);
           const xOf = new Map(resolved.stations.map((st) => [st.castId, st.x]));
           const casts = resolved.casts.filter((c) => c.columns.pressure.length > 2);
-          // Default layers: about eight over the σ range the section spans at this reference.
-          const levelsText = q.levels ?? (casts.length ? levelsForRange(...sigmaRange(casts, q.ref), 8) : '24.0:0.4:28.0');
-          const boundaries = levelsOrError(levelsText);
+          // Default layers: a thinned subset of the section's default levels (shared/api/levels.ts).
+          const { text: levelsText, levels: boundaries } = resolveLayerBoundaries(casts, q.ref, q.levels);
           const choices = { pRef: q.pRef, ref: q.ref, levels: levelsText, bin: q.bin, minDistanceKm: q.minDistanceKm, line: resolved.id };
           const convention = 'v = ΔD / (f·L) between adjacent casts A and B; positive is 90° to the left of the direction from A to B (looking along the section from its first cast: for a section run eastward, positive is northward).';
           if (casts.length < 2) return { choices, convention, pressure: [], pairs: [], skipped: [], velocity: [], layers: [] };
