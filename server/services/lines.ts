@@ -55,6 +55,8 @@ export interface ResolvedLine {
   offLine: (OffLineStation & { castId: string; latitude: number; longitude: number })[];
   /** Default line: stations the analyst left out; any line: stations with no usable cast. */
   excluded: { station: string; why: string }[];
+  /** Default line: the off-line stations the analyst took back in. */
+  include: string[];
   /** The data of each station's cast, in line order (composites joined), for the section engine. */
   casts: CruiseCast[];
 }
@@ -223,7 +225,7 @@ export async function resolveLine(cruiseId: string, row: Line, all: CruiseCast[]
     candidates: c.g.casts.map((k) => ({ castId: k.id, cast: k.cast, deepest: c.g.deepest.get(k.id)! })).filter((k) => Number.isFinite(k.deepest))
       .sort((a, b) => b.deepest - a.deepest),
   }));
-  return { id: row.id, name: row.name, isDefault: row.isDefault, polyline: row.polyline, corridorKm: row.corridorKm, stations, offLine, excluded, casts: chosen.map((c) => c.pick.cast) };
+  return { id: row.id, name: row.name, isDefault: row.isDefault, polyline: row.polyline, corridorKm: row.corridorKm, stations, offLine, excluded, include: row.include, casts: chosen.map((c) => c.pick.cast) };
 }
 
 /** The casts of a line (or the default line) in line order with their distances: what every section-shaped route draws from. */

@@ -68,6 +68,8 @@ export interface DeliveryFormValues {
   bin: string;
   flags: number[];
   formats: DeliveryFormat[];
+  /** The line to draw from (docs/lines.md); absent: the default line. */
+  line?: string;
 }
 
 export interface NewDelivery {
@@ -79,4 +81,6 @@ export interface NewDelivery {
   bin?: number;
   flags: number[];
   formats: DeliveryFormat[];
+  /** The line to draw from (docs/lines.md); absent: the default line. */
+  line?: string;
 }
