@@ -68,8 +68,6 @@ export interface DeliveryFormValues {
   bin: string;
   flags: number[];
   formats: DeliveryFormat[];
-  /** The line to draw from (docs/lines.md); absent: the default line. */
-  line?: string;
 }
 
 export interface NewDelivery {
