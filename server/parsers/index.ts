@@ -7,14 +7,38 @@ import { parseExchange } from './exchange';
 import { parsePlain } from './plain';
 import { parseStationTable } from './stationTable';
 import { fileError, ParseFailure } from './text';
+import { parseNetcdf } from './netcdf';
+import { parseAcquisition } from './acquisition';
+
+function bottleRefusal(file: string): FileError {
+  return fileError(file, 1, null, 'exchange_bottle',
+    'this is an exchange-format bottle file (sample data from the rosette); bottle data are not read yet. Upload the CTD files (_ct1.csv) of the cruise');
+}
+
+function hdf5Refusal(file: string): FileError {
+  return fileError(file, null, null, 'netcdf_unsupported',
+    'this is a netCDF-4 (HDF5) file, which is not read yet; save it as netCDF-3 classic and upload that');
+}
 import { readZip, DEFAULT_ZIP_LIMITS, type ZipLimits } from './zip';
 
 export type ParseOptions = {
   columnMapping?: Record<string, string>;
   maxBytes?: number; // of one file (and of each zip entry); default 50 MB
   zipLimits?: Partial<ZipLimits>;
+  maxLevels?: number; // levels one cast may keep; default DEFAULT_MAX_LEVELS
 };
 export const DEFAULT_MAX_BYTES = 50 * 1024 * 1024;
+/** A full-depth raw 24 Hz downcast (6000 dbar at 1 m/s) is about 150 000 scans. */
+export const DEFAULT_MAX_LEVELS = 500_000;
+
+/** A cast over the levels limit fails its file (the CAST_MAX_LEVELS setting; docs/security.md). */
+function capLevels(r: One, maxLevels: number): One {
+  if (!r.ok) return r;
+  const big = r.casts.find((c) => c.profile.levels > maxLevels);
+  if (!big) return r;
+  return { ok: false, errors: [fileError(big.file, null, null, 'too_many_levels',
+    `the cast has ${big.profile.levels} levels (the limit is ${maxLevels}); split the file or average it to fewer scans`)] };
+}
 
 export { detectFormat } from './detect';
 export type { DetectedFormat } from './detect';
@@ -35,6 +59,16 @@ function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedForma
       const r = parseStationTable(file, bytes);
       return { ok: true, casts: [], stations: r.stations, warnings: r.warnings };
     }
+    if (fmt === 'netcdf') {
+      const r = parseNetcdf(file, bytes, { columnMapping: mapping });
+      return { ok: true, casts: r.casts, stations: [], warnings: r.warnings };
+    }
+    if (fmt === 'acquisition') {
+      const r = parseAcquisition(file, bytes, { columnMapping: mapping });
+      return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
+    }
+    if (fmt === 'hdf5') return { ok: false, errors: [hdf5Refusal(file)] };
+    if (fmt === 'exchangeBottle') return { ok: false, errors: [bottleRefusal(file)] };
     const r = fmt === 'exchange' ? parseExchange(file, bytes, { columnMapping: mapping }) : parsePlain(file, bytes, { columnMapping: mapping });
     return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
   } catch (e) {
@@ -84,7 +118,7 @@ export async function parseUpload(
     }
     const fmt = detectFormat(filename, bytes);
     if (fmt !== 'zip') {
-      const r = parseSingle(filename, bytes, fmt, mapping);
+      const r = capLevels(parseSingle(filename, bytes, fmt, mapping), options.maxLevels ?? DEFAULT_MAX_LEVELS);
       if (r.ok && r.stations.length > 0) applyStationTable(r.casts, r.stations, filename);
       return r;
     }
@@ -101,7 +135,7 @@ export async function parseUpload(
         warnings.push(fileError(f.path, null, null, 'skipped', `zip entry ${f.path} is not a cast file; skipped`));
         continue;
       }
-      const r = parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping);
+      const r = capLevels(parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping), options.maxLevels ?? DEFAULT_MAX_LEVELS);
       if (r.ok) {
         casts.push(...r.casts);
         if (r.stations.length > 0) tableFile = f.path;

@@ -7,25 +7,68 @@ import { remapToIsopycnals, binToPressure, flagNames, type InversionHandling, ty
 import { sigma_batch } from '../../shared/seawater/index';
 import { ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryTable, type DeliveryColumn, type DeliveryRow, type Provenance } from './deliveries/index';
 import { VERSION } from '../version';
-import { loadLineCasts, lineProvenanceNote } from './lines';
 import { resolveLevels } from './levels';
 import { DEFAULT_LEVELS_RULE } from '../../shared/api/levels';
+import { loadLineCasts, lineProvenanceNote } from './lines';
 
 export type CruiseCast = {
   id: string; station: string; cast: string; latitude: number; longitude: number; time: Date | null; bottomDepth: number | null;
   inversions: Inversion[]; columns: Record<string, Float64Array>; flags: Record<string, Uint8Array>; units: Record<string, string | null>;
 };
 
-const cache = new Map<string, { at: number; value: unknown }>();
+// The cache of built grids (sections, T–S points, geostrophy): bounded by count and by bytes
+// (SECTION_CACHE_MAX_BYTES, set by createApp), oldest out first; identical requests arriving while
+// one is being built wait for that one build instead of starting their own.
+const cache = new Map<string, { at: number; value: unknown; bytes: number }>();
+const inflight = new Map<string, Promise<unknown>>();
 const MAX_CACHE = 200;
+let maxBytes = 128 * 1024 * 1024;
+let cacheBytes = 0;
+const stats = { builds: 0, hits: 0, joined: 0 };
+
+export function configureCache(opts: { maxBytes: number }) {
+  maxBytes = opts.maxBytes;
+  evict(0);
+}
+/** Counts since start: builds run, cache hits, requests that joined a build in flight; bytes held. */
+export function cacheStats() {
+  return { ...stats, bytes: cacheBytes, entries: cache.size };
+}
+
+/** Rough bytes of a cached value: buffers by length, anything else by its JSON text (2 bytes a char). */
+function sizeOf(v: unknown): number {
+  if (Buffer.isBuffer(v)) return v.byteLength;
+  if (v && typeof v === 'object' && !Array.isArray(v) && Object.values(v).every((x) => Buffer.isBuffer(x))) {
+    return Object.values(v as Record<string, Buffer>).reduce((a, b) => a + b.byteLength, 0);
+  }
+  try { return 2 * (JSON.stringify(v)?.length ?? 0); } catch { return Number.POSITIVE_INFINITY; }
+}
+
+function evict(room: number) {
+  for (const [k, e] of cache) {
+    if (cache.size < MAX_CACHE && cacheBytes + room <= maxBytes) break;
+    cache.delete(k);
+    cacheBytes -= e.bytes;
+  }
+}
+
 export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
   const hit = cache.get(key);
-  if (hit) return Promise.resolve(hit.value as T);
-  return Promise.resolve(make()).then((value) => {
-    if (cache.size >= MAX_CACHE) cache.delete(cache.keys().next().value!);
-    cache.set(key, { at: Date.now(), value });
+  if (hit) { stats.hits++; return Promise.resolve(hit.value as T); }
+  const running = inflight.get(key);
+  if (running) { stats.joined++; return running as Promise<T>; }
+  stats.builds++;
+  const p = Promise.resolve().then(make).then((value) => {
+    const bytes = sizeOf(value);
+    if (bytes <= maxBytes) {
+      evict(bytes);
+      cache.set(key, { at: Date.now(), value, bytes });
+      cacheBytes += bytes;
+    }
     return value;
-  });
+  }).finally(() => inflight.delete(key));
+  inflight.set(key, p);
+  return p;
 }
 
 // The version is read at most every half second per process: a change made through this process
@@ -90,8 +133,11 @@ export function applyFlags(c: CruiseCast, include: number[]): Record<string, Flo
   return out;
 }
 
-/** levels: a specification as asked for, or null for the default levels of the reference pressure. */
-export type IsopycnalRequest = { ref: number; levels: string | null; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[]; line?: string };
+/** levels: a specification as asked for, or null for the default levels of the reference pressure;
+ * line: a line id (docs/lines.md), or undefined for the cruise's default line. */
+export type IsopycnalRequest = {
+  ref: number; levels: string | null; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[]; line?: string;
+};
 
 export const EOS = 'TEOS-10 (IOC, SCOR & IAPSO 2010); density from the 75-term polynomial of Roquet et al. (2015)';
 export const SAAR_SOURCE = 'McDougall et al. (2012) SAAR atlas, regenerated from Debian python3-gsw 3.6.16';
@@ -130,7 +176,7 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
   }
   return { kind: 'isopycnal', columns: [...ISOPYCNAL_COLUMNS, ...extraCols], rows,
     provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: levelsText, inversionHandling: q.handling, interpolation: q.interpolation, flagsIncluded: q.flags,
-      notes: [...(isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : []), lineProvenanceNote(line)] }) };
+      notes: [lineProvenanceNote(line), ...(isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : [])] }) };
 }
 
 export async function pressureTable(cruiseId: string, who: string, q: { bin: number; flags: number[]; extras: string[]; line?: string }): Promise<DeliveryTable> {
