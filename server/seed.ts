@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { z } from 'zod';
 import { loadSettings } from './config';
 import { connectServices } from './services/index';
-import { Cruise, LayerSet, Membership, Station, Upload, User, type Role } from './models/index';
+import { Cruise, LayerSet, Line, Membership, Station, Upload, User, type Role } from './models/index';
 import { suggestedLayerSets } from '../shared/api/levels';
 import { hashPassword } from './auth/passwords';
 import { QUEUES } from './services/queue';
@@ -52,6 +52,11 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
   // the default layer sets (σ0 for the upper ocean, σ2 below 1000 dbar) suit the demo section
   if ((await LayerSet.count({ where: { cruiseId: cruise.id } })) === 0) {
     for (const d of suggestedLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: users['analyst@sigmaline.test'].id });
+  }
+  // a second, shorter line beside the default one: over the crest of the invented Corrow Rise (docs/lines.md)
+  if ((await Line.count({ where: { cruiseId: cruise.id, isDefault: false } })) === 0) {
+    await Line.create({ cruiseId: cruise.id, name: 'Corrow Rise crest', stations: ['CP-20', 'CP-21', 'CP-22', 'CP-23', 'CP-24', 'CP-25', 'CP-26'],
+      polyline: null, corridorKm: null, createdBy: users['analyst@sigmaline.test'].id });
   }
   for (const a of DEMO_ACCOUNTS) {
     if (a.role === 'admin') continue;

@@ -39,6 +39,9 @@ export interface ResolvedStation {
   note: string | null;
   /** Distance along the line, km. */
   x: number;
+  /** Bottom depth at the station, m: from the cast's file, else the station plan; null when unknown. */
+  bottomDepth: number | null;
+  bottomSource: 'file' | 'plan' | null;
 }
 
 export interface ResolvedLine {
@@ -52,6 +55,8 @@ export interface ResolvedLine {
   offLine: (OffLineStation & { castId: string; latitude: number; longitude: number })[];
   /** Default line: stations the analyst left out; any line: stations with no usable cast. */
   excluded: { station: string; why: string }[];
+  /** Default line: the off-line stations the analyst took back in. */
+  include: string[];
   /** The data of each station's cast, in line order (composites joined), for the section engine. */
   casts: CruiseCast[];
 }
@@ -162,8 +167,7 @@ function pickCast(g: StationCasts, choice: LineCastChoice | undefined): { cast: 
 
 /** Station names of the default line in order: the plan's order where there is a plan, then the
  * other stations in order of first occupation (casts come in time order). */
-async function defaultOrder(cruiseId: string, groups: Map<string, StationCasts>): Promise<string[]> {
-  const plan = await Station.findAll({ where: { cruiseId }, attributes: ['name', 'order'], order: [['order', 'ASC'], ['name', 'ASC']] });
+function defaultOrder(plan: Station[], groups: Map<string, StationCasts>): string[] {
   const names = plan.map((s) => s.name).filter((n) => groups.has(n));
   const seen = new Set(names);
   for (const name of groups.keys()) if (!seen.has(name)) { names.push(name); seen.add(name); }
@@ -177,19 +181,21 @@ async function defaultOrder(cruiseId: string, groups: Map<string, StationCasts>)
  */
 export async function resolveLine(cruiseId: string, row: Line, all: CruiseCast[]): Promise<ResolvedLine> {
   const groups = groupByStation(all);
+  const plan = await Station.findAll({ where: { cruiseId }, attributes: ['name', 'order', 'plannedDepth'], order: [['order', 'ASC'], ['name', 'ASC']] });
+  const plannedDepth = new Map(plan.map((s) => [s.name, s.plannedDepth]));
   const excluded: ResolvedLine['excluded'] = [];
   let offLine: ResolvedLine['offLine'] = [];
-  const chosen: { station: string; pick: NonNullable<ReturnType<typeof pickCast>>; g: StationCasts }[] = [];
+  const chosen: { station: string; pick: NonNullable<ReturnType<typeof pickCast>>; g: StationCasts; fromPlan: boolean }[] = [];
   const take = (name: string) => {
     const g = groups.get(name);
     if (!g) { excluded.push({ station: name, why: 'no cast at this station' }); return; }
     const pick = pickCast(g, row.casts[name]);
     if (!pick) { excluded.push({ station: name, why: 'no cast with good data at this station' }); return; }
-    chosen.push({ station: name, pick, g });
+    chosen.push({ station: name, pick, g, fromPlan: false });
   };
   if (row.isDefault) {
     const exclude = new Set(row.exclude);
-    const order = (await defaultOrder(cruiseId, groups)).filter((n) => {
+    const order = defaultOrder(plan, groups).filter((n) => {
       if (exclude.has(n)) { excluded.push({ station: n, why: 'left out by the analyst' }); return false; }
       return true;
     });
@@ -203,14 +209,23 @@ export async function resolveLine(cruiseId: string, row: Line, all: CruiseCast[]
   } else {
     for (const n of row.stations) take(n);
   }
+  // The bottom: the cast's bottom depth, else the plan's depth of the station; else unknown.
+  for (const c of chosen) {
+    const planned = plannedDepth.get(c.station);
+    if (c.pick.cast.bottomDepth === null && planned !== null && planned !== undefined && Number.isFinite(planned)) {
+      c.pick = { ...c.pick, cast: { ...c.pick.cast, bottomDepth: planned } };
+      c.fromPlan = true;
+    }
+  }
   const x = lineDistances(chosen.map((c) => ({ lon: c.pick.cast.longitude, lat: c.pick.cast.latitude })), row.polyline);
   const stations: ResolvedStation[] = chosen.map((c, i) => ({
     station: c.station, castId: c.pick.cast.id, cast: c.pick.cast.cast, latitude: c.pick.cast.latitude, longitude: c.pick.cast.longitude,
     choice: c.pick.choice, composite: c.pick.composite, deepest: deepestGood(c.pick.cast), note: c.pick.note, x: x[i],
+    bottomDepth: c.pick.cast.bottomDepth, bottomSource: c.pick.cast.bottomDepth === null ? null : c.fromPlan ? 'plan' : 'file',
     candidates: c.g.casts.map((k) => ({ castId: k.id, cast: k.cast, deepest: c.g.deepest.get(k.id)! })).filter((k) => Number.isFinite(k.deepest))
       .sort((a, b) => b.deepest - a.deepest),
   }));
-  return { id: row.id, name: row.name, isDefault: row.isDefault, polyline: row.polyline, corridorKm: row.corridorKm, stations, offLine, excluded, casts: chosen.map((c) => c.pick.cast) };
+  return { id: row.id, name: row.name, isDefault: row.isDefault, polyline: row.polyline, corridorKm: row.corridorKm, stations, offLine, excluded, include: row.include, casts: chosen.map((c) => c.pick.cast) };
 }
 
 /** The casts of a line (or the default line) in line order with their distances: what every section-shaped route draws from. */

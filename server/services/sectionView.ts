@@ -101,7 +101,7 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   const lineInfo = new Map(resolved.stations.map((st) => [st.castId, { choice: st.choice, composite: st.composite, note: st.note }]));
   const stations = grid.casts.map((g) => {
     const c = byId.get(g.id)!;
-    return { id: g.id, station: g.station, cast: c.cast, x: g.x, latitude: g.lat, longitude: g.lon, bottom: g.bottom, bottomDepth: g.bottomDepth,
+    return { id: g.id, station: g.station, cast: c.cast, x: g.x, latitude: g.lat, longitude: g.lon, bottom: g.bottom, bottomDepth: g.bottomDepth, bottomKnown: g.bottomKnown,
       deepest: c.columns.pressure[c.columns.pressure.length - 1], ...lineInfo.get(g.id) };
   });
   const sigmaById = new Map(casts.map((c) => [c.id, c]));

@@ -6,7 +6,8 @@
  * - Between two adjacent casts a and b, a value is the linear interpolation in distance of the
  *   two casts' values. The section's top and bottom are lines drawn linearly in distance between
  *   the casts' shallowest level and bottom (pressure frame: bottom pressure from the cast's bottom
- *   depth, else its deepest sample; density frame: the lightest and densest σ of the cast). Below
+ *   depth, else its deepest sample, which is then marked as not a known bottom, so a screen shows
+ *   "no data below the cast" and never land there; density frame: the lightest and densest σ of the cast). Below
  *   the bottom line or above the top line nothing is drawn, so nothing is extrapolated below the
  *   deeper of two bottoms; between the lines, where only one cast has water (near a sloping
  *   bottom, or at a level one cast lacks), that cast's value is carried.
@@ -43,9 +44,11 @@ export interface SectionCastInfo {
   lat: number;
   /** Along-track distance, km. */
   x: number;
-  /** Bottom pressure, dbar. */
+  /** Bottom pressure, dbar: from the bottom depth where known, else the cast's deepest good level. */
   bottom: number;
   bottomDepth: number | null;
+  /** Whether the bottom is known (a bottom depth): where it is not, below the cast is "no data", never land. */
+  bottomKnown: boolean;
   /** Inversion markers of the cast in the section's σ. */
   inversions: { pTop: number; pBottom: number; deficit: number; class: InversionClass }[];
 }
@@ -60,8 +63,9 @@ export interface SectionGrid {
   /** The property, z[iy][ix]; null where empty. */
   z: (number | null)[][];
   casts: SectionCastInfo[];
-  /** The bottom at each cast: pressure (dbar) and the densest σ there. */
-  bottom: { x: number; p: number; sigma: number | null }[];
+  /** The bottom at each cast: pressure (dbar), the densest σ there, and whether it is a known bottom
+   * (from a bottom depth) or only where the cast stopped. */
+  bottom: { x: number; p: number; sigma: number | null; known: boolean }[];
   /** Distance ranges left empty by the gap rule, km. */
   gaps: { from: number; to: number }[];
   medianSpacingKm: number;
@@ -97,6 +101,7 @@ interface PlacedCast {
   cast: SectionCast;
   x: number;
   bottom: number;
+  known: boolean;
 }
 
 const median = (v: number[]): number => {
@@ -117,10 +122,15 @@ export function bottomPressure(cast: SectionCast): number {
   return pDeep;
 }
 
+/** Whether a cast's bottom is known: it has a bottom depth (from its file or the station plan). */
+export function bottomKnown(cast: SectionCast): boolean {
+  return cast.bottomDepth !== null && Number.isFinite(cast.bottomDepth) && Number.isFinite(p_from_z(-cast.bottomDepth, cast.lat));
+}
+
 /** Casts with their along-track distance and bottom, ordered by distance. */
 function placeCasts(casts: SectionCast[], opts: DistanceOptions): PlacedCast[] {
   const x = alongTrackDistance(Float64Array.from(casts, (c) => c.lon), Float64Array.from(casts, (c) => c.lat), opts);
-  return casts.map((cast, i) => ({ cast, x: x[i], bottom: bottomPressure(cast) })).sort((a, b) => a.x - b.x);
+  return casts.map((cast, i) => ({ cast, x: x[i], bottom: bottomPressure(cast), known: bottomKnown(cast) })).sort((a, b) => a.x - b.x);
 }
 
 /** Column positions: every cast, plus a regular grid of the given step between the first and last. */
@@ -227,7 +237,7 @@ function castInfo(pc: PlacedCast, threshold: number | undefined): SectionCastInf
   const inv = detectInversions(pc.cast.p, pc.cast.sigma, { threshold });
   return {
     id: pc.cast.id, station: pc.cast.station, lon: pc.cast.lon, lat: pc.cast.lat, x: pc.x, bottom: pc.bottom,
-    bottomDepth: pc.cast.bottomDepth,
+    bottomDepth: pc.cast.bottomDepth, bottomKnown: pc.known,
     inversions: inv.map((i) => ({ pTop: i.pTop, pBottom: i.pBottom, deficit: i.deficit, class: i.class })),
   };
 }
@@ -273,7 +283,7 @@ export function buildPressureSection(casts: SectionCast[], opts: PressureSection
   return {
     coord: 'pressure', property: opts.property, x: Array.from(xg), y: Array.from(y), z: toRows(data, xg.length, y.length),
     casts: placed.map((pc) => castInfo(pc, opts.inversionThreshold)),
-    bottom: placed.map((pc) => ({ x: pc.x, p: pc.bottom, sigma: Number.isFinite(densest(pc.cast.sigma).max) ? densest(pc.cast.sigma).max : null })),
+    bottom: placed.map((pc) => ({ x: pc.x, p: pc.bottom, sigma: Number.isFinite(densest(pc.cast.sigma).max) ? densest(pc.cast.sigma).max : null, known: pc.known })),
     gaps, medianSpacingKm, gapKm,
   };
 }
@@ -324,7 +334,7 @@ export function buildDensitySection(casts: SectionCast[], opts: DensitySectionOp
     coord: 'density', property: opts.property, x: Array.from(xg), y: Array.from(y), z: toRows(main.data, xg.length, y.length),
     pressure: toRows(pg.data, xg.length, y.length), depth: dg ? toRows(dg.data, xg.length, y.length) : null,
     casts: placed.map((pc) => castInfo(pc, opts.inversionThreshold)),
-    bottom: placed.map((pc, i) => ({ x: pc.x, p: pc.bottom, sigma: Number.isFinite(bottom[i]) ? bottom[i] : null })),
+    bottom: placed.map((pc, i) => ({ x: pc.x, p: pc.bottom, sigma: Number.isFinite(bottom[i]) ? bottom[i] : null, known: pc.known })),
     gaps: main.gaps, medianSpacingKm, gapKm, handling: opts.handling, interpolation: opts.interpolation,
   };
 }

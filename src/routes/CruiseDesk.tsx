@@ -4,6 +4,7 @@ import { EmptyState, Panel } from '../components/Panel';
 import { can } from '../features/auth';
 import { CastsTable, RemovedCasts, useCasts } from '../features/casts';
 import { AddStationForm, AuditTrail, StationList, StationMap, useStations } from '../features/cruises';
+import { LinesDesk } from '../features/lines';
 import { useCurrentCruise } from './CruiseLayout';
 
 
@@ -28,15 +29,18 @@ export default function CruiseDesk() {
       </dl>
 
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1.35fr)_minmax(0,1fr)]">
-        <Panel title="Station map" titleId="station-map">
+        <Panel title="Lines and stations" titleId="station-map">
           {stations.isPending && <Progress label="Loading the stations…" />}
           {stations.isError && <div className="p-4"><ErrorNotice error={stations.error} title="The stations could not be loaded" /></div>}
           {stations.isSuccess &&
-            (planned.length === 0 ? (
+            castList.length === 0 && (planned.length === 0 ? (
               <EmptyState title="Nothing to map yet">The map shows the planned stations, the section line and what has been occupied.</EmptyState>
             ) : (
               <StationMap stations={planned} cruiseName={cruise.name} />
             ))}
+          {stations.isSuccess && (planned.length > 0 || castList.length > 0) && (castList.length > 0
+            ? <LinesDesk cruiseId={cruise.id} cruiseName={cruise.name} plan={planned} canEdit={(cruise.role === 'chief_scientist' || cruise.role === 'analyst') && !cruise.locked} />
+            : null)}
         </Panel>
         <Panel
           title="Plan"

@@ -3,6 +3,8 @@ import { Panel } from '../components/Panel';
 import { roleLabel } from '../features/auth';
 import { BuildDeliveryForm, DeliveryList, canDeliver, useDeliveries } from '../features/deliveries';
 import { useLayerSets } from '../features/layersets';
+import { useState } from 'react';
+import { LinePicker } from '../features/lines';
 import { useCurrentCruise } from './CruiseLayout';
 
 export default function Deliveries() {
@@ -11,12 +13,14 @@ export default function Deliveries() {
   const layerSets = useLayerSets(cruise.id);
   const sets = layerSets.data ?? [];
   const mayBuild = canDeliver.build(cruise.role);
+  const [line, setLine] = useState<string | null>(null);
 
   return (
     <div className={`grid gap-5 ${mayBuild ? 'xl:grid-cols-[26rem_minmax(0,1fr)]' : ''}`}>
       {mayBuild ? (
         <Panel title="Build a delivery" titleId="build-delivery" className="self-start">
-          <BuildDeliveryForm cruiseId={cruise.id} layerSets={sets} />
+          <div className="px-4 pt-4"><LinePicker cruiseId={cruise.id} value={line} onChange={setLine} label="From the line" /></div>
+          <BuildDeliveryForm cruiseId={cruise.id} layerSets={sets} line={line} />
         </Panel>
       ) : (
         <p className="text-sm text-ink-soft">

@@ -34,6 +34,7 @@ import {
 import { useLayerSets } from '../features/layersets';
 import { useDerivedVariables } from '../features/derived';
 import { useCurrentCruise } from './CruiseLayout';
+import { LinePicker } from '../features/lines';
 
 /** Who may keep saved views: the analysts and the chief scientist (the server enforces it too). */
 const canSaveViews = (role: string | null | undefined) => role === 'analyst' || role === 'chief_scientist';
@@ -125,6 +126,12 @@ export default function Section() {
 
   return (
     <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-center gap-3">
+        <LinePicker cruiseId={cruise.id} value={view.line} onChange={(line) => setView({ line, station: null })} />
+        {byPressure.data?.line?.offLine?.length ? (
+          <span className="text-xs text-ink-muted">Off the line, not drawn: {byPressure.data.line.offLine.map((o) => o.station).join(', ')}</span>
+        ) : null}
+      </div>
       <SectionControls
         view={view}
         onChange={(patch) => setView(patch)}

@@ -7,7 +7,7 @@ import type { BenchResult } from './modules';
 export async function bench(): Promise<BenchResult[]> {
   const { makeTestApp, createUser, addMember, agentFor, waitFor } = await import('../api/helpers');
   const { startWorkers } = await import('../../server/jobs/worker');
-  const { Cruise } = await import('../../server/models/index');
+  const { Cruise, Line } = await import('../../server/models/index');
   const t = await makeTestApp({ LOG_LEVEL: 'error' });
   try {
     await startWorkers(t.deps, { concurrency: 2 });
@@ -47,11 +47,21 @@ export async function bench(): Promise<BenchResult[]> {
     for (const v of views) cold.push(await time(v));
     const warm: number[] = [];
     for (let i = 0; i < 300; i++) warm.push(await time(views[i % views.length]));
+    // The same views drawn from a named line of every other station (docs/lines.md).
+    const names = [...new Set(files.map((f) => f.replace(/(_ct1)?\.csv$/, '')))].filter((_, i) => i % 2 === 0);
+    const line = await Line.create({ cruiseId: c.id, name: 'Every other station', stations: names, polyline: null, corridorKm: null, createdBy: null });
+    const lineViews = views.map((v) => ({ ...v, line: line.id }));
+    const coldLine: number[] = [];
+    for (const v of lineViews) coldLine.push(await time(v));
+    const warmLine: number[] = [];
+    for (let i = 0; i < 300; i++) warmLine.push(await time(lineViews[i % lineViews.length]));
     const p95 = (a: number[]) => [...a].sort((x, y) => x - y)[Math.floor(0.95 * (a.length - 1))];
     server.close();
     return [
       { name: `section cold (6 views, ${files.length} casts), p95`, value: p95(cold), unit: 'ms', target: '< 500 ms' },
       { name: 'section warm (300 reads), p95', value: p95(warm), unit: 'ms', target: '< 50 ms' },
+      { name: `section with line= cold (6 views, ${names.length} stations), p95`, value: p95(coldLine), unit: 'ms', target: '< 500 ms' },
+      { name: 'section with line= warm (300 reads), p95', value: p95(warmLine), unit: 'ms', target: '< 50 ms' },
     ];
   } finally {
     await t.close();

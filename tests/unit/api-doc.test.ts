@@ -28,6 +28,10 @@ const CONTRACT: [string, string, string][] = [
   ['get', '/cruises/:id/exports/pressure.csv', 'pi,chief_scientist,analyst'],
   ['post', '/cruises/:id/deliveries', 'pi,chief_scientist,analyst'],
   ['get', '/deliveries/:id', 'member'],
+  ['get', '/cruises/:id/lines', 'member'],
+  ['post', '/cruises/:id/lines', 'chief_scientist,analyst'],
+  ['patch', '/lines/:id', 'chief_scientist,analyst'],
+  ['delete', '/lines/:id', 'chief_scientist,analyst'],
 ];
 
 const ruleText = (r: (typeof routes)[number]['rule']) =>

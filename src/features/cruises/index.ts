@@ -18,6 +18,7 @@ export { CruiseHeader } from './components/CruiseHeader';
 export { StationList, AddStationForm } from './components/StationPlan';
 export { StationMap } from './map/StationMap';
 export { fitStationFrame, degreeLabel, unwrapLongitudes } from './map/projection';
+export { loadLand, landQueryKey } from './map/land';
 export { cruiseSchema, stationSchema, newCruiseSchema, newStationSchema } from './types';
 export type { Cruise, Station, NewCruise, NewStation } from './types';
 export { AuditTrail, useAuditTrail } from './components/AuditTrail';

@@ -72,4 +72,6 @@ export interface NewDelivery {
   bin?: number;
   flags: number[];
   formats: DeliveryFormat[];
+  /** The line to draw from (docs/lines.md); absent: the default line. */
+  line?: string;
 }

@@ -52,7 +52,10 @@ export const sectionSchema = z.object({
   unit: z.string(),
   grid: z.object({ x: z.array(z.number()), y: z.array(z.number()), z: z.array(z.array(cell)) }),
   stations: z.array(sectionStationSchema),
-  bottom: z.array(z.object({ x: z.number(), p: z.number() })).optional().default([]),
+  /** The line drawn (docs/lines.md). */
+  line: z.object({ id: z.string(), name: z.string(), isDefault: z.boolean(), offLine: z.array(z.object({ station: z.string() })) }).optional(),
+  // known: a bottom depth was known there; where not, the cast only stopped (no data below, never land)
+  bottom: z.array(z.object({ x: z.number(), p: z.number(), known: z.boolean().optional().default(true) })).optional().default([]),
   inversions: z.array(sectionInversionSchema),
   isopycnals: z.array(z.object({ sigma: z.number(), p: z.array(cell) })).optional().default([]),
 });

@@ -9,7 +9,7 @@ import { DELIVERY_FORMATS, DELIVERY_KINDS, FLAG_MEANINGS, FORMAT_TEXT, KIND_TEXT
 const SIGMA = (ref: number) => `σ${ref / 1000}`;
 
 /** Build a delivery: what kind, from which choices, which flags, which formats. */
-export function BuildDeliveryForm({ cruiseId, layerSets }: { cruiseId: string; layerSets: readonly LayerSetChoice[] }) {
+export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruiseId: string; layerSets: readonly LayerSetChoice[]; line?: string | null }) {
   const [values, setValues] = useState<DeliveryFormValues>(DEFAULT_FORM);
   const [errors, setErrors] = useState<DeliveryFormErrors>({});
   const build = useBuildDelivery(cruiseId);
@@ -30,7 +30,8 @@ export function BuildDeliveryForm({ cruiseId, layerSets }: { cruiseId: string; l
       return;
     }
     setErrors({});
-    build.mutate(result.body);
+    // the line the delivery is drawn from (docs/lines.md); without it, the default line
+    build.mutate(line ? { ...result.body, line } : result.body);
   };
 
   const toggle = <T,>(list: readonly T[], item: T): T[] => (list.includes(item) ? list.filter((x) => x !== item) : [...list, item]);

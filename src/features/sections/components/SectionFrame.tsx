@@ -44,6 +44,18 @@ export interface SectionFrameProps {
 /** One config for every frame: react-plotly redraws whenever the config object changes. */
 const FRAME_CONFIG = plotConfig();
 
+/** Stretches of consecutive bottom points whose bottom is known (land is drawn only there). */
+export function knownBottomRuns<T extends { known: boolean }>(b: T[]): T[][] {
+  const runs: T[][] = [];
+  let cur: T[] = [];
+  for (const q of b) {
+    if (q.known) cur.push(q);
+    else if (cur.length) { runs.push(cur); cur = []; }
+  }
+  if (cur.length) runs.push(cur);
+  return runs;
+}
+
 /** One frame of the section: the field, isopycnals (pressure frame), the bottom, stations and inversion marks. */
 export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion, onDrawn }: SectionFrameProps) {
   // The traces depend on the data and the colour range only; the station cursor changes the layout
@@ -199,17 +211,35 @@ export function buildTraces(
     }
     if (section.bottom.length) {
       const b = [...section.bottom].sort((a, c) => a.x - c.x);
-      data.push({
-        type: 'scatter',
-        mode: 'lines',
-        name: 'bottom',
-        x: [...b.map((q) => q.x), b[b.length - 1].x, b[0].x],
-        y: [...b.map((q) => q.p), yMax * 1.02, yMax * 1.02],
-        fill: 'toself',
-        fillcolor: BOTTOM_FILL,
-        line: { color: BOTTOM_FILL, width: 1 },
-        hoverinfo: 'none',
-      });
+      // Land only where a bottom is known: one filled run per stretch of stations with a known bottom.
+      const span = b.length > 1 ? b[b.length - 1].x - b[0].x : 1;
+      for (const run of knownBottomRuns(b)) {
+        const pts = run.length > 1 ? run : [{ ...run[0], x: run[0].x - span * 0.004 }, { ...run[0], x: run[0].x + span * 0.004 }];
+        data.push({
+          type: 'scatter',
+          mode: 'lines',
+          name: 'bottom',
+          x: [...pts.map((q) => q.x), pts[pts.length - 1].x, pts[0].x],
+          y: [...pts.map((q) => q.p), yMax * 1.02, yMax * 1.02],
+          fill: 'toself',
+          fillcolor: BOTTOM_FILL,
+          line: { color: BOTTOM_FILL, width: 1 },
+          hoverinfo: 'none',
+        });
+      }
+      // Where the bottom is not known the cast only stopped: a dotted line down, "no data below the cast".
+      const open = b.filter((q) => !q.known);
+      if (open.length) {
+        data.push({
+          type: 'scatter',
+          mode: 'lines',
+          name: 'no data below the cast',
+          x: open.flatMap((q) => [q.x, q.x, null]),
+          y: open.flatMap((q) => [q.p, yMax * 1.02, null]),
+          line: { color: BOTTOM_FILL, width: 1, dash: 'dot' },
+          hovertemplate: 'no data below the cast (bottom depth not known)<extra></extra>',
+        });
+      }
     }
   }
 
