@@ -1,12 +1,17 @@
-import { Component, lazy, Suspense, useCallback, useRef, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
+import { Component, lazy, Suspense, useCallback, useMemo, useRef, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
 import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent, PlotSelectionEvent } from 'plotly.js';
 import { Progress } from '../Notice';
+import { withoutCloud } from './theme';
 
 /**
- * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-cartesian-dist-min` (the cartesian traces: scatter, heatmap, contour, bar — all our screens draw) is a
- * dynamic import, so Vite puts Plotly (≈4.6 MB, ≈1.4 MB gzip) in its own chunk that only screens
- * with a plot download; the first screen stays light. While it loads, the plot's box keeps its size
- * and shows progress; if the chunk cannot be fetched the box says so.
+ * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-dist-min` (the design
+ * card's bundle) is a dynamic import, so Vite puts Plotly in its own chunk that only screens with a
+ * plot download; the first screen stays light. While it loads, the plot's box keeps its size and
+ * shows progress; if the chunk cannot be fetched the box says so.
+ *
+ * Every figure goes through this wrapper, and the wrapper lays the options that keep a figure on the
+ * ship over whatever config a caller passes (see `withoutCloud` in theme.ts): no logo, no link or
+ * button that would send a figure or its data to the library maker's cloud service.
  */
 
 export interface PlotProps {
@@ -32,7 +37,7 @@ let loading: Promise<{ default: ComponentType<PlotProps> }> | null = null;
 /** Start fetching Plotly (e.g. on hover of a link to a plotting screen); safe to call repeatedly. */
 export function preloadPlotly(): Promise<{ default: ComponentType<PlotProps> }> {
   if (!loading) {
-    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-cartesian-dist-min')]).then(([factory, plotly]) => {
+    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(([factory, plotly]) => {
       const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
       const Plotly = (plotly as { default?: object }).default ?? plotly;
       performance.mark?.('plotly loaded');
@@ -58,8 +63,10 @@ export interface LazyPlotProps extends PlotProps {
 }
 
 /** A Plotly figure in a labelled box, loading Plotly on first use. */
-export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, ...plot }: LazyPlotProps) {
+export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, config, ...plot }: LazyPlotProps) {
   const figure = useRef<HTMLElement>(null);
+  // A new object only when the caller's config changes (react-plotly redraws on a new config).
+  const safeConfig = useMemo(() => withoutCloud(config), [config]);
   const { onAfterPlot } = plot;
   const afterPlot = useCallback(() => {
     // A marker for tests and the browser benchmark: this figure has been drawn at least once.
@@ -73,7 +80,7 @@ export function LazyPlot({ label, height = 360, caption, style, className = '', 
       <div style={{ height }} className="relative w-full">
         <PlotErrorBoundary>
           <Suspense fallback={<PlotLoading label={label} />}>
-            <Plot {...plot} onAfterPlot={afterPlot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
+            <Plot {...plot} config={safeConfig} onAfterPlot={afterPlot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
           </Suspense>
         </PlotErrorBoundary>
       </div>
