@@ -1,5 +1,5 @@
-export { LazyPlot, PlotLoading, preloadPlotly } from './LazyPlot';
-export type { LazyPlotProps, PlotProps } from './LazyPlot';
+export { LazyPlot, PlotLoading, preloadPlotly, plotlyLibrary } from './LazyPlot';
+export type { LazyPlotProps, PlotProps, PlotlyLibrary } from './LazyPlot';
 export { DEPTHS, HEARTH, BRINE, CLEFT, GRAPHITE, PALETTES, PALETTE_NAMES, COLOR_SCALES, reversed, toPlotly, colorAt } from './colormaps';
 export type { PaletteName } from './colormaps';
 export type { ColorScale, ColorScaleName } from './colormaps';

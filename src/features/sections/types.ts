@@ -9,6 +9,11 @@ export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
 export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
 export const INVERSION_HANDLINGS = ['sort', 'drop', 'raw'] as const;
 export type InversionHandling = (typeof INVERSION_HANDLINGS)[number];
+/** The pressure frame's vertical axis and the frames' horizontal axis (see axes.ts). */
+export const Y_AXES = ['pressure', 'depth'] as const;
+export type YAxisKind = (typeof Y_AXES)[number];
+export const X_AXES = ['distance', 'latitude', 'longitude'] as const;
+export type XAxisKind = (typeof X_AXES)[number];
 export const INTERPOLATIONS = ['linear', 'pchip'] as const;
 export type Interpolation = (typeof INTERPOLATIONS)[number];
 
