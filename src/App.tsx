@@ -55,6 +55,8 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
                   lazy: lazyScreen(() => import('./routes/Section')),
                   // the plotting library and the frames' data start downloading with the screen's code
                   loader: ({ params, request }) => prefetchSection(queryClient, params.id, new URL(request.url)),
+                  // only on entering the screen: the screen itself asks when its controls change the query
+                  shouldRevalidate: ({ currentUrl, nextUrl }) => currentUrl.pathname !== nextUrl.pathname,
                 },
                 { path: 'deliveries', lazy: lazyScreen(() => import('./routes/Deliveries')) },
               ],

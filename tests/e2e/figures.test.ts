@@ -132,8 +132,8 @@ describe('the section as a figure', () => {
     // Look at the SVG as a browser draws it.
     const viewer = await chromium.newPage();
     await viewer.setViewportSize({ width: 1100, height: 1200 });
-    await viewer.goto(`data:image/svg+xml;base64,${Buffer.from(svgText).toString('base64')}`);
-    await viewer.screenshot({ path: join(SHOTS, 'export-svg-rendered.png'), fullPage: true });
+    await viewer.setContent(`<body style="margin:0">${svgText.replace(/^<\?xml[^>]*>/, '')}</body>`);
+    await viewer.screenshot({ path: join(SHOTS, 'export-svg-rendered.png'), fullPage: true, timeout: 90_000 });
     await viewer.context().close();
 
     const pdf = await take('PDF');
