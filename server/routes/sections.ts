@@ -1,17 +1,18 @@
 import { z } from 'zod';
 import { gzipSync } from 'node:zlib';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
-import { badRequest, notFound } from '../lib/errors';
+import { notFound } from '../lib/errors';
 import { LayerSet } from '../models/index';
 import { audit } from '../lib/audit';
-import { safeParseLevels, defaultLayerSets } from '../../shared/remap/index';
+import { levelsOrError } from '../services/levels';
+import { referencePressureSchema } from '../../shared/api/levels';
 import { isopycnalTable, pressureTable, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { csvStream } from '../services/deliveries/index';
 import { buildSectionView, SectionQuery } from '../services/sectionView';
+import { layerSetListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
-const REFS = [0, 1000, 2000, 3000, 4000];
-const ref = z.coerce.number().refine((v) => REFS.includes(v), 'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar');
+const ref = referencePressureSchema;
 const flags = z.string().regex(/^\d(,\d)*$/, 'flags are a comma list of 1–9').transform((s) => s.split(',').map(Number)).default([1, 2]);
 const extras = z.string().max(500).transform((s) => s.split(',').map((x) => x.trim()).filter(Boolean)).default([]);
 export const IsopycnalQuery = z.object({
@@ -20,20 +21,11 @@ export const IsopycnalQuery = z.object({
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
   flags, extras,
+  /** the line (docs/lines.md); without it, the default line */
+  line: z.string().max(64).optional(),
 });
-const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras });
+const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras, line: z.string().max(64).optional() });
 const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
-
-export function defaultLevels(refP: number): string {
-  const d = defaultLayerSets();
-  return (d.find((s) => s.ref === refP) ?? { spec: refP === 0 ? '24.0:0.1:27.6' : `${(refP / 1000) * 4.6 + 27.0}:0.05:${(refP / 1000) * 4.6 + 28.5}` }).spec;
-}
-
-export function levelsOrError(spec: string) {
-  const r = safeParseLevels(spec);
-  if (!r.ok) throw badRequest(`The levels "${spec.slice(0, 80)}" are not valid: ${r.errors.join('; ')}`, r.errors.map((m) => ({ field: 'levels', message: m })));
-  return r.levels;
-}
 
 export function sectionRoutes(deps: AppDeps): RouteSpec[] {
   const readers = ['pi', 'chief_scientist', 'analyst'] as const;
@@ -42,8 +34,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/exports/isopycnal.csv', summary: 'The isopycnal table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: IsopycnalQuery,
       handler: async (req, res, ctx) => {
         const q = ctx.query as z.infer<typeof IsopycnalQuery>;
-        const text = q.levels ?? defaultLevels(q.ref);
-        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: levelsOrError(text), levelsText: text, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras });
+        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: q.levels ?? null, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras, line: q.line });
         res.setHeader('content-type', 'text/csv; charset=utf-8');
         res.setHeader('content-disposition', `attachment; filename="isopycnal-sigma${q.ref / 1000}.csv"`);
         csvStream(table).pipe(res);
@@ -70,6 +61,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         else res.send(body.json);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/layer-sets', summary: 'Layer sets (target isopycnals per reference pressure)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: layerSetListResponseSchema,
       handler: async (_req, _res, ctx) => {
         const rows = await LayerSet.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['referencePressure', 'ASC'], ['name', 'ASC']] });
         return rows.map((r) => ({ id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length }));

@@ -26,8 +26,6 @@ import {
   serialiseViewState,
   sigmaName,
   stepStation,
-  useDerivedVariables,
-  useLayerSets,
   useSection,
   useSectionView,
   useHover,
@@ -37,6 +35,8 @@ import {
   type ReadoutValue,
   type Section as SectionData,
 } from '../features/sections';
+import { useLayerSets } from '../features/layersets';
+import { useDerivedVariables } from '../features/derived';
 import { useCurrentCruise } from './CruiseLayout';
 import { FrameExportMenu, type FrameExport } from '../features/sections';
 
@@ -106,7 +106,7 @@ export default function Section() {
   const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
   const frameHeight = useFrameHeight(view.frames);
   // Figures leave with a provenance line and a file name of cruise, line and property.
-  const lineName = null as string | null; // the line picker (lines issue) sets this
+  const lineName = view.line; // the line picker can pass the line's name here instead of its id
   const provenance = provenanceLine(cruise, lineName);
   const fileBase = figureFileName(cruise.name, lineName, view.property);
   const pressureCaption = sentence(
@@ -252,6 +252,7 @@ export default function Section() {
             selectedCastId={view.station}
             onColourBy={(tsColour) => setView({ tsColour })}
             onSelectCast={(castId) => setView({ station: castId }, { replace: true })}
+            line={view.line}
           />
           <GeostrophyPanel
             cruiseId={cruise.id}

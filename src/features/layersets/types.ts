@@ -1,18 +1,12 @@
-import { z } from 'zod';
-import { safeParseLevels } from '../../../shared/remap/layerSets';
+import { REFERENCE_PRESSURES, safeParseLevels } from '../../../shared/api/levels';
 
-export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
+export { REFERENCE_PRESSURES };
 
-export const layerSetSchema = z.object({
-  id: z.union([z.string(), z.number()]).transform(String),
-  name: z.string(),
-  referencePressure: z.number(),
-  /** As written: `start:step:end` or a comma list. */
-  levels: z.string(),
-  count: z.number().int().nonnegative(),
-});
-export type LayerSet = z.infer<typeof layerSetSchema>;
-export const layerSetListSchema = z.array(layerSetSchema);
+export {
+  layerSetResponseSchema as layerSetSchema,
+  layerSetListResponseSchema as layerSetListSchema,
+  type LayerSetResponse as LayerSet,
+} from '../../../shared/api/resources';
 
 export interface LayerSetInput {
   name: string;
@@ -27,7 +21,7 @@ export type LevelsFeedback =
 
 /**
  * What the levels field says as it is typed, from the same parser the server uses
- * (shared/remap/layerSets): how many levels, the first and the last, or what is wrong.
+ * (shared/api/levels.ts): how many levels, the first and the last, or what is wrong.
  */
 export function levelsFeedback(spec: string): LevelsFeedback {
   if (spec.trim() === '') return { state: 'empty' };

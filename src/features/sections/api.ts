@@ -2,9 +2,7 @@ import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient }
 import { http } from '../../lib/http';
 import { sectionKeys } from './keys';
 import {
-  derivedVariableListSchema,
   geostrophySchema,
-  layerSetListSchema,
   savedViewListSchema,
   savedViewSchema,
   sectionSchema,
@@ -32,10 +30,11 @@ export function useSection(cruiseId: string, query: string, enabled = true) {
   return useQuery({ ...sectionQuery(cruiseId, query), placeholderData: keepPreviousData, enabled });
 }
 
-export function useTsPoints(cruiseId: string, every = 4) {
+export function useTsPoints(cruiseId: string, every = 4, line: string | null = null) {
+  const lineQuery = line ? `&line=${encodeURIComponent(line)}` : '';
   return useQuery({
-    queryKey: sectionKeys.ts(cruiseId, every),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/ts?every=${every}`, { schema: tsSchema, signal }),
+    queryKey: [...sectionKeys.ts(cruiseId, every), line],
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/ts?every=${every}${lineQuery}`, { schema: tsSchema, signal }),
     staleTime: 5 * 60_000,
   });
 }
@@ -46,20 +45,6 @@ export function useGeostrophy(cruiseId: string, query: string) {
     queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/geostrophy?${query}`, { schema: geostrophySchema, signal }),
     staleTime: 5 * 60_000,
     placeholderData: keepPreviousData,
-  });
-}
-
-export function useLayerSets(cruiseId: string) {
-  return useQuery({
-    queryKey: sectionKeys.layerSets(cruiseId),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/layer-sets`, { schema: layerSetListSchema, signal }),
-  });
-}
-
-export function useDerivedVariables(cruiseId: string) {
-  return useQuery({
-    queryKey: sectionKeys.derivedVariables(cruiseId),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/derived-variables`, { schema: derivedVariableListSchema, signal }),
   });
 }
 

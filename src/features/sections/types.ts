@@ -5,8 +5,7 @@ const label = z.union([z.string(), z.number()]).transform(String);
 /** Grid cells and per-station values: a number, or null where there is no water or no data. */
 const cell = z.number().nullable();
 
-export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
-export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
+export { REFERENCE_PRESSURES, type ReferencePressure } from '../../../shared/api/levels';
 export const INVERSION_HANDLINGS = ['sort', 'drop', 'raw'] as const;
 export type InversionHandling = (typeof INVERSION_HANDLINGS)[number];
 /** The pressure frame's vertical axis and the frames' horizontal axis (see axes.ts). */
@@ -92,22 +91,4 @@ export const savedViewSchema = z.object({ id, name: z.string(), query: z.string(
 export type SavedView = z.infer<typeof savedViewSchema>;
 export const savedViewListSchema = z.array(savedViewSchema);
 
-export const layerSetSchema = z.object({
-  id,
-  name: z.string(),
-  referencePressure: z.number(),
-  levels: z.string(),
-  count: z.number().int().nonnegative(),
-});
-export type LayerSet = z.infer<typeof layerSetSchema>;
-export const layerSetListSchema = z.array(layerSetSchema);
-
-export const derivedVariableSchema = z.object({
-  id,
-  name: z.string(),
-  formula: z.string(),
-  unit: z.string().nullable().optional().default(null),
-  description: z.string().nullable().optional().default(null),
-});
-export type DerivedVariable = z.infer<typeof derivedVariableSchema>;
-export const derivedVariableListSchema = z.array(derivedVariableSchema);
+export type { LayerSetResponse as LayerSet, DerivedVariableResponse as DerivedVariable } from '../../../shared/api/resources';

@@ -50,6 +50,8 @@ export interface SectionViewState {
   /** The frames' horizontal axis (the data stay in distance along the track). */
   xAxis: XAxisKind;
   frames: FrameChoice;
+  /** The line drawn (a line id), or null for the cruise's default line. */
+  line: string | null;
 }
 
 export const DEFAULT_VIEW: Readonly<SectionViewState> = {
@@ -70,6 +72,7 @@ export const DEFAULT_VIEW: Readonly<SectionViewState> = {
   stretch: false,
   xAxis: 'distance',
   frames: 'both',
+  line: null,
 };
 
 /** The URL parameter of each part of the state. Short, because people paste these links. */
@@ -93,6 +96,7 @@ export const PARAM = {
   stretch: 'stretch',
   xAxis: 'xax',
   frames: 'show',
+  line: 'line',
 } as const;
 
 /** Same rule as the server's `property` parameter: an identifier. */
@@ -124,6 +128,7 @@ export function parseViewState(search: URLSearchParams | string): SectionViewSta
   const dmax = finite(q.get(PARAM.densityMax));
   const cintRaw = q.get(PARAM.contours);
   const cint = finite(cintRaw);
+  const line = q.get(PARAM.line);
   return {
     property: property && property.length <= 64 && PROPERTY_RE.test(property) ? property : DEFAULT_VIEW.property,
     ref: oneOf(REFERENCE_PRESSURES, q.get(PARAM.ref), DEFAULT_VIEW.ref),
@@ -143,6 +148,7 @@ export function parseViewState(search: URLSearchParams | string): SectionViewSta
     stretch: q.get(PARAM.stretch) === '1',
     xAxis: oneOf(X_AXES, q.get(PARAM.xAxis), DEFAULT_VIEW.xAxis),
     frames: oneOf(FRAME_CHOICES, q.get(PARAM.frames), DEFAULT_VIEW.frames),
+    line: line && ID_RE.test(line) ? line : null,
   };
 }
 
@@ -172,6 +178,7 @@ export function serialiseViewState(state: SectionViewState): string {
   if (state.stretch) q.set(PARAM.stretch, '1');
   if (state.xAxis !== DEFAULT_VIEW.xAxis) q.set(PARAM.xAxis, state.xAxis);
   if (state.frames !== DEFAULT_VIEW.frames) q.set(PARAM.frames, state.frames);
+  if (state.line) q.set(PARAM.line, state.line);
   return q.toString();
 }
 
@@ -189,6 +196,7 @@ export function sectionQueryString(
   q.set('inversions', state.inversions);
   q.set('interpolation', state.interpolation);
   q.set('bin', '10');
+  if (state.line) q.set('line', state.line);
   return q.toString();
 }
 
@@ -197,6 +205,7 @@ export function geostrophyQueryString(state: SectionViewState, levels: string | 
   q.set('pRef', String(state.pRef));
   q.set('ref', String(state.ref));
   if (levels) q.set('levels', levels);
+  if (state.line) q.set('line', state.line);
   return q.toString();
 }
 
