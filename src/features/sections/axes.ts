@@ -74,14 +74,14 @@ export function yScale(kind: YAxisKind, stretched: boolean, pMax: number, meanLa
     }
     return {
       toAxis: map.to, fromAxis: map.from, ticks: { vals, text }, title: 'Depth (m)',
-      caption: `Depth from pressure by TEOS-10 (p_from_z) at the mean latitude ${Math.abs(lat).toFixed(1)}°${lat < 0 ? 'S' : 'N'}${stretchText}`,
+      caption: `depth from pressure by TEOS-10 (p_from_z) at the mean latitude ${Math.abs(lat).toFixed(1)}°${lat < 0 ? 'S' : 'N'}${stretchText}`,
     };
   }
-  if (!stretched || pMax <= STRETCH.topDbar) return { toAxis: map.to, fromAxis: map.from, ticks: null, title: 'Pressure (dbar)', caption: `Pressure axis${stretchText}` };
+  if (!stretched || pMax <= STRETCH.topDbar) return { toAxis: map.to, fromAxis: map.from, ticks: null, title: 'Pressure (dbar)', caption: `pressure axis${stretchText}` };
   const marks = [...roundValues(0, 1000, 200), ...roundValues(1000, pMax, niceStep(pMax - 1000, 5)).slice(1)];
   return {
     toAxis: map.to, fromAxis: map.from, ticks: { vals: marks.map(map.to), text: marks.map(String) }, title: 'Pressure (dbar)',
-    caption: `Pressure axis${stretchText}`,
+    caption: `pressure axis${stretchText}`,
   };
 }
 

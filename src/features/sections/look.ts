@@ -40,9 +40,16 @@ export function useFramesLook(view: SectionViewState, pressure: Section | undefi
   const autoPressure = useMemo(() => gridRange(pressure?.grid), [pressure?.grid]);
   const autoDensity = useMemo(() => gridRange(density?.grid), [density?.grid]);
   const { range: fixedP, densityRange: fixedD } = view;
-  const pressureRange = useMemo(() => fixedP ?? autoPressure, [fixedP?.min, fixedP?.max, autoPressure]); // eslint-disable-line react-hooks/exhaustive-deps
-  const densityRange = useMemo(() => fixedD ?? autoDensity, [fixedD?.min, fixedD?.max, autoDensity]); // eslint-disable-line react-hooks/exhaustive-deps
   const paletteName: PaletteName = view.palette === 'auto' ? autoPalette(view.property) : view.palette;
+  // A diverging palette is centred on zero: its automatic range is symmetric about 0.
+  const diverging = PALETTES[paletteName].kind === 'diverging';
+  const centred = (r: { min: number; max: number } | null) => {
+    if (!r || !diverging) return r;
+    const m = Math.max(Math.abs(r.min), Math.abs(r.max)) || 1;
+    return { min: -m, max: m };
+  };
+  const pressureRange = useMemo(() => fixedP ?? centred(autoPressure), [fixedP?.min, fixedP?.max, autoPressure, diverging]); // eslint-disable-line react-hooks/exhaustive-deps
+  const densityRange = useMemo(() => fixedD ?? (view.densityShows === 'depth' ? autoDensity : centred(autoDensity)), [fixedD?.min, fixedD?.max, autoDensity, diverging, view.densityShows]); // eslint-disable-line react-hooks/exhaustive-deps
   const stations = pressure?.stations ?? density?.stations;
 
   return useMemo(() => {
@@ -91,11 +98,11 @@ export function useFramesLook(view: SectionViewState, pressure: Section | undefi
           const fixed = frame === 'pressure' ? view.range : view.densityRange;
           const r = frame === 'pressure' ? pressureRange : densityRange;
           if (!r) return 'colour range automatic';
-          return fixed ? `colour range fixed at ${fmt(r.min)} to ${fmt(r.max)}${ext(frame === 'pressure' ? pLook : dLook)}` : `colour range ${fmt(r.min)} to ${fmt(r.max)} (this frame's own)`;
+          return fixed ? `colour range fixed at ${fmt(r.min)} to ${fmt(r.max)}${ext(frame === 'pressure' ? pLook : dLook)}` : `colour range ${fmt(r.min)} to ${fmt(r.max)} (this frame's own${diverging ? ', centred on 0' : ''})`;
         },
       },
     };
-  }, [paletteName, view.palette, view.contours, view.yAxis, view.stretch, view.xAxis, view.range, view.densityRange, pressure, density, stations, pressureRange, densityRange, autoPressure, autoDensity, densityShowsDepth]);
+  }, [diverging, paletteName, view.palette, view.contours, view.yAxis, view.stretch, view.xAxis, view.range, view.densityRange, pressure, density, stations, pressureRange, densityRange, autoPressure, autoDensity, densityShowsDepth]);
 }
 
 /** Caption text: the parts joined, ending with exactly one full stop. */
