@@ -7,6 +7,8 @@ import { join } from 'node:path';
 import type { Pool } from 'pg';
 import pg from 'pg';
 import { sessionMiddleware, configurePassport, csrfGuard } from './auth/session';
+import { warmPasswordCheck } from './auth/passwords';
+import { configureCache } from './services/cruiseData';
 import { HttpError, errorBody } from './lib/errors';
 import { logger } from './lib/logger';
 import { mountRoutes, type RouteSpec } from './lib/routeTable';
@@ -28,12 +30,24 @@ export function databaseUnreachable(err: unknown): boolean {
   return false;
 }
 
+/** The `trust proxy` value of a TRUST_PROXY setting: empty or "false" for none; never "everyone". */
+export function trustProxy(setting: string): string | false {
+  const v = setting.trim();
+  if (v === '' || v === 'false') return false;
+  if (v === 'true' || v === '*') throw new Error('TRUST_PROXY must name the proxies (e.g. loopback or their addresses), not trust everyone');
+  return v;
+}
+
 export type App = express.Express & { routes: RouteSpec[]; close: () => Promise<void> };
 
 export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App {
   const app = express() as App;
   const settings = deps.settings;
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-* headers count only from the proxies named in TRUST_PROXY (none by default), so
+  // nobody can pick their own address for the sign-in limits or claim https.
+  app.set('trust proxy', trustProxy(settings.TRUST_PROXY));
+  warmPasswordCheck();
+  configureCache({ maxBytes: settings.SECTION_CACHE_MAX_BYTES });
   app.disable('x-powered-by');
   // gzip for the client's files and JSON answers (the section route sends its own cached gzip)
   app.use(compression({ threshold: 1024 }));
@@ -94,6 +108,8 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
 
   const onError: ErrorRequestHandler = (err, req, res, _next) => {
     if (err instanceof HttpError) {
+      const retryAfter = (err as HttpError & { retryAfter?: number }).retryAfter;
+      if (retryAfter) res.setHeader('retry-after', String(retryAfter));
       res.status(err.status).json(errorBody(err.code, err.message, err.details));
       return;
     }

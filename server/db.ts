@@ -3,6 +3,8 @@ import { initModels } from './models/index';
 import * as m001 from './migrations/001-initial';
 import * as m002 from './migrations/002-analysis-and-deliveries';
 import * as m004 from './migrations/004-lines';
+import * as m005 from './migrations/005-hardening';
+import * as m008 from './migrations/008-qc';
 import type { QueryInterface } from 'sequelize';
 
 export type Db = { sequelize: Sequelize };
@@ -21,7 +23,10 @@ export function connectDb(databaseUrl: string, opts: { poolMax?: number } = {}):
 
 type Migration = { name: string; up: (qi: QueryInterface) => Promise<void> };
 export const MIGRATIONS: Migration[] = [{ name: '001-initial', up: m001.up }, { name: '002-analysis-and-deliveries', up: m002.up },
-  { name: '004-lines', up: m004.up }];
+  { name: '004-lines', up: m004.up },
+  { name: '005-hardening', up: m005.up },
+  { name: '008-qc', up: m008.up },
+];
 
 /** Runs forward every migration not yet applied, each in its own transaction, under an advisory lock
  * so that several processes starting at once migrate once. */

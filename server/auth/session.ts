@@ -30,7 +30,7 @@ export function sessionMiddleware(pool: Pool, secret: string, secure: boolean | 
     resave: false,
     saveUninitialized: false,
     rolling: false,
-    proxy: true,
+    proxy: undefined, // X-Forwarded-Proto counts only from the proxies of the app's `trust proxy` (TRUST_PROXY)
     cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 1000 * 60 * 60 * 12 },
   });
 }

@@ -6,6 +6,7 @@ import type { z } from 'zod';
 import { QueryTypes } from 'sequelize';
 import { Membership, type Role } from '../models/index';
 import { HttpError, unauthorized, forbidden, notFound, badRequest } from './errors';
+import { idProblem, inputProblem, isUuid } from './input';
 
 // Memberships are read at most twice a second per process and user: a change made through this
 // process drops them at once (invalidateMemberships); one made by another web process is seen
@@ -49,8 +50,13 @@ export type RouteSpec<B extends z.ZodType = z.ZodType, Q extends z.ZodType = z.Z
   /** the schema of a 2xx JSON answer */
   response?: z.ZodType;
   responses?: Record<number, string>;
-  /** extra middleware run after the rule and before the body is parsed (e.g. multer) */
+  /** extra middleware run after the rule and before the body is parsed (e.g. multer); an error it
+   * reports that is not an HttpError or a limit is the client's malformed body (400 bad_body) */
   before?: RequestHandler[];
+  /** The route changes the cruise's data: on a locked cruise the table answers 409 `locked` before
+   * the handler runs. A function decides per request (e.g. a PATCH that only unlocks). Every
+   * state-changing member route declares it, true or false (tests/api/security-lock.test.ts). */
+  changesData?: boolean | ((req: Request) => boolean);
   handler: (req: Request, res: Response, ctx: RouteContext<z.output<B>, z.output<Q>>) => Promise<unknown> | unknown;
 };
 
@@ -58,7 +64,27 @@ export type RouteContext<B = unknown, Q = unknown> = { cruiseId: string | null; 
 
 export const byParam = (name = 'id') => async (req: Request) => {
   const v = req.params[name];
-  return typeof v === 'string' && /^[0-9a-f-]{36}$/i.test(v) ? v : null;
+  return typeof v === 'string' && isUuid(v) ? v : null;
+};
+
+/** 409 when the route changes data and the cruise is locked (read fresh: a lock takes effect at once). */
+async function checkLock(spec: RouteSpec, req: Request, cruiseId: string | null): Promise<void> {
+  if (!spec.changesData || !cruiseId) return;
+  if (typeof spec.changesData === 'function' && !spec.changesData(req)) return;
+  const [row] = (await Membership.sequelize!.query('SELECT locked FROM cruises WHERE id = :c', {
+    replacements: { c: cruiseId }, type: QueryTypes.SELECT,
+  })) as { locked: boolean }[];
+  if (row?.locked) {
+    throw new HttpError(409, 'locked', 'This cruise is locked: its casts, flags, stations, mappings, layer sets and derived variables are frozen. A chief scientist can unlock it.');
+  }
+}
+
+/** Errors of a `before` middleware (multipart parsing): the body is the client's. */
+const clientBodyError = (err: unknown) => {
+  if (!err || err instanceof HttpError) return err;
+  const e = err as { code?: unknown; message?: string };
+  if (typeof e.code === 'string' && (e.code.startsWith('LIMIT_') || /^E[A-Z]+$/.test(e.code))) return err; // limits; disk faults stay 5xx
+  return badRequest(`The request body could not be read: ${e.message ?? 'malformed'}.`, [], 'bad_body');
 };
 
 async function check(rule: Rule, req: Request): Promise<{ cruiseId: string | null; role: Role | null }> {
@@ -86,8 +112,20 @@ export function defineRoute<B extends z.ZodType = z.ZodType, Q extends z.ZodType
 export function mountRoutes(router: Router, specs: RouteSpec[]) {
   for (const spec of specs) {
     const guard: RequestHandler = (req, _res, next) => {
-      check(spec.rule, req).then((ctx) => { (req as Request & { routeCtx?: object }).routeCtx = ctx; next(); }, next);
+      // Malformed input answers 400 before anything reads it (server/lib/input.ts).
+      const problem = inputProblem(req);
+      if (problem) return next(problem);
+      check(spec.rule, req)
+        .then(async (ctx) => {
+          const child = idProblem(req, 'children');
+          if (child) throw child;
+          await checkLock(spec, req, ctx.cruiseId);
+          (req as Request & { routeCtx?: object }).routeCtx = ctx;
+          next();
+        })
+        .catch(next);
     };
+    const before = (spec.before ?? []).map((mw): RequestHandler => (req, res, next) => mw(req, res, (err?: unknown) => next(clientBodyError(err))));
     const run = (req: Request, res: Response, next: NextFunction) => {
       const base = (req as Request & { routeCtx?: { cruiseId: string | null; role: Role | null } }).routeCtx ?? { cruiseId: null, role: null };
       let body: unknown = req.body;
@@ -107,7 +145,7 @@ export function mountRoutes(router: Router, specs: RouteSpec[]) {
         res.json(out);
       }, next);
     };
-    router[spec.method](spec.path, guard, ...(spec.before ?? []), run);
+    router[spec.method](spec.path, guard, ...before, run);
   }
 }
 

@@ -2,6 +2,8 @@
 // migrations in server/migrations (never by sync), so the two must agree.
 import { DataTypes, Model, Sequelize, type InferAttributes, type InferCreationAttributes, type CreationOptional, type ForeignKey } from 'sequelize';
 
+import { initQcModels } from './qc';
+
 export const ROLES = ['chief_scientist', 'technician', 'analyst', 'pi'] as const;
 export type Role = (typeof ROLES)[number];
 
@@ -279,6 +281,8 @@ export function initModels(sequelize: Sequelize) {
     casts: { type: DataTypes.JSONB, defaultValue: {} }, include: { type: DataTypes.JSONB, defaultValue: [] },
     exclude: { type: DataTypes.JSONB, defaultValue: [] }, polyline: { type: DataTypes.JSONB, allowNull: true },
     corridorKm: { type: DataTypes.DOUBLE, allowNull: true }, createdBy: DataTypes.UUID, ...ts }, opts('lines'));
+
+  initQcModels(sequelize); // the QC desk's tables (server/models/qc.ts)
 
   User.hasMany(Membership, { foreignKey: 'userId' });
   Membership.belongsTo(User, { foreignKey: 'userId' });

@@ -25,8 +25,20 @@ export type ParseOptions = {
   columnMapping?: Record<string, string>;
   maxBytes?: number; // of one file (and of each zip entry); default 50 MB
   zipLimits?: Partial<ZipLimits>;
+  maxLevels?: number; // levels one cast may keep; default DEFAULT_MAX_LEVELS
 };
 export const DEFAULT_MAX_BYTES = 50 * 1024 * 1024;
+/** A full-depth raw 24 Hz downcast (6000 dbar at 1 m/s) is about 150 000 scans. */
+export const DEFAULT_MAX_LEVELS = 500_000;
+
+/** A cast over the levels limit fails its file (the CAST_MAX_LEVELS setting; docs/security.md). */
+function capLevels(r: One, maxLevels: number): One {
+  if (!r.ok) return r;
+  const big = r.casts.find((c) => c.profile.levels > maxLevels);
+  if (!big) return r;
+  return { ok: false, errors: [fileError(big.file, null, null, 'too_many_levels',
+    `the cast has ${big.profile.levels} levels (the limit is ${maxLevels}); split the file or average it to fewer scans`)] };
+}
 
 export { detectFormat } from './detect';
 export type { DetectedFormat } from './detect';
@@ -106,7 +118,7 @@ export async function parseUpload(
     }
     const fmt = detectFormat(filename, bytes);
     if (fmt !== 'zip') {
-      const r = parseSingle(filename, bytes, fmt, mapping);
+      const r = capLevels(parseSingle(filename, bytes, fmt, mapping), options.maxLevels ?? DEFAULT_MAX_LEVELS);
       if (r.ok && r.stations.length > 0) applyStationTable(r.casts, r.stations, filename);
       return r;
     }
@@ -123,7 +135,7 @@ export async function parseUpload(
         warnings.push(fileError(f.path, null, null, 'skipped', `zip entry ${f.path} is not a cast file; skipped`));
         continue;
       }
-      const r = parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping);
+      const r = capLevels(parseSingle(f.path, f.bytes, detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>, mapping), options.maxLevels ?? DEFAULT_MAX_LEVELS);
       if (r.ok) {
         casts.push(...r.casts);
         if (r.stations.length > 0) tableFile = f.path;

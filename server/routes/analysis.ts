@@ -1,5 +1,6 @@
 // Analysis routes: derived variables and their preview, the T–S points, geostrophy, saved views.
 import { z } from 'zod';
+import { binQuery } from '../lib/bounds';
 import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { badRequest, conflict, notFound } from '../lib/errors';
@@ -31,7 +32,7 @@ const GeoQuery = z.object({
   pRef: z.union([z.literal('deepest_common'), z.coerce.number().min(0).max(11000)]).default('deepest_common'),
   ref: referencePressureSchema.default(0),
   levels: z.string().max(20000).optional(),
-  bin: z.coerce.number().positive().max(500).default(20),
+  bin: binQuery(20),
   /** pairs of adjacent stations closer than this, km, are skipped and named */
   minDistanceKm: z.coerce.number().min(0).max(500).default(2),
   line: lineParam,
@@ -48,7 +49,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       response: derivedVariableListResponseSchema,
       handler: async (_req, _res, ctx) => (await DerivedVariable.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['name', 'ASC']] }))
         .map((d) => ({ id: d.id, name: d.name, formula: d.formula, unit: d.unit, description: d.description })) }),
-    defineRoute({ method: 'post', path: '/cruises/:id/derived-variables', summary: 'Define a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewVariable,
+    defineRoute({ method: 'post', path: '/cruises/:id/derived-variables', changesData: true, summary: 'Define a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewVariable,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewVariable>;
         if (RESERVED.has(b.name)) throw badRequest(`${b.name} is the name of a cast column.`, [{ field: 'name', message: 'taken by a cast column' }]);
@@ -63,7 +64,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
         invalidateDataVersion(ctx.cruiseId!);
         res.status(201).json({ id: d.id, name: d.name, formula: d.formula, unit: d.unit, description: d.description, variables: f.variables });
       } }),
-    defineRoute({ method: 'delete', path: '/cruises/:id/derived-variables/:varId', summary: 'Remove a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() },
+    defineRoute({ method: 'delete', path: '/cruises/:id/derived-variables/:varId', changesData: true, summary: 'Remove a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() },
       handler: async (req, res, ctx) => {
         const id = uuidOr404(req.params.varId, 'derived variable');
         await deps.db.sequelize.transaction(async (transaction) => {
@@ -75,7 +76,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
         invalidateDataVersion(ctx.cruiseId!);
         res.status(204).end();
       } }),
-    defineRoute({ method: 'post', path: '/casts/:id/formula-preview', summary: 'Evaluate a formula on one cast', rule: { kind: 'member', roles: 'any', cruise: castCruise }, body: Preview,
+    defineRoute({ method: 'post', path: '/casts/:id/formula-preview', changesData: false, summary: 'Evaluate a formula on one cast', rule: { kind: 'member', roles: 'any', cruise: castCruise }, body: Preview,
       handler: async (req, _res, ctx) => {
         const { formula } = ctx.body as z.infer<typeof Preview>;
         const cols = (await readColumns([String(req.params.id)])).get(String(req.params.id))!;
@@ -123,13 +124,13 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/views', summary: 'Your saved section views', rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (req, _res, ctx) => (await SavedView.findAll({ where: { cruiseId: ctx.cruiseId!, userId: req.user!.id }, order: [['createdAt', 'DESC']] }))
         .map((v) => ({ id: v.id, name: v.name, query: v.query, createdAt: v.createdAt })) }),
-    defineRoute({ method: 'post', path: '/cruises/:id/views', summary: 'Save a section view', rule: { kind: 'member', roles: 'any', cruise: byParam() }, body: NewView,
+    defineRoute({ method: 'post', path: '/cruises/:id/views', changesData: false, summary: 'Save a section view', rule: { kind: 'member', roles: 'any', cruise: byParam() }, body: NewView,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewView>;
         const v = await SavedView.create({ cruiseId: ctx.cruiseId!, userId: req.user!.id, name: b.name, query: b.query.replace(/^\?/, '') });
         res.status(201).json({ id: v.id, name: v.name, query: v.query, createdAt: v.createdAt });
       } }),
-    defineRoute({ method: 'delete', path: '/cruises/:id/views/:viewId', summary: 'Delete one of your saved views', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+    defineRoute({ method: 'delete', path: '/cruises/:id/views/:viewId', changesData: false, summary: 'Delete one of your saved views', rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (req, res, ctx) => {
         const id = uuidOr404(req.params.viewId, 'view');
         const n = await SavedView.destroy({ where: { id, cruiseId: ctx.cruiseId!, userId: req.user!.id } });

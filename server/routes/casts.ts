@@ -1,15 +1,13 @@
 import { z } from 'zod';
 import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
-import { badRequest, notFound } from '../lib/errors';
-import { Cast, CastColumn } from '../models/index';
-import { readColumns, encodeU8 } from '../services/columns';
-import { inversionsOfGoodLevels } from '../services/processCast';
-import { invalidateDataVersion } from '../services/cruiseData';
-import { audit } from '../lib/audit';
+import { notFound } from '../lib/errors';
+import { Cast } from '../models/index';
+import { readColumns } from '../services/columns';
+import { setFlag } from '../services/qcFlags';
 import type { AppDeps } from '../lib/deps';
 
-const castCruise = async (req: Request) => {
+export const castCruise = async (req: Request) => {
   const id = String(req.params.id);
   if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
   return (await Cast.findByPk(id, { attributes: ['cruiseId'] }))?.cruiseId ?? null;
@@ -47,42 +45,7 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
         const units = Object.fromEntries(Object.entries(cols.units).filter(([k]) => !k.startsWith('x:') && !k.startsWith('flag:')));
         return { ...castSummary(c), metadata: c.metadata, notes: c.notes, fitness: c.fitness, inversions: c.inversions, columns, units, extras, flags };
       } }),
-    defineRoute({ method: 'post', path: '/casts/:id/flags', summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable', rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise }, body: FlagEdit,
-      handler: async (req, _res, ctx) => {
-        const b = ctx.body as z.infer<typeof FlagEdit>;
-        if (b.pTo < b.pFrom) throw badRequest('The range ends above where it starts.', [{ field: 'pTo', message: 'must be ≥ pFrom' }]);
-        const c = await Cast.findByPk(String(req.params.id));
-        if (!c) throw notFound();
-        const cols = (await readColumns([c.id], ['pressure'])).get(c.id)!;
-        const p = cols.columns.pressure;
-        const variables = b.variable === 'all' ? ['temperature', 'salinity', 'conductivity', 'oxygen'] : [b.variable];
-        const result = await deps.db.sequelize.transaction(async (transaction) => {
-          let changed = 0;
-          const before: Record<string, number[]> = {};
-          for (const v of variables) {
-            const name = `flag:${v}`;
-            const row = await CastColumn.findOne({ where: { castId: c.id, name }, transaction, lock: true });
-            if (!row && b.variable === 'all' && v !== 'temperature') continue;
-            const flags = row ? new Uint8Array(row.values) : new Uint8Array(p.length).fill(2);
-            const prior: number[] = [];
-            for (let i = 0; i < p.length; i++) if (p[i] >= b.pFrom && p[i] <= b.pTo) { prior.push(flags[i]); flags[i] = b.flag; changed++; }
-            before[v] = [...new Set(prior)];
-            if (row) await row.update({ values: encodeU8(flags) }, { transaction });
-            else await CastColumn.create({ castId: c.id, name, unit: null, kind: 'flag', values: encodeU8(flags) }, { transaction });
-          }
-          // What depends on the flags: the cast's inversion warnings (and, through the cast's
-          // updated time, every cached section and table of the cruise).
-          const all = (await readColumns([c.id])).get(c.id)!;
-          const flagRows = await CastColumn.findAll({ where: { castId: c.id, kind: 'flag' }, transaction });
-          const flagsNow = Object.fromEntries(flagRows.map((r) => [r.name, new Uint8Array(r.values)]));
-          const inversions = inversionsOfGoodLevels(all.columns, flagsNow, deps.settings.INVERSION_THRESHOLD);
-          c.changed('updatedAt', true);
-          await c.update({ inversions, inversionCount: inversions.length, updatedAt: new Date() }, { transaction });
-          await audit({ cruiseId: c.cruiseId, userId: req.user!.id, action: 'set_flag', entity: 'cast', entityId: c.id, before: { flagsInRange: before }, after: { variable: b.variable, pFrom: b.pFrom, pTo: b.pTo, flag: b.flag, reason: b.reason ?? null, levels: changed } }, transaction);
-          return { levels: changed };
-        });
-        invalidateDataVersion(c.cruiseId);
-        return result;
-      } }),
+    defineRoute({ method: 'post', path: '/casts/:id/flags', changesData: true, summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable', rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise }, body: FlagEdit,
+      handler: async (req, _res, ctx) => setFlag(deps, String(req.params.id), ctx.body as z.infer<typeof FlagEdit>, req.user!.id) }),
   ];
 }

@@ -6,7 +6,12 @@ import { AuditEntry, Cast, Cruise, Membership, Station, User, type Role } from '
 import { audit } from '../lib/audit';
 import type { AppDeps } from '../lib/deps';
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use YYYY-MM-DD').refine((s) => !Number.isNaN(Date.parse(s)), 'not a calendar date');
+/** A calendar date YYYY-MM-DD that exists (no 2026-02-31), in years a cruise can have (1800–2200). */
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use YYYY-MM-DD').refine((s) => {
+  const [y, m, d] = s.split('-').map(Number);
+  const t = new Date(Date.UTC(y, m - 1, d));
+  return y >= 1800 && y <= 2200 && t.getUTCFullYear() === y && t.getUTCMonth() === m - 1 && t.getUTCDate() === d;
+}, 'not a calendar date (years 1800–2200)');
 const optionalText = z.string().trim().max(2000).nullable().optional();
 const CruiseFields = z.object({
   name: z.string().trim().min(1, 'required').max(200),
@@ -22,6 +27,12 @@ const CreateCruise = CruiseFields.refine((c) => c.endDate >= c.startDate, { mess
 const PatchCruise = CruiseFields.partial().extend({ locked: z.boolean().optional() });
 const NewStation = z.object({ name: z.string().trim().min(1).max(100), latitude: z.number().min(-90).max(90), longitude: z.number().min(-180).max(360),
   plannedDepth: z.number().min(0).max(12000).nullable().optional() });
+
+const withoutEmail = (v: unknown) => {
+  if (!v || typeof v !== 'object' || Array.isArray(v)) return v;
+  const { email: _email, ...rest } = v as Record<string, unknown>;
+  return rest;
+};
 
 export async function cruiseJson(c: Cruise, role: Role | null) {
   const [stationCount, castCount] = await Promise.all([Station.count({ where: { cruiseId: c.id } }), Cast.count({ where: { cruiseId: c.id } })]);
@@ -57,7 +68,7 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
         if (!c) throw notFound();
         return cruiseJson(c, ctx.role);
       } }),
-    defineRoute({ method: 'patch', path: '/cruises/:id', summary: 'Edit or lock a cruise', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: PatchCruise,
+    defineRoute({ method: 'patch', path: '/cruises/:id', changesData: (req) => Object.keys((req.body ?? {}) as object).some((k) => k !== 'locked'), summary: 'Edit or lock a cruise', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: PatchCruise,
       handler: async (req, _res, ctx) => {
         const b = ctx.body as z.infer<typeof PatchCruise>;
         return sequelize.transaction(async (transaction) => {
@@ -80,7 +91,7 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
         const occupied = new Set(casts.map((c) => c.station));
         return stations.map((s) => ({ id: s.id, name: s.name, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedDepth, order: s.order, occupied: occupied.has(s.name) }));
       } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/stations', summary: 'Add a planned station', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: NewStation,
+    defineRoute({ method: 'post', path: '/cruises/:id/stations', changesData: true, summary: 'Add a planned station', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: NewStation,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewStation>;
         const s = await sequelize.transaction(async (transaction) => {
@@ -96,9 +107,11 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/audit', summary: 'The audit trail of a cruise', rule: { kind: 'member', roles: ['chief_scientist', 'technician', 'analyst', 'pi'], cruise: byParam() },
       handler: async (_req, _res, ctx) => {
         const rows = await AuditEntry.findAll({ where: { cruiseId: ctx.cruiseId! }, include: [{ model: User, attributes: ['id', 'name'] }], order: [['at', 'DESC']], limit: 500 });
+        // Invitations (and their addresses) are for chief scientists only: others see that one was sent.
+        const hide = (r: AuditEntry, v: unknown) => (ctx.role !== 'chief_scientist' && r.entity === 'invitation' ? withoutEmail(v) : v);
         return rows.map((r) => {
           const u = (r as AuditEntry & { User?: User | null }).User;
-          return { id: String(r.id), at: r.at, actor: u ? { id: u.id, name: u.name } : null, action: r.action, entity: r.entity, entityId: r.entityId, before: r.before, after: r.after };
+          return { id: String(r.id), at: r.at, actor: u ? { id: u.id, name: u.name } : null, action: r.action, entity: r.entity, entityId: r.entityId, before: hide(r, r.before), after: hide(r, r.after) };
         });
       } }),
   ];

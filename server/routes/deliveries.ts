@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { binBody } from '../lib/bounds';
 import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { HttpError, notFound } from '../lib/errors';
@@ -22,7 +23,7 @@ const NewDelivery = z.object({
   levels: z.string().trim().max(20000).optional(),
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
-  bin: z.number().positive().max(500).default(2),
+  bin: binBody(2),
   flags: z.array(z.number().int().min(1).max(9)).min(1).max(9).default([1, 2]),
   formats: z.array(z.enum(['csv', 'xlsx', 'nc'])).min(1).max(3),
   /** the line (docs/lines.md); without it, the default line */
@@ -38,7 +39,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
   return [
     defineRoute({ method: 'get', path: '/cruises/:id/deliveries', summary: 'Deliveries of a cruise', rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => (await Delivery.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['createdAt', 'DESC']] })).map(deliveryJson) }),
-    defineRoute({ method: 'post', path: '/cruises/:id/deliveries', summary: 'Build a delivery (tables or a data package) in the background', rule: { kind: 'member', roles: [...builders], cruise: byParam() }, body: NewDelivery,
+    defineRoute({ method: 'post', path: '/cruises/:id/deliveries', changesData: false, summary: 'Build a delivery (tables or a data package) in the background', rule: { kind: 'member', roles: [...builders], cruise: byParam() }, body: NewDelivery,
       responses: { 202: 'queued' },
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewDelivery>;
@@ -63,7 +64,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
         if (!f) throw notFound('This delivery has no file in that format.');
         res.redirect(302, await deps.storage.presignedGetUrl(f.key, f.filename));
       } }),
-    defineRoute({ method: 'post', path: '/deliveries/:id/release', summary: "Release a delivery to the team (PI); it is frozen and the cruise's members are e-mailed", rule: { kind: 'member', roles: ['pi'], cruise: deliveryCruise },
+    defineRoute({ method: 'post', path: '/deliveries/:id/release', changesData: false, summary: "Release a delivery to the team (PI); it is frozen and the cruise's members are e-mailed", rule: { kind: 'member', roles: ['pi'], cruise: deliveryCruise },
       handler: async (req, _res, ctx) => {
         const d = await deps.db.sequelize.transaction(async (transaction) => {
           const row = (await Delivery.findByPk(String(req.params.id), { transaction, lock: true }))!;
@@ -82,7 +83,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
           html: `<p>${escapeHtml(req.user!.name)} released the ${escapeHtml(what)} of <b>${escapeHtml(cruise.name)}</b>.</p><p><a href="${escapeHtml(link)}">Open the deliveries</a></p><p><small>Provisional research data; not for navigation or safety-of-life use.</small></p>` });
         return deliveryJson(d);
       } }),
-    defineRoute({ method: 'delete', path: '/deliveries/:id', summary: 'Delete a delivery that is not released', rule: { kind: 'member', roles: [...builders], cruise: deliveryCruise },
+    defineRoute({ method: 'delete', path: '/deliveries/:id', changesData: false, summary: 'Delete a delivery that is not released', rule: { kind: 'member', roles: [...builders], cruise: deliveryCruise },
       handler: async (req, res, ctx) => {
         await deps.db.sequelize.transaction(async (transaction) => {
           const d = (await Delivery.findByPk(String(req.params.id), { transaction, lock: true }))!;

@@ -40,7 +40,7 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`lines:${ctx.cruiseId}:${version}`, () => listLines(ctx.cruiseId!));
       } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/lines', summary: 'Make a line from a station list or a drawn polyline', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewLine,
+    defineRoute({ method: 'post', path: '/cruises/:id/lines', changesData: true, summary: 'Make a line from a station list or a drawn polyline', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewLine,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewLine>;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
@@ -53,7 +53,7 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
       } }),
     defineRoute({ method: 'get', path: '/lines/:id', summary: 'One line with its stations, casts, off-line and excluded stations', rule: { kind: 'member', roles: 'any', cruise: lineCruise },
       handler: async (req) => one((await Line.findByPk(String(req.params.id)))!) }),
-    defineRoute({ method: 'patch', path: '/lines/:id', summary: 'Rename, reorder, include or exclude stations, choose casts or composites, redraw', rule: { kind: 'member', roles: [...editors], cruise: lineCruise }, body: PatchLine,
+    defineRoute({ method: 'patch', path: '/lines/:id', changesData: true, summary: 'Rename, reorder, include or exclude stations, choose casts or composites, redraw', rule: { kind: 'member', roles: [...editors], cruise: lineCruise }, body: PatchLine,
       handler: async (req, _res, ctx) => {
         const b = ctx.body as z.infer<typeof PatchLine>;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
@@ -67,7 +67,7 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
         invalidateDataVersion(ctx.cruiseId!);
         return one(row);
       } }),
-    defineRoute({ method: 'delete', path: '/lines/:id', summary: 'Delete a line (not the default line)', rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
+    defineRoute({ method: 'delete', path: '/lines/:id', changesData: true, summary: 'Delete a line (not the default line)', rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
       handler: async (req, res, ctx) => {
         await deps.db.sequelize.transaction(async (transaction) => {
           const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });

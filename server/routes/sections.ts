@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { binQuery } from '../lib/bounds';
 import { gzipSync } from 'node:zlib';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { notFound } from '../lib/errors';
@@ -24,7 +25,7 @@ export const IsopycnalQuery = z.object({
   /** the line (docs/lines.md); without it, the default line */
   line: z.string().max(64).optional(),
 });
-const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras, line: z.string().max(64).optional() });
+const PressureQuery = z.object({ bin: binQuery(2), flags, extras, line: z.string().max(64).optional() });
 const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
 
 export function sectionRoutes(deps: AppDeps): RouteSpec[] {
@@ -66,7 +67,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         const rows = await LayerSet.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['referencePressure', 'ASC'], ['name', 'ASC']] });
         return rows.map((r) => ({ id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length }));
       } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/layer-sets', summary: 'Create a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody,
+    defineRoute({ method: 'post', path: '/cruises/:id/layer-sets', changesData: true, summary: 'Create a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof LayerSetBody>;
         const n = levelsOrError(b.levels).length;
@@ -78,7 +79,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         invalidateDataVersion(ctx.cruiseId!);
         res.status(201).json({ id: row.id, name: row.name, referencePressure: row.referencePressure, levels: row.levels, count: n });
       } }),
-    defineRoute({ method: 'patch', path: '/cruises/:id/layer-sets/:setId', summary: 'Edit a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody.partial(),
+    defineRoute({ method: 'patch', path: '/cruises/:id/layer-sets/:setId', changesData: true, summary: 'Edit a layer set', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: LayerSetBody.partial(),
       handler: async (req, _res, ctx) => {
         const b = ctx.body as Partial<z.infer<typeof LayerSetBody>>;
         if (b.levels) levelsOrError(b.levels);

@@ -7,6 +7,8 @@ import { hashToken, newToken } from '../auth/tokens';
 import { hashPassword, passwordProblem, verifyPassword } from '../auth/passwords';
 import { escapeHtml } from '../services/mailer';
 import { signIn, userJson } from './auth';
+import { takeRateSlots } from '../lib/rateLimit';
+import { checkSignInAllowed, recordSignIn } from '../auth/limiter';
 import type { AppDeps } from '../lib/deps';
 
 const Role = z.enum(ROLES);
@@ -14,6 +16,16 @@ const Invite = z.object({ email: z.string().trim().toLowerCase().pipe(z.string()
 const ChangeRole = z.object({ role: Role });
 const Accept = z.object({ name: z.string().trim().min(1).max(200).optional(), password: z.string().min(1).max(200) });
 const ROLE_WORDS: Record<string, string> = { chief_scientist: 'chief scientist', technician: 'technician', analyst: 'analyst', pi: 'principal investigator' };
+
+/** User text in a mail body: one line, in quotes, so it reads as a name and not as the message. */
+const quoted = (s: string) => `"${s.replace(/[\r\n\t]+/g, ' ').replace(/"/g, "'").slice(0, 200)}"`;
+
+/** Locks the cruise row so that role changes and removals of one cruise run one at a time: the
+ * count of chief scientists read after it is the true one (two chiefs demoting each other at once
+ * cannot leave the cruise with none). */
+async function lockCruise(cruiseId: string, transaction: import('sequelize').Transaction) {
+  await Cruise.findByPk(cruiseId, { transaction, lock: true, attributes: ['id'] });
+}
 
 const byUser = async (req: { params: Record<string, string> }) => req.params.userId;
 
@@ -37,7 +49,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
         const rows = await Invitation.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['createdAt', 'DESC']] });
         return rows.map((i) => ({ id: i.id, email: i.email, role: i.role, createdAt: i.createdAt, expiresAt: i.expiresAt, acceptedAt: i.acceptedAt }));
       } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/members', summary: 'Invite someone by e-mail with a role', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: Invite,
+    defineRoute({ method: 'post', path: '/cruises/:id/members', changesData: false, summary: 'Invite someone by e-mail with a role', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: Invite,
       handler: async (req, res, ctx) => {
         const { email, role } = ctx.body as z.infer<typeof Invite>;
         const cruise = (await Cruise.findByPk(ctx.cruiseId!))!;
@@ -45,21 +57,28 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
         if (existing && (await Membership.findOne({ where: { userId: existing.id, cruiseId: cruise.id } }))) throw conflict(`${email} is already a member of this cruise.`);
         const token = newToken();
         const inv = await sequelize.transaction(async (transaction) => {
+          // Invitations send mail to any address: bounded per cruise and per sender (429 past it).
+          await takeRateSlots(deps.db, [
+            { bucket: 'invite_cruise', key: cruise.id, limit: settings.INVITES_PER_CRUISE_PER_HOUR, windowMs: 3600_000, message: 'This cruise has sent as many invitations as allowed in an hour; try again later.' },
+            { bucket: 'invite_sender', key: req.user!.id, limit: settings.INVITES_PER_SENDER_PER_HOUR, windowMs: 3600_000, message: 'You have sent as many invitations as allowed in an hour; try again later.' },
+          ], transaction);
           const i = await Invitation.create({ cruiseId: cruise.id, email, role, tokenHash: hashToken(token), invitedBy: req.user!.id, expiresAt: new Date(Date.now() + 14 * 86400_000), acceptedAt: null }, { transaction });
           await audit({ cruiseId: cruise.id, userId: req.user!.id, action: 'invite', entity: 'invitation', entityId: i.id, after: { email, role } }, transaction);
           return i;
         });
         const link = `${settings.PUBLIC_URL}/invite/${token}`;
-        await mailer.send({ to: email, subject: `Sigmaline: join ${cruise.name} as ${ROLE_WORDS[role]}`,
-          text: `${req.user!.name} invites you to the cruise ${cruise.name} (${cruise.ship}) on Sigmaline as ${ROLE_WORDS[role]}.\n\nAccept the invitation here (valid for 14 days):\n${link}\n`,
+        // No text a user chose goes into the subject; in the body it is quoted plainly.
+        await mailer.send({ to: email, subject: `Sigmaline: an invitation to join a cruise as ${ROLE_WORDS[role]}`,
+          text: `${quoted(req.user!.name)} invites you to the cruise ${quoted(cruise.name)} (ship ${quoted(cruise.ship)}) on Sigmaline as ${ROLE_WORDS[role]}.\n\nAccept the invitation here (valid for 14 days):\n${link}\n\nIf you do not know the sender, ignore this message.\n`,
           html: `<p>${escapeHtml(req.user!.name)} invites you to the cruise <b>${escapeHtml(cruise.name)}</b> (${escapeHtml(cruise.ship)}) on Sigmaline as ${ROLE_WORDS[role]}.</p><p><a href="${escapeHtml(link)}">Accept the invitation</a> (valid for 14 days).</p>` });
         res.status(201).json({ invitation: { id: inv.id, email, role, createdAt: inv.createdAt, expiresAt: inv.expiresAt, acceptedAt: null } });
       } }),
-    defineRoute({ method: 'patch', path: '/cruises/:id/members/:userId', summary: "Change a member's role", rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: ChangeRole,
+    defineRoute({ method: 'patch', path: '/cruises/:id/members/:userId', changesData: false, summary: "Change a member's role", rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: ChangeRole,
       handler: async (req, _res, ctx) => {
         const { role } = ctx.body as z.infer<typeof ChangeRole>;
         const userId = await byUser(req as never);
         return sequelize.transaction(async (transaction) => {
+          await lockCruise(ctx.cruiseId!, transaction);
           const m = await Membership.findOne({ where: { cruiseId: ctx.cruiseId!, userId }, transaction, lock: true });
           if (!m) throw notFound('No such member.');
           if (m.role === 'chief_scientist' && role !== 'chief_scientist') {
@@ -72,10 +91,11 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
           return { userId, role };
         }).finally(() => invalidateMemberships(ctx.cruiseId!));
       } }),
-    defineRoute({ method: 'delete', path: '/cruises/:id/members/:userId', summary: 'Remove a member', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+    defineRoute({ method: 'delete', path: '/cruises/:id/members/:userId', changesData: false, summary: 'Remove a member', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
       handler: async (req, res, ctx) => {
         const userId = await byUser(req as never);
         await sequelize.transaction(async (transaction) => {
+          await lockCruise(ctx.cruiseId!, transaction);
           const m = await Membership.findOne({ where: { cruiseId: ctx.cruiseId!, userId }, transaction, lock: true });
           if (!m) throw notFound('No such member.');
           if (m.role === 'chief_scientist' && (await Membership.count({ where: { cruiseId: ctx.cruiseId!, role: 'chief_scientist' }, transaction })) <= 1) {
@@ -99,7 +119,14 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
         const inv = await liveInvitation(String(req.params.token));
         let user = await User.findOne({ where: { email: inv.email } });
         if (user?.passwordHash) {
-          if (!(await verifyPassword(user.passwordHash, b.password))) throw new HttpError(401, 'bad_credentials', `The password is not that of ${inv.email}.`);
+          // The same back-off as sign-in: this is a password check of an existing account.
+          const ip = req.ip ?? '';
+          await checkSignInAllowed(inv.email, ip, settings);
+          const ok = await verifyPassword(user.passwordHash, b.password);
+          if (!ok) {
+            await recordSignIn(inv.email, ip, false);
+            throw new HttpError(401, 'bad_credentials', `The password is not that of ${inv.email}.`);
+          }
         } else {
           const problem = passwordProblem(b.password);
           if (problem) throw badRequest(problem, [{ field: 'password', message: problem }], 'weak_password');

@@ -33,7 +33,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
   }
 
   return [
-    defineRoute({ method: 'post', path: '/cruises/:id/uploads', summary: 'Upload cast files (multipart field `files`; a zip is allowed)', rule: { kind: 'member', roles: [...intake], cruise: byParam() },
+    defineRoute({ method: 'post', path: '/cruises/:id/uploads', changesData: true, summary: 'Upload cast files (multipart field `files`; a zip is allowed)', rule: { kind: 'member', roles: [...intake], cruise: byParam() },
       before: [(req, res, next) => upload.array('files')(req, res, next)],
       responses: { 202: 'accepted; each file is queued', 413: 'a file is over the size limit', 503: 'object storage unavailable' },
       handler: async (req, res, ctx) => {
@@ -74,7 +74,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         if (!u) throw notFound();
         return uploadJson(u);
       } }),
-    defineRoute({ method: 'post', path: '/uploads/:id/retry', summary: 'Process a failed upload again (after a column mapping, say)', rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+    defineRoute({ method: 'post', path: '/uploads/:id/retry', changesData: true, summary: 'Process a failed upload again (after a column mapping, say)', rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
       handler: async (req, res) => {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
@@ -84,7 +84,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         await enqueue(u);
         res.status(202).json(uploadJson(u));
       } }),
-    defineRoute({ method: 'post', path: '/uploads/:id/reprocess', summary: "Re-run processing of an upload's casts in place (flags kept)", rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+    defineRoute({ method: 'post', path: '/uploads/:id/reprocess', changesData: true, summary: "Re-run processing of an upload's casts in place (flags kept)", rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
       handler: async (req, res) => {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
@@ -96,7 +96,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/column-mapping', summary: "The cruise's remembered header → column role mapping", rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: ctx.cruiseId! } })).map((m) => [m.header, m.role])) }),
-    defineRoute({ method: 'put', path: '/cruises/:id/column-mapping', summary: 'Remember how unrecognised headers map to column roles', rule: { kind: 'member', roles: [...intake], cruise: byParam() }, body: Mapping,
+    defineRoute({ method: 'put', path: '/cruises/:id/column-mapping', changesData: true, summary: 'Remember how unrecognised headers map to column roles', rule: { kind: 'member', roles: [...intake], cruise: byParam() }, body: Mapping,
       handler: async (req, _res, ctx) => {
         const { mapping } = ctx.body as z.infer<typeof Mapping>;
         await deps.db.sequelize.transaction(async (transaction) => {

@@ -16,16 +16,59 @@ export type CruiseCast = {
   inversions: Inversion[]; columns: Record<string, Float64Array>; flags: Record<string, Uint8Array>; units: Record<string, string | null>;
 };
 
-const cache = new Map<string, { at: number; value: unknown }>();
+// The cache of built grids (sections, T–S points, geostrophy): bounded by count and by bytes
+// (SECTION_CACHE_MAX_BYTES, set by createApp), oldest out first; identical requests arriving while
+// one is being built wait for that one build instead of starting their own.
+const cache = new Map<string, { at: number; value: unknown; bytes: number }>();
+const inflight = new Map<string, Promise<unknown>>();
 const MAX_CACHE = 200;
+let maxBytes = 128 * 1024 * 1024;
+let cacheBytes = 0;
+const stats = { builds: 0, hits: 0, joined: 0 };
+
+export function configureCache(opts: { maxBytes: number }) {
+  maxBytes = opts.maxBytes;
+  evict(0);
+}
+/** Counts since start: builds run, cache hits, requests that joined a build in flight; bytes held. */
+export function cacheStats() {
+  return { ...stats, bytes: cacheBytes, entries: cache.size };
+}
+
+/** Rough bytes of a cached value: buffers by length, anything else by its JSON text (2 bytes a char). */
+function sizeOf(v: unknown): number {
+  if (Buffer.isBuffer(v)) return v.byteLength;
+  if (v && typeof v === 'object' && !Array.isArray(v) && Object.values(v).every((x) => Buffer.isBuffer(x))) {
+    return Object.values(v as Record<string, Buffer>).reduce((a, b) => a + b.byteLength, 0);
+  }
+  try { return 2 * (JSON.stringify(v)?.length ?? 0); } catch { return Number.POSITIVE_INFINITY; }
+}
+
+function evict(room: number) {
+  for (const [k, e] of cache) {
+    if (cache.size < MAX_CACHE && cacheBytes + room <= maxBytes) break;
+    cache.delete(k);
+    cacheBytes -= e.bytes;
+  }
+}
+
 export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
   const hit = cache.get(key);
-  if (hit) return Promise.resolve(hit.value as T);
-  return Promise.resolve(make()).then((value) => {
-    if (cache.size >= MAX_CACHE) cache.delete(cache.keys().next().value!);
-    cache.set(key, { at: Date.now(), value });
+  if (hit) { stats.hits++; return Promise.resolve(hit.value as T); }
+  const running = inflight.get(key);
+  if (running) { stats.joined++; return running as Promise<T>; }
+  stats.builds++;
+  const p = Promise.resolve().then(make).then((value) => {
+    const bytes = sizeOf(value);
+    if (bytes <= maxBytes) {
+      evict(bytes);
+      cache.set(key, { at: Date.now(), value, bytes });
+      cacheBytes += bytes;
+    }
     return value;
-  });
+  }).finally(() => inflight.delete(key));
+  inflight.set(key, p);
+  return p;
 }
 
 // The version is read at most every half second per process: a change made through this process

@@ -7,6 +7,7 @@ import { parseUpload } from '../parsers/index';
 import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
 import { processCast, inversionsOfGoodLevels, type ProcessedCast } from './processCast';
 import { writeColumns } from './columns';
+import { recordQcAtIntake } from './qcProposals';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
 import { logger } from '../lib/logger';
@@ -29,7 +30,8 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
     throw new IngestFault(`object storage unavailable: ${(err as Error).message}`);
   }
   const mapping = Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]));
-  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES });
+  const parsed = await parseUpload(upload.filename, bytes, { columnMapping: mapping, maxBytes: deps.settings.UPLOAD_MAX_BYTES,
+    zipLimits: { maxTotalBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES }, maxLevels: deps.settings.CAST_MAX_LEVELS });
   await upload.update({ progress: 0.3 });
   if (!parsed.ok) {
     await upload.update({ status: 'failed', progress: 1, errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null });
@@ -101,6 +103,8 @@ export async function ingestUpload(deps: AppDeps, uploadId: string, opts: { repr
         await writeColumns(cast.id, out.columns, transaction);
         ids.push(cast.id);
       }
+      // QC desk: proposals of the automatic tests and what the intake found (server/services/qcProposals.ts)
+      await recordQcAtIntake(deps, { cruiseId: upload.cruiseId, castIds: ids, processed }, { reprocess: !!opts.reprocess }, transaction);
       await upload.update({ status: 'ready', progress: 1, castIds: ids, warnings: parsed.warnings, errors: [] }, { transaction });
       await audit({ cruiseId: upload.cruiseId, userId: upload.createdBy, action: opts.reprocess ? 'reprocess' : 'ingest', entity: 'upload', entityId: upload.id, after: { casts: ids.length, stations: parsed.stations.length } }, transaction);
       return ids;

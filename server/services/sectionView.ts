@@ -2,6 +2,7 @@
 // with the stations, the bottom, isopycnals to draw over the pressure frame, and the inversion
 // warnings where they are. Every choice that made it is returned beside it.
 import { z } from 'zod';
+import { binQuery } from '../lib/bounds';
 import { applyFlags, type CruiseCast } from './cruiseData';
 import { loadLineCasts, lineJson } from './lines';
 import { DerivedVariable } from '../models/index';
@@ -20,7 +21,7 @@ export const SectionQuery = z.object({
   levels: z.string().max(20000).optional(),
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
-  bin: z.coerce.number().positive().max(500).default(10),
+  bin: binQuery(10),
   gapFactor: z.coerce.number().positive().max(100).default(1.5),
   threshold: z.coerce.number().positive().max(1).default(0.01),
   /** density frame only: add the isopycnal slope and the along-isopycnal and along-level gradients */

@@ -67,7 +67,7 @@ const decimals = (s: string): number => {
 const number = z
   .string()
   .trim()
-  .regex(/^[+-]?(\d+(\.\d*)?|\.\d+)$/, 'not a number')
+  .regex(/^[+-]?(\d{1,6}(\.\d*)?|\.\d+)$/, 'not a number')
   .refine((t) => decimals(t) <= MAX_LEVEL_DECIMALS, `at most ${MAX_LEVEL_DECIMALS} decimals`);
 
 const rangeSpec = z

@@ -6,6 +6,7 @@ import { z } from 'zod';
 export const FILE_ERROR_CODES = [
   'empty_file',
   'file_too_large',
+  'too_many_levels',
   'binary',
   'invalid_utf8',
   'line_too_long',

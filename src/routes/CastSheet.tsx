@@ -1,14 +1,44 @@
 import { useCallback, useMemo, useState } from 'react';
-import { Navigate, useLocation, useParams, useSearchParams } from 'react-router-dom';
+import { Navigate, useLocation, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { ErrorNotice, Progress } from '../components/Notice';
 import { EmptyState, Panel } from '../components/Panel';
 import { sigmaLabel } from '../components/plot/theme';
 import { useCasts } from '../features/casts';
 import {
-  CastMeta, CastStepper, FitnessTable, FlagForm, InversionTable, inversionsAt, ProfilePanels, REFERENCE_PRESSURES, sigmaProfile, useCast,
+  CastMeta,
+  CastStepper,
+  derivedPanels,
+  FitnessTable,
+  FlagForm,
+  FlagLog,
+  InversionTable,
+  inversionHandling,
+  inversionsAt,
+  measuredPanels,
+  NEIGHBOUR_STYLE,
+  ProfileFigure,
+  PROPOSAL_COLOR,
+  ProposalList,
+  REFERENCE_PRESSURES,
+  sigmaProfile,
+  TsPanel,
+  useCast,
+  useCastQc,
+  useDecideProposals,
+  useFlagLog,
+  useNeighbours,
+  usePendingProposals,
+  useQcKeys,
+  useUndoFlagChange,
   type CastDetail,
+  type CastInversion,
+  type Decision,
+  type Pick,
+  type Proposal,
 } from '../features/castsheet';
+import type { CastSummary } from '../features/casts';
 import { isApiError } from '../lib/http';
+import { INVERSION_THRESHOLD } from '../features/castsheet';
 import { useCurrentCruise } from './CruiseLayout';
 
 /** `/cruises/:id/casts` opens the first cast in track order. */
@@ -19,11 +49,15 @@ function FirstCast({ cruiseId }: { cruiseId: string }) {
   if (casts.data.length === 0) {
     return (
       <Panel title="Casts">
-        <EmptyState title="No casts yet">Casts appear as files come through intake; each opens here as a cast sheet.</EmptyState>
+        <EmptyState title="No casts yet">
+          Casts appear as files come through intake; each opens here as a cast sheet.
+        </EmptyState>
       </Panel>
     );
   }
-  return <Navigate replace to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(casts.data[0].id)}`} />;
+  return (
+    <Navigate replace to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(casts.data[0].id)}`} />
+  );
 }
 
 export default function CastSheet() {
@@ -45,7 +79,8 @@ function CastSheetOf({ castId }: { castId: string }) {
         <h2 className="text-lg font-semibold text-ink-strong">
           {cast.data ? (
             <>
-              Station <span className="font-mono">{cast.data.station}</span> <span className="font-normal text-ink-muted">·</span> cast{' '}
+              Station <span className="font-mono">{cast.data.station}</span>{' '}
+              <span className="font-normal text-ink-muted">·</span> cast{' '}
               <span className="font-mono">{cast.data.cast}</span>
             </>
           ) : (
@@ -61,33 +96,207 @@ function CastSheetOf({ castId }: { castId: string }) {
         ) : (
           <ErrorNotice error={cast.error} title="The cast could not be loaded" />
         ))}
-      {cast.isSuccess && <CastBody cast={cast.data} />}
+      {cast.isSuccess && <CastBody cast={cast.data} casts={casts.data ?? []} />}
     </div>
   );
 }
 
-function CastBody({ cast }: { cast: CastDetail }) {
+type Picked = Pick & { at: number };
+
+function Legend() {
+  return (
+    <p className="flex flex-wrap gap-x-4 gap-y-1 border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted">
+      <span className="inline-flex items-center gap-1">
+        <span className="inline-block h-2.5 w-3 border border-warn bg-warn-wash" aria-hidden /> inversion
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span
+          className="inline-block h-2.5 w-3 border border-dotted"
+          style={{ borderColor: PROPOSAL_COLOR, background: 'rgba(107,79,143,0.14)' }}
+          aria-hidden
+        />{' '}
+        pending proposal
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span className="inline-block size-2 rounded-full border border-[#8a6d1f]" aria-hidden /> flag 3
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span className="font-mono text-warn-strong" aria-hidden>
+          ×
+        </span>{' '}
+        flag 4
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span
+          className="inline-block w-4 border-t border-dashed"
+          style={{ borderColor: NEIGHBOUR_STYLE.previous.color }}
+          aria-hidden
+        />{' '}
+        previous station
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span
+          className="inline-block w-4 border-t border-dotted"
+          style={{ borderColor: NEIGHBOUR_STYLE.next.color }}
+          aria-hidden
+        />{' '}
+        next station
+      </span>
+    </p>
+  );
+}
+
+function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSummary[] }) {
   const cruise = useCurrentCruise();
+  const navigate = useNavigate();
+  const location = useLocation();
   const [search, setSearch] = useSearchParams();
   const refParam = Number(search.get('ref') ?? 0);
   const ref = (REFERENCE_PRESSURES as readonly number[]).includes(refParam) ? refParam : 0;
   const [picking, setPicking] = useState(false);
-  const [picked, setPicked] = useState<{ pFrom: number; pTo: number; at: number } | null>(null);
+  const [picked, setPicked] = useState<Picked | null>(null);
   const [range, setRange] = useState<{ pFrom: number; pTo: number } | null>(null);
+  const [currentId, setCurrentId] = useState<string | null>(null);
+  // neighbouring stations differ most in the upper ocean; a window there makes the overlay readable
+  const [upper, setUpper] = useState(false);
+  const pWindow = useMemo<[number, number] | null>(() => (upper ? [0, 1500] : null), [upper]);
   const mayFlag = (cruise.role === 'technician' || cruise.role === 'chief_scientist') && !cruise.locked;
+
+  const qc = useCastQc(cast.id);
+  const log = useFlagLog(cast.id);
+  const neighboursQ = useNeighbours(cast.id);
+  const pendingQ = usePendingProposals(cruise.id);
+  const decide = useDecideProposals(cruise.id, cast.id);
+  const undo = useUndoFlagChange(cruise.id, cast.id);
+  const neighbours = useMemo(() => neighboursQ.data?.neighbours ?? [], [neighboursQ.data]);
+  const proposals = useMemo(() => qc.data?.proposals ?? [], [qc.data]);
 
   const sigma = useMemo(() => sigmaProfile(cast.columns.SA, cast.columns.CT, ref), [cast, ref]);
   const inversionSet = useMemo(() => inversionsAt(cast, ref, sigma), [cast, ref, sigma]);
-  const onSelectRange = useCallback((pFrom: number, pTo: number) => {
-    setPicked({ pFrom, pTo, at: Date.now() });
+  const measured = useMemo(() => measuredPanels(cast, neighbours), [cast, neighbours]);
+  const derived = useMemo(() => derivedPanels(cast, sigma, ref, neighbours), [cast, sigma, ref, neighbours]);
+  // At σ0 the table lists what the intake found, each with how it is handled now.
+  const intake = ref === 0 && qc.data ? qc.data.intakeInversions : null;
+  const handling = useMemo(
+    () => (intake ? inversionHandling(intake, cast.inversions, cast.flags, proposals) : null),
+    [intake, cast, proposals],
+  );
+
+  const pick = useCallback((p: Pick) => {
+    setPicked({ ...p, at: Date.now() });
     setPicking(false);
   }, []);
+  const pickInversion = (inv: CastInversion) =>
+    pick({
+      pFrom: inv.class === 'spike' ? (cast.columns.pressure[inv.iTop + 1] ?? inv.pTop) : inv.pTop,
+      pTo: inv.pBottom,
+      variable: 'salinity',
+    });
+  const pickProposal = (p: Proposal) => {
+    setCurrentId(p.id);
+    pick({ pFrom: p.pFrom, pTo: p.pTo, variable: p.variable, flag: p.flag });
+  };
+
+  // the keyboard steps through the pending proposals (all of them once none is pending)
+  const steppable = proposals.some((p) => p.status === 'pending')
+    ? proposals.filter((p) => p.status === 'pending')
+    : proposals;
+  const current = proposals.find((p) => p.id === currentId) ?? null;
+  const step = (d: 1 | -1) => {
+    if (steppable.length === 0) return;
+    const k = steppable.findIndex((p) => p.id === currentId);
+    const next =
+      steppable[k < 0 ? (d === 1 ? 0 : steppable.length - 1) : (k + d + steppable.length) % steppable.length];
+    pickProposal(next);
+    document.querySelector(`[data-proposal="${next.id}"]`)?.scrollIntoView({ block: 'nearest' });
+  };
+  const onDecide = (d: Decision) => {
+    decide.mutate(d, {
+      onSuccess: () => {
+        // move on to the next pending proposal, as a technician works down the list
+        const rest = steppable.filter((p) => p.status === 'pending' && !(d.ids?.includes(p.id) || d.test === p.test));
+        setCurrentId(rest[0]?.id ?? null);
+      },
+    });
+  };
+  const pendingCasts = useMemo(
+    () => new Set((pendingQ.data ?? []).filter((x) => x.pending > 0).map((x) => x.castId)),
+    [pendingQ.data],
+  );
+  const toPendingCast = (d: 1 | -1) => {
+    const k = casts.findIndex((c) => c.id === cast.id);
+    for (let j = 1; j < casts.length; j++) {
+      const c = casts[(k + d * j + casts.length * 2) % casts.length];
+      if (pendingCasts.has(c.id) && c.id !== cast.id) {
+        navigate(`/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(c.id)}${location.search}`);
+        return;
+      }
+    }
+  };
+  useQcKeys({
+    nextProposal: () => step(1),
+    previousProposal: () => step(-1),
+    accept: mayFlag
+      ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'accept' })
+      : undefined,
+    reject: mayFlag
+      ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'reject' })
+      : undefined,
+    nextPendingCast: () => toPendingCast(1),
+    previousPendingCast: () => toPendingCast(-1),
+  });
+
+  const pendingHere = proposals.filter((p) => p.status === 'pending').length;
+  const neighbourText = neighbours.length
+    ? `Overlaid: ${neighbours.map((n) => `${n.role} station ${n.station}`).join(', ')} (neighbours along ${neighboursQ.data?.order ?? 'the line'}).`
+    : neighboursQ.isPending
+      ? 'Loading the neighbouring casts…'
+      : 'No neighbouring cast to overlay.';
+  const figureProps = {
+    cast,
+    inversions: inversionSet.inversions,
+    proposals,
+    selecting: picking,
+    onSelectRange: pick,
+    range,
+    pWindow,
+  };
 
   return (
-    <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_24rem]">
+    <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
       <div className="flex min-w-0 flex-col gap-4">
         <Panel
-          title="Profiles"
+          title="Measured profiles"
+          titleId="measured"
+          actions={
+            <span className="flex items-center gap-2 text-2xs text-ink-muted">
+              {neighbourText}
+              <span className="flex" role="group" aria-label="Pressure window">
+                {([false, true] as const).map((u) => (
+                  <button
+                    key={String(u)}
+                    type="button"
+                    aria-pressed={upper === u}
+                    onClick={() => setUpper(u)}
+                    className={`h-6 border border-paper-rule px-2 text-2xs first:rounded-l last:rounded-r ${upper === u ? 'bg-ink text-paper' : 'text-ink-soft hover:bg-ink-wash'}`}
+                  >
+                    {u ? 'Upper 1500 dbar' : 'Full depth'}
+                  </button>
+                ))}
+              </span>
+            </span>
+          }
+        >
+          <ProfileFigure
+            {...figureProps}
+            panels={measured}
+            height={460}
+            label={`Measured profiles of station ${cast.station} cast ${cast.cast}: ${measured.map((p) => p.title).join(', ')} against pressure`}
+          />
+          <Legend />
+        </Panel>
+        <Panel
+          title="Derived profiles"
           titleId="profiles"
           actions={
             <label className="flex items-center gap-2 text-sm text-ink-soft">
@@ -112,32 +321,67 @@ function CastBody({ cast }: { cast: CastDetail }) {
             </label>
           }
         >
-          <ProfilePanels
-            cast={cast}
-            refPressure={ref}
-            sigma={sigma}
-            inversions={inversionSet.inversions}
-            selecting={picking}
-            onSelectRange={onSelectRange}
-            range={range}
-            height={540}
+          <ProfileFigure
+            {...figureProps}
+            panels={derived}
+            height={460}
+            label={`Profiles of station ${cast.station} cast ${cast.cast}: CT, SA, ${sigmaLabel(ref)} and N² against pressure`}
           />
-          <p className="flex flex-wrap gap-x-4 gap-y-1 border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted">
-            <span>
-              {sigmaLabel(ref)} computed in this browser from SA and CT (TEOS-10, 75-term polynomial); N² as stored at intake.
-            </span>
-            <span className="inline-flex items-center gap-1"><span className="inline-block h-2.5 w-3 border border-warn bg-warn-wash" aria-hidden /> inversion</span>
-            <span className="inline-flex items-center gap-1"><span className="inline-block size-2 rounded-full border border-[#8a6d1f]" aria-hidden /> flag 3</span>
-            <span className="inline-flex items-center gap-1"><span className="font-mono text-warn-strong" aria-hidden>×</span> flag 4</span>
+          <p className="border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted">
+            {sigmaLabel(ref)} computed in this browser from SA and CT (TEOS-10, 75-term polynomial); N² as stored at
+            intake.
           </p>
         </Panel>
-        <Panel title="Density inversions" titleId="inversions">
-          <InversionTable inversions={inversionSet.inversions} source={inversionSet.source} />
+        <Panel title="T–S diagram, with the neighbouring stations" titleId="ts">
+          <TsPanel cast={cast} neighbours={neighbours} height={400} />
+        </Panel>
+        <Panel
+          title={ref === 0 ? 'Density inversions: found at intake, and how each is handled now' : 'Density inversions'}
+          titleId="inversions"
+        >
+          <InversionTable
+            inversions={intake ?? inversionSet.inversions}
+            source={
+              intake
+                ? `σ₀ as found at intake (deficit over ${INVERSION_THRESHOLD} kg/m³), kept whatever is flagged since`
+                : inversionSet.source
+            }
+            handling={handling}
+            onPick={mayFlag ? pickInversion : undefined}
+          />
+        </Panel>
+        <Panel title="Flag log" titleId="flag-log">
+          {log.isError ? (
+            <ErrorNotice error={log.error} title="The flag log could not be loaded" />
+          ) : (
+            <FlagLog
+              entries={log.data ?? []}
+              mayUndo={mayFlag}
+              busy={undo.isPending}
+              error={undo.error}
+              onUndo={(id) => undo.mutate(id)}
+              onPick={(e) => pick({ pFrom: e.pFrom, pTo: e.pTo, variable: e.variable })}
+            />
+          )}
         </Panel>
       </div>
       <div className="flex flex-col gap-4">
-        <Panel title="Cast" titleId="cast-meta">
-          <CastMeta cast={cast} />
+        <Panel title={pendingHere ? `Proposed flags · ${pendingHere} pending` : 'Proposed flags'} titleId="proposals">
+          {qc.isError ? (
+            <ErrorNotice error={qc.error} title="The proposals could not be loaded" />
+          ) : qc.data ? (
+            <ProposalList
+              qc={qc.data}
+              currentId={currentId}
+              mayDecide={mayFlag}
+              busy={decide.isPending}
+              error={decide.error}
+              onPick={pickProposal}
+              onDecide={onDecide}
+            />
+          ) : (
+            <Progress label="Loading the proposals…" />
+          )}
         </Panel>
         {mayFlag && (
           <Panel title="Quality flags" titleId="flags">
@@ -152,6 +396,9 @@ function CastBody({ cast }: { cast: CastDetail }) {
             />
           </Panel>
         )}
+        <Panel title="Cast" titleId="cast-meta">
+          <CastMeta cast={cast} />
+        </Panel>
         <Panel title="Vertical coordinates" titleId="fitness">
           <FitnessTable fitness={cast.fitness} />
         </Panel>
@@ -166,6 +413,10 @@ function CastBody({ cast }: { cast: CastDetail }) {
             </ul>
           )}
         </Panel>
+        <p className="px-1 text-2xs text-ink-muted">
+          Proposals come from automatic tests and are not flags until a technician accepts them. Data on this desk are
+          provisional research data, not for navigation.
+        </p>
       </div>
     </div>
   );

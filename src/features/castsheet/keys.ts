@@ -2,4 +2,9 @@
 export const castKeys = {
   all: ['cast'] as const,
   detail: (castId: string) => [...castKeys.all, 'detail', castId] as const,
+  qc: (castId: string) => [...castKeys.all, 'qc', castId] as const,
+  flagLog: (castId: string) => [...castKeys.all, 'flag-log', castId] as const,
+  neighbours: (castId: string) => [...castKeys.all, 'neighbours', castId] as const,
+  /** pending proposals per cast of a cruise */
+  pending: (cruiseId: string) => [...castKeys.all, 'pending', cruiseId] as const,
 };

@@ -15,7 +15,11 @@ const toNaN = (v: number | null | undefined) => (v == null ? NaN : v);
  * (TEOS-10 75-term polynomial, Roquet et al. 2015). Levels without SA or CT, or outside the
  * polynomial's range, are null.
  */
-export function sigmaProfile(SA: readonly (number | null)[] | undefined, CT: readonly (number | null)[] | undefined, ref: number): (number | null)[] {
+export function sigmaProfile(
+  SA: readonly (number | null)[] | undefined,
+  CT: readonly (number | null)[] | undefined,
+  ref: number,
+): (number | null)[] {
   if (!SA || !CT) return [];
   return SA.map((sa, i) => {
     const ct = CT[i];
@@ -38,7 +42,10 @@ export interface InversionSet {
  */
 export function inversionsAt(cast: CastDetail, ref: number, sigma: readonly (number | null)[]): InversionSet {
   if (ref === 0) {
-    return { inversions: cast.inversions, source: `σ₀, as found at intake (deficit over ${INVERSION_THRESHOLD} kg/m³)` };
+    return {
+      inversions: cast.inversions,
+      source: `σ₀, as found at intake (deficit over ${INVERSION_THRESHOLD} kg/m³)`,
+    };
   }
   const p = Float64Array.from(cast.columns.pressure, toNaN);
   const s = Float64Array.from(sigma, toNaN);
@@ -60,7 +67,10 @@ const FLAG_SOURCES: Record<'CT' | 'SA' | 'sigma', string[]> = {
 };
 
 /** Indices of levels flagged questionable (3) and bad (4) in the flags that bear on a variable. */
-export function flaggedLevels(flags: CastDetail['flags'], variable: 'CT' | 'SA' | 'sigma'): { questionable: number[]; bad: number[] } {
+export function flaggedLevels(
+  flags: CastDetail['flags'],
+  variable: 'CT' | 'SA' | 'sigma',
+): { questionable: number[]; bad: number[] } {
   const worst = new Map<number, number>();
   for (const name of FLAG_SOURCES[variable]) {
     const f = flags[name];
@@ -100,7 +110,9 @@ export interface FlagFormValues {
   reason: string;
 }
 
-export type FlagFormResult = { ok: true; edit: FlagEdit; levels: number } | { ok: false; errors: Partial<Record<keyof FlagFormValues, string>>; levels: number };
+export type FlagFormResult =
+  | { ok: true; edit: FlagEdit; levels: number }
+  | { ok: false; errors: Partial<Record<keyof FlagFormValues, string>>; levels: number };
 
 /** Levels of the cast whose pressure lies in [pFrom, pTo]. */
 export function levelsInRange(pressure: readonly (number | null)[], pFrom: number, pTo: number): number {
@@ -138,12 +150,62 @@ export function validateFlagForm(values: FlagFormValues, pressure: readonly (num
   const flag = Number(values.flag);
   if (!FLAG_CHOICES.some((c) => c.value === flag)) errors.flag = 'Choose a flag.';
   const reason = values.reason.trim();
-  if ((flag === 3 || flag === 4 || flag === 9) && reason === '') errors.reason = 'Say why these levels are downgraded; it goes in the audit trail.';
+  if ((flag === 3 || flag === 4 || flag === 9) && reason === '')
+    errors.reason = 'Say why these levels are downgraded; it goes in the audit trail.';
   if (reason.length > 500) errors.reason = 'At most 500 characters.';
   if (Object.keys(errors).length > 0) return { ok: false, errors, levels };
   return {
     ok: true,
     levels,
-    edit: { variable: values.variable as FlagVariable, pFrom, pTo, flag: flag as FlagEdit['flag'], ...(reason ? { reason } : {}) },
+    edit: {
+      variable: values.variable as FlagVariable,
+      pFrom,
+      pTo,
+      flag: flag as FlagEdit['flag'],
+      ...(reason ? { reason } : {}),
+    },
   };
+}
+
+/** How an inversion the intake found is handled now. */
+export interface InversionHandling {
+  /** still raising a warning (in the cast's current inversions) */
+  warned: boolean;
+  /** levels of its light water flagged 3 or 4 in temperature, salinity or conductivity */
+  flagged: number;
+  /** the density-inversion proposal over it, if any */
+  proposal: 'pending' | 'accepted' | 'rejected' | null;
+  /** one line for the table */
+  text: string;
+}
+
+/**
+ * For each inversion found at intake: is it still warned, were its levels flagged, what became of its proposal.
+ * A rejected proposal means the technician judged the inversion real (or left it for later analysis).
+ */
+export function inversionHandling(
+  intake: readonly CastInversion[],
+  current: readonly CastInversion[],
+  flags: CastDetail['flags'],
+  proposals: readonly { test: string; iFrom: number; iTo: number; status: 'pending' | 'accepted' | 'rejected' }[],
+): InversionHandling[] {
+  return intake.map((inv) => {
+    const from = inv.class === 'spike' ? inv.iTop + 1 : inv.iTop;
+    let flagged = 0;
+    for (let i = from; i <= inv.iBottom; i++) {
+      if (['temperature', 'salinity', 'conductivity'].some((v) => flags[v]?.[i] === 3 || flags[v]?.[i] === 4))
+        flagged++;
+    }
+    const warned = current.some((c) => c.iTop <= inv.iBottom && inv.iTop <= c.iBottom);
+    const prop =
+      proposals.find((p) => p.test === 'density_inversion' && p.iFrom <= inv.iBottom && inv.iTop <= p.iTo)?.status ??
+      null;
+    const parts: string[] = [];
+    if (flagged) parts.push(`${flagged} ${flagged === 1 ? 'level' : 'levels'} flagged`);
+    parts.push(warned ? 'still warned' : 'no longer warned');
+    if (prop === 'rejected') parts.push('proposal rejected: kept as real');
+    else if (prop === 'pending') parts.push('proposal pending');
+    else if (prop === 'accepted') parts.push('proposal accepted');
+    return { warned, flagged, proposal: prop, text: parts.join(' · ') };
+  });
 }

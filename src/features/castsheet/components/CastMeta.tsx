@@ -22,7 +22,11 @@ export function CastMeta({ cast }: { cast: CastDetail }) {
     <dl aria-label="Cast metadata">
       <Row term="Station · cast">{mono(`${cast.station} · ${cast.cast}`)}</Row>
       <Row term="Position">
-        {mono(cast.latitude == null || cast.longitude == null ? '—' : `${formatLatitude(cast.latitude)}  ${formatLongitude(cast.longitude)}`)}
+        {mono(
+          cast.latitude == null || cast.longitude == null
+            ? '—'
+            : `${formatLatitude(cast.latitude)}  ${formatLongitude(cast.longitude)}`,
+        )}
       </Row>
       <Row term="Time (UTC)">{mono(formatUtc(cast.time))}</Row>
       <Row term="Bottom depth">{mono(cast.bottomDepth == null ? '—' : `${cast.bottomDepth.toFixed(0)} m`)}</Row>
@@ -44,7 +48,9 @@ export function CastMeta({ cast }: { cast: CastDetail }) {
       </Row>
       <Row term="Mixed layer">
         {mld?.p_mld != null ? mono(`${mld.p_mld.toFixed(1)} dbar`) : <span className="text-ink-muted">not found</span>}
-        {(mld?.reason || mld?.status) && <span className="ml-2 text-xs text-ink-muted">{mld.reason ?? mld.status}</span>}
+        {(mld?.reason || mld?.status) && (
+          <span className="ml-2 text-xs text-ink-muted">{mld.reason ?? mld.status}</span>
+        )}
       </Row>
     </dl>
   );

@@ -19,7 +19,14 @@ function ShareBar({ value, tone, label }: { value: number; tone: 'ink' | 'warn';
   const v = Math.max(0, Math.min(1, value));
   return (
     <div className="flex items-center gap-1.5">
-      <div className="h-2 w-12 shrink-0 overflow-hidden bg-ink-wash" role="meter" aria-label={label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(v * 1000) / 10}>
+      <div
+        className="h-2 w-12 shrink-0 overflow-hidden bg-ink-wash"
+        role="meter"
+        aria-label={label}
+        aria-valuemin={0}
+        aria-valuemax={100}
+        aria-valuenow={Math.round(v * 1000) / 10}
+      >
         <div className={`h-full ${tone === 'warn' ? 'bg-warn' : 'bg-ink'}`} style={{ width: `${v * 100}%` }} />
       </div>
       <span className={`w-12 shrink-0 text-right ${tone === 'warn' && v > 0 ? 'text-warn-strong' : ''}`}>{pct(v)}</span>
@@ -36,43 +43,70 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
   const rows = CANDIDATES.filter((c) => fitness[c.key]);
   const hasResolved = rows.some((r) => fitness[r.key].resolved);
   const [strict, setStrict] = useState(false);
-  if (rows.length === 0) return <p className="px-4 py-3 text-sm text-ink-muted">No fitness figures were stored for this cast.</p>;
+  if (rows.length === 0)
+    return <p className="px-4 py-3 text-sm text-ink-muted">No fitness figures were stored for this cast.</p>;
   const pick = (f: FitnessEntry) => (!strict && f.resolved ? f.resolved : f);
   return (
     <>
-    {hasResolved && (
-      <div className="flex items-center justify-between gap-2 border-b border-paper-rule px-3 py-1.5 text-2xs text-ink-muted">
-        <span>{strict ? 'Strict: every reversal counts, however small.' : 'At analysis resolution: reversals under 0.01 kg/m³ (σ), 0.01 °C (CT), 0.005 g/kg (SA) ignored.'}</span>
-        <button type="button" className="underline decoration-dotted hover:text-ink" onClick={() => setStrict((v) => !v)} aria-pressed={strict}>
-          {strict ? 'Show at resolution' : 'Show strict'}
-        </button>
-      </div>
-    )}
-    <table className="w-full border-collapse text-sm" aria-label="Fitness of vertical coordinates">
-      <thead>
-        <tr className="border-b border-paper-rule text-2xs uppercase tracking-[0.08em] text-ink-muted">
-          <th scope="col" className="px-3 py-1.5 text-left font-semibold">Coord.</th>
-          <th scope="col" className="px-2 py-1.5 text-left font-semibold">Monotonic</th>
-          <th scope="col" className="px-2 py-1.5 text-left font-semibold">Multi-valued</th>
-          <th scope="col" className="px-3 py-1.5 text-right font-semibold" title="Monotonic runs">Runs</th>
-        </tr>
-      </thead>
-      <tbody className="font-mono text-[0.78rem] tabular-nums">
-        {rows.map(({ key, label }) => {
-          const f = pick(fitness[key]);
-          return (
-            <tr key={key} className="border-b border-paper-rule/60 last:border-0">
-              <th scope="row" className="px-3 py-1 text-left font-sans font-semibold text-ink-strong">{label}</th>
-              <td className="px-1.5 py-1"><ShareBar value={f.monotonicShare} tone="ink" label={`${label} monotonic share`} /></td>
-              <td className="px-1.5 py-1"><ShareBar value={f.multiValuedShare} tone="warn" label={`${label} multi-valued share`} /></td>
-              <td className="px-3 py-1 text-right text-ink-soft" title={f.segments.map((s) => `${s.pTop}–${s.pBottom} dbar`).join(', ')}>
-                {f.segments.length || '—'}
-              </td>
-            </tr>
-          );
-        })}
-      </tbody>
-    </table>
+      {hasResolved && (
+        <div className="flex items-center justify-between gap-2 border-b border-paper-rule px-3 py-1.5 text-2xs text-ink-muted">
+          <span>
+            {strict
+              ? 'Strict: every reversal counts, however small.'
+              : 'At analysis resolution: reversals under 0.01 kg/m³ (σ), 0.01 °C (CT), 0.005 g/kg (SA) ignored.'}
+          </span>
+          <button
+            type="button"
+            className="underline decoration-dotted hover:text-ink"
+            onClick={() => setStrict((v) => !v)}
+            aria-pressed={strict}
+          >
+            {strict ? 'Show at resolution' : 'Show strict'}
+          </button>
+        </div>
+      )}
+      <table className="w-full border-collapse text-sm" aria-label="Fitness of vertical coordinates">
+        <thead>
+          <tr className="border-b border-paper-rule text-2xs uppercase tracking-[0.08em] text-ink-muted">
+            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+              Coord.
+            </th>
+            <th scope="col" className="px-2 py-1.5 text-left font-semibold">
+              Monotonic
+            </th>
+            <th scope="col" className="px-2 py-1.5 text-left font-semibold">
+              Multi-valued
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right font-semibold" title="Monotonic runs">
+              Runs
+            </th>
+          </tr>
+        </thead>
+        <tbody className="font-mono text-[0.78rem] tabular-nums">
+          {rows.map(({ key, label }) => {
+            const f = pick(fitness[key]);
+            return (
+              <tr key={key} className="border-b border-paper-rule/60 last:border-0">
+                <th scope="row" className="px-3 py-1 text-left font-sans font-semibold text-ink-strong">
+                  {label}
+                </th>
+                <td className="px-1.5 py-1">
+                  <ShareBar value={f.monotonicShare} tone="ink" label={`${label} monotonic share`} />
+                </td>
+                <td className="px-1.5 py-1">
+                  <ShareBar value={f.multiValuedShare} tone="warn" label={`${label} multi-valued share`} />
+                </td>
+                <td
+                  className="px-3 py-1 text-right text-ink-soft"
+                  title={f.segments.map((s) => `${s.pTop}–${s.pBottom} dbar`).join(', ')}
+                >
+                  {f.segments.length || '—'}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
     </>
   );
 }

@@ -6,7 +6,8 @@ import { useState } from 'react';
 import { Button } from '../../../components/Button';
 import { useUpdateCruise } from '../api';
 
-/** The chief scientist locks a cruise once its data are final: no more uploads; unlocking is audited too. */
+/** The chief scientist locks a cruise once its data are final: the server then refuses every data change
+ * (409, from the route table's `changesData`); unlocking is audited too. */
 function LockControl({ cruise }: { cruise: Cruise }) {
   const update = useUpdateCruise(cruise.id);
   const [confirming, setConfirming] = useState(false);
@@ -19,12 +20,18 @@ function LockControl({ cruise }: { cruise: Cruise }) {
     );
   }
   return (
-    <div role="group" aria-label="Confirm lock" className="flex items-center gap-2 text-xs text-ink-soft">
-      <span>{cruise.locked ? 'Allow uploads again?' : 'Lock: no more uploads to this cruise.'}</span>
-      <Button size="sm" variant="primary" busy={update.isPending} onClick={() => update.mutate({ locked: !cruise.locked }, { onSuccess: () => setConfirming(false) })}>
-        {cruise.locked ? 'Unlock' : 'Lock'}
-      </Button>
-      <Button size="sm" variant="quiet" onClick={() => setConfirming(false)}>Back</Button>
+    <div role="group" aria-label="Confirm lock" className="flex max-w-md flex-col items-end gap-2 text-xs text-ink-soft">
+      <p className="text-right">
+        {cruise.locked
+          ? 'Unlock: uploads, quality flags, stations, column mappings, layer sets, derived variables and cruise details can change again.'
+          : 'Lock: the data are frozen. No uploads, retries or reprocessing; no quality flags, stations, column mappings, layer sets, derived variables or cruise details change. The team, saved views and deliveries stay open.'}
+      </p>
+      <div className="flex items-center gap-2">
+        <Button size="sm" variant="primary" busy={update.isPending} onClick={() => update.mutate({ locked: !cruise.locked }, { onSuccess: () => setConfirming(false) })}>
+          {cruise.locked ? 'Unlock' : 'Lock'}
+        </Button>
+        <Button size="sm" variant="quiet" onClick={() => setConfirming(false)}>Back</Button>
+      </div>
     </div>
   );
 }

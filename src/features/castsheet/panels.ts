@@ -1,0 +1,154 @@
+import { sigmaLabel } from '../../components/plot/theme';
+import { sigmaProfile } from './profiles';
+import type { OverlaySeries, PanelSpec } from './components/ProfileFigure';
+import type { CastDetail, Neighbour } from './types';
+
+const label = (n: Neighbour) => `${n.role === 'previous' ? 'previous' : 'next'} · ${n.station}`;
+
+function overlays(
+  neighbours: readonly Neighbour[],
+  values: (n: Neighbour) => readonly (number | null)[] | undefined,
+): OverlaySeries[] {
+  const out: OverlaySeries[] = [];
+  for (const n of neighbours) {
+    const v = values(n);
+    const p = n.columns.pressure;
+    if (v && p) out.push({ name: label(n), role: n.role, p, v });
+  }
+  return out;
+}
+
+/**
+ * The measured variables as their own panels: in-situ temperature, practical salinity, conductivity and
+ * oxygen where the cast has them, then every extra variable; each with its flags and the neighbours.
+ */
+export function measuredPanels(cast: CastDetail, neighbours: readonly Neighbour[]): PanelSpec[] {
+  const p = cast.columns.pressure;
+  const c = cast.columns;
+  const panels: PanelSpec[] = [];
+  if (c.temperature) {
+    panels.push({
+      key: 'temperature',
+      title: 't',
+      unit: '°C',
+      values: c.temperature,
+      pressure: p,
+      digits: 4,
+      flagSources: ['temperature'],
+      proposalVariables: ['temperature'],
+      overlays: overlays(neighbours, (n) => n.columns.temperature),
+      inversionMarks: false,
+    });
+  }
+  if (c.SP) {
+    panels.push({
+      key: 'SP',
+      title: 'SP',
+      unit: '',
+      values: c.SP,
+      pressure: p,
+      digits: 4,
+      flagSources: ['salinity', 'conductivity'],
+      proposalVariables: ['salinity'],
+      overlays: overlays(neighbours, (n) => n.columns.SP),
+    });
+  }
+  if (c.conductivity) {
+    panels.push({
+      key: 'conductivity',
+      title: 'C',
+      unit: 'mS/cm',
+      values: c.conductivity,
+      pressure: p,
+      digits: 4,
+      flagSources: ['conductivity'],
+      proposalVariables: ['conductivity'],
+      overlays: overlays(neighbours, (n) => n.columns.conductivity),
+    });
+  }
+  if (c.oxygen) {
+    const unit = cast.units.oxygen ?? 'µmol/kg';
+    panels.push({
+      key: 'oxygen',
+      title: 'O₂',
+      unit: unit.replace(/^umol/i, 'µmol'),
+      values: c.oxygen,
+      pressure: p,
+      digits: 1,
+      flagSources: ['oxygen'],
+      proposalVariables: ['oxygen'],
+      overlays: overlays(neighbours, (n) => n.columns.oxygen),
+    });
+  }
+  for (const [name, e] of Object.entries(cast.extras)) {
+    panels.push({
+      key: `x:${name}`,
+      title: name,
+      unit: e.unit ?? '',
+      values: e.values,
+      pressure: p,
+      digits: 3,
+      flagSources: [name],
+      proposalVariables: [],
+      overlays: overlays(neighbours, (n) => n.extras[name]),
+    });
+  }
+  return panels;
+}
+
+/** The derived panels as before: CT, SA, σ at the chosen reference and N², with flags and neighbours. */
+export function derivedPanels(
+  cast: CastDetail,
+  sigma: readonly (number | null)[],
+  ref: number,
+  neighbours: readonly Neighbour[],
+): PanelSpec[] {
+  const p = cast.columns.pressure;
+  return [
+    {
+      key: 'CT',
+      title: 'CT',
+      unit: '°C',
+      values: cast.columns.CT ?? [],
+      pressure: p,
+      digits: 4,
+      flagSources: ['temperature'],
+      proposalVariables: ['temperature'],
+      overlays: overlays(neighbours, (n) => n.columns.CT),
+    },
+    {
+      key: 'SA',
+      title: 'SA',
+      unit: 'g/kg',
+      values: cast.columns.SA ?? [],
+      pressure: p,
+      digits: 4,
+      flagSources: ['salinity', 'conductivity'],
+      proposalVariables: ['salinity', 'conductivity'],
+      overlays: overlays(neighbours, (n) => n.columns.SA),
+    },
+    {
+      key: 'sigma',
+      title: sigmaLabel(ref),
+      unit: 'kg/m³',
+      values: sigma,
+      pressure: p,
+      digits: 4,
+      flagSources: ['temperature', 'salinity', 'conductivity'],
+      proposalVariables: ['temperature', 'salinity', 'conductivity'],
+      inversionMarks: true,
+      overlays: overlays(neighbours, (n) => sigmaProfile(n.columns.SA, n.columns.CT, ref)),
+    },
+    {
+      key: 'N2',
+      title: 'N²',
+      unit: 's⁻²',
+      values: cast.columns.N2 ?? [],
+      pressure: cast.columns.p_mid ?? [],
+      digits: 8,
+      flagSources: [],
+      proposalVariables: [],
+      signed: true,
+    },
+  ];
+}
