@@ -2,7 +2,7 @@
 # Install the Debian packages the app and its tests use, only when missing.
 set -euo pipefail
 need=()
-for pkg in postgresql chromium python3-gsw python3-numpy python3-netcdf4 fonts-dejavu-core; do
+for pkg in postgresql chromium python3-gsw python3-numpy python3-netcdf4 fonts-dejavu-core poppler-utils; do
   dpkg-query -W -f='${Status}' "$pkg" 2>/dev/null | grep -q "install ok installed" || need+=("$pkg")
 done
 if [ ${#need[@]} -gt 0 ]; then

@@ -2,6 +2,8 @@ import { useState } from 'react';
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router-dom';
 import { authKeys, requireSession } from './features/auth';
+// The router's own hook into the Section screen: a small module, kept out of the screen's chunk.
+import { prefetchSection } from './features/sections/prefetch';
 import { Progress } from './components/Notice';
 import { setSignedOutHandler } from './lib/queryClient';
 import SignIn from './routes/SignIn';
@@ -48,7 +50,14 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
                 { path: 'layer-sets', lazy: lazyScreen(() => import('./routes/LayerSets')) },
                 { path: 'derived', lazy: lazyScreen(() => import('./routes/DerivedVariables')) },
                 { path: 'team', lazy: lazyScreen(() => import('./routes/CruiseTeam')) },
-                { path: 'section', lazy: lazyScreen(() => import('./routes/Section')) },
+                {
+                  path: 'section',
+                  lazy: lazyScreen(() => import('./routes/Section')),
+                  // the plotting library and the frames' data start downloading with the screen's code
+                  loader: ({ params, request }) => prefetchSection(queryClient, params.id, new URL(request.url)),
+                  // only on entering the screen: the screen itself asks when its controls change the query
+                  shouldRevalidate: ({ currentUrl, nextUrl }) => currentUrl.pathname !== nextUrl.pathname,
+                },
                 { path: 'deliveries', lazy: lazyScreen(() => import('./routes/Deliveries')) },
               ],
             },

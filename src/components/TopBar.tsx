@@ -13,7 +13,7 @@ export function TopBar() {
   const user = me.data?.user;
 
   return (
-    <header className="border-b border-ink/20 bg-paper">
+    <header className="border-b border-ink/20 bg-paper print:hidden">
       <div className="mx-auto flex h-12 max-w-[1840px] items-center gap-6 px-6">
         <NavLink to="/" className="no-underline" aria-label="Sigmaline — your cruises">
           <Brand />

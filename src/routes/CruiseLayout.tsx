@@ -1,4 +1,4 @@
-import { Link, NavLink, Outlet, useOutletContext, useParams } from 'react-router-dom';
+import { Link, NavLink, Outlet, useLocation, useOutletContext, useParams } from 'react-router-dom';
 import { ErrorNotice, Progress } from '../components/Notice';
 import { CRUISE_SECTIONS, CruiseHeader, useCruise, type Cruise } from '../features/cruises';
 import { isApiError } from '../lib/http';
@@ -7,6 +7,7 @@ import { isApiError } from '../lib/http';
 export default function CruiseLayout() {
   const { id = '' } = useParams();
   const cruise = useCruise(id);
+  const location = useLocation();
 
   if (cruise.isPending) return <Progress label="Opening the cruise…" />;
   if (cruise.isError) {
@@ -23,20 +24,21 @@ export default function CruiseLayout() {
   }
 
   const sections = CRUISE_SECTIONS.filter((s) => !s.visibleTo || s.visibleTo(cruise.data.role));
+  const screen = screenName(location.pathname, id);
   return (
-    <div className="flex flex-col gap-5">
-      <nav aria-label="Breadcrumb" className="-mb-2 text-xs text-ink-muted">
-        <Link to="/" className="text-ink-muted">Cruises</Link> <span aria-hidden>/</span> <span className="text-ink-soft">{cruise.data.name}</span>
+    <div className="flex flex-col gap-3">
+      <nav aria-label="Breadcrumb" className="-mb-2 text-xs text-ink-muted print:hidden">
+        <Link to="/" className="text-ink-muted">Cruises</Link> <span aria-hidden>/</span> <span className="text-ink-soft">{cruise.data.name}</span> <span aria-hidden>/</span> <span className="text-ink-soft">{screen}</span>
       </nav>
-      <CruiseHeader cruise={cruise.data} />
-      <nav aria-label="Cruise sections" className="-mt-5 flex gap-0.5 border-b border-paper-rule">
+      <CruiseHeader cruise={cruise.data} screen={screen} />
+      <nav aria-label="Cruise sections" className="-mt-1 flex flex-wrap gap-0.5 border-b border-paper-rule print:hidden">
         {sections.map((s) => (
           <NavLink
             key={s.label}
             to={s.path ? `/cruises/${encodeURIComponent(id)}/${s.path}` : `/cruises/${encodeURIComponent(id)}`}
             end
             className={({ isActive }) =>
-              `-mb-px border-b-2 px-3.5 py-2 text-sm no-underline ${isActive ? 'border-ink font-semibold text-ink-strong' : 'border-transparent text-ink-soft hover:border-ink/30 hover:text-ink-strong'}`
+              `-mb-px border-b-2 px-3 py-1.5 text-sm no-underline ${isActive ? 'border-ink font-semibold text-ink-strong' : 'border-transparent text-ink-soft hover:border-ink/30 hover:text-ink-strong'}`
             }
           >
             {s.label}
@@ -46,6 +48,15 @@ export default function CruiseLayout() {
       <Outlet context={{ cruise: cruise.data } satisfies CruiseOutlet} />
     </div>
   );
+}
+
+/** The name of the cruise screen at a path: each tab names itself in the heading. */
+function screenName(pathname: string, id: string): string {
+  const rest = pathname.replace(`/cruises/${encodeURIComponent(id)}`, '').replace(/^\/+/, '');
+  if (!rest) return 'Cruise desk';
+  if (/^casts\/./.test(rest)) return 'Cast sheet';
+  const hit = CRUISE_SECTIONS.find((s) => s.path && (rest === s.path || rest.startsWith(`${s.path}/`)));
+  return hit ? hit.label : 'Cruise';
 }
 
 export interface CruiseOutlet {

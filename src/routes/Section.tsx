@@ -14,8 +14,12 @@ import {
   TsPanel,
   createHoverStore,
   digitsFor,
-  gridRange,
   nearestStation,
+  SectionFigureBar,
+  sentence,
+  useFramesLook,
+  figureFileName,
+  provenanceLine,
   propertyLabel,
   sampleGrid,
   sectionQueryString,
@@ -35,6 +39,7 @@ import { useLayerSets } from '../features/layersets';
 import { useDerivedVariables } from '../features/derived';
 import { useCurrentCruise } from './CruiseLayout';
 import { LinePicker } from '../features/lines';
+import { FrameExportMenu, type FrameExport } from '../features/sections';
 
 /** Who may keep saved views: the analysts and the chief scientist (the server enforces it too). */
 const canSaveViews = (role: string | null | undefined) => role === 'analyst' || role === 'chief_scientist';
@@ -63,13 +68,9 @@ export default function Section() {
   const { label: propLabel, unit: propUnit } = propertyLabel(view.property, derived.data ?? []);
   const unit = byPressure.data?.unit ?? propUnit;
   const densityShowsDepth = view.densityShows === 'depth';
-  // One colour range over both frames, so a colour means one value on either side. Memoised: a
-  // new range object on every render made both frames redraw on every render.
-  const pressureGrid = byPressure.data?.grid;
-  const densityGrid = densityShowsDepth ? undefined : byDensity.data?.grid;
-  const autoRange = useMemo(() => gridRange(pressureGrid, densityGrid), [pressureGrid, densityGrid]);
-  const viewRange = view.range;
-  const range = useMemo(() => viewRange ?? autoRange, [viewRange?.min, viewRange?.max, autoRange]); // eslint-disable-line react-hooks/exhaustive-deps
+  // Each frame has its own colour range (automatic, or fixed by the view), palette, contours and axes.
+  const look = useFramesLook(view, byPressure.data, byDensity.data);
+  const range = look.pressureRange;
   const digits = digitsFor(range ? range.max - range.min : NaN);
   const stations = byPressure.data?.stations ?? byDensity.data?.stations ?? [];
   const sigma = sigmaName(view.ref);
@@ -104,7 +105,22 @@ export default function Section() {
   const valueTitle = `${view.property}${unit ? ` (${unit})` : ''}`;
   const levelsText = layerSet ? `${layerSet.name} (${layerSet.levels})` : `default levels ${byDensity.data?.choices.levels ?? ''}`;
   const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
-  const frameHeight = useFrameHeight();
+  const frameHeight = useFrameHeight(view.frames);
+  // Figures leave with a provenance line and a file name of cruise, line and property.
+  const lineName = view.line; // the line picker can pass the line's name here instead of its id
+  const provenance = provenanceLine(cruise, lineName);
+  const fileBase = figureFileName(cruise.name, lineName, view.property);
+  const pressureCaption = sentence(
+    `${propLabel}${unit ? ` (${unit})` : ''} by pressure on ${byPressure.data?.choices.bin ?? 10} dbar bins`,
+    `isopycnals ${sigma} (reference ${view.ref} dbar, solid, labelled along the lines), inversions ${handling}`,
+    look.words.contours('pressure'), look.words.palette, look.words.range('pressure'), look.words.axes,
+    `warm marks: inversions of ${sigma} at the cast, from top to bottom of the inverted interval; dark fill: the bottom`,
+  );
+  const densityCaption = sentence(
+    `${densityShowsDepth ? 'Pressure (dbar) of the isopycnals' : `${propLabel}${unit ? ` (${unit})` : ''}`} on ${sigma} (reference ${view.ref} dbar)`,
+    `inversions ${handling}`, `interpolation ${INTERPOLATION_TEXT[view.interpolation].toLowerCase()}`, `levels ${levelsText}`,
+    look.words.contours('density'), densityShowsDepth ? null : look.words.palette, look.words.range('density'), look.xAxisWords,
+  );
   const cursor = stations.find((s) => s.id === view.station) ?? null;
   const inversions = byPressure.data?.inversions ?? [];
 
@@ -137,7 +153,9 @@ export default function Section() {
         onChange={(patch) => setView(patch)}
         layerSets={sets}
         derived={derived.data ?? []}
-        autoRange={autoRange}
+        autoRange={look.autoPressure}
+        autoDensityRange={look.autoDensity}
+        autoPaletteLabel={look.autoPaletteLabel}
       />
       {(layerSets.isError || derived.isError) && (
         <ErrorNotice error={layerSets.error ?? derived.error} title="The layer sets or derived variables could not be loaded; the defaults are used" />
@@ -148,59 +166,65 @@ export default function Section() {
           <EmptyState title="No casts yet">The section is drawn from the cruise’s processed casts. Upload cast files on the intake first.</EmptyState>
         </Panel>
       ) : (
-        <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_20rem]">
+        <div className="grid items-start gap-4 min-[1800px]:grid-cols-[minmax(0,1fr)_20rem]">
+          <div className="flex min-w-0 flex-col gap-2">
+          <SectionFigureBar
+            frames={view.frames}
+            onFrames={(frames) => setView({ frames })}
+            exportProps={{ text: { title: `${cruise.name}: ${propLabel} section`, provenance }, fileName: `${fileBase}_section`, captions: { pressure: pressureCaption, density: densityCaption } }}
+          />
           <div
             tabIndex={0}
             role="application"
             aria-label={`Section frames. Station cursor: ${cursor ? cursor.station : 'none'}. Use the left and right arrow keys to step between stations, Home and End for the ends.`}
             onKeyDown={onKeyDown}
-            className="grid gap-4 outline-none focus-visible:ring-2 focus-visible:ring-ink/50 min-[1800px]:grid-cols-2"
+            data-section-frames
+            className={`grid gap-3 outline-none focus-visible:ring-2 focus-visible:ring-ink/50 ${view.frames === 'both' ? 'min-[1200px]:grid-cols-2' : ''}`}
           >
-            <FrameBox
+            {view.frames !== 'density' && <FrameBox
               title="By pressure"
               query={byPressure}
+              exportAs={{ text: { title: `${cruise.name}: ${propLabel} by pressure`, provenance }, fileName: `${fileBase}_by-pressure`, caption: pressureCaption, frame: 'pressure' }}
               render={(data) => (
                 <SectionFrame
                   section={data}
                   coord="pressure"
                   valueTitle={valueTitle}
                   range={range}
+                  look={look.pressure}
+                  fileName={`${fileBase}_by-pressure`}
                   cursorStationId={view.station}
                   height={frameHeight}
                   onHover={setHover}
                   onPickStation={pickStation}
                   onPickInversion={openCast}
                   onDrawn={framesDrawn ? undefined : onFirstDrawn}
-                  caption={
-                    <>
-                      {propLabel} on {data.choices.bin} dbar bins. Isopycnals: {sigma} (reference {view.ref} dbar), inversions {handling}. Warm marks: inversions of {sigma}, at the cast, from top to bottom of the inverted interval. Dark fill: the bottom.
-                    </>
-                  }
+                  caption={pressureCaption}
                 />
               )}
-            />
-            <FrameBox
+            />}
+            {view.frames !== 'pressure' && <FrameBox
               title={`By density (${sigma})`}
               query={byDensity}
+              exportAs={{ text: { title: `${cruise.name}: ${densityShowsDepth ? 'pressure of the isopycnals' : propLabel} by density (${sigma})`, provenance }, fileName: `${fileBase}_by-density-${sigma}`, caption: densityCaption, frame: 'density' }}
               render={(data) => (
                 <SectionFrame
                   section={data}
                   coord="density"
                   valueTitle={densityShowsDepth ? 'Pressure (dbar)' : valueTitle}
-                  range={densityShowsDepth ? null : range}
+                  range={look.densityRange}
+                  look={look.density}
+                  fileName={`${fileBase}_by-density-${sigma}`}
                   cursorStationId={view.station}
                   height={frameHeight}
                   onHover={setHover}
                   onPickStation={pickStation}
                   onPickInversion={openCast}
-                  caption={
-                    <>
-                      {densityShowsDepth ? 'Pressure of the isopycnals' : propLabel} on {sigma} (reference {view.ref} dbar); inversions: {handling}; interpolation: {INTERPOLATION_TEXT[view.interpolation].toLowerCase()}; levels: {levelsText}.
-                    </>
-                  }
+                  caption={densityCaption}
                 />
               )}
-            />
+            />}
+          </div>
           </div>
           <aside className="flex flex-col gap-3" aria-label="Section details">
             <LiveReadout
@@ -254,15 +278,22 @@ function FrameBox({
   title,
   query,
   render,
+  exportAs,
 }: {
   title: string;
   query: ReturnType<typeof useSection>;
   render: (data: SectionData) => React.ReactNode;
+  exportAs?: FrameExport;
 }) {
   return (
     <Panel
       title={title}
-      actions={query.isFetching && query.data ? <span className="flex items-center gap-1.5 text-xs text-ink-muted"><Spinner label={`Recomputing ${title}`} /> recomputing…</span> : null}
+      actions={
+        <span className="flex items-center gap-2">
+          {query.isFetching && query.data && <span className="flex items-center gap-1.5 text-xs text-ink-muted"><Spinner label={`Recomputing ${title}`} /> recomputing…</span>}
+          {exportAs && query.data && <FrameExportMenu what={`the frame ${title.toLowerCase()}`} {...exportAs} />}
+        </span>
+      }
       className="min-w-0"
     >
       {query.isPending && <Progress label={`Computing the section ${title.toLowerCase()}…`} />}
@@ -318,14 +349,24 @@ function toReadout(
   };
 }
 
-/** Taller frames where they stand side by side on a wide screen; two stacked frames fit 1280×800. */
-function useFrameHeight(): number {
-  const pick = () => (typeof window !== 'undefined' && window.innerWidth >= 1800 ? Math.min(460, Math.max(340, Math.round(window.innerHeight * 0.42))) : 330);
+/**
+ * Frame height from the window: side by side (from 1200 px wide) both frames fit 1280×800 with
+ * the controls above; one frame at a time takes more of the height; stacked frames (narrow
+ * windows) are shorter.
+ */
+function useFrameHeight(frames: 'both' | 'pressure' | 'density'): number {
+  const pick = () => {
+    if (typeof window === 'undefined') return 330;
+    const h = window.innerHeight;
+    if (frames !== 'both') return Math.min(640, Math.max(320, Math.round(h * 0.55)));
+    return window.innerWidth >= 1200 ? Math.min(520, Math.max(280, h - 445)) : 330;
+  };
   const [height, setHeight] = useState(pick);
   useEffect(() => {
     const onResize = () => setHeight(pick());
+    onResize();
     window.addEventListener('resize', onResize);
     return () => window.removeEventListener('resize', onResize);
-  }, []);
+  }, [frames]); // eslint-disable-line react-hooks/exhaustive-deps
   return height;
 }

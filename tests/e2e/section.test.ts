@@ -48,7 +48,7 @@ afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
 
 /** Waits until the frame whose figure label starts with `label` has been drawn by Plotly with the data asked for. */
 async function drawnFrame(page: Page, label: string) {
-  await page.locator(`figure[aria-label^="${label}"][data-plot-drawn]`).waitFor({ timeout: 30_000 });
+  await page.locator(`figure[aria-label^="${label}"][data-plot-interactive]`).waitFor({ timeout: 30_000 });
 }
 
 /** The x positions of the inversion markers Plotly holds for a frame (what it drew). */

@@ -1,12 +1,17 @@
-import { Component, lazy, Suspense, useCallback, useRef, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
+import { Component, lazy, Suspense, useCallback, useMemo, useRef, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
 import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent, PlotSelectionEvent } from 'plotly.js';
 import { Progress } from '../Notice';
+import { withoutCloud } from './theme';
 
 /**
- * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-cartesian-dist-min` (the cartesian traces: scatter, heatmap, contour, bar — all our screens draw) is a
- * dynamic import, so Vite puts Plotly (≈4.6 MB, ≈1.4 MB gzip) in its own chunk that only screens
- * with a plot download; the first screen stays light. While it loads, the plot's box keeps its size
- * and shows progress; if the chunk cannot be fetched the box says so.
+ * Plotly, loaded on first use. `react-plotly.js/factory` bound to `plotly.js-dist-min` (the design
+ * card's bundle) is a dynamic import, so Vite puts Plotly in its own chunk that only screens with a
+ * plot download; the first screen stays light. While it loads, the plot's box keeps its size and
+ * shows progress; if the chunk cannot be fetched the box says so.
+ *
+ * Every figure goes through this wrapper, and the wrapper lays the options that keep a figure on the
+ * ship over whatever config a caller passes (see `withoutCloud` in theme.ts): no logo, no link or
+ * button that would send a figure or its data to the library maker's cloud service.
  */
 
 export interface PlotProps {
@@ -28,13 +33,27 @@ export interface PlotProps {
 }
 
 let loading: Promise<{ default: ComponentType<PlotProps> }> | null = null;
+let library: PlotlyLibrary | null = null;
+
+/** The parts of the plotting library's API our exports use. */
+export interface PlotlyLibrary {
+  toImage(gd: HTMLElement, options: { format: 'svg' | 'png'; width: number; height: number; scale?: number }): Promise<string>;
+}
+
+/** The plotting library itself (loading it if need be), for exports. */
+export async function plotlyLibrary(): Promise<PlotlyLibrary> {
+  await preloadPlotly();
+  if (!library) throw new Error('The plotting library did not load.');
+  return library;
+}
 
 /** Start fetching Plotly (e.g. on hover of a link to a plotting screen); safe to call repeatedly. */
 export function preloadPlotly(): Promise<{ default: ComponentType<PlotProps> }> {
   if (!loading) {
-    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-cartesian-dist-min')]).then(([factory, plotly]) => {
+    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(([factory, plotly]) => {
       const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
       const Plotly = (plotly as { default?: object }).default ?? plotly;
+      library = Plotly as unknown as PlotlyLibrary;
       performance.mark?.('plotly loaded');
       return { default: createPlotlyComponent(Plotly) as ComponentType<PlotProps> };
     });
@@ -55,25 +74,44 @@ export interface LazyPlotProps extends PlotProps {
   height?: number;
   /** Text under the plot (the choice that made it, a legend in words). */
   caption?: ReactNode;
+  /**
+   * A quick picture drawn while the plotting library loads (e.g. the field on a canvas); it calls
+   * `drawn` once it is on screen. Without it the box shows progress.
+   */
+  preview?: (drawn: () => void) => ReactNode;
+  /** Extra attributes on the figure element (e.g. data for exports). */
+  figureProps?: Record<string, string>;
 }
 
 /** A Plotly figure in a labelled box, loading Plotly on first use. */
-export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, ...plot }: LazyPlotProps) {
+export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, config, preview, figureProps, ...plot }: LazyPlotProps) {
   const figure = useRef<HTMLElement>(null);
+  // A new object only when the caller's config changes (react-plotly redraws on a new config).
+  const safeConfig = useMemo(() => withoutCloud(config), [config]);
   const { onAfterPlot } = plot;
+  // Markers for tests and the browser benchmark, each the page clock (ms since the navigation
+  // started) when it first happened: `data-plot-drawn` the first picture of the figure (the quick
+  // preview or the library's), `data-plot-interactive` the library's first draw.
+  const mark = useCallback((name: string) => {
+    if (figure.current && !figure.current.hasAttribute(name)) figure.current.setAttribute(name, performance.now().toFixed(1));
+  }, []);
+  const previewDrawn = useCallback(() => {
+    mark('data-plot-drawn');
+    mark('data-preview-drawn');
+    performance.mark?.(`preview drawn: ${label}`);
+  }, [mark, label]);
   const afterPlot = useCallback(() => {
-    // A marker for tests and the browser benchmark: this figure has been drawn at least once.
-    // Its value is the page clock (ms since the navigation started) at the first draw.
-    if (!figure.current?.hasAttribute('data-plot-drawn')) figure.current?.setAttribute('data-plot-drawn', performance.now().toFixed(1));
+    mark('data-plot-drawn');
+    mark('data-plot-interactive');
     performance.mark?.(`plot drawn: ${label}`);
     onAfterPlot?.();
-  }, [onAfterPlot, label]);
+  }, [onAfterPlot, label, mark]);
   return (
-    <figure ref={figure} aria-label={label} className={`m-0 flex flex-col ${className}`}>
+    <figure ref={figure} aria-label={label} className={`m-0 flex flex-col ${className}`} {...figureProps}>
       <div style={{ height }} className="relative w-full">
         <PlotErrorBoundary>
-          <Suspense fallback={<PlotLoading label={label} />}>
-            <Plot {...plot} onAfterPlot={afterPlot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
+          <Suspense fallback={preview ? preview(previewDrawn) : <PlotLoading label={label} />}>
+            <Plot {...plot} config={safeConfig} onAfterPlot={afterPlot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
           </Suspense>
         </PlotErrorBoundary>
       </div>

@@ -89,16 +89,40 @@ export function baseLayout(extra: Partial<Layout> = {}): Partial<Layout> {
   };
 }
 
+/**
+ * The options that keep a figure on the ship, laid over any config (callers cannot turn them back
+ * on): no library logo linking to its maker, no "edit / send to the cloud" buttons, no on-graph
+ * link, no data in a link, no server to send figures to, no map or formula resources fetched from
+ * a content network. Nothing is exported except by our own export buttons and the modebar's
+ * "save as image", which writes a file in the browser.
+ */
+export const NO_CLOUD = {
+  displaylogo: false,
+  showLink: false,
+  sendData: false,
+  linkText: '',
+  showSendToCloud: false,
+  showEditInChartStudio: false,
+  plotlyServerURL: '',
+  topojsonURL: '',
+  mapboxAccessToken: '',
+  typesetMath: false,
+} as const satisfies Partial<Config> & Record<string, unknown>;
+
+/** A config with NO_CLOUD laid over it. */
+export function withoutCloud(config: Partial<Config> | undefined): Partial<Config> {
+  return { ...(config ?? {}), ...(NO_CLOUD as Partial<Config>) };
+}
+
 /** The modebar Sigmaline keeps: zoom, pan, select, reset, save as image; no logo, no cloud. */
 export function plotConfig(extra: Partial<Config> = {}): Partial<Config> {
-  return {
-    displaylogo: false,
+  return withoutCloud({
     responsive: true,
     scrollZoom: false,
     modeBarButtonsToRemove: ['lasso2d', 'autoScale2d', 'toggleSpikelines', 'hoverClosestCartesian', 'hoverCompareCartesian'],
     toImageButtonOptions: { format: 'png', scale: 2 },
     ...extra,
-  };
+  });
 }
 
 /** A colour bar styled like the axes. */

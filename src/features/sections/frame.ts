@@ -56,3 +56,53 @@ export function digitsFor(span: number): number {
 export function formatValue(v: number | null | undefined, digits: number): string {
   return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(digits);
 }
+
+/** Which ends of a fixed colour range the grid's values pass: those ends get an extension mark. */
+export function rangeExtensions(grid: Section['grid'] | undefined, range: { min: number; max: number } | null): { below: number; above: number } {
+  const out = { below: 0, above: 0 };
+  if (!grid || !range) return out;
+  for (const row of grid.z) for (const v of row) {
+    if (v === null || !Number.isFinite(v)) continue;
+    if (v < range.min) out.below++;
+    else if (v > range.max) out.above++;
+  }
+  return out;
+}
+
+export interface LineLabel { x: number; y: number; text: string }
+
+/**
+ * Labels along lines (isopycnals), not piled at one edge: each line is offered places along its
+ * wet length (the middle first, then towards either end) and takes the first that keeps clear of
+ * every label placed so far, by `room` in units of the frame (x and y scaled to 0–1). A line with
+ * no clear place goes unlabelled rather than overprinted.
+ */
+export function placeLineLabels(
+  lines: readonly { xs: readonly number[]; ys: readonly (number | null)[]; text: string }[],
+  xSpan: readonly [number, number],
+  ySpan: readonly [number, number],
+  room = 0.06,
+): LineLabel[] {
+  const placed: LineLabel[] = [];
+  const nx = (x: number) => (x - xSpan[0]) / (xSpan[1] - xSpan[0] || 1);
+  const ny = (y: number) => (y - ySpan[0]) / (ySpan[1] - ySpan[0] || 1);
+  const fractions = [0.5, 0.3, 0.7, 0.15, 0.85, 0.4, 0.6];
+  lines.forEach((line, k) => {
+    const wet = line.ys.map((y, i) => (y === null ? -1 : i)).filter((i) => i >= 0);
+    if (wet.length < 2) return;
+    // Neighbouring lines start from different places, so a stack of close lines fans out.
+    const order = fractions.map((_, j) => fractions[(j + k) % fractions.length]);
+    for (const f of order) {
+      const pos = f * (wet.length - 1);
+      const i0 = wet[Math.floor(pos)], i1 = wet[Math.min(wet.length - 1, Math.floor(pos) + 1)];
+      const w = pos - Math.floor(pos);
+      const x = line.xs[i0] + (line.xs[i1] - line.xs[i0]) * w;
+      const y = (line.ys[i0] as number) + ((line.ys[i1] as number) - (line.ys[i0] as number)) * w;
+      if (placed.every((p) => Math.hypot(nx(p.x) - nx(x), (ny(p.y) - ny(y)) * 1.6) >= room)) {
+        placed.push({ x, y, text: line.text });
+        return;
+      }
+    }
+  });
+  return placed;
+}

@@ -8,6 +8,11 @@ const cell = z.number().nullable();
 export { REFERENCE_PRESSURES, type ReferencePressure } from '../../../shared/api/levels';
 export const INVERSION_HANDLINGS = ['sort', 'drop', 'raw'] as const;
 export type InversionHandling = (typeof INVERSION_HANDLINGS)[number];
+/** The pressure frame's vertical axis and the frames' horizontal axis (see axes.ts). */
+export const Y_AXES = ['pressure', 'depth'] as const;
+export type YAxisKind = (typeof Y_AXES)[number];
+export const X_AXES = ['distance', 'latitude', 'longitude'] as const;
+export type XAxisKind = (typeof X_AXES)[number];
 export const INTERPOLATIONS = ['linear', 'pchip'] as const;
 export type Interpolation = (typeof INTERPOLATIONS)[number];
 

@@ -6,6 +6,14 @@ import {
   type InversionHandling,
   type ReferencePressure,
 } from './types';
+import { X_AXES, Y_AXES, type XAxisKind, type YAxisKind } from './types';
+
+/** The palettes by key (see src/components/plot/colormaps.ts), or automatic by property. */
+export const PALETTE_CHOICES = ['auto', 'hearth', 'brine', 'cleft', 'graphite'] as const;
+export type PaletteChoice = (typeof PALETTE_CHOICES)[number];
+/** Which frames the screen shows: both, or one at a time. */
+export const FRAME_CHOICES = ['both', 'pressure', 'density'] as const;
+export type FrameChoice = (typeof FRAME_CHOICES)[number];
 
 /**
  * Everything that decides what the Section screen shows. It lives in the URL query, so a link
@@ -31,6 +39,17 @@ export interface SectionViewState {
   tsColour: 'pressure' | 'station';
   /** Geostrophic reference: a pressure in dbar, or the deepest level common to each pair. */
   pRef: number | 'deepest_common';
+  /** Colour range of the density frame; null is automatic (that frame's own range). */
+  densityRange: { min: number; max: number } | null;
+  palette: PaletteChoice;
+  /** The property's contour interval: automatic, none, or a number in the property's unit. */
+  contours: 'auto' | 'off' | number;
+  /** The pressure frame's vertical axis, and whether the upper 1000 dbar are stretched. */
+  yAxis: YAxisKind;
+  stretch: boolean;
+  /** The frames' horizontal axis (the data stay in distance along the track). */
+  xAxis: XAxisKind;
+  frames: FrameChoice;
   /** The line drawn (a line id), or null for the cruise's default line. */
   line: string | null;
 }
@@ -46,6 +65,13 @@ export const DEFAULT_VIEW: Readonly<SectionViewState> = {
   station: null,
   tsColour: 'pressure',
   pRef: 'deepest_common',
+  densityRange: null,
+  palette: 'auto',
+  contours: 'auto',
+  yAxis: 'pressure',
+  stretch: false,
+  xAxis: 'distance',
+  frames: 'both',
   line: null,
 };
 
@@ -62,6 +88,14 @@ export const PARAM = {
   station: 'stn',
   tsColour: 'ts',
   pRef: 'pref',
+  densityMin: 'dmin',
+  densityMax: 'dmax',
+  palette: 'pal',
+  contours: 'cint',
+  yAxis: 'yax',
+  stretch: 'stretch',
+  xAxis: 'xax',
+  frames: 'show',
   line: 'line',
 } as const;
 
@@ -90,6 +124,10 @@ export function parseViewState(search: URLSearchParams | string): SectionViewSta
   const max = finite(q.get(PARAM.rangeMax));
   const pRefRaw = q.get(PARAM.pRef);
   const pRefNumber = finite(pRefRaw);
+  const dmin = finite(q.get(PARAM.densityMin));
+  const dmax = finite(q.get(PARAM.densityMax));
+  const cintRaw = q.get(PARAM.contours);
+  const cint = finite(cintRaw);
   const line = q.get(PARAM.line);
   return {
     property: property && property.length <= 64 && PROPERTY_RE.test(property) ? property : DEFAULT_VIEW.property,
@@ -103,6 +141,13 @@ export function parseViewState(search: URLSearchParams | string): SectionViewSta
     station: station && ID_RE.test(station) ? station : null,
     tsColour: oneOf(['pressure', 'station'] as const, q.get(PARAM.tsColour), DEFAULT_VIEW.tsColour),
     pRef: pRefNumber !== null && pRefNumber > 0 && pRefNumber <= 12000 ? pRefNumber : DEFAULT_VIEW.pRef,
+    densityRange: dmin !== null && dmax !== null && dmin < dmax ? { min: dmin, max: dmax } : null,
+    palette: oneOf(PALETTE_CHOICES, q.get(PARAM.palette), DEFAULT_VIEW.palette),
+    contours: cintRaw === 'off' ? 'off' : cint !== null && cint > 0 ? cint : 'auto',
+    yAxis: oneOf(Y_AXES, q.get(PARAM.yAxis), DEFAULT_VIEW.yAxis),
+    stretch: q.get(PARAM.stretch) === '1',
+    xAxis: oneOf(X_AXES, q.get(PARAM.xAxis), DEFAULT_VIEW.xAxis),
+    frames: oneOf(FRAME_CHOICES, q.get(PARAM.frames), DEFAULT_VIEW.frames),
     line: line && ID_RE.test(line) ? line : null,
   };
 }
@@ -123,6 +168,16 @@ export function serialiseViewState(state: SectionViewState): string {
   if (state.station) q.set(PARAM.station, state.station);
   if (state.tsColour !== DEFAULT_VIEW.tsColour) q.set(PARAM.tsColour, state.tsColour);
   if (state.pRef !== DEFAULT_VIEW.pRef) q.set(PARAM.pRef, String(state.pRef));
+  if (state.densityRange) {
+    q.set(PARAM.densityMin, String(state.densityRange.min));
+    q.set(PARAM.densityMax, String(state.densityRange.max));
+  }
+  if (state.palette !== DEFAULT_VIEW.palette) q.set(PARAM.palette, state.palette);
+  if (state.contours !== DEFAULT_VIEW.contours) q.set(PARAM.contours, String(state.contours));
+  if (state.yAxis !== DEFAULT_VIEW.yAxis) q.set(PARAM.yAxis, state.yAxis);
+  if (state.stretch) q.set(PARAM.stretch, '1');
+  if (state.xAxis !== DEFAULT_VIEW.xAxis) q.set(PARAM.xAxis, state.xAxis);
+  if (state.frames !== DEFAULT_VIEW.frames) q.set(PARAM.frames, state.frames);
   if (state.line) q.set(PARAM.line, state.line);
   return q.toString();
 }

@@ -148,7 +148,7 @@ describe('Section controls and the URL', () => {
     await waitFor(() => expect(lastSection('density').get('interpolation')).toBe('pchip'));
     expect(lastSection('density').get('inversions')).toBe('raw');
     const density = await screen.findByRole('figure', { name: /Section by density/ });
-    await waitFor(() => expect(density.textContent).toMatch(/inversions: raw \(first crossing\); interpolation: monotone cubic/));
+    await waitFor(() => expect(density.textContent).toMatch(/inversions raw \(first crossing\); interpolation monotone cubic/));
 
     fireEvent.change(screen.getByLabelText('Density frame shows'), { target: { value: 'depth' } });
     await waitFor(() => expect(q().get('dframe')).toBe('depth'));

@@ -22,6 +22,13 @@ const full: SectionViewState = {
   station: 'c-17',
   tsColour: 'station',
   pRef: 1500,
+  densityRange: { min: 36.5, max: 37.25 },
+  palette: 'graphite',
+  contours: 0.25,
+  yAxis: 'depth',
+  stretch: true,
+  xAxis: 'latitude',
+  frames: 'density',
   line: '0b6f7d2e-1c3a-4f5e-9a8b-7c6d5e4f3a2b',
 };
 
@@ -52,7 +59,8 @@ describe('section view state in the URL', () => {
   });
 
   it('falls back to the default for each unreadable value, keeping the readable ones', () => {
-    const s = parseViewState('property=CT;drop&ref=1500&inv=shuffle&interp=cubic&dframe=x&ts=rainbow&pref=-4&set=%3Cscript%3E&stn=ok-3');
+    const s = parseViewState('property=CT;drop&ref=1500&inv=shuffle&interp=cubic&dframe=x&ts=rainbow&pref=-4&set=%3Cscript%3E&stn=ok-3'
+      + '&pal=jet&cint=-1&yax=feet&stretch=yes&xax=time&show=all&dmin=5&dmax=1');
     expect(s).toEqual({ ...DEFAULT_VIEW, station: 'ok-3' });
   });
 

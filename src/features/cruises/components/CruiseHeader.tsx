@@ -1,4 +1,3 @@
-import { PageHeader } from '../../../components/Panel';
 import { Num } from '../../../components/Num';
 import { cruiseDays } from '../../../lib/format';
 import { roleLabel } from '../../auth';
@@ -37,36 +36,39 @@ function LockControl({ cruise }: { cruise: Cruise }) {
   );
 }
 
-export function CruiseHeader({ cruise }: { cruise: Cruise }) {
+/**
+ * The cruise's heading, compact: which screen this is and your role, the cruise's name, ship,
+ * dates (and ports, region) on one or two lines, the lock for the chief scientist.
+ */
+export function CruiseHeader({ cruise, screen = 'Cruise desk' }: { cruise: Cruise; screen?: string }) {
   const days = cruiseDays(cruise.startDate, cruise.endDate);
   return (
-    <PageHeader
-      kicker={
-        <>
-          Cruise desk{cruise.role && <> · your role: {roleLabel(cruise.role)}</>}
+    <header className="flex flex-wrap items-end gap-x-6 gap-y-1">
+      <div className="flex flex-col">
+        <p className="text-xs uppercase tracking-[0.14em] text-ink-muted">
+          {screen}{cruise.role && <> · your role: {roleLabel(cruise.role)}</>}
           {cruise.locked && <span className="ml-2 border border-ink/40 px-1.5 py-px text-[0.65rem] text-ink">Locked</span>}
-        </>
-      }
-      title={cruise.name}
-      meta={
-        <dl className="flex flex-wrap gap-x-6 gap-y-1">
-          <Meta term="Ship">{cruise.ship}</Meta>
-          <Meta term="Dates">
-            <Num>
-              {cruise.startDate ?? '…'} – {cruise.endDate ?? '…'}
-            </Num>
-            {days !== null && <span className="ml-1.5 text-ink-muted">({days} days)</span>}
+        </p>
+        <h1 className="text-xl font-semibold leading-tight text-ink-strong">{cruise.name}</h1>
+      </div>
+      <dl className="flex flex-wrap gap-x-5 gap-y-1 pb-0.5 text-sm">
+        <Meta term="Ship">{cruise.ship}</Meta>
+        <Meta term="Dates">
+          <Num>
+            {cruise.startDate ?? '…'} – {cruise.endDate ?? '…'}
+          </Num>
+          {days !== null && <span className="ml-1.5 text-ink-muted">({days} days)</span>}
+        </Meta>
+        {(cruise.portStart || cruise.portEnd) && (
+          <Meta term="Ports">
+            {cruise.portStart ?? '—'} → {cruise.portEnd ?? '—'}
           </Meta>
-          {(cruise.portStart || cruise.portEnd) && (
-            <Meta term="Ports">
-              {cruise.portStart ?? '—'} → {cruise.portEnd ?? '—'}
-            </Meta>
-          )}
-          {cruise.region && <Meta term="Region">{cruise.region}</Meta>}
-        </dl>
-      }
-      actions={<LockControl cruise={cruise} />}
-    />
+        )}
+        {cruise.region && <Meta term="Region">{cruise.region}</Meta>}
+      </dl>
+      <span className="flex-1" />
+      <LockControl cruise={cruise} />
+    </header>
   );
 }
 

@@ -1,6 +1,6 @@
 import { useEffect, useState, type FormEvent } from 'react';
 import type { Data } from 'plotly.js';
-import { BALANCE, LazyPlot, PLOT_COLORS, baseLayout, colorBar, plotConfig, pressureAxis, sigmaLabel, toPlotly, valueAxis } from '../../../components/plot';
+import { CLEFT, LazyPlot, PLOT_COLORS, baseLayout, colorBar, plotConfig, pressureAxis, sigmaLabel, toPlotly, valueAxis } from '../../../components/plot';
 import { Button } from '../../../components/Button';
 import { ErrorNotice, Progress } from '../../../components/Notice';
 import { Num } from '../../../components/Num';
@@ -100,7 +100,7 @@ export function velocityFigure(geo: Geostrophy): { data: Data[]; layout: ReturnT
       // Symmetric about zero, so white is "no flow" and neither sign looks stronger.
       zmin: -vmax,
       zmax: vmax,
-      colorscale: toPlotly(BALANCE),
+      colorscale: toPlotly(CLEFT),
       colorbar: colorBar('Velocity (m/s)'),
       text: geo.velocity.map((row) => row.map((_, i) => `${geo.pairs[i]?.a}–${geo.pairs[i]?.b}`)) as unknown as string[],
       hovertemplate: '%{text}<br>%{x:.1f} km, %{y:.0f} dbar<br>v %{z:.3f} m/s<extra></extra>',
@@ -188,7 +188,7 @@ function TransportTable({ geo, refPressure, layerSetName }: { geo: Geostrophy; r
 function Bar({ value, maxAbs }: { value: number | null; maxAbs: number }) {
   if (value === null) return null;
   const share = Math.min(1, Math.abs(value) / maxAbs) * 50;
-  const colour = value >= 0 ? BALANCE[BALANCE.length - 3][1] : BALANCE[2][1];
+  const colour = value >= 0 ? CLEFT[CLEFT.length - 3][1] : CLEFT[2][1];
   return (
     <div className="relative h-3 w-full bg-paper-sunk/60" aria-hidden>
       <div className="absolute inset-y-0 left-1/2 w-px" style={{ background: PLOT_COLORS.inkFaint }} />

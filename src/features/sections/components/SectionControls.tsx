@@ -3,7 +3,8 @@ import { Button } from '../../../components/Button';
 import { SelectField } from '../../../components/Field';
 import { SECTION_PROPERTIES } from '../properties';
 import { INTERPOLATIONS, INVERSION_HANDLINGS, REFERENCE_PRESSURES, type DerivedVariable, type LayerSet, type ReferencePressure } from '../types';
-import { INTERPOLATION_TEXT, INVERSION_HANDLING_TEXT, sigmaName, type SectionViewState } from '../viewState';
+import { INTERPOLATION_TEXT, INVERSION_HANDLING_TEXT, PALETTE_CHOICES, sigmaName, type SectionViewState } from '../viewState';
+import { PALETTES } from '../../../components/plot';
 
 export interface SectionControlsProps {
   view: SectionViewState;
@@ -12,19 +13,26 @@ export interface SectionControlsProps {
   derived: readonly DerivedVariable[];
   /** The automatic colour range, shown as the placeholder of the min/max inputs. */
   autoRange: { min: number; max: number } | null;
+  /** The density frame's automatic colour range. */
+  autoDensityRange?: { min: number; max: number } | null;
+  /** The palette the automatic choice gives for this property. */
+  autoPaletteLabel?: string;
 }
 
 /** The controls above the section; every one writes the view state (and so the URL). */
-export function SectionControls({ view, onChange, layerSets, derived, autoRange }: SectionControlsProps) {
+export function SectionControls({ view, onChange, layerSets, derived, autoRange, autoDensityRange = null, autoPaletteLabel }: SectionControlsProps) {
   const derivedNames = derived.map((d) => d.name);
   const propertyKnown = SECTION_PROPERTIES.some((p) => p.name === view.property) || derivedNames.includes(view.property);
   const selectedSet = layerSets.find((s) => s.id === view.layerSet);
+  // The figure options start open when the view already uses one of them (a shared link).
+  const [figureOpen, setFigureOpen] = useState(() => !!(view.range || view.densityRange));
 
   return (
-    <div role="group" aria-label="Section controls" className="flex flex-wrap items-start gap-x-4 gap-y-3">
+    <div role="group" aria-label="Section controls" className="flex flex-col gap-2 print:hidden">
+    <div className="flex flex-wrap items-start gap-x-3 gap-y-2">
       <SelectField
         label="Property"
-        fieldClassName="w-64"
+        fieldClassName="w-56"
         value={view.property}
         onChange={(e) => onChange({ property: e.target.value, range: null })}
       >
@@ -49,7 +57,7 @@ export function SectionControls({ view, onChange, layerSets, derived, autoRange 
 
       <SelectField
         label="Reference pressure"
-        fieldClassName="w-40"
+        fieldClassName="w-36"
         value={String(view.ref)}
         onChange={(e) => {
           const ref = Number(e.target.value) as ReferencePressure;
@@ -66,7 +74,7 @@ export function SectionControls({ view, onChange, layerSets, derived, autoRange 
 
       <SelectField
         label="Layer set"
-        fieldClassName="w-52"
+        fieldClassName="w-44"
         value={view.layerSet ?? ''}
         onChange={(e) => {
           const set = layerSets.find((s) => s.id === e.target.value);
@@ -99,7 +107,7 @@ export function SectionControls({ view, onChange, layerSets, derived, autoRange 
 
       <SelectField
         label="Interpolation"
-        fieldClassName="w-56"
+        fieldClassName="w-44"
         value={view.interpolation}
         onChange={(e) => onChange({ interpolation: e.target.value as SectionViewState['interpolation'] })}
       >
@@ -112,7 +120,7 @@ export function SectionControls({ view, onChange, layerSets, derived, autoRange 
 
       <SelectField
         label="Density frame shows"
-        fieldClassName="w-52"
+        fieldClassName="w-48"
         value={view.densityShows}
         onChange={(e) => onChange({ densityShows: e.target.value as SectionViewState['densityShows'] })}
       >
@@ -120,8 +128,98 @@ export function SectionControls({ view, onChange, layerSets, derived, autoRange 
         <option value="depth">Pressure of the isopycnals</option>
       </SelectField>
 
-      <ColourRange range={view.range} autoRange={autoRange} onChange={(range) => onChange({ range })} />
     </div>
+    <details className="group border-y border-paper-rule/70" open={figureOpen} onToggle={(e) => setFigureOpen(e.currentTarget.open)}>
+      <summary className="cursor-pointer py-1 text-sm text-ink-soft">
+        <span className="font-semibold text-ink-strong">Figure</span>{' '}
+        <span className="text-ink-muted">— palette, contours, axes, colour ranges: {figureSummary(view, autoPaletteLabel)}</span>
+      </summary>
+      <div className="flex flex-wrap items-start gap-x-3 gap-y-2 pb-2 pt-1">
+        <ColourRange range={view.range} autoRange={autoRange} onChange={(range) => onChange({ range })} />
+        {view.densityShows === 'property' && (
+          <ColourRange which="density" range={view.densityRange} autoRange={autoDensityRange} onChange={(densityRange) => onChange({ densityRange })} />
+        )}
+        <FigureControls view={view} onChange={onChange} autoPaletteLabel={autoPaletteLabel} />
+      </div>
+    </details>
+    </div>
+  );
+}
+
+/** The figure choices in a few words, for the closed figure options. */
+function figureSummary(view: SectionViewState, autoPaletteLabel?: string): string {
+  const palette = view.palette === 'auto' ? `${autoPaletteLabel ?? 'automatic'} (automatic)` : PALETTES[view.palette].label.split(' —')[0];
+  const contours = view.contours === 'auto' ? 'contours automatic' : view.contours === 'off' ? 'no contours' : `contours every ${view.contours}`;
+  const axes = `${view.yAxis}${view.stretch ? ' (upper 1000 dbar stretched)' : ''} by ${view.xAxis}`;
+  const ranges = view.range || view.densityRange ? 'a fixed colour range' : 'colour ranges automatic';
+  return `${palette}, ${contours}, ${axes}, ${ranges}`;
+}
+
+/** How the frames are drawn: palette, contours, axes. */
+function FigureControls({ view, onChange, autoPaletteLabel }: { view: SectionViewState; onChange: (patch: Partial<SectionViewState>) => void; autoPaletteLabel?: string }) {
+  const custom = typeof view.contours === 'number';
+  const [interval, setIntervalText] = useState(custom ? String(view.contours) : '');
+  useEffect(() => setIntervalText(typeof view.contours === 'number' ? String(view.contours) : ''), [view.contours]);
+  return (
+    <>
+      <SelectField label="Palette" fieldClassName="w-56" value={view.palette} onChange={(e) => onChange({ palette: e.target.value as SectionViewState['palette'] })}>
+        {PALETTE_CHOICES.map((p) => (
+          <option key={p} value={p}>
+            {p === 'auto' ? `Automatic${autoPaletteLabel ? ` (${autoPaletteLabel})` : ''}` : PALETTES[p].label}
+          </option>
+        ))}
+      </SelectField>
+      <div className="flex items-end gap-1">
+        <SelectField
+          label="Contours"
+          fieldClassName="w-32"
+          value={custom ? 'every' : String(view.contours)}
+          onChange={(e) => {
+            const v = e.target.value;
+            if (v === 'every') {
+              const n = Number(interval);
+              if (n > 0) onChange({ contours: n });
+              else setIntervalText('');
+            } else onChange({ contours: v as 'auto' | 'off' });
+          }}
+        >
+          <option value="auto">Automatic</option>
+          <option value="every">Every…</option>
+          <option value="off">None</option>
+        </SelectField>
+        <form
+          className="flex items-center gap-1"
+          onSubmit={(e) => {
+            e.preventDefault();
+            const n = Number(interval);
+            if (Number.isFinite(n) && n > 0) onChange({ contours: n });
+          }}
+        >
+          <input
+            aria-label="Contour interval"
+            inputMode="decimal"
+            placeholder="interval"
+            value={interval}
+            onChange={(e) => setIntervalText(e.target.value)}
+            className="h-9 w-20 rounded border border-paper-rule bg-paper-raised px-2 font-mono text-sm tabular-nums"
+          />
+          <Button type="submit" size="sm" aria-label="Use this contour interval">Use</Button>
+        </form>
+      </div>
+      <SelectField label="Vertical axis" fieldClassName="w-36" value={view.yAxis} onChange={(e) => onChange({ yAxis: e.target.value as SectionViewState['yAxis'] })}>
+        <option value="pressure">Pressure (dbar)</option>
+        <option value="depth">Depth (m)</option>
+      </SelectField>
+      <label className="mt-6 flex items-center gap-1.5 text-sm text-ink-soft">
+        <input type="checkbox" checked={view.stretch} onChange={(e) => onChange({ stretch: e.target.checked })} />
+        Stretch the upper 1000 dbar
+      </label>
+      <SelectField label="Horizontal axis" fieldClassName="w-40" value={view.xAxis} onChange={(e) => onChange({ xAxis: e.target.value as SectionViewState['xAxis'] })}>
+        <option value="distance">Distance (km)</option>
+        <option value="latitude">Latitude</option>
+        <option value="longitude">Longitude</option>
+      </SelectField>
+    </>
   );
 }
 
@@ -164,11 +262,15 @@ function ColourRange({
   range,
   autoRange,
   onChange,
+  which = 'pressure',
 }: {
   range: SectionViewState['range'];
   autoRange: { min: number; max: number } | null;
   onChange: (range: SectionViewState['range']) => void;
+  /** Which frame's range: the density frame's inputs and buttons say so in their names. */
+  which?: 'pressure' | 'density';
 }) {
+  const d = which === 'density';
   const [min, setMin] = useState(range ? String(range.min) : '');
   const [max, setMax] = useState(range ? String(range.max) : '');
   const [problem, setProblem] = useState<string | null>(null);
@@ -194,13 +296,13 @@ function ColourRange({
   const fmt = (v: number) => String(Number(v.toPrecision(4)));
 
   return (
-    <form onSubmit={apply} aria-label="Colour range" className="flex flex-col gap-1">
+    <form onSubmit={apply} aria-label={d ? 'Colour range by density' : 'Colour range'} className="flex flex-col gap-1">
       <span className="text-sm font-semibold text-ink-soft">
-        Colour range <span className="font-normal text-ink-muted">{range ? 'fixed' : 'automatic'}</span>
+        Colour range {d ? 'by density' : 'by pressure'} <span className="font-normal text-ink-muted">{range ? 'fixed' : 'automatic'}</span>
       </span>
       <div className="flex items-center gap-1.5">
         <input
-          aria-label="Colour range minimum"
+          aria-label={d ? 'Density colour range minimum' : 'Colour range minimum'}
           inputMode="decimal"
           value={min}
           placeholder={autoRange ? fmt(autoRange.min) : 'min'}
@@ -210,7 +312,7 @@ function ColourRange({
         />
         <span aria-hidden className="text-ink-muted">–</span>
         <input
-          aria-label="Colour range maximum"
+          aria-label={d ? 'Density colour range maximum' : 'Colour range maximum'}
           inputMode="decimal"
           value={max}
           placeholder={autoRange ? fmt(autoRange.max) : 'max'}
@@ -218,8 +320,8 @@ function ColourRange({
           aria-invalid={problem ? true : undefined}
           className="h-9 w-20 rounded border border-paper-rule bg-paper-raised px-2 font-mono text-sm tabular-nums"
         />
-        <Button type="submit" size="sm">Apply</Button>
-        <Button size="sm" variant="quiet" disabled={!range} onClick={() => { setProblem(null); onChange(null); }}>
+        <Button type="submit" size="sm" aria-label={d ? 'Apply the density range' : undefined}>Apply</Button>
+        <Button size="sm" variant="quiet" disabled={!range} aria-label={d ? 'Automatic density range' : undefined} onClick={() => { setProblem(null); onChange(null); }}>
           Auto
         </Button>
       </div>

@@ -1,20 +1,37 @@
 import { useMemo, useRef } from 'react';
-import type { Data, Layout, PlotMouseEvent, Shape } from 'plotly.js';
+import type { Annotations, Data, Layout, PlotMouseEvent, Shape } from 'plotly.js';
 import {
-  DEPTHS,
+  BRINE,
   LazyPlot,
   PLOT_COLORS,
   baseLayout,
   colorBar,
   densityAxis,
   plotConfig,
-  pressureAxis,
   sigmaLabel,
   toPlotly,
   valueAxis,
+  type ColorScale,
 } from '../../../components/plot';
-import { nearestStation } from '../frame';
+import { xScale as makeXScale, type XScale, type YScale } from '../axes';
+import { nearestStation, placeLineLabels } from '../frame';
 import type { Section } from '../types';
+import { FramePreview } from './FramePreview';
+
+/** How a frame is drawn beyond its data: palette, contours, axes, colour-range extensions. */
+export interface FrameLook {
+  palette: ColorScale;
+  /** Interval of the property's own contours; null draws none. */
+  contourStep: number | null;
+  /** The vertical scale of the pressure frame (depth, stretch); null is plain pressure. */
+  yScale: YScale | null;
+  /** The horizontal scale; null is distance along the track. */
+  xScale: XScale | null;
+  /** Cells below and above a fixed colour range (drawn in the end colours, marked on the bar). */
+  extensions: { below: number; above: number };
+}
+
+export const PLAIN_LOOK: FrameLook = { palette: BRINE, contourStep: null, yScale: null, xScale: null, extensions: { below: 0, above: 0 } };
 
 /** The bottom is drawn in a dark neutral, so it reads as "no water" and never as a value. */
 export const BOTTOM_FILL = '#3d3b36';
@@ -39,10 +56,14 @@ export interface SectionFrameProps {
   onPickInversion: (castId: string) => void;
   /** Called each time Plotly has drawn the frame. */
   onDrawn?: () => void;
+  look?: FrameLook;
+  /** The file name (without extension) the modebar's "save as image" writes. */
+  fileName?: string;
 }
 
 /** One config for every frame: react-plotly redraws whenever the config object changes. */
 const FRAME_CONFIG = plotConfig();
+const configFor = (fileName: string | undefined) => (fileName ? plotConfig({ toImageButtonOptions: { format: 'png', scale: 2, filename: fileName } }) : FRAME_CONFIG);
 
 /** Stretches of consecutive bottom points whose bottom is known (land is drawn only there). */
 export function knownBottomRuns<T extends { known: boolean }>(b: T[]): T[][] {
@@ -57,23 +78,27 @@ export function knownBottomRuns<T extends { known: boolean }>(b: T[]): T[][] {
 }
 
 /** One frame of the section: the field, isopycnals (pressure frame), the bottom, stations and inversion marks. */
-export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion, onDrawn }: SectionFrameProps) {
-  // The traces depend on the data and the colour range only; the station cursor changes the layout
-  // (a dotted line, a bold tick label), which Plotly redraws without recomputing the field.
-  const data = useMemo(() => buildTraces(section, coord, valueTitle, range), [section, coord, valueTitle, range]);
-  const layout = useMemo(() => buildLayout(section, coord, cursorStationId), [section, coord, cursorStationId]);
+export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion, onDrawn, look = PLAIN_LOOK, fileName }: SectionFrameProps) {
+  // The traces depend on the data, the colour range and the look; the station cursor changes the
+  // layout (a dotted line, a bold tick label), which Plotly redraws without recomputing the field.
+  const data = useMemo(() => buildTraces(section, coord, valueTitle, range, look), [section, coord, valueTitle, range, look]);
+  const layout = useMemo(() => buildLayout(section, coord, cursorStationId, look), [section, coord, cursorStationId, look]);
+  const config = useMemo(() => configFor(fileName), [fileName]);
   const title = coord === 'pressure' ? 'Section by pressure' : `Section by density (${sigmaLabel(section.choices.ref)})`;
 
   // react-plotly binds event handlers only when it redraws; stable handlers that read the newest
   // props keep a click from acting on the props of an older render.
-  const latest = useRef({ section, coord, onHover, onPickStation, onPickInversion });
-  latest.current = { section, coord, onHover, onPickStation, onPickInversion };
+  const latest = useRef({ section, coord, onHover, onPickStation, onPickInversion, look });
+  latest.current = { section, coord, onHover, onPickStation, onPickInversion, look };
   const handlers = useMemo(
     () => ({
       hover(event: PlotMouseEvent) {
         const point = event.points?.[0];
-        const { coord: c, onHover: report } = latest.current;
-        if (point && Number.isFinite(Number(point.x)) && Number.isFinite(Number(point.y))) report({ coord: c, x: Number(point.x), y: Number(point.y) });
+        const { coord: c, onHover: report, look: l } = latest.current;
+        if (!point || !Number.isFinite(Number(point.x)) || !Number.isFinite(Number(point.y))) return;
+        // The plotted y of a stretched axis is not a pressure: map it back.
+        const y = c === 'pressure' && l.yScale ? l.yScale.fromAxis(Number(point.y)) : Number(point.y);
+        report({ coord: c, x: Number(point.x), y });
       },
       click(event: PlotMouseEvent) {
         const point = event.points?.[0];
@@ -97,8 +122,10 @@ export function SectionFrame({ section, coord, valueTitle, range, cursorStationI
       height={height}
       data={data}
       layout={layout}
-      config={FRAME_CONFIG}
+      config={config}
       caption={caption}
+      figureProps={{ 'data-frame': coord }}
+      preview={(drawn) => <FramePreview figure={data} layout={layout} height={height} onDrawn={drawn} />}
       onHover={handlers.hover}
       onClick={handlers.click}
       onAfterPlot={onDrawn}
@@ -113,8 +140,9 @@ export function buildFigure(
   valueTitle: string,
   range: { min: number; max: number } | null,
   cursorStationId: string | null,
+  look: FrameLook = PLAIN_LOOK,
 ): { data: Data[]; layout: Partial<Layout> } {
-  return { data: buildTraces(section, coord, valueTitle, range), layout: buildLayout(section, coord, cursorStationId) };
+  return { data: buildTraces(section, coord, valueTitle, range, look), layout: buildLayout(section, coord, cursorStationId, look) };
 }
 
 /**
@@ -136,29 +164,60 @@ export function buildTraces(
   coord: 'pressure' | 'density',
   valueTitle: string,
   range: { min: number; max: number } | null,
+  look: FrameLook = PLAIN_LOOK,
 ): Data[] {
   const { grid, stations } = section;
   const data: Data[] = [];
   const yMax = frameYMax(section);
   const yMin = grid.y[0] ?? 0;
+  // The plotted y: pressure through the frame's vertical scale (depth ticks, stretch), σ as it is.
+  const Y = coord === 'pressure' && look.yScale ? look.yScale.toAxis : (v: number) => v;
+  const Yn = (v: number | null) => (v === null ? null : Y(v));
+  const gridY = grid.y.map(Y);
 
   data.push({
     type: 'heatmap',
     name: 'field',
     x: grid.x,
-    y: grid.y,
+    y: gridY,
     z: grid.z as number[][],
     // Cells as they are: no smoothing pass over ~100 000 cells, and a bin reads as a bin.
     zsmooth: false,
-    colorscale: toPlotly(DEPTHS),
+    colorscale: toPlotly(look.palette),
     zmin: range?.min,
     zmax: range?.max,
     zauto: !range,
     hoverinfo: 'none',
     // Placed in the fixed right margin (see FRAME_MARGIN), so it pushes no margin and costs no redraw.
-    colorbar: { ...colorBar(valueTitle), x: 1, xanchor: 'left', xpad: 10 } as Data['colorbar' & keyof Data],
+    // Its ends are fixed (y 0.1–0.9, no padding) so the extension marks can sit on them.
+    colorbar: { ...colorBar(valueTitle), x: 1, xanchor: 'left', xpad: 10, y: 0.5, yanchor: 'middle', len: 0.8, ypad: 0 } as Data['colorbar' & keyof Data],
     hoverongaps: true,
   } as Data);
+
+  // The property's own contours, labelled along the lines by the library.
+  const step = look.contourStep;
+  if (step && step > 0) {
+    let lo = Infinity, hi = -Infinity;
+    for (const row of grid.z) for (const v of row) if (v !== null && Number.isFinite(v)) { if (v < lo) lo = v; if (v > hi) hi = v; }
+    if (Number.isFinite(lo) && (hi - lo) / step <= 200) {
+      const digits = Math.max(0, Math.min(4, -Math.floor(Math.log10(step) + 1e-9) + (String(step).includes('5') && step < 1 ? 1 : 0)));
+      data.push({
+        type: 'contour',
+        name: 'contours',
+        x: grid.x,
+        y: gridY,
+        z: grid.z as number[][],
+        contours: {
+          coloring: 'none', showlabels: true, start: Math.ceil(lo / step) * step, end: Math.floor(hi / step) * step, size: step,
+          labelfont: { family: '"JetBrains Mono", monospace', size: 9, color: PLOT_COLORS.inkStrong }, labelformat: `.${digits}f`,
+        },
+        line: { color: PLOT_COLORS.inkStrong, width: 0.6, dash: 'dot', smoothing: 0.6 },
+        connectgaps: false,
+        hoverinfo: 'skip',
+        showscale: false,
+      } as Data);
+    }
+  }
 
   if (coord === 'pressure') {
     // Isopycnals as the server traced them (σ level → pressure at each station): lines, not a
@@ -167,7 +226,7 @@ export function buildTraces(
     const xs: (number | null)[] = [], ys: (number | null)[] = [];
     for (const line of section.isopycnals) {
       if (xs.length) { xs.push(null); ys.push(null); }
-      stations.forEach((s, i) => { xs.push(s.x); ys.push(line.p[i] ?? null); });
+      stations.forEach((s, i) => { xs.push(s.x); ys.push(Yn(line.p[i] ?? null)); });
     }
     if (xs.length) {
       data.push({
@@ -182,33 +241,6 @@ export function buildTraces(
         connectgaps: false,
       });
     }
-    // Labels at the right end of each isopycnal, where it still has water.
-    const ends = section.isopycnals.flatMap((line) => {
-      for (let i = line.p.length - 1; i >= 0; i--) {
-        const p = line.p[i];
-        if (p !== null && stations[i]) return [{ x: stations[i].x, y: p, text: line.sigma.toFixed(2) }];
-      }
-      return [];
-    });
-    // Near the surface the isopycnals crowd together: keep a label only where it has room.
-    const room = (yMax - yMin) * 0.035;
-    const labels: typeof ends = [];
-    for (const l of [...ends].sort((a, b) => b.y - a.y)) {
-      if (!labels.some((k) => Math.abs(k.y - l.y) < room && Math.abs(k.x - l.x) < 1e-6)) labels.push(l);
-    }
-    if (labels.length) {
-      data.push({
-        type: 'scatter',
-        mode: 'text',
-        name: 'isopycnal labels',
-        x: labels.map((l) => l.x),
-        y: labels.map((l) => l.y),
-        text: labels.map((l) => l.text),
-        textposition: 'middle left',
-        textfont: { family: '"JetBrains Mono", monospace', size: 9.5, color: PLOT_COLORS.inkStrong },
-        hoverinfo: 'none',
-      });
-    }
     if (section.bottom.length) {
       const b = [...section.bottom].sort((a, c) => a.x - c.x);
       // Land only where a bottom is known: one filled run per stretch of stations with a known bottom.
@@ -220,7 +252,7 @@ export function buildTraces(
           mode: 'lines',
           name: 'bottom',
           x: [...pts.map((q) => q.x), pts[pts.length - 1].x, pts[0].x],
-          y: [...pts.map((q) => q.p), yMax * 1.02, yMax * 1.02],
+          y: [...pts.map((q) => Y(q.p)), Y(yMax * 1.02), Y(yMax * 1.02)],
           fill: 'toself',
           fillcolor: BOTTOM_FILL,
           line: { color: BOTTOM_FILL, width: 1 },
@@ -235,7 +267,7 @@ export function buildTraces(
           mode: 'lines',
           name: 'no data below the cast',
           x: open.flatMap((q) => [q.x, q.x, null]),
-          y: open.flatMap((q) => [q.p, yMax * 1.02, null]),
+          y: open.flatMap((q) => [Y(q.p), Y(yMax * 1.02), null]),
           line: { color: BOTTOM_FILL, width: 1, dash: 'dot' },
           hovertemplate: 'no data below the cast (bottom depth not known)<extra></extra>',
         });
@@ -253,7 +285,7 @@ export function buildTraces(
       // Spikes are a few decibars: give the bar a visible length without moving its top.
       const bottom = Math.max(m.bottom as number, (m.top as number) + (coord === 'pressure' ? (yMax - yMin) * 0.012 : 0.004));
       xs.push(m.v.x, m.v.x, null);
-      ys.push(m.top, bottom, null);
+      ys.push(coord === 'pressure' ? Y(m.top as number) : m.top, coord === 'pressure' ? Y(bottom) : bottom, null);
       ids.push(m.v.castId, m.v.castId, null);
     }
     data.push({
@@ -270,7 +302,7 @@ export function buildTraces(
       mode: 'markers',
       name: 'inversions',
       x: marks.map((m) => m.v.x),
-      y: marks.map((m) => m.top as number),
+      y: marks.map((m) => (coord === 'pressure' ? Y(m.top as number) : (m.top as number))),
       customdata: marks.map((m) => m.v.castId) as unknown as Data['customdata' & keyof Data],
       marker: { symbol: 'triangle-down', size: 10, color: PLOT_COLORS.warn, line: { color: PLOT_COLORS.paper, width: 1 } },
       hovertemplate: marks.map(
@@ -286,7 +318,7 @@ export function buildTraces(
     mode: 'markers',
     name: 'stations',
     x: stations.map((s) => s.x),
-    y: stations.map(() => yMin),
+    y: stations.map(() => Y(yMin)),
     xaxis: 'x2',
     marker: { size: 1, color: 'rgba(0,0,0,0)' },
     hoverinfo: 'skip',
@@ -294,10 +326,12 @@ export function buildTraces(
   return data;
 }
 
-export function buildLayout(section: Section, coord: 'pressure' | 'density', cursorStationId: string | null): Partial<Layout> {
+export function buildLayout(section: Section, coord: 'pressure' | 'density', cursorStationId: string | null, look: FrameLook = PLAIN_LOOK): Partial<Layout> {
   const { grid, stations } = section;
   const yMax = frameYMax(section);
   const yMin = grid.y[0] ?? 0;
+  const ys = coord === 'pressure' ? look.yScale : null;
+  const Y = ys ? ys.toAxis : (v: number) => v;
   const cursor = stations.find((s) => s.id === cursorStationId);
   const shapes: Partial<Shape>[] = [];
   if (cursor) {
@@ -316,12 +350,17 @@ export function buildLayout(section: Section, coord: 'pressure' | 'density', cur
   const wet = grid.z.map((row) => row.some((v) => v !== null));
   const firstWet = wet.indexOf(true), lastWet = wet.lastIndexOf(true);
   const sigmaSpan = firstWet >= 0 ? [grid.y[Math.max(0, firstWet - 1)], grid.y[Math.min(grid.y.length - 1, lastWet + 1)]] : null;
+  const yTicks = ys?.ticks ? { tickmode: 'array' as const, tickvals: ys.ticks.vals, ticktext: ys.ticks.text } : {};
   const yAxis = coord === 'pressure'
-    ? pressureAxis({ autorange: false, range: [yMax * 1.02, yMin], automargin: false })
+    ? valueAxis(ys?.title ?? 'Pressure (dbar)', { autorange: false, range: [Y(yMax * 1.02), Y(yMin)], automargin: false, ...yTicks })
     : densityAxis(section.choices.ref, sigmaSpan ? { autorange: false, range: [sigmaSpan[1], sigmaSpan[0]], automargin: false } : { autorange: 'reversed', automargin: false });
+  const xs = look.xScale ?? makeXScale('distance', stations);
+  const xTicks = xs.ticks ? { tickmode: 'array' as const, tickvals: xs.ticks.vals, ticktext: xs.ticks.text } : {};
+  shapes.push(...extensionMarks(look));
   const layout = baseLayout({
     margin: FRAME_MARGIN,
-    xaxis: valueAxis('Distance along the track (km)', { range: [grid.x[0], grid.x[grid.x.length - 1]], automargin: false }),
+    annotations: coord === 'pressure' ? isopycnalLabels(section, Y, [Y(yMin), Y(yMax)]) : [],
+    xaxis: valueAxis(xs.title, { range: [grid.x[0], grid.x[grid.x.length - 1]], automargin: false, ...xTicks }),
     xaxis2: {
       overlaying: 'x',
       side: 'top',
@@ -341,4 +380,34 @@ export function buildLayout(section: Section, coord: 'pressure' | 'density', cur
     shapes,
   } as Partial<Layout>);
   return layout;
+}
+
+/** Isopycnal labels placed along their lines (see placeLineLabels), on a paper-coloured chip. */
+function isopycnalLabels(section: Section, Y: (p: number) => number, ySpan: [number, number]): Partial<Annotations>[] {
+  const xs = section.stations.map((s) => s.x);
+  const lines = section.isopycnals.map((l) => ({ xs, ys: l.p.map((p) => (p === null ? null : Y(p))), text: l.sigma.toFixed(2) }));
+  const xSpan: [number, number] = [section.grid.x[0] ?? 0, section.grid.x[section.grid.x.length - 1] ?? 1];
+  return placeLineLabels(lines, xSpan, ySpan).map((l) => ({
+    x: l.x, y: l.y, text: l.text, showarrow: false, xref: 'x', yref: 'y',
+    font: { family: '"JetBrains Mono", monospace', size: 9, color: PLOT_COLORS.inkStrong },
+    bgcolor: 'rgba(252, 250, 245, 0.8)', borderpad: 1,
+  }));
+}
+
+/**
+ * Triangles on the colour bar's ends where a fixed range leaves values out: the cells beyond
+ * are drawn in the end colour, and the triangle (in that colour) says the scale extends.
+ * The bar spans y 0.1–0.9 of the plot (see the heatmap's colorbar) and x 10–22 px right of it.
+ */
+function extensionMarks(look: FrameLook): Partial<Shape>[] {
+  const out: Partial<Shape>[] = [];
+  const end = (t: 0 | 1) => look.palette[t === 0 ? 0 : look.palette.length - 1][1];
+  const tri = (y: number, up: boolean, colour: string): Partial<Shape> => ({
+    type: 'path', xref: 'paper', yref: 'paper', xsizemode: 'pixel', ysizemode: 'pixel', xanchor: 1, yanchor: y,
+    path: up ? 'M 10 1 L 22 1 L 16 13 Z' : 'M 10 -1 L 22 -1 L 16 -13 Z',
+    fillcolor: colour, line: { color: PLOT_COLORS.inkSoft, width: 0.6 }, name: up ? 'extension above' : 'extension below',
+  } as Partial<Shape>);
+  if (look.extensions.above > 0) out.push(tri(0.9, true, end(1)));
+  if (look.extensions.below > 0) out.push(tri(0.1, false, end(0)));
+  return out;
 }

@@ -21,8 +21,8 @@ export interface TsPanelProps {
 
 /** CT against SA for every cast, over σ contours at the view's reference pressure computed here. */
 export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onColourBy, onSelectCast, height = 420, line = null }: TsPanelProps) {
-  // SVG points (the Plotly bundle we ship is the cartesian one, without WebGL traces, which our
-  // Content-Security-Policy would forbid anyway): every 16th level keeps it quick.
+  // SVG points, not WebGL (a headless or GPU-less browser has no WebGL, and SVG exports as a
+  // vector figure): every 16th level keeps it quick.
   const every = 16;
   const ts = useTsPoints(cruiseId, every, line);
   const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, 'scatter') : null), [ts.data, refPressure, colourBy, selectedCastId]);
