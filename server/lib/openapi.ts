@@ -4,14 +4,19 @@ import type { RouteSpec } from './routeTable';
 const RULE_TEXT = (r: RouteSpec['rule']) =>
   r.kind === 'member' ? `member of the cruise${r.roles === 'any' ? '' : ` with role ${r.roles.join(' or ')}`}` : r.kind === 'admin' ? 'site admin' : r.kind === 'signed_in' ? 'signed in' : 'anyone';
 
+/** The status of a route's success answer: 201 for a creating POST that declares it, else 200. */
+const okStatus = (r: RouteSpec) => (r.responses && Object.keys(r.responses).find((c) => c.startsWith('2'))) ?? '200';
+
 /** The OpenAPI 3 document, built from the route table so it cannot drift from the routes. */
 export function openApiDocument(routes: RouteSpec[], version: string) {
   const paths: Record<string, Record<string, unknown>> = {};
   for (const r of routes) {
     const path = '/api' + r.path.replace(/:(\w+)/g, '{$1}');
     const params = [...r.path.matchAll(/:(\w+)/g)].map((m) => ({ name: m[1], in: 'path', required: true, schema: { type: 'string' } }));
-    const responses: Record<string, { description: string }> = { 200: { description: 'success' } };
-    for (const [code, text] of Object.entries(r.responses ?? {})) responses[code] = { description: text };
+    const ok: { description: string; content?: object } = { description: 'success' };
+    if (r.response) ok.content = { 'application/json': { schema: z.toJSONSchema(r.response, { unrepresentable: 'any', io: 'output' }) } };
+    const responses: Record<string, { description: string; content?: object }> = { [okStatus(r)]: ok };
+    for (const [code, text] of Object.entries(r.responses ?? {})) responses[code] = { ...responses[code], description: text };
     if (r.rule.kind !== 'public') responses[401] = { description: 'not signed in' };
     if (r.rule.kind === 'member' || r.rule.kind === 'admin') responses[403] = { description: 'signed in without the role' };
     if (r.rule.kind === 'member') responses[404] = { description: 'not a member of the cruise (its existence is not revealed)' };

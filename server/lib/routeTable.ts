@@ -34,22 +34,27 @@ export type Rule =
   /** a member of the cruise that the route's resource belongs to, with one of the roles (or any role) */
   | { kind: 'member'; roles: Role[] | 'any'; cruise: (req: Request) => Promise<string | null> };
 
-export type RouteSpec = {
+/**
+ * One route: its method and path, the rule that guards it, the zod schemas of its body and query (the
+ * handler receives them parsed and typed) and, where declared, of its answer (OpenAPI carries it and the
+ * API tests check answers against it).
+ */
+export type RouteSpec<B extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType> = {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
   path: string; // express path under /api, e.g. /cruises/:id
   summary: string;
   rule: Rule;
-  body?: z.ZodType;
-  query?: z.ZodType;
+  body?: B;
+  query?: Q;
+  /** the schema of a 2xx JSON answer */
+  response?: z.ZodType;
   responses?: Record<number, string>;
   /** extra middleware run after the rule and before the body is parsed (e.g. multer) */
   before?: RequestHandler[];
-  handler: (req: Request, res: Response, ctx: RouteContext) => Promise<unknown> | unknown;
+  handler: (req: Request, res: Response, ctx: RouteContext<z.output<B>, z.output<Q>>) => Promise<unknown> | unknown;
 };
 
-export type RouteContext = { cruiseId: string | null; role: Role | null; body: unknown; query: unknown };
-
-export const ROUTES: RouteSpec[] = [];
+export type RouteContext<B = unknown, Q = unknown> = { cruiseId: string | null; role: Role | null; body: B; query: Q };
 
 export const byParam = (name = 'id') => async (req: Request) => {
   const v = req.params[name];
@@ -73,9 +78,9 @@ async function check(rule: Rule, req: Request): Promise<{ cruiseId: string | nul
   return { cruiseId, role: m.role };
 }
 
-export function defineRoute(spec: RouteSpec) {
-  ROUTES.push(spec);
-  return spec;
+/** Declares a route; `ctx.body` and `ctx.query` are typed from the route's own schemas. */
+export function defineRoute<B extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType>(spec: RouteSpec<B, Q>): RouteSpec {
+  return spec as unknown as RouteSpec;
 }
 
 export function mountRoutes(router: Router, specs: RouteSpec[]) {

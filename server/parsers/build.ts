@@ -25,7 +25,7 @@ export type RawTable = {
 
 const MAX_ERRORS = 25;
 
-/** Physical limits used to refuse absurd values (science.md §1 quantities). */
+/** Physical limits used to refuse absurd values (docs/science.md §1 quantities). */
 const LIMITS: Partial<Record<ColumnRole, { min: number; max: number; code: string; what: string }>> = {
   pressure: { min: -5, max: 12000, code: 'pressure_out_of_range', what: 'pressure (dbar) must lie in -5..12000' },
   depth: { min: -5, max: 12000, code: 'depth_out_of_range', what: 'depth (m) must lie in -5..12000' },

@@ -171,7 +171,7 @@ function resolveClean(role: ColumnRole | 'extra', t: string, col: string, unitTe
   }
 }
 
-/** t90 from t68 (IPTS-68 to ITS-90), the relation science.md gives. */
+/** t90 from t68 (IPTS-68 to ITS-90), the relation in docs/science.md §1. */
 export function t90_from_t68(t68: number): number {
   return t68 / 1.00024;
 }

@@ -7,5 +7,6 @@ import { castRoutes } from './casts';
 import { sectionRoutes } from './sections';
 import { analysisRoutes } from './analysis';
 import { deliveryRoutes } from './deliveries';
+import { settingsRoutes } from './settings';
 
-export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes];
+export const extraRouteFactories: ((deps: AppDeps) => RouteSpec[])[] = [uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes];

@@ -1,5 +1,5 @@
 /**
- * Binning of a cast to pressure levels (science.md §4): the mean of the samples within bins of a
+ * Binning of a cast to pressure levels (docs/science.md §4): the mean of the samples within bins of a
  * chosen size, with the number of samples kept. Bin k is centred on k·binSize dbar and covers
  * [(k − ½)·binSize, (k + ½)·binSize), the usual layout of a bin-averaged CTD file (2, 4, 6 … dbar
  * for 2-dbar bins); bins run from the one holding pMin (default the shallowest sample, floor 0)

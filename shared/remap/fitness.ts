@@ -1,5 +1,5 @@
 /**
- * Fitness of a variable as the vertical coordinate of a cast (science.md §3.2): a variable can
+ * Fitness of a variable as the vertical coordinate of a cast (docs/science.md §3.2): a variable can
  * serve only where it is single-valued and strictly monotonic in pressure. The profile is taken
  * as piecewise linear between levels; shares are fractions of the pressure span.
  */

@@ -1,6 +1,6 @@
 /**
  * Density inversions of a cast: pressure intervals where σ decreases with pressure by more than a
- * threshold (science.md §3.1). Common practice treats smaller ones (default 0.01 kg/m³) as noise.
+ * threshold (docs/science.md §3.1). Common practice treats smaller ones (default 0.01 kg/m³) as noise.
  *
  * Definition used here (one downward scan, O(n)):
  * - M is the running maximum of σ above the current level, held at level kM (the heavy parcel).

@@ -1,6 +1,6 @@
 /**
  * Layer sets: the target isopycnal levels of a remap, one reference pressure per set
- * (science.md §3.3). Written `start:step:end` (end included when it falls on a step) or as a
+ * (docs/science.md §3.3). Written `start:step:end` (end included when it falls on a step) or as a
  * comma list; validated with zod where they enter from HTTP or a saved set.
  */
 import { z } from 'zod';

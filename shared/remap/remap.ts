@@ -1,5 +1,5 @@
 /**
- * Remap a cast onto target isopycnals (science.md §3.3): per target σ level the pressure, depth,
+ * Remap a cast onto target isopycnals (docs/science.md §3.3): per target σ level the pressure, depth,
  * every property, the layer thickness, the crossing count and flags.
  *
  * Inversion handling (recorded by the caller in every export):

@@ -1,5 +1,5 @@
 /**
- * Along-track distance of a section's casts (science.md §4): by great circle on a sphere of the
+ * Along-track distance of a section's casts (docs/science.md §4): by great circle on a sphere of the
  * WGS-84 mean radius (6371.0088 km, enough for section plots), summed leg by leg from the first
  * cast, or as the projection of each cast on a great circle the analyst draws, measured from the
  * first cast's projection.

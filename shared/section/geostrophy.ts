@@ -1,6 +1,6 @@
 /**
  * Geostrophic velocity between adjacent casts of a section and transport per isopycnal layer
- * (science.md §4). Dynamic height anomaly and the pair velocity come from the seawater core
+ * (docs/science.md §4). Dynamic height anomaly and the pair velocity come from the seawater core
  * (TEOS-10 Manual §3.27: v = (D_b − D_a)/(f L), f = 2Ω sin φ at the mid latitude, L the
  * great-circle distance), positive 90° to the left of the direction from cast a to cast b
  * (looking along the section from its first cast towards its last, positive is to the left:

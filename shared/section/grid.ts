@@ -1,5 +1,5 @@
 /**
- * Section grids (science.md §4): a property on pressure × distance and on σ × distance.
+ * Section grids (docs/science.md §4): a property on pressure × distance and on σ × distance.
  *
  * - Casts are ordered by along-track distance (distance.ts).
  * - Columns: at every cast, and on a regular distance grid between them.

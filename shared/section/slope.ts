@@ -1,5 +1,5 @@
 /**
- * Isopycnal slope and gradients along isopycnals and along levels (science.md §3.4).
+ * Isopycnal slope and gradients along isopycnals and along levels (docs/science.md §3.4).
  *
  * Grids are typed rows: data[iy·nx + ix], NaN empty, x in km (converted to metres here).
  * Derivatives are second-order finite differences: the three-point formula for unequal spacing
@@ -88,7 +88,7 @@ export interface AlongIsopycnalGradient {
 }
 
 /**
- * Along-isopycnal gradient of φ by the coordinate transform of science.md §3.4.
+ * Along-isopycnal gradient of φ by the coordinate transform of docs/science.md §3.4.
  * x km (shared by both grids); levelDepth m (positive down, ascending) rows of the level grid
  * phiOnLevels; depthOfSigma the depth (m) of each of nSigma isopycnals per column. The
  * along-level and vertical gradients are taken on the level grid and read, linearly in depth, at

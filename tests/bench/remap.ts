@@ -10,6 +10,7 @@
  * figure here is a correctness check.
  */
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from '../reference/python';
 import { remapToIsopycnals } from '../../shared/remap';
 import { buildDensitySection, buildPressureSection, type SectionCast } from '../../shared/section';
 import type { BenchResult } from './modules';
@@ -115,7 +116,7 @@ function numpyMs(casts: SectionCast[], targets: Float64Array, runs: number, scri
     targets: Array.from(targets), runs,
     casts: casts.map((c) => ({ p: Array.from(c.p), sigma: Array.from(c.sigma), CT: Array.from(c.props.CT), SA: Array.from(c.props.SA) })),
   });
-  return (JSON.parse(execFileSync('/usr/bin/python3', ['-c', script], { input, maxBuffer: 1 << 26 }).toString()) as { ms: number }).ms;
+  return (JSON.parse(execFileSync(GSW_PYTHON, ['-c', script], { input, maxBuffer: 1 << 26 }).toString()) as { ms: number }).ms;
 }
 
 export async function bench(): Promise<BenchResult[]> {

@@ -6,6 +6,7 @@
 // counts), so that load from other work on the machine falls on both alike.
 
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from '../reference/python';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -68,7 +69,7 @@ export function benchThermo(n: number, rounds = 3): BenchRow[] {
     for (let r = 0; r < rounds; r++) {
       best.oursSA = Math.min(best.oursSA, bestOf3(() => SA_from_SP_batch(SP, p, lon, lat, outSA)));
       best.oursCT = Math.min(best.oursCT, bestOf3(() => CT_from_t_batch(SA, t, p, outCT)));
-      const ref = JSON.parse(execFileSync('/usr/bin/python3', ['-c', PYTHON, dir], { encoding: 'utf8' })) as Record<string, number>;
+      const ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON, dir], { encoding: 'utf8' })) as Record<string, number>;
       best.refSA = Math.min(best.refSA, ref.SA_from_SP);
       best.refCT = Math.min(best.refCT, ref.CT_from_t);
     }

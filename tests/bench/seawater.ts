@@ -4,6 +4,7 @@
 // five runs after warm-up, so start-up and the transfer of the points count for neither.
 
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from '../reference/python';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -67,7 +68,7 @@ export function benchSeawater(n: number): SeawaterBenchRow[] {
   try {
     writeFileSync(join(dir, 'SA.f64'), new Uint8Array(SA.buffer));
     writeFileSync(join(dir, 'CT.f64'), new Uint8Array(CT.buffer));
-    const ref = JSON.parse(execFileSync('/usr/bin/python3', ['-c', PYTHON, dir], { encoding: 'utf8' })) as { sigma0: number; sigma2: number };
+    const ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON, dir], { encoding: 'utf8' })) as { sigma0: number; sigma2: number };
     return [
       { name: 'sigma0', oursMs: ours0, refMs: ref.sigma0 },
       { name: 'sigma2', oursMs: ours2, refMs: ref.sigma2 },

@@ -8,6 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from './python';
 import { sigma_batch } from '../../shared/seawater/density';
 import { remapToIsopycnals } from '../../shared/remap';
 
@@ -46,7 +47,7 @@ const targets: Record<string, number[]> = { '0': range(23.0, 0.05, 100), '2000':
 
 interface PyCast { p: number[]; SA: number[]; CT: number[]; [k: string]: (number | null)[] }
 const casts = JSON.parse(
-  execFileSync('/usr/bin/python3', ['-c', PY], { input: JSON.stringify({ seed: 20260305, n: 24, targets }), maxBuffer: 1 << 28 }).toString(),
+  execFileSync(GSW_PYTHON, ['-c', PY], { input: JSON.stringify({ seed: 20260305, n: 24, targets }), maxBuffer: 1 << 28 }).toString(),
 ) as PyCast[];
 
 /** Python's σ column linearly interpolated at pressure q (the test's own evaluation step). */

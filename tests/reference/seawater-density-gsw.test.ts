@@ -1,7 +1,7 @@
 /**
  * Live randomised cross-check of the density half of the seawater core against the reference
  * library itself. source: python3-gsw live reference (Debian python3-gsw 3.6.16, run through
- * /usr/bin/python3 in one batch call). Targets from science.md §5: |Δσ| ≤ 1e-8 kg/m³,
+ * /usr/bin/python3 in one batch call). Targets from docs/science.md §5: |Δσ| ≤ 1e-8 kg/m³,
  * |ΔN²| ≤ 1e-12 s⁻², |ΔD| ≤ 1e-6 m²/s²; rho, alpha, beta, specvol, z_from_p, grav, enthalpy and
  * spiciness0 are held to the same kind of bound (stated beside each).
  *
@@ -12,6 +12,7 @@
  * pressures at the surface, on a level, between levels and above the first level.
  */
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from './python';
 import { afterAll, describe, expect, it } from 'vitest';
 import { alpha, beta, enthalpy, rho, sigma_batch, sigma0, sigma1, sigma2, sigma3, sigma4, specvol } from '../../shared/seawater/density';
 import { grav, p_from_z, z_from_p } from '../../shared/seawater/depth';
@@ -103,7 +104,7 @@ interface Ref {
   pairs: (number | null)[][];
 }
 const ref = JSON.parse(
-  execFileSync('/usr/bin/python3', ['-c', PY], {
+  execFileSync(GSW_PYTHON, ['-c', PY], {
     input: JSON.stringify({
       points: pts,
       casts,
@@ -130,7 +131,7 @@ function worstPointwise(ours: (k: number) => number, expected: number[]): number
 
 describe('density half vs python3-gsw live reference (12 000 random ocean points, 160 casts)', () => {
   const { SA, CT, p, lat } = pts;
-  it('sigma0 … sigma4 within 1e-8 kg/m³ (science.md §5), scalar and batch', () => {
+  it('sigma0 … sigma4 within 1e-8 kg/m³ (docs/science.md §5), scalar and batch', () => {
     const fns = [sigma0, sigma1, sigma2, sigma3, sigma4];
     fns.forEach((fn, r) => {
       expect(note('sigma', worstPointwise((k) => fn(SA[k], CT[k]), refCol(`sigma${r}`))), `sigma${r}`).toBeLessThanOrEqual(1e-8);

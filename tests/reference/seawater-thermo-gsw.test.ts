@@ -1,9 +1,10 @@
 // Randomised cross-check of the thermodynamic seawater functions against the TEOS-10 reference
 // library itself. Source: python3-gsw live reference — Debian package python3-gsw 3.6.16, run
-// by /usr/bin/python3 in one batch call on the same points. Targets from science.md §5:
+// by /usr/bin/python3 in one batch call on the same points. Targets from docs/science.md §5:
 // |ΔSA| ≤ 5·10⁻⁴ g/kg at ocean points, |ΔCT| ≤ 10⁻⁸ °C (and the same for the other
 // temperatures), over SP 2–42, t −2–35 °C, p 0–6500 dbar.
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from './python';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
   CT_from_pt, CT_from_t_batch, pt0_from_t_batch, pt_from_CT_batch, pt_from_t_batch, t_from_CT_batch,
@@ -56,7 +57,7 @@ function maxAbsDiff(ours: ArrayLike<number>, theirs: number[]): number {
 
 beforeAll(() => {
   const input = JSON.stringify({ SP: [...SP], t: [...t], p: [...p], lon: [...lon], lat: [...lat], SPlow: [...SPlow] });
-  ref = JSON.parse(execFileSync('/usr/bin/python3', ['-c', PYTHON], { input, maxBuffer: 1 << 28, encoding: 'utf8' })) as Ref;
+  ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON], { input, maxBuffer: 1 << 28, encoding: 'utf8' })) as Ref;
 });
 
 describe(`python3-gsw live reference, ${N} random ocean points`, () => {

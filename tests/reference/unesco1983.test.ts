@@ -6,6 +6,7 @@
 // rest on the report alone, and on their agreeing with our implementation to the last digit
 // printed (which a wrong recollection would hardly do across eleven values).
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from './python';
 import { describe, expect, it } from 'vitest';
 import { C3515, SP_from_C, t90_from_t68 } from '../../shared/seawater/pss78';
 import {
@@ -22,7 +23,7 @@ describe('PSS-78 (source: UNESCO 1983 Tech. Pap. Mar. Sci. 44, from memory, conf
     [1.888091, 40, 10000, '40.0000'], // UNESCO 1983 check value (from memory)
   ];
   const gsw = JSON.parse(
-    execFileSync('/usr/bin/python3', ['-c', `
+    execFileSync(GSW_PYTHON, ['-c', `
 import json, sys, gsw
 cases = json.load(sys.stdin)
 print(json.dumps([float(gsw.SP_from_C(R * ${C3515}, t68 / 1.00024, p)) for R, t68, p in cases]))

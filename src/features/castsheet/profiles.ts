@@ -6,7 +6,7 @@ import type { CastDetail, CastInversion, FlagEdit, FlagVariable } from './types'
 export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
 export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
 
-/** Smallest σ deficit counted as an inversion, kg/m³ (science.md §3.1; the intake uses the same). */
+/** Smallest σ deficit counted as an inversion, kg/m³ (docs/science.md §3.1; the intake uses the same). */
 export const INVERSION_THRESHOLD = 0.01;
 
 const toNaN = (v: number | null | undefined) => (v == null ? NaN : v);

@@ -1,6 +1,7 @@
 // Read a NetCDF file back with Debian's python3-netcdf4 (/usr/bin/python3 + netCDF4) and return
 // its contents as JSON: masked values become null, char arrays strings, NaN the string "NaN".
 import { spawnSync } from 'node:child_process';
+import { GSW_PYTHON } from '../../reference/python';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -75,7 +76,7 @@ export function readWithPythonNetcdf4(bytes: Buffer): PyDataset {
   const dir = mkdtempSync(join(tmpdir(), 'sigmaline-nc-'));
   const file = join(dir, 'x.nc');
   writeFileSync(file, bytes);
-  const r = spawnSync('/usr/bin/python3', ['-c', SCRIPT, file], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
+  const r = spawnSync(GSW_PYTHON, ['-c', SCRIPT, file], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
   if (r.status !== 0) throw new Error(`python3 netCDF4 failed: ${r.stderr}`);
   return JSON.parse(r.stdout) as PyDataset;
 }

@@ -73,7 +73,7 @@ describe('remapToIsopycnals on analytic stratifications', () => {
     expect(r.crossings[0] + r.crossings[2]).toBe(0);
   });
 
-  it('sort, drop and raw give the same table on a stable cast (science.md §3.3)', () => {
+  it('sort, drop and raw give the same table on a stable cast (docs/science.md §3.3)', () => {
     const cast = linearCast();
     const targets = range(24.0, 0.1, 28.0);
     for (const interpolation of ['linear', 'pchip'] as const) {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
+import { GSW_PYTHON } from '../../reference/python';
 import { geostrophicSection, transportPerLayer, type GeostrophicSection } from '../../../shared/section';
 import { z_from_p } from '../../../shared/seawater/depth';
 
@@ -25,7 +26,7 @@ out = {k: gsw.geo_strf_dyn_height(np.array(d[k]['SA']), np.array(d[k]['CT']), p,
 print(json.dumps(out))
 `;
 const ref = JSON.parse(
-  execFileSync('/usr/bin/python3', ['-c', py], {
+  execFileSync(GSW_PYTHON, ['-c', py], {
     input: JSON.stringify({ p: Array.from(p), a: { SA: Array.from(a.SA), CT: Array.from(a.CT) }, b: { SA: Array.from(b.SA), CT: Array.from(b.CT) } }),
   }).toString(),
 ) as { a: number[]; b: number[] };

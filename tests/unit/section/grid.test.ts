@@ -36,7 +36,7 @@ describe('buildPressureSection', () => {
     }
   });
 
-  it('leaves the gap wider than 1.5× the median spacing empty, casts excepted (science.md §4)', () => {
+  it('leaves the gap wider than 1.5× the median spacing empty, casts excepted (docs/science.md §4)', () => {
     // Spacings 0.1° ×3 and 0.5°: median 0.1°, so the D–E gap (0.5°) is empty.
     expect(g.gaps).toHaveLength(1);
     const inside = col(0.3 * KM_PER_DEG + 20);
@@ -45,7 +45,7 @@ describe('buildPressureSection', () => {
     expect(g.z[50][castCols[4]]).not.toBeNull();
   });
 
-  it('draws nothing below the bottom line between a shallow and a deep cast (science.md §4)', () => {
+  it('draws nothing below the bottom line between a shallow and a deep cast (docs/science.md §4)', () => {
     // A ends at 1000 dbar, B at 2000 dbar: halfway the bottom line is at 1500 dbar.
     const ix = col(0.05 * KM_PER_DEG);
     const x0 = g.x[ix];

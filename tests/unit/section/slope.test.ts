@@ -56,7 +56,7 @@ function run(dxKm: number, dd: number) {
   return { maxIdentity, maxExact, maxSlope, scale };
 }
 
-describe('coordinate transform (∂φ/∂x)_σ = (∂φ/∂x)_z + (∂φ/∂z)_x (∂z/∂x)_σ (science.md §3.4)', () => {
+describe('coordinate transform (∂φ/∂x)_σ = (∂φ/∂x)_z + (∂φ/∂z)_x (∂z/∂x)_σ (docs/science.md §3.4)', () => {
   const coarse = run(20, 20);
   const fine = run(10, 10);
 
