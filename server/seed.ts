@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { loadSettings } from './config';
 import { connectServices } from './services/index';
 import { Cruise, LayerSet, Membership, Station, Upload, User, type Role } from './models/index';
-import { defaultLayerSets } from '../shared/remap/index';
+import { suggestedLayerSets } from '../shared/api/levels';
 import { hashPassword } from './auth/passwords';
 import { QUEUES } from './services/queue';
 import { seedEarlierOccupation } from './seedEarlier';
@@ -52,7 +52,7 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
   }
   // the default layer sets (σ0 for the upper ocean, σ2 below 1000 dbar) suit the demo section
   if ((await LayerSet.count({ where: { cruiseId: cruise.id } })) === 0) {
-    for (const d of defaultLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: users['analyst@sigmaline.test'].id });
+    for (const d of suggestedLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: users['analyst@sigmaline.test'].id });
   }
   for (const a of DEMO_ACCOUNTS) {
     if (a.role === 'admin') continue;

@@ -9,8 +9,8 @@ import { compileFormula } from '../../shared/derived/index';
 import { readColumns } from '../services/columns';
 import { loadCruiseCasts, applyFlags, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { alongTrackDistance, geostrophicSection, transportPerLayer } from '../../shared/section/index';
-import { levelsOrError } from './sections';
-import { levelsForRange, sigmaRange } from '../services/sectionView';
+import { resolveLayerBoundaries } from '../services/levels';
+import { referencePressureSchema } from '../../shared/api/levels';
 import type { AppDeps } from '../lib/deps';
 
 const uuidOr404 = (v: unknown, what: string) => { if (typeof v !== 'string' || !/^[0-9a-f-]{36}$/i.test(v)) throw notFound(`No such ${what}.`); return v; };
@@ -26,7 +26,7 @@ const Preview = z.object({ formula: z.string().max(500) });
 const TsQuery = z.object({ every: z.coerce.number().int().min(1).max(1000).default(4) });
 const GeoQuery = z.object({
   pRef: z.union([z.literal('deepest_common'), z.coerce.number().min(0).max(11000)]).default('deepest_common'),
-  ref: z.coerce.number().refine((v) => [0, 1000, 2000, 3000, 4000].includes(v), 'one of 0, 1000, 2000, 3000, 4000').default(0),
+  ref: referencePressureSchema.default(0),
   levels: z.string().max(20000).optional(),
   bin: z.coerce.number().positive().max(500).default(20),
 });
@@ -97,9 +97,8 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`geo:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => {
           const casts = (await loadCruiseCasts(ctx.cruiseId!, [])).filter((c) => c.columns.pressure.length > 2);
-          // Default layers: about eight over the σ range the section spans at this reference.
-          const levelsText = q.levels ?? (casts.length ? levelsForRange(...sigmaRange(casts, q.ref), 8) : '24.0:0.4:28.0');
-          const boundaries = levelsOrError(levelsText);
+          // Default layers: a thinned subset of the section's default levels (shared/api/levels.ts).
+          const { text: levelsText, levels: boundaries } = resolveLayerBoundaries(casts, q.ref, q.levels);
           const choices = { pRef: q.pRef, ref: q.ref, levels: levelsText, bin: q.bin };
           const convention = 'v = ΔD / (f·L) between adjacent casts A and B; positive is 90° to the left of the direction from A to B (looking along the section from its first cast: for a section run eastward, positive is northward).';
           if (casts.length < 2) return { choices, convention, pressure: [], pairs: [], velocity: [], layers: [] };

@@ -6,7 +6,8 @@ import { Cruise, Delivery, Membership, User } from '../models/index';
 import { audit } from '../lib/audit';
 import { QUEUES } from '../services/queue';
 import { escapeHtml } from '../services/mailer';
-import { levelsOrError, defaultLevels } from './sections';
+import { levelsOrError } from '../services/levels';
+import { referencePressureSchema } from '../../shared/api/levels';
 import type { AppDeps } from '../lib/deps';
 
 const deliveryCruise = async (req: Request) => {
@@ -16,7 +17,7 @@ const deliveryCruise = async (req: Request) => {
 };
 const NewDelivery = z.object({
   kind: z.enum(['isopycnal', 'pressure', 'package']),
-  ref: z.number().refine((v) => [0, 1000, 2000, 3000, 4000].includes(v), 'one of 0, 1000, 2000, 3000, 4000').default(0),
+  ref: referencePressureSchema.default(0),
   levels: z.string().trim().max(20000).optional(),
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
@@ -38,9 +39,9 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
       responses: { 202: 'queued' },
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewDelivery>;
-        if (b.kind !== 'pressure') levelsOrError(b.levels ?? defaultLevels(b.ref));
+        if (b.kind !== 'pressure' && b.levels) levelsOrError(b.levels);
         const d = await deps.db.sequelize.transaction(async (transaction) => {
-          const row = await Delivery.create({ cruiseId: ctx.cruiseId!, kind: b.kind, params: { ...b, levels: b.levels ?? defaultLevels(b.ref) }, formats: b.formats, error: null, releasedAt: null, releasedBy: null, createdBy: req.user!.id }, { transaction });
+          const row = await Delivery.create({ cruiseId: ctx.cruiseId!, kind: b.kind, params: { ...b }, formats: b.formats, error: null, releasedAt: null, releasedBy: null, createdBy: req.user!.id }, { transaction });
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'delivery', entityId: row.id, after: b }, transaction);
           return row;
         });

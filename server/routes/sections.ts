@@ -1,17 +1,17 @@
 import { z } from 'zod';
 import { gzipSync } from 'node:zlib';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
-import { badRequest, notFound } from '../lib/errors';
+import { notFound } from '../lib/errors';
 import { LayerSet } from '../models/index';
 import { audit } from '../lib/audit';
-import { safeParseLevels, defaultLayerSets } from '../../shared/remap/index';
+import { levelsOrError } from '../services/levels';
+import { referencePressureSchema } from '../../shared/api/levels';
 import { isopycnalTable, pressureTable, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { csvStream } from '../services/deliveries/index';
 import { buildSectionView, SectionQuery } from '../services/sectionView';
 import type { AppDeps } from '../lib/deps';
 
-const REFS = [0, 1000, 2000, 3000, 4000];
-const ref = z.coerce.number().refine((v) => REFS.includes(v), 'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar');
+const ref = referencePressureSchema;
 const flags = z.string().regex(/^\d(,\d)*$/, 'flags are a comma list of 1–9').transform((s) => s.split(',').map(Number)).default([1, 2]);
 const extras = z.string().max(500).transform((s) => s.split(',').map((x) => x.trim()).filter(Boolean)).default([]);
 export const IsopycnalQuery = z.object({
@@ -24,17 +24,6 @@ export const IsopycnalQuery = z.object({
 const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras });
 const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
 
-export function defaultLevels(refP: number): string {
-  const d = defaultLayerSets();
-  return (d.find((s) => s.ref === refP) ?? { spec: refP === 0 ? '24.0:0.1:27.6' : `${(refP / 1000) * 4.6 + 27.0}:0.05:${(refP / 1000) * 4.6 + 28.5}` }).spec;
-}
-
-export function levelsOrError(spec: string) {
-  const r = safeParseLevels(spec);
-  if (!r.ok) throw badRequest(`The levels "${spec.slice(0, 80)}" are not valid: ${r.errors.join('; ')}`, r.errors.map((m) => ({ field: 'levels', message: m })));
-  return r.levels;
-}
-
 export function sectionRoutes(deps: AppDeps): RouteSpec[] {
   const readers = ['pi', 'chief_scientist', 'analyst'] as const;
   const editors = ['analyst', 'chief_scientist'] as const;
@@ -42,8 +31,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/exports/isopycnal.csv', summary: 'The isopycnal table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: IsopycnalQuery,
       handler: async (req, res, ctx) => {
         const q = ctx.query as z.infer<typeof IsopycnalQuery>;
-        const text = q.levels ?? defaultLevels(q.ref);
-        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: levelsOrError(text), levelsText: text, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras });
+        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: q.levels ?? null, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras });
         res.setHeader('content-type', 'text/csv; charset=utf-8');
         res.setHeader('content-disposition', `attachment; filename="isopycnal-sigma${q.ref / 1000}.csv"`);
         csvStream(table).pipe(res);

@@ -7,6 +7,8 @@ import { remapToIsopycnals, binToPressure, flagNames, type InversionHandling, ty
 import { sigma_batch } from '../../shared/seawater/index';
 import { ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryTable, type DeliveryColumn, type DeliveryRow, type Provenance } from './deliveries/index';
 import { VERSION } from '../version';
+import { resolveLevels } from './levels';
+import { DEFAULT_LEVELS_RULE } from '../../shared/api/levels';
 
 export type CruiseCast = {
   id: string; station: string; cast: string; latitude: number; longitude: number; time: Date | null; bottomDepth: number | null;
@@ -85,7 +87,8 @@ export function applyFlags(c: CruiseCast, include: number[]): Record<string, Flo
   return out;
 }
 
-export type IsopycnalRequest = { ref: number; levels: Float64Array; levelsText: string; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[] };
+/** levels: a specification as asked for, or null for the default levels of the reference pressure. */
+export type IsopycnalRequest = { ref: number; levels: string | null; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[] };
 
 export const EOS = 'TEOS-10 (IOC, SCOR & IAPSO 2010); density from the 75-term polynomial of Roquet et al. (2015)';
 export const SAAR_SOURCE = 'McDougall et al. (2012) SAAR atlas, regenerated from Debian python3-gsw 3.6.16';
@@ -104,6 +107,7 @@ const num = (v: number) => (Number.isFinite(v) ? v : null);
 
 export async function isopycnalTable(cruiseId: string, who: string, q: IsopycnalRequest): Promise<DeliveryTable> {
   const casts = await loadCruiseCasts(cruiseId, q.extras);
+  const { text: levelsText, levels, isDefault } = resolveLevels(casts, q.ref, q.levels);
   const extraCols: DeliveryColumn[] = q.extras.map((e) => ({ name: e.replace(/[^A-Za-z0-9_]/g, '_').replace(/^(\d)/, '_$1'), unit: null, type: 'number' }));
   const rows: DeliveryRow[] = [];
   for (const c of casts) {
@@ -111,17 +115,18 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
     const sigma = sigma_batch(cols.SA, cols.CT, q.ref);
     const props: Record<string, Float64Array> = { CT: cols.CT, SA: cols.SA };
     for (const e of q.extras) if (cols[e]) props[e] = cols[e];
-    const r = remapToIsopycnals({ p: cols.pressure, z: cols.z, sigma, props }, q.levels, { handling: q.handling, interpolation: q.interpolation });
-    for (let k = 0; k < q.levels.length; k++) {
+    const r = remapToIsopycnals({ p: cols.pressure, z: cols.z, sigma, props }, levels, { handling: q.handling, interpolation: q.interpolation });
+    for (let k = 0; k < levels.length; k++) {
       const thick = r.thicknessDepth ?? r.thickness;
-      const row: DeliveryRow = [c.station, c.cast, c.latitude, c.longitude, q.ref, q.levels[k], num(r.pressure[k]), r.depth ? num(r.depth[k]) : null,
+      const row: DeliveryRow = [c.station, c.cast, c.latitude, c.longitude, q.ref, levels[k], num(r.pressure[k]), r.depth ? num(r.depth[k]) : null,
         num(r.props.CT[k]), num(r.props.SA[k]), num(thick[k]), r.crossings[k], flagNames(r.flags[k]).join(';') || null];
       for (const e of q.extras) row.push(r.props[e] ? num(r.props[e][k]) : null);
       rows.push(row);
     }
   }
   return { kind: 'isopycnal', columns: [...ISOPYCNAL_COLUMNS, ...extraCols], rows,
-    provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: q.levelsText, inversionHandling: q.handling, interpolation: q.interpolation, flagsIncluded: q.flags }) };
+    provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: levelsText, inversionHandling: q.handling, interpolation: q.interpolation, flagsIncluded: q.flags,
+      notes: isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : [] }) };
 }
 
 export async function pressureTable(cruiseId: string, who: string, q: { bin: number; flags: number[]; extras: string[] }): Promise<DeliveryTable> {

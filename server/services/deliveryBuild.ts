@@ -5,7 +5,6 @@ import { Readable } from 'node:stream';
 import { Delivery, Upload, User, type DeliveryFile } from '../models/index';
 import { isopycnalTable, pressureTable } from './cruiseData';
 import { writeCsv, writeXlsx, tableToNetcdf, buildDataPackage, formatProvenanceText, DATA_CAUTION, type DeliveryTable } from './deliveries/index';
-import { levelsOrError, defaultLevels } from '../routes/sections';
 import type { AppDeps } from '../lib/deps';
 
 export type DeliveryParams = { kind: 'isopycnal' | 'pressure' | 'package'; ref: number; levels?: string; inversions: 'sort' | 'drop' | 'raw'; interpolation: 'linear' | 'pchip'; bin: number; flags: number[]; formats: ('csv' | 'xlsx' | 'nc')[] };
@@ -18,8 +17,7 @@ async function toBuffer(stream: Readable): Promise<Buffer> {
 }
 
 export async function deliveryTables(cruiseId: string, who: string, p: DeliveryParams): Promise<{ name: string; table: DeliveryTable }[]> {
-  const levelsText = p.levels ?? defaultLevels(p.ref);
-  const iso = () => isopycnalTable(cruiseId, who, { ref: p.ref, levels: levelsOrError(levelsText), levelsText, handling: p.inversions, interpolation: p.interpolation, flags: p.flags, extras: [] });
+  const iso = () => isopycnalTable(cruiseId, who, { ref: p.ref, levels: p.levels ?? null, handling: p.inversions, interpolation: p.interpolation, flags: p.flags, extras: [] });
   const pres = () => pressureTable(cruiseId, who, { bin: p.bin, flags: p.flags, extras: [] });
   if (p.kind === 'isopycnal') return [{ name: `isopycnal-sigma${p.ref / 1000}`, table: await iso() }];
   if (p.kind === 'pressure') return [{ name: `pressure-${p.bin}dbar`, table: await pres() }];

@@ -8,14 +8,14 @@ import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
 import { buildPressureSection, buildDensitySection, isopycnalLines, alongIsopycnalGradient, fromRows, toRows, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
 import { z_from_p } from '../../shared/seawater/index';
-import { safeParseLevels } from '../../shared/remap/index';
+import { resolveLevels } from './levels';
+import { referencePressureSchema } from '../../shared/api/levels';
 import { badRequest } from '../lib/errors';
 
-const REFS = [0, 1000, 2000, 3000, 4000];
 export const SectionQuery = z.object({
   property: z.string().regex(/^[A-Za-z_][\w:]*$/).max(64).default('CT'),
   coord: z.enum(['pressure', 'density']).default('pressure'),
-  ref: z.coerce.number().refine((v) => REFS.includes(v), 'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar').default(0),
+  ref: referencePressureSchema.default(0),
   levels: z.string().max(20000).optional(),
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
@@ -29,7 +29,6 @@ export const SectionQuery = z.object({
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
-const DEFAULT_LEVELS: Record<number, string> = { 0: '23.0:0.05:27.9', 1000: '27.5:0.05:32.5', 2000: '32.0:0.05:37.2', 3000: '37.0:0.05:41.6', 4000: '41.0:0.05:46.0' };
 const UNITS: Record<string, string> = { CT: '°C', SA: 'g/kg', SP: '', temperature: '°C', pt0: '°C', oxygen: 'µmol/kg', sigma0: 'kg/m³', sigma1: 'kg/m³', sigma2: 'kg/m³', sigma3: 'kg/m³', sigma4: 'kg/m³', spiciness0: 'kg/m³', rho: 'kg/m³' };
 
 /** Columns of each cast for a property: a stored column, or the cruise's derived variable of that name. */
@@ -49,33 +48,9 @@ function roundRows(rows: (number | null)[][], digits: number): (number | null)[]
   return rows.map((row) => row.map((v) => (v === null ? null : Number(v.toPrecision(digits)))));
 }
 
-/** Default target levels when none are asked for: about 100 levels over the σ range the casts
- * actually span at that reference pressure, on a round step. */
-export function levelsForRange(min: number, max: number, count = 100): string {
-  if (!(max > min)) return DEFAULT_LEVELS[0];
-  const raw = (max - min) / count;
-  const step = [0.005, 0.01, 0.02, 0.025, 0.05, 0.1, 0.2, 0.25, 0.5].find((s) => s >= raw) ?? 1;
-  const lo = Math.floor(min / step) * step;
-  const hi = Math.ceil(max / step) * step;
-  const dp = step < 0.01 ? 3 : 2;
-  return `${lo.toFixed(dp)}:${step}:${hi.toFixed(dp)}`;
-}
-
-export function sigmaRange(casts: { columns: Record<string, Float64Array> }[], ref: number): [number, number] {
-  let min = Infinity, max = -Infinity;
-  for (const c of casts) {
-    const s = sigma_batch(c.columns.SA, c.columns.CT, ref);
-    for (let i = 0; i < s.length; i++) { const v = s[i]; if (v < min) min = v; if (v > max) max = v; }
-  }
-  return [min, max];
-}
-
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   const all = await loadCruiseCasts(cruiseId, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
-  const levelsText = q.levels ?? (all.length ? levelsForRange(...sigmaRange(all, q.ref)) : DEFAULT_LEVELS[q.ref]);
-  const parsed = safeParseLevels(levelsText);
-  if (!parsed.ok) throw badRequest(`The levels are not valid: ${parsed.errors.join('; ')}`, parsed.errors.map((m) => ({ field: 'levels', message: m })));
-  const targets = parsed.levels;
+  const { text: levelsText, levels: targets } = resolveLevels(all, q.ref, q.levels);
   const choices = { property: q.property, coord: q.coord, ref: q.ref, sigma: `sigma${q.ref / 1000}`, levels: levelsText, inversions: q.inversions, interpolation: q.interpolation,
     bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold };
   const raw = all.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);

@@ -7,9 +7,10 @@ export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
 export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
 export const referencePressureSchema = z.coerce
   .number()
-  .refine((v): v is ReferencePressure => (REFERENCE_PRESSURES as readonly number[]).includes(v), {
-    message: `one of ${REFERENCE_PRESSURES.join(', ')}`,
-  });
+  .refine(
+    (v): v is ReferencePressure => (REFERENCE_PRESSURES as readonly number[]).includes(v),
+    `the reference pressure is one of ${REFERENCE_PRESSURES.join(', ')} dbar`,
+  );
 
 /** How a remap treats density inversions (docs/science.md §3.3). */
 export const INVERSION_HANDLINGS = ['sort', 'drop', 'raw'] as const;

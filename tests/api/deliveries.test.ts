@@ -83,6 +83,26 @@ describe('deliveries', () => {
     const nc = new NetCDFReader(await download(who.pi, d.id, 'nc'));
     expect(String(nc.getAttribute('Conventions'))).toBe('CF-1.10');
   });
+  it('one levels policy: the section, the export, geostrophy and a delivery use the same default levels', async () => {
+    const layerSetOf = (csv: string) => /^# layer_set: (.*)$/m.exec(csv)?.[1]?.trim();
+    for (const ref of [0, 2000]) {
+      const sec = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'CT', coord: 'density', ref })).body;
+      const section = sec.choices.levels as string;
+      expect(section).toMatch(/^\d+\.\d+:[\d.]+:\d+\.\d+$/);
+      const exported = layerSetOf((await who.analyst.agent.get(`/api/cruises/${cruiseId}/exports/isopycnal.csv`).query({ ref })).text);
+      const d = await build(who.analyst, { kind: 'isopycnal', ref, formats: ['csv'] });
+      expect(d.status, d.error).toBe('ready');
+      const delivered = layerSetOf((await download(who.analyst, d.id, 'csv')).toString('utf8'));
+      expect([exported, delivered]).toEqual([section, section]);
+      // the delivered rows sit on the section's density levels
+      const geo = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/geostrophy`).query({ ref })).body;
+      const levels = new Set(sec.grid.y.map((v: number) => v.toFixed(4)));
+      const boundaries = String(geo.choices.levels).split(',').map(Number);
+      expect(boundaries.length).toBeGreaterThan(2);
+      for (const v of boundaries) expect(levels.has(v.toFixed(4)), `geostrophy boundary ${v} not a section level`).toBe(true);
+      await who.analyst.agent.delete(`/api/deliveries/${d.id}`).set('x-csrf-token', who.analyst.csrf);
+    }
+  });
   it('builds a data package zip with raw files and a manifest', async () => {
     const d = await build(who.analyst, { kind: 'package', ref: 0, formats: ['csv'] });
     expect(d.status, d.error).toBe('ready');

@@ -3,8 +3,7 @@ import { detectInversions } from '../../../shared/remap/inversions';
 import type { CastDetail, CastInversion, FlagEdit, FlagVariable } from './types';
 
 /** Reference pressures offered for σ, dbar (TEOS-10's σ0 … σ4). */
-export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
-export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
+export { REFERENCE_PRESSURES, type ReferencePressure } from '../../../shared/api/levels';
 
 /** Smallest σ deficit counted as an inversion, kg/m³ (docs/science.md §3.1; the intake uses the same). */
 export const INVERSION_THRESHOLD = 0.01;

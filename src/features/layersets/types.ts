@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { safeParseLevels } from '../../../shared/remap/layerSets';
+import { REFERENCE_PRESSURES, safeParseLevels } from '../../../shared/api/levels';
 
-export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
+export { REFERENCE_PRESSURES };
 
 export const layerSetSchema = z.object({
   id: z.union([z.string(), z.number()]).transform(String),
@@ -27,7 +27,7 @@ export type LevelsFeedback =
 
 /**
  * What the levels field says as it is typed, from the same parser the server uses
- * (shared/remap/layerSets): how many levels, the first and the last, or what is wrong.
+ * (shared/api/levels.ts): how many levels, the first and the last, or what is wrong.
  */
 export function levelsFeedback(spec: string): LevelsFeedback {
   if (spec.trim() === '') return { state: 'empty' };

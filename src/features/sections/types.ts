@@ -5,8 +5,7 @@ const label = z.union([z.string(), z.number()]).transform(String);
 /** Grid cells and per-station values: a number, or null where there is no water or no data. */
 const cell = z.number().nullable();
 
-export const REFERENCE_PRESSURES = [0, 1000, 2000, 3000, 4000] as const;
-export type ReferencePressure = (typeof REFERENCE_PRESSURES)[number];
+export { REFERENCE_PRESSURES, type ReferencePressure } from '../../../shared/api/levels';
 export const INVERSION_HANDLINGS = ['sort', 'drop', 'raw'] as const;
 export type InversionHandling = (typeof INVERSION_HANDLINGS)[number];
 export const INTERPOLATIONS = ['linear', 'pchip'] as const;

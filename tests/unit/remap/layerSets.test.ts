@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { defaultLayerSets, layerSetSchema, parseLevels, safeParseLevels } from '../../../shared/remap';
+import { layerSetSchema, parseLevels, safeParseLevels } from '../../../shared/remap';
+import { suggestedLayerSets } from '../../../shared/api/levels';
 
 describe('layer sets', () => {
   it('expands start:step:end with the written digits (analytic case: 36 steps of 0.1)', () => {
@@ -18,7 +19,7 @@ describe('layer sets', () => {
 
   it('validates a set with one reference pressure; defaults cover σ0 and σ2', () => {
     expect(layerSetSchema.safeParse({ name: 'x', ref: 500, spec: '24:0.1:25' }).success).toBe(false);
-    const sets = defaultLayerSets();
+    const sets = suggestedLayerSets();
     expect(sets.map((s) => [s.ref, s.levels[0], s.levels[s.levels.length - 1]])).toEqual([[0, 24, 27.6], [2000, 36, 37.2]]);
   });
 });

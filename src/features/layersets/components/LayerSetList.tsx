@@ -1,6 +1,7 @@
 import { EmptyState } from '../../../components/Panel';
 import { sigmaLabel } from '../../../components/plot/theme';
 import type { LayerSet } from '../types';
+import { DEFAULT_LEVELS_RULE } from '../../../../shared/api/levels';
 
 /** The cruise's layer sets, by reference pressure. */
 export function LayerSetList({ sets, onEdit, editingId }: { sets: readonly LayerSet[]; onEdit?: (set: LayerSet) => void; editingId?: string | null }) {
@@ -8,7 +9,7 @@ export function LayerSetList({ sets, onEdit, editingId }: { sets: readonly Layer
     return (
       <EmptyState title="No layer sets yet">
         A layer set is the list of target isopycnals a section is remapped onto, in σ at one reference pressure. Without one,
-        the section uses the defaults (σ₀ 24.0–27.6 by 0.1 above 1000 dbar, σ₂ 36.0–37.2 by 0.05 below).
+        the section, the exports and the deliveries use the default levels: {DEFAULT_LEVELS_RULE}.
       </EmptyState>
     );
   }
