@@ -7,7 +7,7 @@ import { createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { z } from 'zod';
 import { Cruise, LayerSet, Membership, Station, Upload, type User, type Role } from './models/index';
-import { defaultLayerSets } from '../shared/remap/index';
+import { suggestedLayerSets } from '../shared/api/levels';
 import { QUEUES } from './services/queue';
 import type { AppDeps } from './lib/deps';
 
@@ -33,7 +33,7 @@ export async function seedEarlierOccupation(opts: { root: string; deps: Pick<App
     for (const s of demo.plannedStations) await Station.create({ cruiseId: cruise.id, name: s.station, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedBottomDepth ?? null, order: ++order });
   }
   if ((await LayerSet.count({ where: { cruiseId: cruise.id } })) === 0) {
-    for (const d of defaultLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: owner.id });
+    for (const d of suggestedLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: owner.id });
   }
   for (const m of demo.team) {
     const u = opts.users[m.email];
