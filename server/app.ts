@@ -12,11 +12,7 @@ import { logger } from './lib/logger';
 import { mountRoutes, type RouteSpec } from './lib/routeTable';
 import { openApiDocument } from './lib/openapi';
 import type { AppDeps } from './lib/deps';
-import { authRoutes } from './routes/auth';
-import { cruiseRoutes } from './routes/cruises';
-import { teamRoutes } from './routes/team';
-import { adminRoutes } from './routes/admin';
-import { extraRouteFactories } from './routes/registry';
+import { allRoutes } from './routes/registry';
 
 export { VERSION } from './version';
 import { VERSION } from './version';
@@ -83,10 +79,7 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
     } else res.json({ status: 'ok', ...parts });
   });
 
-  const routes: RouteSpec[] = [
-    ...authRoutes(deps), ...cruiseRoutes(deps), ...teamRoutes(deps), ...adminRoutes(deps),
-    ...extraRouteFactories.flatMap((f) => f(deps)),
-  ];
+  const routes: RouteSpec[] = allRoutes(deps);
   app.routes = routes;
   api.get('/openapi.json', (_req, res) => { res.json(openApiDocument(routes, VERSION)); });
   mountRoutes(api, routes);
