@@ -50,6 +50,7 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
                 { path: 'team', lazy: lazyScreen(() => import('./routes/CruiseTeam')) },
                 { path: 'section', lazy: lazyScreen(() => import('./routes/Section')) },
                 { path: 'deliveries', lazy: lazyScreen(() => import('./routes/Deliveries')) },
+                { path: 'then-and-now', lazy: lazyScreen(() => import('./routes/ThenAndNow')) },
               ],
             },
             { path: 'admin/mail', lazy: lazyScreen(() => import('./routes/AdminMail')) },
