@@ -96,6 +96,7 @@ function clean(c: OccupationCast, ref: number): CleanCast {
     lastGood = c.p[i];
   }
   if (runStart >= 0) spans.push([Number.isFinite(lastGood) ? lastGood : -Infinity, Infinity]);
+  if (keep.length === n) return { p: c.p, SA: c.SA, CT: c.CT, C: c.C, sigma: sigma_batch(c.SA, c.CT, ref), spans, flagged };
   const take = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
   const SA = take(c.SA);
   const CT = take(c.CT);

@@ -54,8 +54,12 @@ export function layerTransportChange(
     CT: Float64Array.from({ length: np }, (_, i) => o.CT[i * nx + j]),
   })).filter((c) => Number.isFinite(c.lon) && Number.isFinite(c.lat));
   if (bounds.length < 2) return [];
-  const ta = transportPerLayer(geostrophicSection(casts(a), { pRef: 'deepest_common', levels: p, sigmaRef: ref }), bounds);
-  const tb = transportPerLayer(geostrophicSection(casts(b), { pRef: 'deepest_common', levels: p, sigmaRef: ref }), bounds);
+  // The levels are the integration grid (trapezoid between them, TEOS-10 Manual §3.27): no finer
+  // interpolated grid is needed for a comparison of two occupations on the same levels.
+  const step = np > 1 ? p[1] - p[0] : 1;
+  const o = { pRef: 'deepest_common' as const, levels: p, sigmaRef: ref, max_dp: step, interpolation: 'linear' as const };
+  const ta = transportPerLayer(geostrophicSection(casts(a), o), bounds);
+  const tb = transportPerLayer(geostrophicSection(casts(b), o), bounds);
   return ta.map((l, i) => ({ sigmaTop: l.sigmaTop, sigmaBottom: l.sigmaBottom, A: l.total, B: tb[i].total, change: tb[i].total - l.total }));
 }
 
