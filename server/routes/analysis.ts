@@ -11,6 +11,7 @@ import { loadCruiseCasts, applyFlags, cached, dataVersion, invalidateDataVersion
 import { alongTrackDistance, geostrophicSection, transportPerLayer } from '../../shared/section/index';
 import { resolveLayerBoundaries } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
+import { derivedVariableListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
 const uuidOr404 = (v: unknown, what: string) => { if (typeof v !== 'string' || !/^[0-9a-f-]{36}$/i.test(v)) throw notFound(`No such ${what}.`); return v; };
@@ -39,6 +40,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
   const formulaError = (message: string, position: number | null) => badRequest(`The formula is not valid: ${message}`, [{ field: 'formula', message, position }], 'bad_formula');
   return [
     defineRoute({ method: 'get', path: '/cruises/:id/derived-variables', summary: "The cruise's derived variables (mathjs formulas over cast columns)", rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: derivedVariableListResponseSchema,
       handler: async (_req, _res, ctx) => (await DerivedVariable.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['name', 'ASC']] }))
         .map((d) => ({ id: d.id, name: d.name, formula: d.formula, unit: d.unit, description: d.description })) }),
     defineRoute({ method: 'post', path: '/cruises/:id/derived-variables', summary: 'Define a derived variable', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewVariable,

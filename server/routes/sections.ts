@@ -9,6 +9,7 @@ import { referencePressureSchema } from '../../shared/api/levels';
 import { isopycnalTable, pressureTable, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { csvStream } from '../services/deliveries/index';
 import { buildSectionView, SectionQuery } from '../services/sectionView';
+import { layerSetListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
 const ref = referencePressureSchema;
@@ -58,6 +59,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
         else res.send(body.json);
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/layer-sets', summary: 'Layer sets (target isopycnals per reference pressure)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: layerSetListResponseSchema,
       handler: async (_req, _res, ctx) => {
         const rows = await LayerSet.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['referencePressure', 'ASC'], ['name', 'ASC']] });
         return rows.map((r) => ({ id: r.id, name: r.name, referencePressure: r.referencePressure, levels: r.levels, count: levelsOrError(r.levels).length }));

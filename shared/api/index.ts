@@ -4,3 +4,4 @@ export * from './enums';
 export * from './flags';
 export * from './variables';
 export * from './settings';
+export * from './resources';

@@ -2,7 +2,7 @@ import { ErrorNotice, Progress } from '../components/Notice';
 import { Panel } from '../components/Panel';
 import { roleLabel } from '../features/auth';
 import { BuildDeliveryForm, DeliveryList, canDeliver, useDeliveries } from '../features/deliveries';
-import { useLayerSets } from '../features/sections';
+import { useLayerSets } from '../features/layersets';
 import { useCurrentCruise } from './CruiseLayout';
 
 export default function Deliveries() {

@@ -22,8 +22,6 @@ import {
   serialiseViewState,
   sigmaName,
   stepStation,
-  useDerivedVariables,
-  useLayerSets,
   useSection,
   useSectionView,
   useHover,
@@ -33,6 +31,8 @@ import {
   type ReadoutValue,
   type Section as SectionData,
 } from '../features/sections';
+import { useLayerSets } from '../features/layersets';
+import { useDerivedVariables } from '../features/derived';
 import { useCurrentCruise } from './CruiseLayout';
 
 /** Who may keep saved views: the analysts and the chief scientist (the server enforces it too). */

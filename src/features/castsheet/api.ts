@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
 import { cruiseKeys } from '../cruises';
-import { sectionKeys } from '../sections/keys';
+import { sectionKeys } from '../sections';
 import { castKeys } from './keys';
 import { castDetailSchema, flagResultSchema, type FlagEdit } from './types';
 

@@ -1,16 +1,20 @@
-import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
-import { sectionKeys } from '../sections/keys';
+import { sectionKeys } from '../sections';
 import { derivedKeys } from './keys';
 import { derivedVariableListSchema, derivedVariableSchema, formulaPreviewSchema, type NewDerivedVariable } from './types';
 
 const path = (cruiseId: string) => `/api/cruises/${encodeURIComponent(cruiseId)}/derived-variables`;
 
-export function useDerivedVariables(cruiseId: string) {
-  return useQuery({
+/** The cruise's derived variables: the one query of this resource, which the section screen reuses. */
+export const derivedVariablesQuery = (cruiseId: string) =>
+  queryOptions({
     queryKey: derivedKeys.list(cruiseId),
     queryFn: ({ signal }) => http(path(cruiseId), { schema: derivedVariableListSchema, signal }),
   });
+
+export function useDerivedVariables(cruiseId: string) {
+  return useQuery(derivedVariablesQuery(cruiseId));
 }
 
 /** The formula evaluated on one cast (the preview route), cached by cast and text; null inputs wait. */
@@ -33,8 +37,6 @@ export function useCreateDerivedVariable(cruiseId: string) {
     mutationFn: (input: NewDerivedVariable) => http(path(cruiseId), { method: 'POST', body: input, schema: derivedVariableSchema }),
     onSuccess: () => {
       void queryClient.invalidateQueries({ queryKey: derivedKeys.list(cruiseId) });
-      // The section's property picker lists derived variables.
-      void queryClient.invalidateQueries({ queryKey: sectionKeys.derivedVariables(cruiseId) });
     },
   });
 }
@@ -45,7 +47,6 @@ export function useDeleteDerivedVariable(cruiseId: string) {
     mutationFn: (id: string) => http(`${path(cruiseId)}/${encodeURIComponent(id)}`, { method: 'DELETE' }),
     onSuccess: () => {
       void queryClient.invalidateQueries({ queryKey: derivedKeys.list(cruiseId) });
-      void queryClient.invalidateQueries({ queryKey: sectionKeys.derivedVariables(cruiseId) });
       // A section drawn of the deleted variable no longer exists.
       void queryClient.invalidateQueries({ queryKey: sectionKeys.data(cruiseId) });
     },

@@ -1,5 +1,5 @@
 export { derivedKeys } from './keys';
-export { useDerivedVariables, useFormulaPreview, useCreateDerivedVariable, useDeleteDerivedVariable } from './api';
+export { derivedVariablesQuery, useDerivedVariables, useFormulaPreview, useCreateDerivedVariable, useDeleteDerivedVariable } from './api';
 export { DerivedForm, columnNamesOf } from './components/DerivedForm';
 export { DerivedList } from './components/DerivedList';
 export { FormulaProblemView } from './components/FormulaProblemView';

@@ -1,15 +1,11 @@
 import { z } from 'zod';
 import { ApiError, isApiError } from '../../lib/http';
 
-export const derivedVariableSchema = z.object({
-  id: z.union([z.string(), z.number()]).transform(String),
-  name: z.string(),
-  formula: z.string(),
-  unit: z.string().nullish().transform((v) => v ?? null),
-  description: z.string().nullish().transform((v) => v ?? null),
-});
-export type DerivedVariable = z.infer<typeof derivedVariableSchema>;
-export const derivedVariableListSchema = z.array(derivedVariableSchema);
+export {
+  derivedVariableResponseSchema as derivedVariableSchema,
+  derivedVariableListResponseSchema as derivedVariableListSchema,
+  type DerivedVariableResponse as DerivedVariable,
+} from '../../../shared/api/resources';
 
 export const formulaPreviewSchema = z.object({
   pressure: z.array(z.number().nullable()),

@@ -2,7 +2,7 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { http, isApiError } from '../../lib/http';
 import { cruiseKeys } from '../cruises';
-import { sectionKeys } from '../sections/keys';
+import { sectionKeys } from '../sections';
 import { intakeKeys } from './keys';
 import { sendFile } from './send';
 import { columnMappingSchema, isActive, uploadListSchema, uploadSchema, type ColumnMapping, type Upload } from './types';

@@ -1,22 +1,24 @@
-import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
-import { sectionKeys } from '../sections/keys';
 import { layerSetKeys } from './keys';
 import { layerSetListSchema, layerSetSchema, type LayerSetInput } from './types';
 
 const path = (cruiseId: string) => `/api/cruises/${encodeURIComponent(cruiseId)}/layer-sets`;
 
-export function useLayerSets(cruiseId: string) {
-  return useQuery({
+/** The cruise's layer sets: the one query of this resource, which the section and delivery screens reuse. */
+export const layerSetsQuery = (cruiseId: string) =>
+  queryOptions({
     queryKey: layerSetKeys.list(cruiseId),
     queryFn: ({ signal }) => http(path(cruiseId), { schema: layerSetListSchema, signal }),
   });
+
+export function useLayerSets(cruiseId: string) {
+  return useQuery(layerSetsQuery(cruiseId));
 }
 
-/** A changed set changes this list and the section area's copy of it; grids are keyed by the levels themselves. */
+/** A changed set changes the list; grids are keyed by the levels themselves, so they need no drop. */
 function invalidateSets(queryClient: QueryClient, cruiseId: string) {
   void queryClient.invalidateQueries({ queryKey: layerSetKeys.list(cruiseId) });
-  void queryClient.invalidateQueries({ queryKey: sectionKeys.layerSets(cruiseId) });
 }
 
 export function useCreateLayerSet(cruiseId: string) {

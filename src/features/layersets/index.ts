@@ -1,5 +1,5 @@
 export { layerSetKeys } from './keys';
-export { useLayerSets, useCreateLayerSet, useUpdateLayerSet } from './api';
+export { layerSetsQuery, useLayerSets, useCreateLayerSet, useUpdateLayerSet } from './api';
 export { LevelsField } from './components/LevelsField';
 export { LayerSetForm } from './components/LayerSetForm';
 export { LayerSetList } from './components/LayerSetList';

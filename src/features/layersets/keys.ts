@@ -1,4 +1,4 @@
-/** Query keys of layer sets (the section area reads them too, under sectionKeys.layerSets). */
+/** Query keys of layer sets (one list per cruise, read by every screen that offers a set). */
 export const layerSetKeys = {
   all: ['layer-sets'] as const,
   list: (cruiseId: string) => [...layerSetKeys.all, 'list', cruiseId] as const,

@@ -1,18 +1,12 @@
-import { z } from 'zod';
 import { REFERENCE_PRESSURES, safeParseLevels } from '../../../shared/api/levels';
 
 export { REFERENCE_PRESSURES };
 
-export const layerSetSchema = z.object({
-  id: z.union([z.string(), z.number()]).transform(String),
-  name: z.string(),
-  referencePressure: z.number(),
-  /** As written: `start:step:end` or a comma list. */
-  levels: z.string(),
-  count: z.number().int().nonnegative(),
-});
-export type LayerSet = z.infer<typeof layerSetSchema>;
-export const layerSetListSchema = z.array(layerSetSchema);
+export {
+  layerSetResponseSchema as layerSetSchema,
+  layerSetListResponseSchema as layerSetListSchema,
+  type LayerSetResponse as LayerSet,
+} from '../../../shared/api/resources';
 
 export interface LayerSetInput {
   name: string;

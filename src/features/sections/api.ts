@@ -2,9 +2,7 @@ import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient }
 import { http } from '../../lib/http';
 import { sectionKeys } from './keys';
 import {
-  derivedVariableListSchema,
   geostrophySchema,
-  layerSetListSchema,
   savedViewListSchema,
   savedViewSchema,
   sectionSchema,
@@ -46,20 +44,6 @@ export function useGeostrophy(cruiseId: string, query: string) {
     queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/geostrophy?${query}`, { schema: geostrophySchema, signal }),
     staleTime: 5 * 60_000,
     placeholderData: keepPreviousData,
-  });
-}
-
-export function useLayerSets(cruiseId: string) {
-  return useQuery({
-    queryKey: sectionKeys.layerSets(cruiseId),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/layer-sets`, { schema: layerSetListSchema, signal }),
-  });
-}
-
-export function useDerivedVariables(cruiseId: string) {
-  return useQuery({
-    queryKey: sectionKeys.derivedVariables(cruiseId),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/derived-variables`, { schema: derivedVariableListSchema, signal }),
   });
 }
 

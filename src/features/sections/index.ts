@@ -4,8 +4,6 @@ export {
   useSection,
   useTsPoints,
   useGeostrophy,
-  useLayerSets,
-  useDerivedVariables,
   useSavedViews,
   useSaveView,
   useDeleteView,

@@ -12,6 +12,4 @@ export const sectionKeys = {
   ts: (cruiseId: string, every: number) => [...sectionKeys.data(cruiseId), 'ts', every] as const,
   geostrophy: (cruiseId: string, query: string) => [...sectionKeys.data(cruiseId), 'geostrophy', query] as const,
   views: (cruiseId: string) => [...sectionKeys.all, 'views', cruiseId] as const,
-  layerSets: (cruiseId: string) => [...sectionKeys.all, 'layer-sets', cruiseId] as const,
-  derivedVariables: (cruiseId: string) => [...sectionKeys.all, 'derived-variables', cruiseId] as const,
 };

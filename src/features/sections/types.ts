@@ -86,22 +86,4 @@ export const savedViewSchema = z.object({ id, name: z.string(), query: z.string(
 export type SavedView = z.infer<typeof savedViewSchema>;
 export const savedViewListSchema = z.array(savedViewSchema);
 
-export const layerSetSchema = z.object({
-  id,
-  name: z.string(),
-  referencePressure: z.number(),
-  levels: z.string(),
-  count: z.number().int().nonnegative(),
-});
-export type LayerSet = z.infer<typeof layerSetSchema>;
-export const layerSetListSchema = z.array(layerSetSchema);
-
-export const derivedVariableSchema = z.object({
-  id,
-  name: z.string(),
-  formula: z.string(),
-  unit: z.string().nullable().optional().default(null),
-  description: z.string().nullable().optional().default(null),
-});
-export type DerivedVariable = z.infer<typeof derivedVariableSchema>;
-export const derivedVariableListSchema = z.array(derivedVariableSchema);
+export type { LayerSetResponse as LayerSet, DerivedVariableResponse as DerivedVariable } from '../../../shared/api/resources';

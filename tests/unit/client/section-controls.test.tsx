@@ -112,8 +112,8 @@ describe('Section controls and the URL', () => {
     const { q } = await renderSection();
     expect(lastSection('pressure').get('property')).toBe('CT');
     fireEvent.change(screen.getByLabelText('Property'), { target: { value: 'SA' } });
-    await waitFor(() => expect(q().get('property')).toBe('SA'));
-    await waitFor(() => expect(lastSection('pressure').get('property')).toBe('SA'));
+    await waitFor(() => expect(q().get('property')).toBe('SA'), { timeout: 5000 });
+    await waitFor(() => expect(lastSection('pressure').get('property')).toBe('SA'), { timeout: 5000 });
     expect(lastSection('density').get('property')).toBe('SA');
     // A derived variable is offered beside the cast columns.
     fireEvent.change(screen.getByLabelText('Property'), { target: { value: 'spice_anom' } });

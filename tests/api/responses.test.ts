@@ -1,0 +1,42 @@
+// Answers match the schemas their routes declare (RouteSpec.response, shared/api): every GET route of a
+// cruise that declares one is called as the cruise's chief scientist and its answer parsed.
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { makeTestApp, createUser, addMember, agentFor, type TestApp } from './helpers';
+import { Cruise, DerivedVariable, LayerSet } from '../../server/models/index';
+import type { RouteSpec } from '../../server/lib/routeTable';
+
+let t: TestApp;
+let cruiseId = '';
+let chief: Awaited<ReturnType<typeof agentFor>>;
+
+beforeAll(async () => {
+  t = await makeTestApp();
+  const u = await createUser('responses-chief@example.test');
+  const cruise = await Cruise.create({ name: 'Answers', ship: 'RV Tessellate', startDate: '2026-01-01', endDate: '2026-01-10', portStart: null,
+    portEnd: null, region: null, description: null, createdBy: u.id });
+  cruiseId = cruise.id;
+  await addMember(u.id, cruiseId, 'chief_scientist');
+  await LayerSet.create({ cruiseId, name: 'thermocline', referencePressure: 0, levels: '26.0:0.1:27.0', createdBy: u.id } as never);
+  await DerivedVariable.create({ cruiseId, name: 'CT_minus_pt0', formula: 'CT - pt0', unit: '°C', description: null, createdBy: u.id } as never);
+  chief = await agentFor(t.app, u.email);
+}, 120_000);
+afterAll(async () => { await t?.close(); });
+
+const declared = (): RouteSpec[] => t.app.routes.filter((r: RouteSpec) => r.response && r.method === 'get' && !/:(?!id\b)\w+/.test(r.path));
+
+describe('declared response schemas', () => {
+  it('at least the settings, layer-set and derived-variable lists declare one', () => {
+    const paths = declared().map((r) => r.path);
+    expect(paths).toEqual(expect.arrayContaining(['/settings', '/cruises/:id/layer-sets', '/cruises/:id/derived-variables']));
+  });
+
+  it('every declared GET answers in its schema, with the seeded rows', async () => {
+    for (const r of declared()) {
+      const res = await chief.agent.get('/api' + r.path.replace(':id', cruiseId));
+      expect(res.status, r.path).toBe(200);
+      const parsed = r.response!.safeParse(res.body);
+      expect(parsed.success, `${r.path}: ${parsed.success ? '' : JSON.stringify(parsed.error.issues)}`).toBe(true);
+      if (Array.isArray(res.body)) expect(res.body.length, r.path).toBeGreaterThan(0);
+    }
+  });
+});
