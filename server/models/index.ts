@@ -194,6 +194,25 @@ export class Delivery extends Model<InferAttributes<Delivery>, InferCreationAttr
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** A choice of cast at a line's station: a cast id, or a composite of a shallow cast above a deep one. */
+export type LineCastChoice = string | { shallow: string; deep: string; joinPressure: number };
+/** A line: a named, ordered list of a cruise's stations (docs/lines.md). */
+export class Line extends Model<InferAttributes<Line>, InferCreationAttributes<Line>> {
+  declare id: CreationOptional<string>;
+  declare cruiseId: string;
+  declare name: string;
+  declare isDefault: CreationOptional<boolean>;
+  declare stations: CreationOptional<string[]>;
+  declare casts: CreationOptional<Record<string, LineCastChoice>>;
+  declare include: CreationOptional<string[]>;
+  declare exclude: CreationOptional<string[]>;
+  declare polyline: [number, number][] | null;
+  declare corridorKm: number | null;
+  declare createdBy: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 const uuid = { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true };
 const ts = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE };
 
@@ -254,6 +273,12 @@ export function initModels(sequelize: Sequelize) {
     params: { type: DataTypes.JSONB, allowNull: false }, formats: { type: DataTypes.JSONB, allowNull: false }, status: { type: DataTypes.TEXT, defaultValue: 'queued' },
     progress: { type: DataTypes.DOUBLE, defaultValue: 0 }, files: { type: DataTypes.JSONB, defaultValue: [] }, error: DataTypes.TEXT,
     released: { type: DataTypes.BOOLEAN, defaultValue: false }, releasedAt: DataTypes.DATE, releasedBy: DataTypes.UUID, createdBy: DataTypes.UUID, ...ts }, opts('deliveries'));
+
+  Line.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
+    isDefault: { type: DataTypes.BOOLEAN, defaultValue: false }, stations: { type: DataTypes.JSONB, defaultValue: [] },
+    casts: { type: DataTypes.JSONB, defaultValue: {} }, include: { type: DataTypes.JSONB, defaultValue: [] },
+    exclude: { type: DataTypes.JSONB, defaultValue: [] }, polyline: { type: DataTypes.JSONB, allowNull: true },
+    corridorKm: { type: DataTypes.DOUBLE, allowNull: true }, createdBy: DataTypes.UUID, ...ts }, opts('lines'));
 
   User.hasMany(Membership, { foreignKey: 'userId' });
   Membership.belongsTo(User, { foreignKey: 'userId' });

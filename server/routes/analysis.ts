@@ -7,8 +7,9 @@ import { Cast, DerivedVariable, SavedView } from '../models/index';
 import { audit } from '../lib/audit';
 import { compileFormula } from '../../shared/derived/index';
 import { readColumns } from '../services/columns';
-import { loadCruiseCasts, applyFlags, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
-import { alongTrackDistance, geostrophicSection, transportPerLayer } from '../../shared/section/index';
+import { applyFlags, cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
+import { geostrophicSection, transportPerLayer } from '../../shared/section/index';
+import { loadLineCasts } from '../services/lines';
 import { resolveLayerBoundaries } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
 import { derivedVariableListResponseSchema } from '../../shared/api/resources';
@@ -24,12 +25,16 @@ const json = (a: ArrayLike<number>) => Array.from(a, (v) => (Number.isFinite(v) 
 const NewVariable = z.object({ name: z.string().trim().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/, 'a name of letters, digits and _, starting with a letter'),
   formula: z.string().trim().min(1).max(500), unit: z.string().trim().max(40).nullish(), description: z.string().trim().max(500).nullish() });
 const Preview = z.object({ formula: z.string().max(500) });
-const TsQuery = z.object({ every: z.coerce.number().int().min(1).max(1000).default(4) });
+const lineParam = z.string().max(64).optional();
+const TsQuery = z.object({ every: z.coerce.number().int().min(1).max(1000).default(4), line: lineParam });
 const GeoQuery = z.object({
   pRef: z.union([z.literal('deepest_common'), z.coerce.number().min(0).max(11000)]).default('deepest_common'),
   ref: referencePressureSchema.default(0),
   levels: z.string().max(20000).optional(),
   bin: z.coerce.number().positive().max(500).default(20),
+  /** pairs of adjacent stations closer than this, km, are skipped and named */
+  minDistanceKm: z.coerce.number().min(0).max(500).default(2),
+  line: lineParam,
 });
 const NewView = z.object({ name: z.string().trim().min(1).max(100), query: z.string().max(4000) });
 const RESERVED = new Set(['pressure', 'temperature', 'SP', 'SA', 'CT', 'pt0', 'sigma0', 'sigma1', 'sigma2', 'sigma3', 'sigma4', 'rho', 'spiciness0', 'z', 'depth', 'oxygen', 'N2', 'p_mid', 'conductivity']);
@@ -81,11 +86,12 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       } }),
     defineRoute({ method: 'get', path: '/cruises/:id/ts', summary: 'Conservative Temperature and Absolute Salinity of every cast, for the T–S diagram', rule: { kind: 'member', roles: 'any', cruise: byParam() }, query: TsQuery,
       handler: async (_req, _res, ctx) => {
-        const { every } = ctx.query as z.infer<typeof TsQuery>;
+        const { every, line } = ctx.query as z.infer<typeof TsQuery>;
         const version = await dataVersion(ctx.cruiseId!);
-        return cached(`ts:${ctx.cruiseId}:${version}:${every}`, async () => {
-          const casts = await loadCruiseCasts(ctx.cruiseId!, []);
-          const x = alongTrackDistance(Float64Array.from(casts.map((c) => c.longitude)), Float64Array.from(casts.map((c) => c.latitude)));
+        return cached(`ts:${ctx.cruiseId}:${version}:${every}:${line ?? ''}`, async () => {
+          const resolved = await loadLineCasts(ctx.cruiseId!, line, []);
+          const casts = resolved.casts;
+          const x = resolved.stations.map((st) => st.x);
           return casts.map((c, i) => {
             const cols = applyFlags(c, [1, 2]);
             const pick = (a: Float64Array) => { const out: (number | null)[] = []; for (let k = 0; k < a.length; k += every) out.push(Number.isFinite(a[k]) ? a[k] : null); return out; };
@@ -98,16 +104,19 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
         const q = ctx.query as z.infer<typeof GeoQuery>;
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`geo:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => {
-          const casts = (await loadCruiseCasts(ctx.cruiseId!, [])).filter((c) => c.columns.pressure.length > 2);
+          const resolved = await loadLineCasts(ctx.cruiseId!, q.line, []);
+          const xOf = new Map(resolved.stations.map((st) => [st.castId, st.x]));
+          const casts = resolved.casts.filter((c) => c.columns.pressure.length > 2);
           // Default layers: a thinned subset of the section's default levels (shared/api/levels.ts).
           const { text: levelsText, levels: boundaries } = resolveLayerBoundaries(casts, q.ref, q.levels);
-          const choices = { pRef: q.pRef, ref: q.ref, levels: levelsText, bin: q.bin };
+          const choices = { pRef: q.pRef, ref: q.ref, levels: levelsText, bin: q.bin, minDistanceKm: q.minDistanceKm, line: resolved.id };
           const convention = 'v = ΔD / (f·L) between adjacent casts A and B; positive is 90° to the left of the direction from A to B (looking along the section from its first cast: for a section run eastward, positive is northward).';
-          if (casts.length < 2) return { choices, convention, pressure: [], pairs: [], velocity: [], layers: [] };
+          if (casts.length < 2) return { choices, convention, pressure: [], pairs: [], skipped: [], velocity: [], layers: [] };
           const sec = geostrophicSection(casts.map((c) => { const k = applyFlags(c, [1, 2]); return { id: c.station, lon: c.longitude, lat: c.latitude, p: k.pressure, SA: k.SA, CT: k.CT }; }),
-            { pRef: q.pRef, binSize: q.bin, sigmaRef: q.ref });
+            { pRef: q.pRef, binSize: q.bin, sigmaRef: q.ref, positions: casts.map((c) => xOf.get(c.id)!), minDistanceKm: q.minDistanceKm });
           const layers = transportPerLayer(sec, boundaries);
           return { choices, convention, pressure: Array.from(sec.p), pairs: sec.pairs.map((p) => ({ a: p.a, b: p.b, x: p.x, widthKm: p.width / 1000, pRef: Number.isFinite(p.pRef) ? p.pRef : null })),
+            skipped: sec.skipped.map((k) => ({ ...k, why: `the stations are ${k.distanceKm.toFixed(2)} km apart, closer than ${q.minDistanceKm} km` })),
             velocity: sec.grid.z, layers: layers.map((l) => ({ sigmaTop: l.sigmaTop, sigmaBottom: l.sigmaBottom, transport: json(l.transport), total: l.total })) };
         });
       } }),

@@ -8,6 +8,7 @@ import { QUEUES } from '../services/queue';
 import { escapeHtml } from '../services/mailer';
 import { levelsOrError } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
+import { lineRow } from '../services/lines';
 import type { AppDeps } from '../lib/deps';
 
 const deliveryCruise = async (req: Request) => {
@@ -24,6 +25,8 @@ const NewDelivery = z.object({
   bin: z.number().positive().max(500).default(2),
   flags: z.array(z.number().int().min(1).max(9)).min(1).max(9).default([1, 2]),
   formats: z.array(z.enum(['csv', 'xlsx', 'nc'])).min(1).max(3),
+  /** the line (docs/lines.md); without it, the default line */
+  line: z.string().max(64).optional(),
 });
 
 export const deliveryJson = (d: Delivery) => ({ id: d.id, kind: d.kind, params: d.params, formats: d.formats, status: d.status, progress: d.progress,
@@ -40,6 +43,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewDelivery>;
         if (b.kind !== 'pressure' && b.levels) levelsOrError(b.levels);
+        b.line = (await lineRow(ctx.cruiseId!, b.line)).id;
         const d = await deps.db.sequelize.transaction(async (transaction) => {
           const row = await Delivery.create({ cruiseId: ctx.cruiseId!, kind: b.kind, params: { ...b }, formats: b.formats, error: null, releasedAt: null, releasedBy: null, createdBy: req.user!.id }, { transaction });
           await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'delivery', entityId: row.id, after: b }, transaction);

@@ -12,11 +12,14 @@ import { sectionRoutes } from './sections';
 import { analysisRoutes } from './analysis';
 import { deliveryRoutes } from './deliveries';
 import { settingsRoutes } from './settings';
+import { lineRoutes } from './lines';
 
 type RouteFactory = (deps: AppDeps) => RouteSpec[];
 
 /** The route modules after the foundation's; add a new area's factory here. */
-export const extraRouteFactories: RouteFactory[] = [uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes];
+export const extraRouteFactories: RouteFactory[] = [
+  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes,
+];
 
 /** Every route module, the foundation's first. */
 export const routeFactories: RouteFactory[] = [authRoutes, cruiseRoutes, teamRoutes, adminRoutes, ...extraRouteFactories];

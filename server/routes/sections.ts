@@ -21,8 +21,10 @@ export const IsopycnalQuery = z.object({
   inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
   interpolation: z.enum(['linear', 'pchip']).default('linear'),
   flags, extras,
+  /** the line (docs/lines.md); without it, the default line */
+  line: z.string().max(64).optional(),
 });
-const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras });
+const PressureQuery = z.object({ bin: z.coerce.number().positive().max(500).default(2), flags, extras, line: z.string().max(64).optional() });
 const LayerSetBody = z.object({ name: z.string().trim().min(1).max(100), referencePressure: ref, levels: z.string().trim().min(1).max(20000) });
 
 export function sectionRoutes(deps: AppDeps): RouteSpec[] {
@@ -32,7 +34,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({ method: 'get', path: '/cruises/:id/exports/isopycnal.csv', summary: 'The isopycnal table (CSV with provenance comment lines)', rule: { kind: 'member', roles: [...readers], cruise: byParam() }, query: IsopycnalQuery,
       handler: async (req, res, ctx) => {
         const q = ctx.query as z.infer<typeof IsopycnalQuery>;
-        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: q.levels ?? null, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras });
+        const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, { ref: q.ref, levels: q.levels ?? null, handling: q.inversions, interpolation: q.interpolation, flags: q.flags, extras: q.extras, line: q.line });
         res.setHeader('content-type', 'text/csv; charset=utf-8');
         res.setHeader('content-disposition', `attachment; filename="isopycnal-sigma${q.ref / 1000}.csv"`);
         csvStream(table).pipe(res);

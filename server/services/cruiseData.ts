@@ -9,6 +9,7 @@ import { ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryTable, type DeliveryC
 import { VERSION } from '../version';
 import { resolveLevels } from './levels';
 import { DEFAULT_LEVELS_RULE } from '../../shared/api/levels';
+import { loadLineCasts, lineProvenanceNote } from './lines';
 
 export type CruiseCast = {
   id: string; station: string; cast: string; latitude: number; longitude: number; time: Date | null; bottomDepth: number | null;
@@ -48,7 +49,9 @@ async function readDataVersion(cruiseId: string): Promise<string> {
   const [rows] = await Cast.sequelize!.query(
     `SELECT (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM casts WHERE cruise_id = :id) || ':' ||
             (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM layer_sets WHERE cruise_id = :id) || ':' ||
-            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM derived_variables WHERE cruise_id = :id) AS v`,
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM derived_variables WHERE cruise_id = :id) || ':' ||
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM lines WHERE cruise_id = :id) || ':' ||
+            (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM stations WHERE cruise_id = :id) AS v`,
     { replacements: { id: cruiseId } });
   return (rows as { v: string }[])[0].v;
 }
@@ -87,8 +90,11 @@ export function applyFlags(c: CruiseCast, include: number[]): Record<string, Flo
   return out;
 }
 
-/** levels: a specification as asked for, or null for the default levels of the reference pressure. */
-export type IsopycnalRequest = { ref: number; levels: string | null; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[] };
+/** levels: a specification as asked for, or null for the default levels of the reference pressure;
+ * line: a line id (docs/lines.md), or undefined for the cruise's default line. */
+export type IsopycnalRequest = {
+  ref: number; levels: string | null; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[]; extras: string[]; line?: string;
+};
 
 export const EOS = 'TEOS-10 (IOC, SCOR & IAPSO 2010); density from the 75-term polynomial of Roquet et al. (2015)';
 export const SAAR_SOURCE = 'McDougall et al. (2012) SAAR atlas, regenerated from Debian python3-gsw 3.6.16';
@@ -106,7 +112,8 @@ export async function provenanceFor(cruiseId: string, who: string, p: Partial<Pr
 const num = (v: number) => (Number.isFinite(v) ? v : null);
 
 export async function isopycnalTable(cruiseId: string, who: string, q: IsopycnalRequest): Promise<DeliveryTable> {
-  const casts = await loadCruiseCasts(cruiseId, q.extras);
+  const line = await loadLineCasts(cruiseId, q.line, q.extras);
+  const casts = line.casts;
   const { text: levelsText, levels, isDefault } = resolveLevels(casts, q.ref, q.levels);
   const extraCols: DeliveryColumn[] = q.extras.map((e) => ({ name: e.replace(/[^A-Za-z0-9_]/g, '_').replace(/^(\d)/, '_$1'), unit: null, type: 'number' }));
   const rows: DeliveryRow[] = [];
@@ -126,11 +133,12 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
   }
   return { kind: 'isopycnal', columns: [...ISOPYCNAL_COLUMNS, ...extraCols], rows,
     provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: levelsText, inversionHandling: q.handling, interpolation: q.interpolation, flagsIncluded: q.flags,
-      notes: isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : [] }) };
+      notes: [lineProvenanceNote(line), ...(isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : [])] }) };
 }
 
-export async function pressureTable(cruiseId: string, who: string, q: { bin: number; flags: number[]; extras: string[] }): Promise<DeliveryTable> {
-  const casts = await loadCruiseCasts(cruiseId, ['sigma0', 'temperature', 'SP', 'depth', ...q.extras]);
+export async function pressureTable(cruiseId: string, who: string, q: { bin: number; flags: number[]; extras: string[]; line?: string }): Promise<DeliveryTable> {
+  const line = await loadLineCasts(cruiseId, q.line, ['sigma0', 'temperature', 'SP', 'depth', ...q.extras]);
+  const casts = line.casts;
   const rows: DeliveryRow[] = [];
   const extraCols: DeliveryColumn[] = q.extras.map((e) => ({ name: e.replace(/[^A-Za-z0-9_]/g, '_').replace(/^(\d)/, '_$1'), unit: null, type: 'number' }));
   for (const c of casts) {
@@ -148,5 +156,5 @@ export async function pressureTable(cruiseId: string, who: string, q: { bin: num
     }
   }
   return { kind: 'pressure', columns: [...PRESSURE_COLUMNS, ...extraCols], rows,
-    provenance: await provenanceFor(cruiseId, who, { layerSet: `pressure bins of ${q.bin} dbar`, flagsIncluded: q.flags }) };
+    provenance: await provenanceFor(cruiseId, who, { layerSet: `pressure bins of ${q.bin} dbar`, flagsIncluded: q.flags, notes: [lineProvenanceNote(line)] }) };
 }

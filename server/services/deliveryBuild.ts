@@ -7,7 +7,7 @@ import { isopycnalTable, pressureTable } from './cruiseData';
 import { writeCsv, writeXlsx, tableToNetcdf, buildDataPackage, formatProvenanceText, DATA_CAUTION, type DeliveryTable } from './deliveries/index';
 import type { AppDeps } from '../lib/deps';
 
-export type DeliveryParams = { kind: 'isopycnal' | 'pressure' | 'package'; ref: number; levels?: string; inversions: 'sort' | 'drop' | 'raw'; interpolation: 'linear' | 'pchip'; bin: number; flags: number[]; formats: ('csv' | 'xlsx' | 'nc')[] };
+export type DeliveryParams = { kind: 'isopycnal' | 'pressure' | 'package'; ref: number; levels?: string; inversions: 'sort' | 'drop' | 'raw'; interpolation: 'linear' | 'pchip'; bin: number; flags: number[]; formats: ('csv' | 'xlsx' | 'nc')[]; line?: string };
 
 const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 async function toBuffer(stream: Readable): Promise<Buffer> {
@@ -17,8 +17,8 @@ async function toBuffer(stream: Readable): Promise<Buffer> {
 }
 
 export async function deliveryTables(cruiseId: string, who: string, p: DeliveryParams): Promise<{ name: string; table: DeliveryTable }[]> {
-  const iso = () => isopycnalTable(cruiseId, who, { ref: p.ref, levels: p.levels ?? null, handling: p.inversions, interpolation: p.interpolation, flags: p.flags, extras: [] });
-  const pres = () => pressureTable(cruiseId, who, { bin: p.bin, flags: p.flags, extras: [] });
+  const iso = () => isopycnalTable(cruiseId, who, { ref: p.ref, levels: p.levels ?? null, handling: p.inversions, interpolation: p.interpolation, flags: p.flags, extras: [], line: p.line });
+  const pres = () => pressureTable(cruiseId, who, { bin: p.bin, flags: p.flags, extras: [], line: p.line });
   if (p.kind === 'isopycnal') return [{ name: `isopycnal-sigma${p.ref / 1000}`, table: await iso() }];
   if (p.kind === 'pressure') return [{ name: `pressure-${p.bin}dbar`, table: await pres() }];
   return [{ name: `isopycnal-sigma${p.ref / 1000}`, table: await iso() }, { name: `pressure-${p.bin}dbar`, table: await pres() }];

@@ -2,11 +2,12 @@
 // with the stations, the bottom, isopycnals to draw over the pressure frame, and the inversion
 // warnings where they are. Every choice that made it is returned beside it.
 import { z } from 'zod';
-import { loadCruiseCasts, applyFlags, type CruiseCast } from './cruiseData';
+import { applyFlags, type CruiseCast } from './cruiseData';
+import { loadLineCasts, lineJson } from './lines';
 import { DerivedVariable } from '../models/index';
 import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
-import { buildPressureSection, buildDensitySection, isopycnalLines, alongIsopycnalGradient, fromRows, toRows, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
+import { unwrapLongitudes, buildPressureSection, buildDensitySection, isopycnalLines, alongIsopycnalGradient, fromRows, toRows, type SectionCast, type DensitySectionGrid } from '../../shared/section/index';
 import { z_from_p } from '../../shared/seawater/index';
 import { resolveLevels } from './levels';
 import { referencePressureSchema } from '../../shared/api/levels';
@@ -26,6 +27,10 @@ export const SectionQuery = z.object({
   gradients: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
   /** significant digits of the grid values (a screen needs 6; exports use full precision) */
   digits: z.coerce.number().int().min(3).max(17).optional(),
+  /** the line to draw (docs/lines.md); without it, the cruise's default line */
+  line: z.string().max(64).optional(),
+  /** the x axis: distance along the line (km), or latitude or longitude where the line runs meridionally or zonally */
+  xAxis: z.enum(['distance', 'latitude', 'longitude']).default('distance'),
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
@@ -48,13 +53,38 @@ function roundRows(rows: (number | null)[][], digits: number): (number | null)[]
   return rows.map((row) => row.map((v) => (v === null ? null : Number(v.toPrecision(digits)))));
 }
 
+const X_UNITS = { distance: 'km', latitude: '°N', longitude: '°E' } as const;
+
+/**
+ * x of each station by the chosen axis, keyed by cast id: the distance along the line, or the
+ * latitude or the (unwrapped) longitude. A coordinate axis needs the line to run one way in it; a line
+ * that runs towards the south (or west) is drawn from its far end so x still increases.
+ */
+function axisPositions(stations: { castId: string; x: number; latitude: number; longitude: number }[], axis: SectionQuery['xAxis']): Map<string, number> {
+  if (axis === 'distance') return new Map(stations.map((st) => [st.castId, st.x]));
+  const v = axis === 'latitude' ? stations.map((st) => st.latitude) : Array.from(unwrapLongitudes(stations.map((st) => st.longitude)));
+  const up = v.every((x, i) => i === 0 || x > v[i - 1]);
+  const down = v.every((x, i) => i === 0 || x < v[i - 1]);
+  if (!up && !down) {
+    throw badRequest(`The line does not run one way in ${axis}: draw it against distance.`, [{ field: 'xAxis', message: `${axis} is not monotonic along the line` }]);
+  }
+  return new Map(stations.map((st, i) => [st.castId, v[i]]));
+}
+
 export async function buildSectionView(cruiseId: string, q: SectionQuery) {
-  const all = await loadCruiseCasts(cruiseId, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
+  const resolved = await loadLineCasts(cruiseId, q.line, q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen|depth)$/.test(q.property) ? [q.property] : undefined);
+  const all = resolved.casts;
+  const { stations: lineStations, ...lineRest } = lineJson(resolved);
+  const line = { ...lineRest, stations: lineStations.map(({ candidates: _c, ...s }) => s) };
   const { text: levelsText, levels: targets } = resolveLevels(all, q.ref, q.levels);
   const choices = { property: q.property, coord: q.coord, ref: q.ref, sigma: `sigma${q.ref / 1000}`, levels: levelsText, inversions: q.inversions, interpolation: q.interpolation,
-    bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold };
+    bin: q.bin, gapFactor: q.gapFactor, threshold: q.threshold, line: resolved.id, xAxis: q.xAxis, xUnit: X_UNITS[q.xAxis] };
+  const xById = axisPositions(resolved.stations, q.xAxis);
   const raw = all.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);
-  if (!raw.length) return { choices, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, pressure: null, stations: [], bottom: [], gaps: [], inversions: [], isopycnals: [] };
+  if (!raw.length) return { choices, line, unit: UNITS[q.property] ?? '', grid: { x: [], y: [], z: [] }, pressure: null, stations: [], bottom: [], gaps: [], inversions: [], isopycnals: [] };
+  // A line that runs south (or west) in the chosen coordinate is drawn from its far end.
+  if (raw.length > 1 && xById.get(raw[0].id)! > xById.get(raw[raw.length - 1].id)!) raw.reverse();
+  const positions = raw.map((c) => xById.get(c.id)!);
   const values = await propertyColumns(cruiseId, q.property, raw);
   const casts: SectionCast[] = raw.map((c, i) => {
     const v = values[i] ?? new Float64Array(c.columns.pressure.length).fill(NaN);
@@ -63,14 +93,15 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     return { id: c.id, station: c.station, lon: c.longitude, lat: c.latitude, bottomDepth: c.bottomDepth, p: cols.pressure, z: cols.z, sigma, props: { [q.property]: cols[q.property] } };
   });
   const byId = new Map(raw.map((c) => [c.id, c]));
-  const common = { gapFactor: q.gapFactor, inversionThreshold: q.threshold };
+  const common = { gapFactor: q.gapFactor, inversionThreshold: q.threshold, positions };
   const grid = q.coord === 'pressure'
     ? buildPressureSection(casts, { property: q.property, binSize: q.bin, ...common })
     : buildDensitySection(casts, { property: q.property, targets, handling: q.inversions, interpolation: q.interpolation, ...common });
+  const lineInfo = new Map(resolved.stations.map((st) => [st.castId, { choice: st.choice, composite: st.composite, note: st.note }]));
   const stations = grid.casts.map((g) => {
     const c = byId.get(g.id)!;
     return { id: g.id, station: g.station, cast: c.cast, x: g.x, latitude: g.lat, longitude: g.lon, bottom: g.bottom, bottomDepth: g.bottomDepth,
-      deepest: c.columns.pressure[c.columns.pressure.length - 1] };
+      deepest: c.columns.pressure[c.columns.pressure.length - 1], ...lineInfo.get(g.id) };
   });
   const sigmaById = new Map(casts.map((c) => [c.id, c]));
   const inversions = grid.casts.flatMap((g) => g.inversions.map((v) => {
@@ -79,7 +110,7 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     return { castId: g.id, station: g.station, x: g.x, pTop: v.pTop, pBottom: v.pBottom, deficit: v.deficit, class: v.class, sigmaTop: at(v.pTop), sigmaBottom: at(v.pBottom) };
   }));
   const lineLevels = Float64Array.from(targets.filter((_, i) => i % Math.max(1, Math.round(targets.length / 14)) === 0));
-  const lines = q.coord === 'pressure' ? isopycnalLines(casts, lineLevels, q.inversions, q.interpolation) : null;
+  const lines = q.coord === 'pressure' ? isopycnalLines(casts, lineLevels, q.inversions, q.interpolation, { positions }) : null;
   const isopycnals = lines ? lines.sigma.map((sigma, j) => ({ sigma, p: lines.p[j] })) : [];
   const dens = grid as Partial<DensitySectionGrid>;
   let gradients = null;
@@ -94,6 +125,6 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   }
   const r = (rows: (number | null)[][] | null | undefined) => (rows && q.digits ? roundRows(rows, q.digits) : rows ?? null);
   if (gradients && q.digits) gradients = { ...gradients, slope: r(gradients.slope)!, alongLevel: r(gradients.alongLevel)!, alongIsopycnal: r(gradients.alongIsopycnal)! };
-  return { choices: { ...choices, digits: q.digits ?? null }, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: r(grid.z)! }, pressure: r(dens.pressure), depth: r(dens.depth),
+  return { choices: { ...choices, digits: q.digits ?? null }, line, unit: UNITS[q.property] ?? '', grid: { x: grid.x, y: grid.y, z: r(grid.z)! }, pressure: r(dens.pressure), depth: r(dens.depth),
     stations, bottom: grid.bottom, gaps: grid.gaps, medianSpacingKm: grid.medianSpacingKm, inversions, isopycnals, gradients };
 }

@@ -46,6 +46,8 @@ export function alongLineKm(lon: number, lat: number, a: [number, number], b: [n
 export interface DistanceOptions {
   /** A line drawn by the analyst, [[lon, lat], [lon, lat]] in degrees: project on it instead. */
   line?: [[number, number], [number, number]];
+  /** Distances already worked out along a line (line.ts lineDistances), km, one per cast in the order given. */
+  positions?: ArrayLike<number>;
 }
 
 /**
@@ -57,6 +59,11 @@ export function alongTrackDistance(lon: Float64Array, lat: Float64Array, opts: D
   const n = lon.length;
   const x = new Float64Array(n);
   if (n === 0) return x;
+  if (opts.positions) {
+    if (opts.positions.length !== n) throw new RangeError('one position per cast');
+    for (let i = 0; i < n; i++) x[i] = opts.positions[i];
+    return x;
+  }
   if (opts.line) {
     const [a, b] = opts.line;
     for (let i = 0; i < n; i++) x[i] = alongLineKm(lon[i], lat[i], a, b);

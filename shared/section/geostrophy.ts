@@ -12,7 +12,7 @@
 import { geo_strf_velocity, type DynHeightOptions } from '../seawater/geostrophy';
 import { sigma_batch } from '../seawater/density';
 import { z_from_p } from '../seawater/depth';
-import { alongTrackDistance } from './distance';
+import { alongTrackDistance, greatCircleKm } from './distance';
 
 export interface GeostrophyCast {
   id: string;
@@ -35,6 +35,10 @@ export interface GeostrophyOptions extends DynHeightOptions {
   binSize?: number;
   /** Reference pressure of the σ kept per pair for layer transports, dbar (default 0). */
   sigmaRef?: number;
+  /** Distance along the line of each cast, km (default: great-circle legs summed). */
+  positions?: ArrayLike<number>;
+  /** Pairs closer than this, km, are skipped and named (default 2 km): ΔD over a near-zero L is noise. */
+  minDistanceKm?: number;
 }
 
 export interface GeostrophicPair {
@@ -61,6 +65,8 @@ export interface GeostrophicSection {
   sigmaRef: number;
   /** Velocity as a JSON grid: x pair mid-points (km), y levels (dbar), z[iy][ix] m/s, null empty. */
   grid: { x: number[]; y: number[]; z: (number | null)[][] };
+  /** Adjacent casts closer than the minimum distance, not used. */
+  skipped: { a: string; b: string; distanceKm: number }[];
 }
 
 /** Column c of a cast linearly interpolated in pressure at the levels; NaN outside the cast. */
@@ -107,11 +113,15 @@ export function geostrophicSection(casts: GeostrophyCast[], opts: GeostrophyOpti
     const CT = onLevels(c.p, c.CT, levels!);
     return { SA, CT, sigma: sigma_batch(SA, CT, sigmaRef) };
   });
-  const x = alongTrackDistance(Float64Array.from(casts, (c) => c.lon), Float64Array.from(casts, (c) => c.lat));
+  const x = alongTrackDistance(Float64Array.from(casts, (c) => c.lon), Float64Array.from(casts, (c) => c.lat), { positions: opts.positions });
   const pairs: GeostrophicPair[] = [];
+  const skipped: GeostrophicSection['skipped'] = [];
+  const minKm = opts.minDistanceKm ?? 2;
   for (let i = 0; i + 1 < casts.length; i++) {
     const a = casts[i];
     const b = casts[i + 1];
+    const apartKm = greatCircleKm(a.lon, a.lat, b.lon, b.lat);
+    if (apartKm < minKm) { skipped.push({ a: a.id, b: b.id, distanceKm: apartKm }); continue; }
     const la = onLv[i];
     const lb = onLv[i + 1];
     const r = geo_strf_velocity({ SA: la.SA, CT: la.CT, lon: a.lon, lat: a.lat }, { SA: lb.SA, CT: lb.CT, lon: b.lon, lat: b.lat }, levels, opts.pRef, { max_dp: opts.max_dp, interpolation: opts.interpolation });
@@ -121,7 +131,7 @@ export function geostrophicSection(casts: GeostrophyCast[], opts: GeostrophyOpti
   }
   const z: (number | null)[][] = [];
   for (let j = 0; j < levels.length; j++) z.push(pairs.map((pr) => (Number.isFinite(pr.velocity[j]) ? pr.velocity[j] : null)));
-  return { p: levels, pairs, sigmaRef, grid: { x: pairs.map((pr) => pr.x), y: Array.from(levels), z } };
+  return { p: levels, pairs, sigmaRef, grid: { x: pairs.map((pr) => pr.x), y: Array.from(levels), z }, skipped };
 }
 
 export interface LayerTransport {

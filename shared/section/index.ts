@@ -3,3 +3,4 @@ export * from './distance';
 export * from './grid';
 export * from './slope';
 export * from './geostrophy';
+export * from './line';

@@ -228,6 +228,7 @@ export default function Section() {
             selectedCastId={view.station}
             onColourBy={(tsColour) => setView({ tsColour })}
             onSelectCast={(castId) => setView({ station: castId }, { replace: true })}
+            line={view.line}
           />
           <GeostrophyPanel
             cruiseId={cruise.id}

@@ -7,6 +7,7 @@ import { makeTestApp, createUser, addMember, agentFor, type TestApp } from './he
 import { Cast, Cruise, Delivery, Upload } from '../../server/models/index';
 import { ROLES, type Role } from '../../server/models/index';
 import type { RouteSpec } from '../../server/lib/routeTable';
+import { ensureDefaultLine } from '../../server/services/lines';
 
 let t: TestApp;
 const ids: Record<string, string> = {};
@@ -34,11 +35,14 @@ beforeAll(async () => {
   ids.cast = cast.id;
   const d = await Delivery.create({ cruiseId: cruise.id, kind: 'pressure', params: {}, formats: ['csv'], error: null, releasedAt: null, releasedBy: null, createdBy: chief.id, status: 'queued' });
   ids.delivery = d.id;
+  // the default line: it answers every role's DELETE with 409, so each role is tried on the same line
+  ids.line = (await ensureDefaultLine(cruise.id)).id;
 }, 120_000);
 afterAll(async () => { await t?.close(); });
 
 function urlFor(r: RouteSpec) {
-  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ids.delivery : ids.cruise;
+  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ids.delivery
+    : r.path.startsWith('/lines/') ? ids.line : ids.cruise;
   return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId|varId|viewId|deliveryId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
 }
 async function call(who: string, r: RouteSpec) {

@@ -30,10 +30,11 @@ export function useSection(cruiseId: string, query: string, enabled = true) {
   return useQuery({ ...sectionQuery(cruiseId, query), placeholderData: keepPreviousData, enabled });
 }
 
-export function useTsPoints(cruiseId: string, every = 4) {
+export function useTsPoints(cruiseId: string, every = 4, line: string | null = null) {
+  const lineQuery = line ? `&line=${encodeURIComponent(line)}` : '';
   return useQuery({
-    queryKey: sectionKeys.ts(cruiseId, every),
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/ts?every=${every}`, { schema: tsSchema, signal }),
+    queryKey: [...sectionKeys.ts(cruiseId, every), line],
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/ts?every=${every}${lineQuery}`, { schema: tsSchema, signal }),
     staleTime: 5 * 60_000,
   });
 }

@@ -31,6 +31,8 @@ export interface SectionViewState {
   tsColour: 'pressure' | 'station';
   /** Geostrophic reference: a pressure in dbar, or the deepest level common to each pair. */
   pRef: number | 'deepest_common';
+  /** The line drawn (a line id), or null for the cruise's default line. */
+  line: string | null;
 }
 
 export const DEFAULT_VIEW: Readonly<SectionViewState> = {
@@ -44,6 +46,7 @@ export const DEFAULT_VIEW: Readonly<SectionViewState> = {
   station: null,
   tsColour: 'pressure',
   pRef: 'deepest_common',
+  line: null,
 };
 
 /** The URL parameter of each part of the state. Short, because people paste these links. */
@@ -59,6 +62,7 @@ export const PARAM = {
   station: 'stn',
   tsColour: 'ts',
   pRef: 'pref',
+  line: 'line',
 } as const;
 
 /** Same rule as the server's `property` parameter: an identifier. */
@@ -86,6 +90,7 @@ export function parseViewState(search: URLSearchParams | string): SectionViewSta
   const max = finite(q.get(PARAM.rangeMax));
   const pRefRaw = q.get(PARAM.pRef);
   const pRefNumber = finite(pRefRaw);
+  const line = q.get(PARAM.line);
   return {
     property: property && property.length <= 64 && PROPERTY_RE.test(property) ? property : DEFAULT_VIEW.property,
     ref: oneOf(REFERENCE_PRESSURES, q.get(PARAM.ref), DEFAULT_VIEW.ref),
@@ -98,6 +103,7 @@ export function parseViewState(search: URLSearchParams | string): SectionViewSta
     station: station && ID_RE.test(station) ? station : null,
     tsColour: oneOf(['pressure', 'station'] as const, q.get(PARAM.tsColour), DEFAULT_VIEW.tsColour),
     pRef: pRefNumber !== null && pRefNumber > 0 && pRefNumber <= 12000 ? pRefNumber : DEFAULT_VIEW.pRef,
+    line: line && ID_RE.test(line) ? line : null,
   };
 }
 
@@ -117,6 +123,7 @@ export function serialiseViewState(state: SectionViewState): string {
   if (state.station) q.set(PARAM.station, state.station);
   if (state.tsColour !== DEFAULT_VIEW.tsColour) q.set(PARAM.tsColour, state.tsColour);
   if (state.pRef !== DEFAULT_VIEW.pRef) q.set(PARAM.pRef, String(state.pRef));
+  if (state.line) q.set(PARAM.line, state.line);
   return q.toString();
 }
 
@@ -134,6 +141,7 @@ export function sectionQueryString(
   q.set('inversions', state.inversions);
   q.set('interpolation', state.interpolation);
   q.set('bin', '10');
+  if (state.line) q.set('line', state.line);
   return q.toString();
 }
 
@@ -142,6 +150,7 @@ export function geostrophyQueryString(state: SectionViewState, levels: string | 
   q.set('pRef', String(state.pRef));
   q.set('ref', String(state.ref));
   if (levels) q.set('levels', levels);
+  if (state.line) q.set('line', state.line);
   return q.toString();
 }
 

@@ -22,6 +22,7 @@ const full: SectionViewState = {
   station: 'c-17',
   tsColour: 'station',
   pRef: 1500,
+  line: '0b6f7d2e-1c3a-4f5e-9a8b-7c6d5e4f3a2b',
 };
 
 describe('section view state in the URL', () => {
@@ -35,6 +36,14 @@ describe('section view state in the URL', () => {
     expect(parseViewState(q)).toEqual(full);
     expect(new URLSearchParams(q).get('cmin')).toBe('-1.5');
     expect(new URLSearchParams(q).get('ref')).toBe('2000');
+  });
+
+  it('carries the line into the URL and into the section and geostrophy queries', () => {
+    expect(new URLSearchParams(serialiseViewState(full)).get('line')).toBe(full.line);
+    expect(new URLSearchParams(sectionQueryString(full, 'pressure', null)).get('line')).toBe(full.line);
+    expect(new URLSearchParams(geostrophyQueryString(full, null)).get('line')).toBe(full.line);
+    expect(new URLSearchParams(sectionQueryString(DEFAULT_VIEW, 'pressure', null)).has('line')).toBe(false);
+    expect(parseViewState('line=bad%20id').line).toBeNull();
   });
 
   it('writes only what differs from the defaults', () => {
@@ -64,7 +73,7 @@ describe('section view state in the URL', () => {
   it('builds the section route query for each frame', () => {
     const pressure = new URLSearchParams(sectionQueryString(full, 'pressure', '36.8:0.02:37.1'));
     expect(Object.fromEntries(pressure)).toEqual({
-      property: 'sigma2', coord: 'pressure', ref: '2000', levels: '36.8:0.02:37.1', inversions: 'drop', interpolation: 'pchip', bin: '10',
+      property: 'sigma2', coord: 'pressure', ref: '2000', levels: '36.8:0.02:37.1', inversions: 'drop', interpolation: 'pchip', bin: '10', line: full.line,
     });
     // "Depth of isopycnals" is the pressure column shown on the σ grid.
     const density = new URLSearchParams(sectionQueryString(full, 'density', null));

@@ -69,7 +69,7 @@ describe('transportPerLayer', () => {
     const section: GeostrophicSection = {
       p: lv, sigmaRef: 0,
       pairs: [{ a: 'a', b: 'b', x: 50, width: 1e5, lat: 20, pRef: 1000, velocity: new Float64Array(11).fill(0.1), sigma: lv.map((v) => 26 + v / 1000) }],
-      grid: { x: [50], y: Array.from(lv), z: [] },
+      grid: { x: [50], y: Array.from(lv), z: [] }, skipped: [],
     };
     const layers = transportPerLayer(section, Float64Array.from([26, 26.25, 27]));
     // Interface 26.25 lies at 250 dbar, inside the 200–300 dbar interval: the piece above it

@@ -15,14 +15,16 @@ export interface TsPanelProps {
   onColourBy: (by: 'pressure' | 'station') => void;
   onSelectCast: (castId: string) => void;
   height?: number;
+  /** The line drawn (null: the default line). */
+  line?: string | null;
 }
 
 /** CT against SA for every cast, over σ contours at the view's reference pressure computed here. */
-export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onColourBy, onSelectCast, height = 420 }: TsPanelProps) {
+export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onColourBy, onSelectCast, height = 420, line = null }: TsPanelProps) {
   // SVG points (the Plotly bundle we ship is the cartesian one, without WebGL traces, which our
   // Content-Security-Policy would forbid anyway): every 16th level keeps it quick.
   const every = 16;
-  const ts = useTsPoints(cruiseId, every);
+  const ts = useTsPoints(cruiseId, every, line);
   const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, 'scatter') : null), [ts.data, refPressure, colourBy, selectedCastId]);
 
   return (
