@@ -111,7 +111,7 @@ async function main(): Promise<void> {
         rows.push([p[k].toFixed(1), t.toFixed(4), SPof(sr).toFixed(4), Number.isFinite(ox) ? ox.toFixed(1) : ''].join(','));
       }
       const i = Number(st.replace(/\D/g, ''));
-      const when = new Date(Date.parse(md.time!) - TEN_YEARS_MS + 3600e3 * ((i * 7) % 5));
+      const when = new Date(Date.parse(md.time!) - TEN_YEARS_MS);
       const lat = md.latitude! + 0.008 * Math.cos(i);
       const lon = md.longitude! + 0.01 * Math.sin(i);
       const time = when.toISOString().replace(/\.\d{3}Z$/, 'Z');

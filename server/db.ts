@@ -3,6 +3,7 @@ import { initModels } from './models/index';
 import * as m001 from './migrations/001-initial';
 import * as m002 from './migrations/002-analysis-and-deliveries';
 import * as m004 from './migrations/004-lines';
+import * as m009 from './migrations/009-line-links';
 import type { QueryInterface } from 'sequelize';
 
 export type Db = { sequelize: Sequelize };
@@ -21,7 +22,8 @@ export function connectDb(databaseUrl: string, opts: { poolMax?: number } = {}):
 
 type Migration = { name: string; up: (qi: QueryInterface) => Promise<void> };
 export const MIGRATIONS: Migration[] = [{ name: '001-initial', up: m001.up }, { name: '002-analysis-and-deliveries', up: m002.up },
-  { name: '004-lines', up: m004.up }];
+  { name: '004-lines', up: m004.up },
+  { name: '009-line-links', up: m009.up }];
 
 /** Runs forward every migration not yet applied, each in its own transaction, under an advisory lock
  * so that several processes starting at once migrate once. */

@@ -13,12 +13,13 @@ import { analysisRoutes } from './analysis';
 import { deliveryRoutes } from './deliveries';
 import { settingsRoutes } from './settings';
 import { lineRoutes } from './lines';
+import { comparisonRoutes } from './comparisons';
 
 type RouteFactory = (deps: AppDeps) => RouteSpec[];
 
 /** The route modules after the foundation's; add a new area's factory here. */
 export const extraRouteFactories: RouteFactory[] = [
-  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes,
+  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, comparisonRoutes,
 ];
 
 /** Every route module, the foundation's first. */

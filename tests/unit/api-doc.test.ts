@@ -28,6 +28,7 @@ const CONTRACT: [string, string, string][] = [
   ['get', '/cruises/:id/exports/pressure.csv', 'pi,chief_scientist,analyst'],
   ['post', '/cruises/:id/deliveries', 'pi,chief_scientist,analyst'],
   ['get', '/deliveries/:id', 'member'],
+  ['post', '/comparisons', 'member'],
 ];
 
 const ruleText = (r: (typeof routes)[number]['rule']) =>
