@@ -4,7 +4,7 @@
 import { z } from 'zod';
 import type { Request } from 'express';
 import { defineRoute, type RouteSpec } from '../lib/routeTable';
-import { ComparisonBody, buildComparison, lineCruiseId, occupationsOf, linkLines, unlinkLines } from '../services/comparisons';
+import { ComparisonBody, buildComparison, comparisonBodyBytes, lineCruiseId, occupationsOf, linkLines, unlinkLines } from '../services/comparisons';
 import { comparisonCsv, comparisonNetcdf } from '../services/comparisonExport';
 import type { AppDeps } from '../lib/deps';
 
@@ -30,7 +30,12 @@ export function comparisonRoutes(_deps: AppDeps): RouteSpec[] {
   const editors = ['chief_scientist', 'analyst'] as const;
   return [
     defineRoute({ method: 'post', path: '/comparisons', summary: 'Two occupations of one line on common positions: grids of both, differences on pressure and on isopycnals, heave, the Bindoff & McDougall split, means, transport change', rule: { kind: 'member', roles: 'any', cruise: bodyLineA }, body: ComparisonBody,
-      handler: async (req, _res, ctx) => buildComparison(req.user!.id, ctx.body) }),
+      handler: async (req, res, ctx) => {
+        const body = await comparisonBodyBytes(req.user!.id, ctx.body);
+        res.type('application/json').setHeader('vary', 'accept-encoding');
+        if (/\bgzip\b/.test(String(req.headers['accept-encoding'] ?? ''))) res.setHeader('content-encoding', 'gzip').send(body.gz);
+        else res.send(body.json);
+      } }),
     defineRoute({ method: 'get', path: '/comparisons/export', summary: 'A comparison as CSV (one frame) or NetCDF-CF, with provenance naming both cruises and lines', rule: { kind: 'member', roles: [...readers], cruise: queryLineA }, query: ExportQuery,
       handler: async (req, res) => {
         const parsed = ComparisonQuery.safeParse(req.query);

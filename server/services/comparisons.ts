@@ -4,6 +4,7 @@
 // and which lines of other cruises count as occupations of a line (same name, same section
 // identifier, or linked by hand). Access: the user must belong to both cruises (404 otherwise).
 import { z } from 'zod';
+import { gzipSync } from 'node:zlib';
 import { QueryTypes } from 'sequelize';
 import { Cruise, Line, Membership } from '../models/index';
 import { cached, dataVersion, type CruiseCast } from './cruiseData';
@@ -160,11 +161,25 @@ function answer(a: Occupation, b: Occupation, q: ComparisonBody, levelsText: str
 }
 export type ComparisonAnswer = ReturnType<typeof answer>;
 
+/** The cache key of a comparison: both lines (and their last change), both cruises' data versions, the choices. */
+async function comparisonKey(userId: string, q: ComparisonBody): Promise<{ key: string; rowA: Line; rowB: Line }> {
+  const [rowA, rowB] = await Promise.all([lineForMember(userId, q.lineA), lineForMember(userId, q.lineB)]);
+  const [vA, vB] = await Promise.all([dataVersion(rowA.cruiseId), dataVersion(rowB.cruiseId)]);
+  return { key: `comparison:${rowA.id}:${rowA.updatedAt.getTime()}:${vA}:${rowB.id}:${rowB.updatedAt.getTime()}:${vB}:${JSON.stringify(q)}`, rowA, rowB };
+}
+
+/** The comparison serialised, plain and gzipped, cached like a section: a warm read is a lookup and a write. */
+export async function comparisonBodyBytes(userId: string, q: ComparisonBody): Promise<{ json: Buffer; gz: Buffer }> {
+  const { key } = await comparisonKey(userId, q);
+  return cached(`bytes:${key}`, async () => {
+    const json = Buffer.from(JSON.stringify(await buildComparison(userId, q)));
+    return { json, gz: gzipSync(json, { level: 6 }) };
+  });
+}
+
 /** Build (or read from the cache) the comparison of two lines for a user who belongs to both cruises. */
 export async function buildComparison(userId: string, q: ComparisonBody): Promise<ComparisonAnswer> {
-  const [rowA, rowB] = [await lineForMember(userId, q.lineA), await lineForMember(userId, q.lineB)];
-  const [vA, vB] = [await dataVersion(rowA.cruiseId), await dataVersion(rowB.cruiseId)];
-  const key = `comparison:${rowA.id}:${rowA.updatedAt.getTime()}:${vA}:${rowB.id}:${rowB.updatedAt.getTime()}:${vB}:${JSON.stringify(q)}`;
+  const { key, rowA, rowB } = await comparisonKey(userId, q);
   return cached(key, async () => {
     const a = await loadOccupation(rowA, q);
     const b = await loadOccupation(rowB, q);

@@ -21,7 +21,7 @@ export async function bench(): Promise<BenchResult[]> {
       await t.deps.db.sequelize.transaction(async (transaction) => {
         for (const k of occ) {
           const row = await Cast.create({ cruiseId: c.id, uploadId: up.id, station: k.station, cast: k.cast, latitude: k.lat, longitude: k.lon, time: new Date(k.time!),
-            bottomDepth: 5200, levels: k.p.length, inversionCount: 0, inversions: [], sourceFile: 'bench.csv', sourceSha256: 'b'.repeat(64) }, { transaction });
+            bottomDepth: 5200, levels: k.p.length, inversionCount: 0, inversions: [], sourceFile: `${k.station}.csv`, sourceSha256: 'b'.repeat(64) }, { transaction });
           const z = Float64Array.from(k.p, (p) => -p * 0.99);
           await writeColumns(row.id, [
             { name: 'pressure', unit: 'dbar', kind: 'measured', values: k.p }, { name: 'SA', unit: 'g/kg', kind: 'derived', values: k.SA },
@@ -36,9 +36,11 @@ export async function bench(): Promise<BenchResult[]> {
     const base = `http://127.0.0.1:${(server.address() as { port: number }).port}`;
     const csrfRes = await fetch(`${base}/api/auth/csrf`);
     let cookie = (csrfRes.headers.get('set-cookie') ?? '').split(';')[0];
-    const token = ((await csrfRes.json()) as { token: string }).token;
+    let token = ((await csrfRes.json()) as { token: string }).token;
     const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { cookie, 'content-type': 'application/json', 'x-csrf-token': token }, body: JSON.stringify({ email: u.email, password: 'correct-horse-42' }) });
     cookie = (login.headers.get('set-cookie') ?? cookie).split(';')[0];
+    // signing in issues a new session, and with it a new CSRF token
+    token = ((await (await fetch(`${base}/api/auth/csrf`, { headers: { cookie } })).json()) as { token: string }).token;
     const defaultLine = async (cruiseId: string) => ((await (await fetch(`${base}/api/cruises/${cruiseId}/lines`, { headers: { cookie } })).json()) as { id: string; isDefault: boolean }[]).find((l) => l.isDefault)!.id;
     const [lineA, lineB] = [await defaultLine(lineIds[0]), await defaultLine(lineIds[1])];
     const time = async (pair: number) => {
