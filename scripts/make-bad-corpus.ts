@@ -5,6 +5,8 @@ import { mkdirSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import yazl from 'yazl';
 import { mulberry32 } from './lib/prng';
+import { writeNetcdf, type NcVariable } from '../server/services/deliveries/netcdf';
+import { acquisitionSamples } from './lib/acquisitionSamples';
 
 const OUT = join(import.meta.dirname, '..', 'fixtures', 'bad');
 
@@ -182,7 +184,9 @@ for (let k = 0; k < 15; k++) {
   const body = Buffer.alloc(int(64, 2048));
   for (let i = 0; i < body.length; i++) body[i] = Math.floor(rand() * 256);
   body[int(0, body.length - 1)] = 0;
-  add(`binary-${nm}-${pad(k)}.csv`, Buffer.concat([Buffer.from(m), body]), { expect: 'binary', what: `binary content (${nm})` });
+  // netCDF magic goes to the netCDF reader, which names the broken header
+  const expect = nm === 'netcdf' ? 'netcdf_corrupt' : 'binary';
+  add(`binary-${nm}-${pad(k)}.csv`, Buffer.concat([Buffer.from(m), body]), { expect, what: `binary content (${nm})` });
 }
 {
   const ls = plainLines();
@@ -357,7 +361,7 @@ for (let k = 0; k < 12; k++) {
 {
   const base = exchangeLines();
   add('exchange-no-type-line.csv', join_(base.slice(1)), { expect: 'exchange_bad_header', line: 1, what: 'no "CTD,stamp" first line' });
-  add('exchange-wrong-type-line.csv', join_(['BOTTLE,20260306SGMLNE', ...base.slice(1)]), { expect: 'exchange_bad_header', line: 1, what: 'a bottle-file type line' });
+  add('exchange-wrong-type-line.csv', join_(['BOTTLE,20260306SGMLNE', ...base.slice(1)]), { expect: 'exchange_bottle', line: 1, what: 'a bottle-file type line: refused as bottle data, not read yet' });
   for (const [k, n] of [12, 30, 3].entries()) {
     const ls = exchangeLines();
     ls[2] = `NUMBER_HEADERS = ${n}`;
@@ -481,6 +485,74 @@ async function zips(): Promise<void> {
     column: 2,
     what: 'a zip with one cast holding text in a number',
   });
+}
+
+
+// ---- malformed netCDF (no random numbers here, so the files above stay as they were) ---------
+{
+  const T = (p: number): number => 4 + 16 * Math.exp(-p / 300);
+  const S = (p: number): number => 34.6 + Math.exp(-p / 250);
+  const ps = Array.from({ length: 40 }, (_, k) => 2 + 2 * k);
+  const cf = (o: { globals?: Record<string, string>; lat?: number; temp?: number[] | null; drop?: string[]; rowSize?: number[] } = {}): Buffer => {
+    const vars: NcVariable[] = [
+      { name: 'latitude', type: 'double', dimensions: [], attributes: { standard_name: 'latitude', units: 'degrees_north' }, data: [o.lat ?? -40] },
+      { name: 'longitude', type: 'double', dimensions: [], attributes: { standard_name: 'longitude', units: 'degrees_east' }, data: [12] },
+      { name: 'time', type: 'double', dimensions: [], attributes: { standard_name: 'time', units: 'days since 2026-01-01' }, data: [3] },
+      { name: 'pres', type: 'double', dimensions: ['z'], attributes: { standard_name: 'sea_water_pressure', units: 'dbar' }, data: ps },
+      { name: 'temp', type: 'double', dimensions: ['z'], attributes: { standard_name: 'sea_water_temperature', units: 'degree_Celsius' }, data: o.temp ?? ps.map(T) },
+      { name: 'psal', type: 'double', dimensions: ['z'], attributes: { standard_name: 'sea_water_practical_salinity', units: '1' }, data: ps.map(S) },
+    ];
+    if (o.rowSize) vars.push({ name: 'row_size', type: 'int', dimensions: ['profile'], attributes: { sample_dimension: 'z' }, data: o.rowSize });
+    return writeNetcdf({
+      dimensions: [{ name: 'z', size: ps.length }, ...(o.rowSize ? [{ name: 'profile', size: o.rowSize.length }] : [])],
+      globalAttributes: { Conventions: 'CF-1.8', featureType: 'profile', station: 'N-1', ...o.globals },
+      variables: vars.filter((v) => !(o.drop ?? []).includes(v.name)),
+    });
+  };
+  const good = cf();
+  for (const [k, frac] of [0.3, 0.6, 0.9].entries())
+    add(`netcdf-truncated-${pad(k)}.nc`, good.subarray(0, Math.floor(good.length * frac)), { expect: 'netcdf_corrupt', what: `a netCDF file cut to ${frac * 100}%` });
+  const garbled = Buffer.from(good);
+  garbled.fill(0xee, 8, 40);
+  add('netcdf-garbled-header.nc', garbled, { expect: 'netcdf_corrupt', what: 'netCDF magic, then a garbled header' });
+  add('netcdf-cdf5.nc', Buffer.concat([Buffer.from('CDF\x05'), good.subarray(4)]), { expect: 'netcdf_unsupported', what: 'netCDF-3 with 64-bit data (CDF-5)' });
+  add('netcdf-hdf5.nc', Buffer.concat([Buffer.from([0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(200, 1)]), { expect: 'netcdf_unsupported', what: 'a netCDF-4 (HDF5) file' });
+  add('netcdf-timeseries.nc', cf({ globals: { featureType: 'timeSeries' } }), { expect: 'netcdf_not_profile', what: 'a CF time series, not a profile' });
+  add('netcdf-no-temperature.nc', cf({ drop: ['temp'] }), { expect: 'missing_column', what: 'no temperature variable' });
+  add('netcdf-hot-water.nc', cf({ temp: ps.map(() => 80) }), { expect: 'temperature_out_of_range', what: 'temperature 80 °C at every level' });
+  add('netcdf-latitude.nc', cf({ lat: 95 }), { expect: 'latitude_out_of_range', what: 'latitude 95°' });
+  add('netcdf-ragged-overrun.nc', cf({ rowSize: [30, 30] }), { expect: 'netcdf_bad_structure', what: 'row_size adds up to more levels than the file has' });
+}
+
+
+// ---- malformed acquisition text exports (no random numbers here either) -----------------------
+{
+  const good = acquisitionSamples()['acquisition-two-pairs.txt'].split('\n');
+  if (good[good.length - 1] === '') good.pop();
+  const endAt = good.indexOf('*END*'); // 0-based
+  const firstData = endAt + 1;
+  const mod = (f: (ls: string[]) => void): string => {
+    const ls = [...good];
+    f(ls);
+    return join_(ls);
+  };
+  add('acquisition-no-end.txt', mod((ls) => ls.splice(endAt, 1)), { expect: 'acquisition_missing_end', line: endAt + 1, what: 'no *END* line: data inside the header' });
+  add('acquisition-header-only.txt', join_(good.slice(0, endAt)), { expect: 'acquisition_missing_end', what: 'a header that never ends' });
+  add('acquisition-declaration-gap.txt', mod((ls) => { const i = ls.findIndex((l) => l.startsWith('# name 3 =')); ls.splice(i, 1); }), {
+    expect: 'acquisition_bad_header', what: 'column declarations 0, 1, 2, 4, … (3 missing)' });
+  add('acquisition-bad-flag-text.txt', mod((ls) => { const i = ls.findIndex((l) => l.startsWith('# bad_flag')); ls[i] = '# bad_flag = none'; }), {
+    expect: 'acquisition_bad_header', line: good.findIndex((l) => l.startsWith('# bad_flag')) + 1, what: 'a bad_flag that is not a number' });
+  add('acquisition-no-temperature.txt', mod((ls) => {
+    for (const n of [1, 2]) { const i = ls.findIndex((l) => l.startsWith(`# name ${n} =`)); ls[i] = ls[i].replace(/Temperature(, 2)? \[ITS-90, deg C\]/, 'Sensor $1 [V]'); }
+  }), { expect: 'missing_column', what: 'no column declared as a temperature' });
+  add('acquisition-field-count.txt', mod((ls) => { ls[firstData + 30] = ls[firstData + 30].trim().split(/\s+/).slice(0, 7).join('  '); }), {
+    expect: 'field_count', line: firstData + 31, what: 'a data line with 7 of 11 fields' });
+  add('acquisition-text-in-data.txt', mod((ls) => { const f = ls[firstData + 5].trim().split(/\s+/); f[1] = 'warm'; ls[firstData + 5] = f.join('  '); }), {
+    expect: 'text_in_numeric', line: firstData + 6, column: 2, what: 'text in the temperature column' });
+  add('acquisition-nmea-latitude.txt', mod((ls) => { const i = ls.findIndex((l) => l.startsWith('* NMEA Latitude')); ls[i] = '* NMEA Latitude = 95 00.00 N'; }), {
+    expect: 'latitude_out_of_range', line: good.findIndex((l) => l.startsWith('* NMEA Latitude')) + 1, what: 'an NMEA latitude of 95°' });
+  const whole = join_(good);
+  add('acquisition-truncated.txt', whole.slice(0, whole.length - 30), { expect: 'truncated', line: good.length, what: 'cut off in the last data line' });
 }
 
 async function main(): Promise<void> {

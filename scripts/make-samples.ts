@@ -4,6 +4,8 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import yazl from 'yazl';
+import { netcdfSamples } from './lib/netcdfSamples';
+import { acquisitionSamples } from './lib/acquisitionSamples';
 
 const OUT = join(import.meta.dirname, '..', 'fixtures', 'samples');
 
@@ -146,6 +148,7 @@ async function main(): Promise<void> {
     'casts/stations.csv': files['stations.csv'],
     'casts/exchange_ct1.csv': files['exchange_ct1.csv'],
   });
+  Object.assign(files, netcdfSamples(), acquisitionSamples());
   for (const [name, data] of Object.entries(files)) writeFileSync(join(OUT, name), data);
   console.log(`wrote ${Object.keys(files).length} samples to ${OUT}`);
 }

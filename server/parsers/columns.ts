@@ -50,7 +50,7 @@ export function roleOfName(name: string): ColumnRole | null {
   return BY_NAME.get(normaliseName(name)) ?? null;
 }
 
-function extraKey(name: string): string {
+export function extraKey(name: string): string {
   const n = normaliseName(name);
   return KNOWN_EXTRAS[n] ?? (n.replace(/ /g, '_') || 'column');
 }

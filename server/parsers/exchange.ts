@@ -2,12 +2,14 @@
 // naming the file type and a stamp ("CTD,20260304ABCDEF"), `#` comments, a `NUMBER_HEADERS = n`
 // block of `KEY = value` metadata, a parameter-name line, a units line, comma-separated data with
 // `*_FLAG_W` quality columns and fill value -999, and `END_DATA`.
-import type { FileError, ParsedCast } from '../../shared/schemas/cast';
+import type { CastMetadata, FileError, ParsedCast } from '../../shared/schemas/cast';
 import { buildCast } from './build';
 import { collectMetadata, type MetaPair } from './metadata';
 import { decodeText, fileError, ParseFailure, splitLines } from './text';
 
-export const EXCHANGE_FIRST_LINE = /^\s*CTD\s*,\s*([^,\s]*)\s*$/i;
+export const EXCHANGE_FIRST_LINE = /^\s*CTD\s*,\s*([^,\s]*)[\s,]*$/i;
+/** The first line of an exchange bottle file ("BOTTLE,20170123ABCDEF"). */
+export const EXCHANGE_BOTTLE_FIRST_LINE = /^\s*BOTTLE\s*,\s*([^,\s]*)[\s,]*$/i;
 
 function bad(file: string, line: number | null, message: string): ParseFailure {
   return new ParseFailure([fileError(file, line, null, 'exchange_bad_header', message)]);
@@ -29,7 +31,7 @@ export function parseExchange(
   const isSkippable = (l: string): boolean => l.trim() === '' || l.trimStart().startsWith('#');
   while (i < lines.length && isSkippable(lines[i])) i++;
   if (i >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', 'the file ends before its NUMBER_HEADERS line')]);
-  const nh = /^\s*NUMBER_HEADERS\s*=\s*(\d+)\s*$/i.exec(lines[i]);
+  const nh = /^\s*NUMBER_HEADERS\s*=\s*(\d+)[\s,]*$/i.exec(lines[i]);
   if (!nh) throw bad(file, i + 1, `line ${i + 1}: expected "NUMBER_HEADERS = n", found ${JSON.stringify(lines[i].slice(0, 60))}`);
   const count = Number(nh[1]);
   if (count < 1 || count > 200) throw bad(file, i + 1, `line ${i + 1}: NUMBER_HEADERS = ${count} is not a sensible count (1..200)`);
@@ -39,7 +41,8 @@ export function parseExchange(
     if (i >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', `the file ends inside its header block (${pairs.length + 1} of ${count} header lines)`)]);
     const l = lines[i];
     if (!isSkippable(l)) {
-      const m = /^\s*([A-Za-z][A-Za-z0-9_]*)\s*=\s*(.*?)\s*$/.exec(l);
+      // Spreadsheet-saved files pad every line with commas: "STNNBR = 5,,,,".
+      const m = /^\s*([A-Za-z][A-Za-z0-9_]*)\s*=\s*(.*?)[\s,]*$/.exec(l);
       if (!m)
         throw bad(file, i + 1, `line ${i + 1}: expected header line ${pairs.length + 2} of ${count} ("KEY = value"), found ${JSON.stringify(l.slice(0, 60))}`);
       pairs.push({ key: m[1], value: m[2], line: i + 1 });
@@ -50,6 +53,7 @@ export function parseExchange(
   if (i + 1 >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', 'the file ends before its parameter and units lines')]);
   const paramLine = i + 1;
   const params = lines[i].split(',').map((s) => s.trim());
+  while (params.length > 1 && params[params.length - 1] === '') params.pop(); // comma padding
   if (params.some((p) => p === '') || params.some((p) => /=/.test(p)))
     throw bad(file, paramLine, `line ${paramLine}: the parameter-name line has an empty or malformed name`);
   const unitsRaw = lines[i + 1].split(',').map((s) => s.trim());
@@ -67,11 +71,13 @@ export function parseExchange(
     const l = lines[i];
     const tl = l.trim();
     if (tl === '' || tl.startsWith('#')) continue;
-    if (/^END_DATA$/i.test(tl)) {
+    if (/^END_DATA[\s,]*$/i.test(tl)) {
       ended = true;
       break;
     }
-    rows.push(l.split(','));
+    const f = l.split(',');
+    while (f.length > params.length && f[f.length - 1].trim() === '') f.pop(); // comma padding
+    rows.push(f);
     rowLines.push(i + 1);
   }
   if (!ended)
@@ -88,6 +94,7 @@ export function parseExchange(
   const md = collectMetadata(file, pairs, true);
   if (md.errors.length > 0) throw new ParseFailure(md.errors);
   if (stamp) md.metadata.extra['file_stamp'] = stamp;
+  const notes = exchangeHeaderGaps(file, pairs, md.metadata, warnings);
   return buildCast({
     file,
     format: 'exchange',
@@ -99,8 +106,43 @@ export function parseExchange(
     rows,
     rowLines,
     metadata: md.metadata,
-    notes: [],
+    notes,
     warnings,
     mapping: options.columnMapping,
   });
+}
+
+/** Station and cast from the data office's file name EXPOCODE_STATION_CAST_ct1.csv (zero-padded). */
+export function stationCastFromFileName(file: string): { station: string; cast: string } | null {
+  const base = file.split('/').pop() ?? file;
+  const m = /^[^_]+_0*([A-Za-z0-9]+)_0*(\d+)_ct1\.csv$/i.exec(base);
+  if (!m) return null;
+  return { station: m[1] === '' ? '0' : m[1], cast: m[2] === '' ? '0' : m[2] };
+}
+
+/**
+ * What the header lacks: station and cast from the standard file name (said in the notes), and a
+ * warning, not a failure, for a missing SECT_ID, DEPTH or TIME.
+ */
+function exchangeHeaderGaps(file: string, pairs: MetaPair[], md: CastMetadata, warnings: FileError[]): string[] {
+  const notes: string[] = [];
+  const has = (re: RegExp) => pairs.some((p) => re.test(p.key) && p.value.trim() !== '' && !/^-999(\.0*)?$/.test(p.value.trim()));
+  if (md.station === null || md.cast === null) {
+    const fromName = stationCastFromFileName(file);
+    if (fromName) {
+      const took: string[] = [];
+      if (md.station === null) (md.station = fromName.station), took.push(`station ${fromName.station}`);
+      if (md.cast === null) (md.cast = fromName.cast), took.push(`cast ${fromName.cast}`);
+      notes.push(`${took.join(' and ')} taken from the file name (EXPOCODE_STATION_CAST_ct1.csv); the header does not give ${took.length > 1 ? 'them' : 'it'}`);
+    }
+  }
+  if (!has(/^SECT(ION)?_?ID$/i)) warnings.push(fileError(file, null, null, 'missing_header', 'the header has no SECT_ID (the line or section); the cast is read without it'));
+  if (md.bottomDepth === null) warnings.push(fileError(file, null, null, 'missing_header', 'the header has no DEPTH (bottom depth); the cast is read without it'));
+  if (!has(/^TIME$/i)) {
+    if (md.time !== null) {
+      warnings.push(fileError(file, null, null, 'missing_header', 'the header has no TIME; the cast is dated at 00:00 UTC of its DATE'));
+      notes.push('no TIME in the header: time of day taken as 00:00 UTC');
+    } else warnings.push(fileError(file, null, null, 'missing_header', 'the header has no DATE or TIME; the cast has no time'));
+  }
+  return notes;
 }

@@ -7,6 +7,18 @@ import { parseExchange } from './exchange';
 import { parsePlain } from './plain';
 import { parseStationTable } from './stationTable';
 import { fileError, ParseFailure } from './text';
+import { parseNetcdf } from './netcdf';
+import { parseAcquisition } from './acquisition';
+
+function bottleRefusal(file: string): FileError {
+  return fileError(file, 1, null, 'exchange_bottle',
+    'this is an exchange-format bottle file (sample data from the rosette); bottle data are not read yet. Upload the CTD files (_ct1.csv) of the cruise');
+}
+
+function hdf5Refusal(file: string): FileError {
+  return fileError(file, null, null, 'netcdf_unsupported',
+    'this is a netCDF-4 (HDF5) file, which is not read yet; save it as netCDF-3 classic and upload that');
+}
 import { readZip, DEFAULT_ZIP_LIMITS, type ZipLimits } from './zip';
 
 export type ParseOptions = {
@@ -35,6 +47,16 @@ function parseSingle(file: string, bytes: Uint8Array, fmt: Exclude<DetectedForma
       const r = parseStationTable(file, bytes);
       return { ok: true, casts: [], stations: r.stations, warnings: r.warnings };
     }
+    if (fmt === 'netcdf') {
+      const r = parseNetcdf(file, bytes, { columnMapping: mapping });
+      return { ok: true, casts: r.casts, stations: [], warnings: r.warnings };
+    }
+    if (fmt === 'acquisition') {
+      const r = parseAcquisition(file, bytes, { columnMapping: mapping });
+      return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
+    }
+    if (fmt === 'hdf5') return { ok: false, errors: [hdf5Refusal(file)] };
+    if (fmt === 'exchangeBottle') return { ok: false, errors: [bottleRefusal(file)] };
     const r = fmt === 'exchange' ? parseExchange(file, bytes, { columnMapping: mapping }) : parsePlain(file, bytes, { columnMapping: mapping });
     return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
   } catch (e) {

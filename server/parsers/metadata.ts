@@ -112,12 +112,16 @@ export type MetaPair = { key: string; value: string; line: number };
 
 const KEYS: Record<string, 'station' | 'cast' | 'latitude' | 'longitude' | 'time' | 'date' | 'bottomDepth'> = {
   station: 'station', stn: 'station', stnnbr: 'station', 'station id': 'station', 'station name': 'station', site: 'station',
-  cast: 'cast', castno: 'cast', 'cast number': 'cast', 'cast no': 'cast',
+  // spellings of the exchange format's STNNBR and CASTNO found in data-office files
+  'stn nbr': 'station', stnno: 'station', 'stn no': 'station', 'station number': 'station', 'station no': 'station', 'station nbr': 'station',
+  stnnum: 'station', statnum: 'station', 'stat no': 'station', stat: 'station', stnid: 'station', 'stn id': 'station', 'station num': 'station',
+  cast: 'cast', castno: 'cast', 'cast number': 'cast', 'cast no': 'cast', castnbr: 'cast', 'cast nbr': 'cast', castnum: 'cast', 'cast num': 'cast', 'cast id': 'cast',
   latitude: 'latitude', lat: 'latitude',
   longitude: 'longitude', lon: 'longitude', long: 'longitude', lng: 'longitude',
   time: 'time', datetime: 'time', 'date time': 'time', 'start time': 'time', 'time utc': 'time',
   date: 'date',
   'bottom depth': 'bottomDepth', bottom: 'bottomDepth', 'water depth': 'bottomDepth', depth: 'bottomDepth', 'bottom depth m': 'bottomDepth',
+  btmdepth: 'bottomDepth', 'btm depth': 'bottomDepth', 'depth m': 'bottomDepth', 'bottom depth meters': 'bottomDepth', 'cor depth': 'bottomDepth', 'uncor depth': 'bottomDepth',
 };
 
 function normKey(k: string): string {

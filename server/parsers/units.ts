@@ -38,11 +38,20 @@ function mathjsLinear(from: string, to: string): { factor: number; offset: numbe
 }
 
 function clean(text: string): string {
-  return text
-    .trim()
-    .replace(/µ|μ/g, 'u')
-    .replace(/\s+/g, ' ')
-    .toLowerCase();
+  return udunits(
+    text
+      .trim()
+      .replace(/µ|μ/g, 'u')
+      .replace(/\s+/g, ' ')
+      .toLowerCase(),
+  );
+}
+
+/** The UDUNITS spellings netCDF files use ("S m-1", "umol kg-1", "degree_Celsius") as "S/m" etc. */
+export function udunits(t: string): string {
+  const m = /^([a-z%]+)[ .]([a-z]+)(?:-1|\^-1)$/.exec(t);
+  if (m) return `${m[1]}/${m[2]}`;
+  return t;
 }
 
 function pressureUnit(t: string, col: string): UnitResult {
@@ -80,7 +89,7 @@ function temperatureUnit(t: string, col: string): UnitResult {
   }
   rest = rest.replace(scaleRe, ' ').replace(/[,;:()[\]]/g, ' ').replace(/\s+/g, ' ').trim();
   const alias: Record<string, string> = {
-    '': 'degC', degc: 'degC', 'deg c': 'degC', '°c': 'degC', '° c': 'degC', 'º c': 'degC', 'ºc': 'degC', c: 'degC', celsius: 'degC', 'deg celsius': 'degC', 'degrees c': 'degC', 'degrees celsius': 'degC', deg: 'degC',
+    '': 'degC', degc: 'degC', degree_celsius: 'degC', degrees_celsius: 'degC', degree_c: 'degC', degrees_c: 'degC', deg_c: 'degC', 'deg c': 'degC', '°c': 'degC', '° c': 'degC', 'º c': 'degC', 'ºc': 'degC', c: 'degC', celsius: 'degC', 'deg celsius': 'degC', 'degrees c': 'degC', 'degrees celsius': 'degC', deg: 'degC',
     k: 'K', kelvin: 'K', degf: 'degF', '°f': 'degF', 'deg f': 'degF', f: 'degF', fahrenheit: 'degF',
   };
   const u = alias[rest];
@@ -112,7 +121,7 @@ function tempConv(lin: { factor: number; offset: number }, scale: 'its90' | 'ipt
 }
 
 function salinityUnit(t: string, col: string): UnitResult {
-  const ok = new Set(['', 'pss-78', 'pss78', 'pss 78', 'pss', 'psu', '1', 'practical', 'unitless', 'none', 'sp', 'pss-78 psu']);
+  const ok = new Set(['', 'pss-78', 'pss78', 'pss 78', 'pss', 'psu', '1', 'practical', 'unitless', 'none', 'sp', 'pss-78 psu', '1e-3', '0.001', 'pss-78 (psu)']);
   if (ok.has(t)) return { ok: true, conv: IDENTITY('PSS-78', t === '' ? `${col}: no unit given; Practical Salinity (PSS-78) assumed` : null) };
   if (t === 'g/kg' || t === 'g kg-1' || t === 'g kg^-1')
     return {
@@ -131,6 +140,37 @@ function conductivityUnit(t: string, col: string): UnitResult {
   const lin = mathjsLinear(fixed, 'mS/cm');
   if (!lin || lin.offset !== 0) return unconvertible(col, t, 'a conductivity unit (mS/cm, S/m)');
   return { ok: true, conv: { unit: 'mS/cm', ...lin, ipts68: false, identity: false, note: `${col}: conductivity converted from ${t} to mS/cm` } };
+}
+
+/** 1 ml of O2 = 44.661 µmol: the conversion the trade uses (common practice; the molar volume of O2
+ * as a real gas at STP, 22.3916 l/mol, after Garcia & Gordon 1992, "Oxygen solubility in seawater:
+ * better fitting equations"; from memory). */
+export const UMOL_PER_ML_O2 = 44.661;
+/** Molar mass of O2, g/mol (from memory: 2 × 15.9994). */
+const O2_G_PER_MOL = 31.9988;
+
+/**
+ * Oxygen to one of the two stored forms: µmol/kg (stored as is) or µmol/l (turned into µmol/kg per
+ * kilogram of sea water with the sample's potential density when the cast is processed; see
+ * processCast). ml/l and mg/l are brought to µmol/l here.
+ */
+function oxygenUnit(t: string, col: string, unitText: string | null): UnitResult {
+  const perKg = new Set(['umol/kg', 'micromol/kg', 'micromoles/kg', 'umol kg-1', 'umol/kg-1', 'umolkg-1', 'mmol/t']);
+  const perL = new Set(['umol/l', 'um', 'micromol/l', 'micromoles/l', 'mmol/m3', 'mmol/m^3', 'mmol m-3', 'umol/dm3']);
+  const mlL = new Set(['ml/l', 'mll-1', 'ml/ l', 'ml l-1']);
+  const mgL = new Set(['mg/l', 'mg l-1', 'g/m3', 'g m-3']);
+  const v = t.replace(/\s*\/\s*/g, '/');
+  if (v === '') return { ok: true, conv: IDENTITY('µmol/kg', `${col}: no oxygen unit given; µmol/kg assumed`) };
+  if (perKg.has(v)) return { ok: true, conv: IDENTITY('µmol/kg') };
+  if (v === 'mol/kg') return { ok: true, conv: { ...IDENTITY('µmol/kg'), factor: 1e6, identity: false, note: `${col}: oxygen converted from mol/kg to µmol/kg` } };
+  if (perL.has(v)) return { ok: true, conv: IDENTITY('µmol/l') };
+  if (v === 'mol/m3' || v === 'mmol/l')
+    return { ok: true, conv: { ...IDENTITY('µmol/l'), factor: 1000, identity: false, note: `${col}: oxygen converted from ${t} to µmol/l` } };
+  if (mlL.has(v))
+    return { ok: true, conv: { ...IDENTITY('µmol/l'), factor: UMOL_PER_ML_O2, identity: false, note: `${col}: oxygen converted from ml/l to µmol/l (${UMOL_PER_ML_O2} µmol/l per ml/l)` } };
+  if (mgL.has(v))
+    return { ok: true, conv: { ...IDENTITY('µmol/l'), factor: 1000 / O2_G_PER_MOL, identity: false, note: `${col}: oxygen converted from mg/l to µmol/l (O2 ${O2_G_PER_MOL} g/mol)` } };
+  return { ok: true, conv: IDENTITY((unitText ?? '').trim(), `${col}: oxygen unit "${t}" not recognised; values kept as given and not converted to µmol/kg`) };
 }
 
 function unconvertible(col: string, t: string, wanted: string): UnitResult {
@@ -166,6 +206,7 @@ function resolveClean(role: ColumnRole | 'extra', t: string, col: string, unitTe
     case 'conductivity':
       return conductivityUnit(t, col);
     case 'oxygen':
+      return oxygenUnit(t, col, unitText);
     case 'extra':
       return { ok: true, conv: IDENTITY((unitText ?? '').trim()) };
   }

@@ -77,7 +77,7 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
   columns.push({ name: 'temperature', unit: UNITS.temperature, kind: 'measured', values: c.columns.temperature });
   if (c.columns.salinity) columns.push({ name: 'SP', unit: UNITS.SP, kind: 'measured', values: c.columns.salinity });
   if (c.columns.conductivity) columns.push({ name: 'conductivity', unit: 'mS/cm', kind: 'measured', values: c.columns.conductivity });
-  if (c.columns.oxygen) columns.push({ name: 'oxygen', unit: c.units.oxygen ?? null, kind: 'measured', values: c.columns.oxygen });
+  if (c.columns.oxygen) columns.push(oxygenColumn(c.columns.oxygen, c.units.oxygen ?? null, derived.sigma0, notes));
   for (const [name, v] of Object.entries(cols)) {
     if (!v || name === 'pressure' || (name === 'SP' && c.columns.salinity)) continue;
     columns.push({ name, unit: UNITS[name] ?? null, kind: 'derived', values: v });
@@ -100,4 +100,19 @@ export function inversionsOfGoodLevels(cols: Record<string, Float64Array>, flags
   const pick = (a: Float64Array) => Float64Array.from(keep, (k) => a[k]);
   const found = detectInversions(pick(p), pick(cols.sigma0), { threshold, z: cols.z ? pick(cols.z) : undefined });
   return found.map((v) => ({ ...v, iTop: keep[v.iTop], iBottom: keep[v.iBottom] }));
+}
+
+/**
+ * The stored oxygen column, per kilogram of sea water: a volume concentration (µmol/l, which the
+ * parsers make of ml/l and mg/l) divided by the potential density of the sample, ρθ = σ0 + 1000
+ * kg/m³, in kg/l: the conversion of the trade (common practice; e.g. Langdon 2010, "Determination of
+ * dissolved oxygen in seawater by Winkler titration using the amperometric technique", GO-SHIP Repeat
+ * Hydrography Manual; from memory). Other units stay as given.
+ */
+export function oxygenColumn(o2: Float64Array, unit: string | null, sigma0: Float64Array, notes: string[]): StoredColumn {
+  if (unit !== 'µmol/l') return { name: 'oxygen', unit, kind: 'measured', values: o2 };
+  const out = new Float64Array(o2.length);
+  for (let i = 0; i < o2.length; i++) out[i] = o2[i] / ((sigma0[i] + 1000) / 1000);
+  notes.push('oxygen converted from µmol/l to µmol/kg with the potential density of each sample (σ0 + 1000 kg/m³)');
+  return { name: 'oxygen', unit: 'µmol/kg', kind: 'measured', values: out };
 }

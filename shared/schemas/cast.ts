@@ -37,6 +37,14 @@ export const FILE_ERROR_CODES = [
   'duplicate_station',
   'exchange_bad_header',
   'exchange_missing_end',
+  'exchange_bottle',
+  'missing_header',
+  'netcdf_corrupt',
+  'netcdf_unsupported',
+  'netcdf_bad_structure',
+  'netcdf_not_profile',
+  'acquisition_bad_header',
+  'acquisition_missing_end',
   'zip_corrupt',
   'zip_unsafe_path',
   'zip_too_many_entries',
@@ -59,7 +67,7 @@ export const FileErrorSchema = z.object({
 });
 export type FileError = z.infer<typeof FileErrorSchema>;
 
-export const CastFormatSchema = z.enum(['plain', 'exchange']);
+export const CastFormatSchema = z.enum(['plain', 'exchange', 'netcdf', 'acquisition']);
 export type CastFormat = z.infer<typeof CastFormatSchema>;
 
 export const CastMetadataSchema = z.object({

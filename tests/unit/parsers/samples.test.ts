@@ -30,7 +30,7 @@ describe('good samples', () => {
     expect(c.columns.pressure?.[10]).toBe(22);
     expect(c.columns.temperature[10]).toBeCloseTo(tAt(22), 4);
     expect(c.columns.salinity?.[10]).toBeCloseTo(sAt(22), 4);
-    expect(c.units.oxygen).toBe('umol/kg');
+    expect(c.units.oxygen).toBe('µmol/kg'); // the stored unit, whatever the spelling
     expect(Array.from(new Set(c.flags.temperature))).toEqual([2]);
   });
 
@@ -99,7 +99,7 @@ describe('good samples', () => {
     expect(Number.isNaN(o[7])).toBe(true);
     expect(c.flags.oxygen[7]).toBe(9);
     expect(c.flags.salinity[20]).toBe(3);
-    expect(c.units.oxygen).toBe('UMOL/KG');
+    expect(c.units.oxygen).toBe('µmol/kg'); // UMOL/KG in the file
     expect(c.extras).toEqual({});
   });
 
