@@ -6,6 +6,7 @@ import * as m003 from './migrations/003-cast-life';
 import * as m004 from './migrations/004-lines';
 import * as m005 from './migrations/005-hardening';
 import * as m008 from './migrations/008-qc';
+import * as m009 from './migrations/009-line-links';
 import type { QueryInterface } from 'sequelize';
 
 export type Db = { sequelize: Sequelize };
@@ -28,6 +29,7 @@ export const MIGRATIONS: Migration[] = [{ name: '001-initial', up: m001.up }, { 
   { name: '004-lines', up: m004.up },
   { name: '005-hardening', up: m005.up },
   { name: '008-qc', up: m008.up },
+  { name: '009-line-links', up: m009.up },
 ];
 
 /** Runs forward every migration not yet applied, each in its own transaction, under an advisory lock

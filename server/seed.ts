@@ -10,6 +10,7 @@ import { Cruise, LayerSet, Line, Membership, Station, Upload, User, type Role } 
 import { suggestedLayerSets } from '../shared/api/levels';
 import { hashPassword } from './auth/passwords';
 import { QUEUES } from './services/queue';
+import { seedEarlierOccupation } from './seedEarlier';
 
 export const DEMO_PASSWORD = 'sigmaline-demo';
 export const DEMO_ACCOUNTS: { email: string; name: string; role: Role | 'admin' }[] = [
@@ -76,6 +77,8 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
     await deps.queue.send(QUEUES.ingest, { uploadId: u.id });
     ids.push(u.id);
   }
+  // the invented earlier occupation of the demo line (its own cruise; helper file seedEarlier.ts)
+  ids.push(...(await seedEarlierOccupation({ root, deps, users })).uploadIds);
   if (opts.wait !== false && ids.length) {
     const end = Date.now() + 180_000;
     for (;;) {

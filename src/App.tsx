@@ -59,6 +59,7 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
                   shouldRevalidate: ({ currentUrl, nextUrl }) => currentUrl.pathname !== nextUrl.pathname,
                 },
                 { path: 'deliveries', lazy: lazyScreen(() => import('./routes/Deliveries')) },
+                { path: 'then-and-now', lazy: lazyScreen(() => import('./routes/ThenAndNow')) },
               ],
             },
             { path: 'admin/mail', lazy: lazyScreen(() => import('./routes/AdminMail')) },

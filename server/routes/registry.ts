@@ -15,12 +15,13 @@ import { castLifeRoutes } from './castLife';
 import { settingsRoutes } from './settings';
 import { lineRoutes } from './lines';
 import { qcRoutes } from './qc';
+import { comparisonRoutes } from './comparisons';
 
 type RouteFactory = (deps: AppDeps) => RouteSpec[];
 
 /** The route modules after the foundation's; add a new area's factory here. */
 export const extraRouteFactories: RouteFactory[] = [
-  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, qcRoutes, castLifeRoutes,
+  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, qcRoutes, castLifeRoutes, comparisonRoutes,
 ];
 
 /** Every route module, the foundation's first. */

@@ -43,7 +43,9 @@ afterAll(async () => { await t?.close(); });
 function urlFor(r: RouteSpec) {
   const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ids.delivery
     : r.path.startsWith('/lines/') ? ids.line : ids.cruise;
-  return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId|varId|viewId|deliveryId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
+  // the comparison's export finds its cruise by the first line in the query
+  if (r.path === '/comparisons/export') return `/api/comparisons/export?lineA=${ids.line}&lineB=${ids.line}`;
+  return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId|varId|viewId|deliveryId|otherId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
 }
 async function call(who: string, r: RouteSpec) {
   const a = agents[who];
@@ -53,6 +55,8 @@ async function call(who: string, r: RouteSpec) {
     ids.delivery = d.id;
   }
   const req = a.agent[r.method](urlFor(r)).set('x-csrf-token', a.csrf);
+  // the comparison finds its cruises by the lines in its body
+  if (r.path === '/comparisons') return req.send({ lineA: ids.line, lineB: ids.line });
   return r.method === 'get' || r.method === 'delete' ? req : req.send({});
 }
 /** The guard's own answers carry these codes; a handler's 404 for a missing sub-resource says more. */

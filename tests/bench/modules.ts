@@ -25,6 +25,7 @@ export const BENCH_MODULES: BenchModule[] = [
   { name: 'remap', load: () => import('./remap') },
   { name: 'deliveries', load: () => import('./deliveries') },
   { name: 'section', load: () => import('./section') },
+  { name: 'comparisons', load: () => import('./comparisons') },
   { name: 'parse', load: () => import('./parse') },
   { name: 'browser', load: () => import('./browser') },
 ];

@@ -32,6 +32,7 @@ const CONTRACT: [string, string, string][] = [
   ['post', '/cruises/:id/lines', 'chief_scientist,analyst'],
   ['patch', '/lines/:id', 'chief_scientist,analyst'],
   ['delete', '/lines/:id', 'chief_scientist,analyst'],
+  ['post', '/comparisons', 'member'],
 ];
 
 const ruleText = (r: (typeof routes)[number]['rule']) =>

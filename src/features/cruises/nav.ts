@@ -19,6 +19,7 @@ export const CRUISE_SECTIONS: readonly CruiseSection[] = [
   { label: 'Intake', path: 'intake' },
   { label: 'Casts', path: 'casts' },
   { label: 'Section', path: 'section' },
+  { label: 'Then and now', path: 'then-and-now' },
   { label: 'Layer sets', path: 'layer-sets' },
   { label: 'Derived variables', path: 'derived' },
   { label: 'Deliveries', path: 'deliveries' },

@@ -1,0 +1,5 @@
+/** Repeat occupations of one line: common positions, differences, heave, decomposition, summaries. */
+export * from './positions';
+export * from './decompose';
+export * from './summary';
+export * from './compare';
