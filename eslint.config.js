@@ -16,6 +16,7 @@ export default tseslint.config(
     plugins: { sigmaline: boundariesPlugin },
     rules: {
       'sigmaline/boundaries': 'error',
+      '@typescript-eslint/no-unused-expressions': ['error', { allowShortCircuit: true, allowTernary: true }],
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none' }],
     },
   },

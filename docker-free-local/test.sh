@@ -19,6 +19,9 @@ bash "$HERE/services.sh" start || exit 1
 echo "[sigmaline] type check (strict TypeScript over client, server, shared code and tests)"
 typecheck=0
 npx tsc --noEmit -p tsconfig.json || typecheck=1
+# The lint gate (ESLint with the import boundaries of eslint.config.js) counts as one test too.
+echo "[sigmaline] lint (typescript-eslint, React hooks, import boundaries)"
+npx eslint . --max-warnings 0 || typecheck=1
 echo "[sigmaline] building the client"
 NODE_ENV=production npx vite build --logLevel error || exit 1
 mkdir -p "$LOCAL_DIR"
@@ -26,7 +29,7 @@ REPORT="$LOCAL_DIR/vitest-report.json"
 rm -f "$REPORT"
 npx vitest run --reporter=default --reporter=json --outputFile.json="$REPORT" "$@"
 status=$?
-[ "$typecheck" = 1 ] && { echo "[sigmaline] the type check failed (see above)"; status=1; }
+[ "$typecheck" = 1 ] && { echo "[sigmaline] the type check or the lint gate failed (see above)"; status=1; }
 if [ -f "$REPORT" ]; then
   node -e '
     const r = JSON.parse(require("fs").readFileSync(process.argv[1], "utf8"));

@@ -22,7 +22,8 @@ function cfProfiles(): Buffer {
   for (let i = 0; i < NP; i++) {
     for (let k = 0; k < NZ; k++) {
       if (k >= counts[i]) {
-        pres.push(null), temp.push(null), psal.push(null), doxy.push(null), chla.push(null), tqc.push(9);
+        for (const a of [pres, temp, psal, doxy, chla]) a.push(null);
+        tqc.push(9);
         continue;
       }
       const p = 2 + 2 * k + i; // profile i starts i dbar deeper

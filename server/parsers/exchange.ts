@@ -132,8 +132,8 @@ function exchangeHeaderGaps(file: string, pairs: MetaPair[], md: CastMetadata, w
     const fromName = stationCastFromFileName(file);
     if (fromName) {
       const took: string[] = [];
-      if (md.station === null) (md.station = fromName.station), took.push(`station ${fromName.station}`);
-      if (md.cast === null) (md.cast = fromName.cast), took.push(`cast ${fromName.cast}`);
+      if (md.station === null) { md.station = fromName.station; took.push(`station ${fromName.station}`); }
+      if (md.cast === null) { md.cast = fromName.cast; took.push(`cast ${fromName.cast}`); }
       notes.push(`${took.join(' and ')} taken from the file name (EXPOCODE_STATION_CAST_ct1.csv); the header does not give ${took.length > 1 ? 'them' : 'it'}`);
     }
   }

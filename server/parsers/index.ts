@@ -90,11 +90,11 @@ export function applyStationTable(casts: ParsedCast[], stations: StationRow[], t
     if (!row) continue;
     const filled: string[] = [];
     const md = c.metadata;
-    if (md.latitude === null) (md.latitude = row.latitude), filled.push('latitude');
-    if (md.longitude === null) (md.longitude = row.longitude), filled.push('longitude');
-    if (md.time === null && row.time !== null) (md.time = row.time), filled.push('time');
-    if (md.bottomDepth === null && row.bottomDepth !== null) (md.bottomDepth = row.bottomDepth), filled.push('bottom depth');
-    if (md.cast === null && row.cast !== null) (md.cast = row.cast), filled.push('cast');
+    if (md.latitude === null) { md.latitude = row.latitude; filled.push('latitude'); }
+    if (md.longitude === null) { md.longitude = row.longitude; filled.push('longitude'); }
+    if (md.time === null && row.time !== null) { md.time = row.time; filled.push('time'); }
+    if (md.bottomDepth === null && row.bottomDepth !== null) { md.bottomDepth = row.bottomDepth; filled.push('bottom depth'); }
+    if (md.cast === null && row.cast !== null) { md.cast = row.cast; filled.push('cast'); }
     if (filled.length > 0) c.notes.push(`${filled.join(', ')} from ${tableFile} line ${row.line}`);
   }
 }

@@ -3,7 +3,7 @@
 // one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
 import { Op } from 'sequelize';
 import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
-import type { ParsedCast, StationRow, FileError } from '../../shared/schemas/cast';
+import type { ParsedCast } from '../../shared/schemas/cast';
 import { inversionsOfGoodLevels, type ProcessedCast } from './processCast';
 import { computePool } from '../jobs/computePool';
 import { recordIngestTiming } from '../jobs/ingestTimings';

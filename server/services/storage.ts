@@ -54,7 +54,7 @@ export function createStorage(opts: { endpoint: string; bucket: string; region: 
       await client.send(new DeleteObjectCommand({ Bucket, Key: key }));
     },
     async presignedGetUrl(key, filename, expiresSeconds = 900) {
-      return getSignedUrl(client, new GetObjectCommand({ Bucket, Key: key, ResponseContentDisposition: `attachment; filename="${filename.replace(/[^\w.\-]/g, '_')}"` }), { expiresIn: expiresSeconds });
+      return getSignedUrl(client, new GetObjectCommand({ Bucket, Key: key, ResponseContentDisposition: `attachment; filename="${filename.replace(/[^\w.-]/g, '_')}"` }), { expiresIn: expiresSeconds });
     },
     async ensureBucket() {
       try {

@@ -113,7 +113,10 @@ export function countCrossings(sigma: Float64Array, targets: Float64Array, out?:
   // found by walking from the previous answer rather than searching afresh.
   let gPrev = upperBound(targets, sigma[0]);
   let ePrev = lowerBound(targets, sigma[0]);
-  if (ePrev < m && targets[ePrev] === sigma[0]) diff[ePrev]++, diff[ePrev + 1]--;
+  if (ePrev < m && targets[ePrev] === sigma[0]) {
+    diff[ePrev]++;
+    diff[ePrev + 1]--;
+  }
   for (let k = 0; k < n - 1; k++) {
     const a = sigma[k];
     const b = sigma[k + 1];

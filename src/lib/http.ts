@@ -92,7 +92,7 @@ function getCsrfToken(): Promise<string> {
 }
 
 async function toApiError(response: Response): Promise<ApiError> {
-  let payload: unknown = null;
+  let payload: unknown;
   try {
     payload = await response.json();
   } catch {

@@ -72,7 +72,7 @@ export default function Section() {
   const look = useFramesLook(view, byPressure.data, byDensity.data);
   const range = look.pressureRange;
   const digits = digitsFor(range ? range.max - range.min : NaN);
-  const stations = byPressure.data?.stations ?? byDensity.data?.stations ?? [];
+  const stations = useMemo(() => byPressure.data?.stations ?? byDensity.data?.stations ?? [], [byPressure.data, byDensity.data]);
   const sigma = sigmaName(view.ref);
 
   const step = useCallback(

@@ -8,7 +8,6 @@ import { createServer, type AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { randomBytes } from 'node:crypto';
-// @ts-ignore s3rver ships no type declarations
 import S3rver from 's3rver';
 import yazl from 'yazl';
 

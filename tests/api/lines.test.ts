@@ -32,7 +32,6 @@ const gcKm = (lon1: number, lat1: number, lon2: number, lat2: number) => {
   const c = Math.sin(lat1 * r) * Math.sin(lat2 * r) + Math.cos(lat1 * r) * Math.cos(lat2 * r) * Math.cos((lon2 - lon1) * r);
   return 6371 * Math.acos(Math.min(1, Math.max(-1, c)));
 };
-const pos = (s: string) => casts.find((c) => c.station === s)!;
 
 beforeAll(async () => {
   t = await makeTestApp();

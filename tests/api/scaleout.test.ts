@@ -86,7 +86,7 @@ describe('two web processes, two workers', () => {
     }
     expect(new Set(uploadIds).size).toBe(N);
     const end = Date.now() + 120_000;
-    let states: Record<string, number> = {};
+    let states: Record<string, number>;
     for (;;) {
       const { rows } = await db.query<{ status: string; n: string }>('SELECT status, count(*) AS n FROM uploads WHERE cruise_id = $1 GROUP BY status', [cruiseId]);
       states = Object.fromEntries(rows.map((r) => [r.status, Number(r.n)]));

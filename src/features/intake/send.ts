@@ -39,7 +39,7 @@ export interface SendOptions {
 }
 
 function errorFrom(xhr: XMLHttpRequest, filename: string): ApiError {
-  let body: unknown = null;
+  let body: unknown;
   try {
     body = JSON.parse(xhr.responseText);
   } catch {

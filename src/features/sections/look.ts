@@ -102,7 +102,7 @@ export function useFramesLook(view: SectionViewState, pressure: Section | undefi
         },
       },
     };
-  }, [diverging, paletteName, view.palette, view.contours, view.yAxis, view.stretch, view.xAxis, view.range, view.densityRange, pressure, density, stations, pressureRange, densityRange, autoPressure, autoDensity, densityShowsDepth]);
+  }, [diverging, paletteName, view.property, view.palette, view.contours, view.yAxis, view.stretch, view.xAxis, view.range, view.densityRange, pressure, density, stations, pressureRange, densityRange, autoPressure, autoDensity, densityShowsDepth]);
 }
 
 /** Caption text: the parts joined, ending with exactly one full stop. */

@@ -43,7 +43,7 @@ describe('levels policy', () => {
 
   it('no other module writes a default level specification (start:step:end literals) or its own default table', () => {
     // Literal level specs outside the policy module, the suggested layer sets' seed and tests are defaults in disguise.
-    let out = '';
+    let out: string;
     try {
       out = execFileSync('grep', ['-rnE', "['\"`][0-9]{2}\\.[0-9]+:[0-9.]+:[0-9]{2}\\.[0-9]+['\"`]", 'server', 'src', 'shared'], { encoding: 'utf8' });
     } catch (e) {
