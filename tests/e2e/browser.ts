@@ -48,4 +48,6 @@ export async function signIn(page: Page, url: string, email: string, password: s
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
+  // Signed in once the screen has left the sign-in page (a caller's next goto must carry the cookie).
+  await page.waitForURL((u) => !u.pathname.startsWith('/signin'), { timeout: 30_000 });
 }
