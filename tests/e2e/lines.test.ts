@@ -87,7 +87,8 @@ describe('lines in Chromium', () => {
     await picker.selectOption(defaultId!);
     await page.waitForURL((u) => !u.searchParams.has('line'));
     await page.waitForLoadState('networkidle');
-    expect(await picker.locator('option:checked').textContent()).toMatch(/\(default\)/);
+    // the picker follows the URL once React has rendered the new view (slow on a loaded machine)
+    await expect.poll(() => picker.locator('option:checked').textContent(), { timeout: 20_000 }).toMatch(/\(default\)/);
     await page.screenshot({ path: join(SHOTS, 'lines-section-default-1920.png'), fullPage: true });
     expect(chromium.offLoopback).toEqual([]);
   }, 120_000);
