@@ -8,7 +8,7 @@ import { gzipSync } from 'node:zlib';
 import { QueryTypes } from 'sequelize';
 import { Cruise, Line, Membership } from '../models/index';
 import { cached, dataVersion, type CruiseCast } from './cruiseData';
-import { loadLineCasts, type ResolvedLine } from './lines';
+import { loadLineCasts, ensureDefaultLine, type ResolvedLine } from './lines';
 import { propertyColumns } from './sectionView';
 import { resolveLevels } from './levels';
 import { compareOccupations, type OccupationCast, type Comparison } from '../../shared/compare/index';
@@ -235,6 +235,8 @@ export async function occupationsOf(userId: string, lineId: string): Promise<{ l
   const row = await lineForMember(userId, lineId);
   const mine = (await Membership.findAll({ where: { userId }, attributes: ['cruiseId'] })).map((m) => m.cruiseId);
   const cruises = new Map((await Cruise.findAll({ where: { id: mine } })).map((c) => [c.id, c]));
+  // default lines are made on first need: a cruise nobody has drawn yet has none stored
+  for (const id of mine) await ensureDefaultLine(id);
   const lines = await Line.findAll({ where: { cruiseId: mine } });
   const sects = await sectionIds(mine);
   const links = (await Line.sequelize!.query(

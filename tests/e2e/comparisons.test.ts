@@ -50,10 +50,11 @@ describe('Then and now', () => {
       const page = await chromium.newPage();
       await page.setViewportSize({ width: w, height: h });
       await signIn(page, srv.url, ANALYST, PASSWORD);
+      await page.waitForURL((u) => !u.pathname.startsWith('/signin'), { timeout: 30_000 });
       await page.goto(`${srv.url}/cruises/${cruiseB}/then-and-now`);
       // the earlier cruise is found by its section identifier and put first, as A
-      await page.waitForURL(/[?&]a=[0-9a-f-]{36}.*&b=/, { timeout: 30_000 });
-      for (const label of ['CT of A on pressure', 'CT of B on pressure', 'Change on pressure surfaces', 'Change on isopycnals', 'Heave of the isopycnals',
+      await page.waitForFunction(() => /[?&]a=[0-9a-f-]{36}.*&b=/.test(location.search), undefined, { timeout: 30_000 });
+      for (const label of ['Conservative Temperature of A on pressure', 'Conservative Temperature of B on pressure', 'Change on pressure surfaces', 'Change on isopycnals', 'Heave of the isopycnals',
         'Water-mass term on pressure', 'Heave term on pressure', 'Along-line mean of each term', 'T–S diagram of both']) {
         await page.locator(`figure[aria-label^="${label}"][data-plot-drawn]`).waitFor({ timeout: 60_000 });
       }
@@ -63,10 +64,11 @@ describe('Then and now', () => {
       if (w === 1280) {
         // a choice goes into the URL, and the URL alone gives the same view
         await page.getByLabel('Property').selectOption('SA');
-        await page.waitForURL(/property=SA/);
+        await page.waitForFunction(() => /property=SA/.test(location.search));
         const url = page.url();
         const again = await chromium.newPage();
         await signIn(again, srv.url, ANALYST, PASSWORD);
+        await again.waitForURL((u) => !u.pathname.startsWith('/signin'), { timeout: 30_000 });
         await again.goto(url);
         await again.locator('figure[aria-label^="Absolute Salinity of A on pressure"][data-plot-drawn]').waitFor({ timeout: 60_000 });
         expect(await again.getByLabel('Property').inputValue()).toBe('SA');
