@@ -43,9 +43,7 @@ beforeAll(async () => {
 afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
 
 describe('Then and now', () => {
-  // Known failure after the integration of lines, real files and the figures (issue #18 is open): the
-  // screen does not propose the earlier occupation of the merged demo line, so the URL never gets a and b.
-  it.skip('shows both occupations, the changes and the split, with the view in the URL', async () => {
+  it('shows both occupations, the changes and the split, with the view in the URL', async () => {
     for (const [w, h] of [[1280, 800], [1920, 1080]] as const) {
       const page = await chromium.newPage();
       await page.setViewportSize({ width: w, height: h });
