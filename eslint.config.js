@@ -7,7 +7,17 @@ import globals from 'globals';
 import { boundariesPlugin } from './tools/eslint/boundaries.js';
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', '.local/**', 'coverage/**', 'screenshots/**', 'fixtures/**', 'tests/fixtures/lint/**'] },
+  {
+    ignores: [
+      'dist/**',
+      'node_modules/**',
+      '.local/**',
+      'coverage/**',
+      'screenshots/**',
+      'fixtures/**',
+      'tests/fixtures/lint/**',
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
@@ -17,7 +27,10 @@ export default tseslint.config(
     rules: {
       'sigmaline/boundaries': 'error',
       '@typescript-eslint/no-unused-expressions': ['error', { allowShortCircuit: true, allowTernary: true }],
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none' }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none' },
+      ],
     },
   },
   {

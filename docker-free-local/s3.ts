@@ -18,6 +18,8 @@ const server = new S3rver({
 });
 await server.run();
 console.log(`[sigmaline] S3 fake on http://127.0.0.1:${port} bucket ${bucket}`);
-const stop = () => { server.close().finally(() => process.exit(0)); };
+const stop = () => {
+  server.close().finally(() => process.exit(0));
+};
 process.on('SIGTERM', stop);
 process.on('SIGINT', stop);

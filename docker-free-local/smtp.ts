@@ -54,7 +54,11 @@ const http = createServer((req, res) => {
     res.writeHead(404).end();
   }
 });
-http.listen(httpPort, '127.0.0.1', () => console.log(`[sigmaline] SMTP fake on 127.0.0.1:${smtpPort}, listing on http://127.0.0.1:${httpPort}/messages`));
-const stop = () => { smtp.close(() => http.close(() => process.exit(0))); };
+http.listen(httpPort, '127.0.0.1', () =>
+  console.log(`[sigmaline] SMTP fake on 127.0.0.1:${smtpPort}, listing on http://127.0.0.1:${httpPort}/messages`),
+);
+const stop = () => {
+  smtp.close(() => http.close(() => process.exit(0)));
+};
 process.on('SIGTERM', stop);
 process.on('SIGINT', stop);

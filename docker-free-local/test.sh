@@ -19,9 +19,12 @@ bash "$HERE/services.sh" start || exit 1
 echo "[sigmaline] type check (strict TypeScript over client, server, shared code and tests)"
 typecheck=0
 npx tsc --noEmit -p tsconfig.json || typecheck=1
-# The lint gate (ESLint with the import boundaries of eslint.config.js) counts as one test too.
+# The lint and format gates (ESLint with the import boundaries of eslint.config.js; Prettier) count with it.
 echo "[sigmaline] lint (typescript-eslint, React hooks, import boundaries)"
 npx eslint . --max-warnings 0 || typecheck=1
+# The format gate (Prettier, 120 columns, .prettierrc.json; data and generated files in .prettierignore).
+echo "[sigmaline] format (Prettier --check)"
+npx prettier --check . --log-level warn || typecheck=1
 echo "[sigmaline] building the client"
 NODE_ENV=production npx vite build --logLevel error || exit 1
 mkdir -p "$LOCAL_DIR"

@@ -54,8 +54,11 @@ function water(x: number, p: number): Water & { mld: number } {
   const thetaDeep = (q: number): number =>
     1.55 + 5.2 * Math.exp(-q / 1000) + 9.5 * Math.exp(-q / zc) - 1.25 * (0.5 * (1 + Math.tanh((q - 3900) / 260)));
   const sDeep = (q: number): number =>
-    34.885 - 0.62 * Math.exp(-(((q - 900) / 480) ** 2)) * (q < 900 ? 1 : 1) + 0.55 * Math.exp(-q / zc) * 0.55 +
-    0.02 * Math.exp(-(((q - 2300) / 600) ** 2)) - 0.035 * (0.5 * (1 + Math.tanh((q - 3900) / 260)));
+    34.885 -
+    0.62 * Math.exp(-(((q - 900) / 480) ** 2)) * (q < 900 ? 1 : 1) +
+    0.55 * Math.exp(-q / zc) * 0.55 +
+    0.02 * Math.exp(-(((q - 2300) / 600) ** 2)) -
+    0.035 * (0.5 * (1 + Math.tanh((q - 3900) / 260)));
   const thetaS = 22.6 - 3.8 * F;
   const sS = 36.15 - 0.65 * F;
   const gt = p <= mld ? 1 : Math.exp(-(p - mld) / Ht);
@@ -63,7 +66,11 @@ function water(x: number, p: number): Water & { mld: number } {
   const theta = thetaDeep(p) + (thetaS - thetaDeep(mld)) * gt;
   const S = sDeep(p) + (sS - sDeep(mld)) * gs;
   void BL;
-  const o2 = 238 - 72 * Math.exp(-(((p - 650) / 260) ** 2)) + 14 * Math.exp(-(((p - 2400) / 700) ** 2)) - 8 * F * Math.exp(-p / 300);
+  const o2 =
+    238 -
+    72 * Math.exp(-(((p - 650) / 260) ** 2)) +
+    14 * Math.exp(-(((p - 2400) / 700) ** 2)) -
+    8 * F * Math.exp(-p / 300);
   const fl = 0.04 + (0.9 - 0.4 * F) * Math.exp(-(((p - (mld + 15)) / 25) ** 2));
   return { theta, S, o2, fl, mld };
 }
@@ -101,7 +108,13 @@ function castLevels(i: number, x: number, bottom: number, lat: number): { levels
   for (let p = 2; p <= pMax; p += 2) {
     const w = water(x, p);
     mld = w.mld;
-    levels.push({ p, t: insitu(w.theta, p) + noise(0.0004), S: w.S + noise(0.00025), o2: w.o2 + noise(0.6), fl: Math.max(0, w.fl + noise(0.01)) });
+    levels.push({
+      p,
+      t: insitu(w.theta, p) + noise(0.0004),
+      S: w.S + noise(0.00025),
+      o2: w.o2 + noise(0.6),
+      fl: Math.max(0, w.fl + noise(0.01)),
+    });
   }
   void i;
   return { levels, mld };
@@ -115,14 +128,32 @@ function plainFile(name: string, meta: Record<string, string>, levels: Level[]):
   const head = Object.entries(meta).map(([k, v]) => `# ${k}: ${v}`);
   const rows = levels.map((l) => [fmt(l.p, 1), fmt(l.t, 4), fmt(l.S, 4), fmt(l.o2, 1), fmt(l.fl, 3)].join(','));
   void name;
-  return [...head, 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78],oxygen [umol/kg],fluorescence [mg/m^3]', ...rows].join('\n') + '\n';
+  return (
+    [
+      ...head,
+      'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78],oxygen [umol/kg],fluorescence [mg/m^3]',
+      ...rows,
+    ].join('\n') + '\n'
+  );
 }
 
 function exchangeFile(st: number, when: Date, lat: number, lon: number, bottom: number, levels: Level[]): string {
   const d = when.toISOString();
   const rows = levels.map((l) => {
     const missingO2 = l.p > 200 && l.p < 212; // a sensor dropout, flagged 9
-    return [fmt(l.p, 1), '2', fmt(l.t, 4), '2', fmt(l.S, 4), '2', missingO2 ? '-999.0' : fmt(l.o2, 1), missingO2 ? '9' : '2', fmt(l.fl, 3)].map((s) => s.padStart(8)).join(',');
+    return [
+      fmt(l.p, 1),
+      '2',
+      fmt(l.t, 4),
+      '2',
+      fmt(l.S, 4),
+      '2',
+      missingO2 ? '-999.0' : fmt(l.o2, 1),
+      missingO2 ? '9' : '2',
+      fmt(l.fl, 3),
+    ]
+      .map((s) => s.padStart(8))
+      .join(',');
   });
   return (
     [
@@ -151,7 +182,16 @@ function main(): void {
   mkdirSync(CASTS, { recursive: true });
   for (const f of readdirSync(CASTS)) rmSync(join(CASTS, f));
   const planted: Planted[] = [];
-  const stations: { station: string; latitude: number; longitude: number; plannedBottomDepth: number; occupied: boolean; note: string | null; castFile: string | null; time: string | null }[] = [];
+  const stations: {
+    station: string;
+    latitude: number;
+    longitude: number;
+    plannedBottomDepth: number;
+    occupied: boolean;
+    note: string | null;
+    castFile: string | null;
+    time: string | null;
+  }[] = [];
   const stationRows: string[] = ['station,cast,latitude,longitude,time,bottom_depth'];
   let clock = Date.UTC(2026, 2, 2, 6, 0, 0); // first cast 2026-03-02 06:00 UTC
   let occupied = 0;
@@ -164,7 +204,16 @@ function main(): void {
     const bottom = bottomOf(x);
     const name = stationName(i);
     if (SKIPPED.has(i)) {
-      stations.push({ station: name, latitude: round(lat, 4), longitude: round(lon, 4), plannedBottomDepth: bottom, occupied: false, note: SKIPPED.get(i) ?? null, castFile: null, time: null });
+      stations.push({
+        station: name,
+        latitude: round(lat, 4),
+        longitude: round(lon, 4),
+        plannedBottomDepth: bottom,
+        occupied: false,
+        note: SKIPPED.get(i) ?? null,
+        castFile: null,
+        time: null,
+      });
       clock += 2.4 * 3600e3;
       continue;
     }
@@ -188,9 +237,17 @@ function main(): void {
       const k = levels.findIndex((l) => l.p === spike.p);
       if (k < 1 || k >= levels.length - 1) throw new Error(`spike at ${spike.p} dbar outside cast ${name}`);
       levels[k].S -= spike.dS;
-      const drop = sig0(levels[k - 1].t, levels[k - 1].S, levels[k - 1].p) - sig0(levels[k].t, levels[k].S, levels[k].p);
+      const drop =
+        sig0(levels[k - 1].t, levels[k - 1].S, levels[k - 1].p) - sig0(levels[k].t, levels[k].S, levels[k].p);
       if (drop < 0.02 || drop > 0.1) throw new Error(`spike in ${name} gives a σ0 drop of ${drop}`);
-      planted.push({ kind: 'spike', station: name, file, pressure: spike.p, dSP: spike.dS, sigma0Drop: round(drop, 4) });
+      planted.push({
+        kind: 'spike',
+        station: name,
+        file,
+        pressure: spike.p,
+        dSP: spike.dS,
+        sigma0Drop: round(drop, 4),
+      });
     }
     if (i === OVERTURN.station) {
       // Convective overturn at the mixed-layer base: the water of a 30 dbar slab, turned upside down.
@@ -205,7 +262,14 @@ function main(): void {
       }
       const s0 = levels.slice(k0, k1 + 1).map((l) => sig0(l.t, l.S, l.p));
       const deficit = Math.max(...s0) - Math.min(...s0);
-      planted.push({ kind: 'overturn', station: name, file, pTop: top, pBottom: top + OVERTURN.span, sigma0Deficit: round(deficit, 4) });
+      planted.push({
+        kind: 'overturn',
+        station: name,
+        file,
+        pTop: top,
+        pBottom: top + OVERTURN.span,
+        sigma0Deficit: round(deficit, 4),
+      });
     }
     const when = new Date(Math.round(clock / 60e3) * 60e3); // whole minutes: the exchange TIME is HHMM
     const time = when.toISOString().replace('.000Z', 'Z');
@@ -219,9 +283,20 @@ function main(): void {
       ship: 'RV Tessellate',
       cruise: 'TS-26-04',
     };
-    const text = EXCHANGE_STATIONS.has(i) ? exchangeFile(i, when, lat, lon, bottom, levels) : plainFile(file, meta, levels);
+    const text = EXCHANGE_STATIONS.has(i)
+      ? exchangeFile(i, when, lat, lon, bottom, levels)
+      : plainFile(file, meta, levels);
     writeFileSync(join(CASTS, file), text);
-    stations.push({ station: name, latitude: round(lat, 4), longitude: round(lon, 4), plannedBottomDepth: bottom, occupied: true, note: null, castFile: `casts/${file}`, time });
+    stations.push({
+      station: name,
+      latitude: round(lat, 4),
+      longitude: round(lon, 4),
+      plannedBottomDepth: bottom,
+      occupied: true,
+      note: null,
+      castFile: `casts/${file}`,
+      time,
+    });
     stationRows.push([name, '1', lat.toFixed(4), lon.toFixed(4), time, String(bottom)].join(','));
     // ~1.3 h steaming between stations plus the cast itself at 60 m/min down and up.
     clock += (1.3 + (2 * bottom) / 60 / 60 + 0.4) * 3600e3;
@@ -236,7 +311,8 @@ function main(): void {
     endDate: '2026-03-19',
     ports: { departure: 'Port Haverel', arrival: 'Saltmere Quay' },
     region: { name: 'Corrow Passage', west: -31, east: -9, south: -36, north: -32 },
-    description: 'A hydrographic line across the invented Corrow Passage, over the Corrow Rise and through the Tessellate Front. Invented demo data.',
+    description:
+      'A hydrographic line across the invented Corrow Passage, over the Corrow Rise and through the Tessellate Front. Invented demo data.',
     team: [
       { name: 'Dr. Maren Oduya', role: 'chief_scientist', email: 'chief@sigmaline.test' },
       { name: 'Tomas Leivesson', role: 'technician', email: 'tech@sigmaline.test' },
@@ -249,9 +325,14 @@ function main(): void {
   };
   writeFileSync(join(OUT, 'cruise.json'), JSON.stringify(cruise, null, 1) + '\n');
   writeFileSync(join(OUT, 'stations.csv'), stationRows.join('\n') + '\n');
-  writeFileSync(join(OUT, 'planted.json'), JSON.stringify({ generatedBy: 'scripts/make-demo-cruise.ts', planted }, null, 1) + '\n');
+  writeFileSync(
+    join(OUT, 'planted.json'),
+    JSON.stringify({ generatedBy: 'scripts/make-demo-cruise.ts', planted }, null, 1) + '\n',
+  );
   writeFileSync(join(OUT, 'README.md'), readme(planted, occupied, maxBackground));
-  console.log(`wrote ${occupied} casts, ${planted.length} planted inversions; largest background σ0 fall below the running maximum ${maxBackground.toFixed(5)} kg/m³`);
+  console.log(
+    `wrote ${occupied} casts, ${planted.length} planted inversions; largest background σ0 fall below the running maximum ${maxBackground.toFixed(5)} kg/m³`,
+  );
 }
 
 function round(v: number, d: number): number {

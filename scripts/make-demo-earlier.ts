@@ -26,15 +26,18 @@ export const PLANTS = {
     /** Deepening of the thermocline isopycnals at the core of the plant, dbar. */
     dbar: 40,
     /** Centre and e-folding half-width of the plant in pressure, dbar (earlier occupation's pressure). */
-    pCentre: 450, pWidth: 280,
+    pCentre: 450,
+    pWidth: 280,
     /** The plant rises from 0 to full over the line fraction 0.5 ± 0.04 (stations CP-21…CP-23). */
-    xStep: 0.5, xWidth: 0.04,
+    xStep: 0.5,
+    xWidth: 0.04,
   },
   freshening: {
     /** Change of practical salinity along the band, B − A. */
     dSP: -0.05,
     /** σ0 band: centre and e-folding half-width, kg/m³. */
-    sigma0Centre: 27.1, sigma0Width: 0.06,
+    sigma0Centre: 27.1,
+    sigma0Width: 0.06,
   },
   years: 10,
 } as const;
@@ -59,7 +62,11 @@ function interp(p: Float64Array, v: Float64Array, q: number): number {
   if (q >= p[n - 1]) return v[n - 1];
   let lo = 0;
   let hi = n - 1;
-  while (hi - lo > 1) { const m = (lo + hi) >> 1; if (p[m] <= q) lo = m; else hi = m; }
+  while (hi - lo > 1) {
+    const m = (lo + hi) >> 1;
+    if (p[m] <= q) lo = m;
+    else hi = m;
+  }
   const w = (q - p[lo]) / (p[hi] - p[lo]);
   return v[lo] + w * (v[hi] - v[lo]);
 }
@@ -78,10 +85,14 @@ function compensate(sr: number, ct: number, dSR: number): number {
 }
 
 async function main(): Promise<void> {
-  const demo = JSON.parse(readFileSync(join(DEMO, 'cruise.json'), 'utf8')) as { plannedStations: { station: string; latitude: number; longitude: number; plannedBottomDepth: number }[] };
+  const demo = JSON.parse(readFileSync(join(DEMO, 'cruise.json'), 'utf8')) as {
+    plannedStations: { station: string; latitude: number; longitude: number; plannedBottomDepth: number }[];
+  };
   mkdirSync(join(OUT, 'casts'), { recursive: true });
   for (const f of readdirSync(join(OUT, 'casts'))) rmSync(join(OUT, 'casts', f));
-  const files = readdirSync(join(DEMO, 'casts')).filter((f) => !f.startsWith('.')).sort();
+  const files = readdirSync(join(DEMO, 'casts'))
+    .filter((f) => !f.startsWith('.'))
+    .sort();
   const done = new Set<string>();
   const written: { station: string; file: string; time: string }[] = [];
   for (const f of files) {
@@ -105,49 +116,87 @@ async function main(): Promise<void> {
         let sr = interp(p, srD, q);
         let ct = interp(p, ctD, q);
         const dSR = -SR(plantedFreshening(sigma0(sr, ct))); // saltier before: A = B − change
-        if (Math.abs(dSR) > 1e-7) { ct = compensate(sr, ct, dSR); sr += dSR; }
+        if (Math.abs(dSR) > 1e-7) {
+          ct = compensate(sr, ct, dSR);
+          sr += dSR;
+        }
         const t = t_from_CT(sr, ct, p[k]);
         const ox = o2 ? interp(p, o2, q) : NaN;
-        rows.push([p[k].toFixed(1), t.toFixed(4), SPof(sr).toFixed(4), Number.isFinite(ox) ? ox.toFixed(1) : ''].join(','));
+        rows.push(
+          [p[k].toFixed(1), t.toFixed(4), SPof(sr).toFixed(4), Number.isFinite(ox) ? ox.toFixed(1) : ''].join(','),
+        );
       }
       const i = Number(st.replace(/\D/g, ''));
       const when = new Date(Date.parse(md.time!) - TEN_YEARS_MS);
       const lat = md.latitude! + 0.008 * Math.cos(i);
       const lon = md.longitude! + 0.01 * Math.sin(i);
       const time = when.toISOString().replace(/\.\d{3}Z$/, 'Z');
-      const head = [`# station: ${st}`, '# cast: 1', `# latitude: ${lat.toFixed(4)}`, `# longitude: ${lon.toFixed(4)}`, `# time: ${time}`,
-        `# bottom_depth: ${md.bottomDepth ?? ''}`, '# ship: RV Tessellate', '# cruise: TS-16-02', '# SECT_ID: CORROW'];
+      const head = [
+        `# station: ${st}`,
+        '# cast: 1',
+        `# latitude: ${lat.toFixed(4)}`,
+        `# longitude: ${lon.toFixed(4)}`,
+        `# time: ${time}`,
+        `# bottom_depth: ${md.bottomDepth ?? ''}`,
+        '# ship: RV Tessellate',
+        '# cruise: TS-16-02',
+        '# SECT_ID: CORROW',
+      ];
       const file = `${st}.csv`;
-      writeFileSync(join(OUT, 'casts', file), [...head, 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78],oxygen [umol/kg]', ...rows].join('\n') + '\n');
+      writeFileSync(
+        join(OUT, 'casts', file),
+        [...head, 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78],oxygen [umol/kg]', ...rows].join('\n') +
+          '\n',
+      );
       written.push({ station: st, file, time });
     }
   }
-  const planned = demo.plannedStations.map((s) => ({ station: s.station, latitude: s.latitude, longitude: s.longitude, plannedBottomDepth: s.plannedBottomDepth }));
+  const planned = demo.plannedStations.map((s) => ({
+    station: s.station,
+    latitude: s.latitude,
+    longitude: s.longitude,
+    plannedBottomDepth: s.plannedBottomDepth,
+  }));
   const cruise = {
-    name: 'TS-16-02 Corrow Passage section (first occupation)', code: 'TS-16-02', ship: 'RV Tessellate',
-    startDate: '2016-03-02', endDate: '2016-03-20',
+    name: 'TS-16-02 Corrow Passage section (first occupation)',
+    code: 'TS-16-02',
+    ship: 'RV Tessellate',
+    startDate: '2016-03-02',
+    endDate: '2016-03-20',
     ports: { departure: 'Port Haverel', arrival: 'Saltmere Quay' },
     region: { name: 'Corrow Passage' },
-    description: 'The first occupation of the invented Corrow Passage line, ten years before TS-26-04. Invented demo data.',
+    description:
+      'The first occupation of the invented Corrow Passage line, ten years before TS-26-04. Invented demo data.',
     team: [
       { name: 'Priya Castellane', role: 'analyst', email: 'analyst@sigmaline.test' },
       { name: 'Prof. Aurel Kimathi-Brandt', role: 'pi', email: 'pi@sigmaline.test' },
     ],
-    plannedStations: planned, occupiedCount: written.length,
+    plannedStations: planned,
+    occupiedCount: written.length,
   };
   writeFileSync(join(OUT, 'cruise.json'), JSON.stringify(cruise, null, 1) + '\n');
-  writeFileSync(join(OUT, 'planted.json'), JSON.stringify({ generatedBy: 'scripts/make-demo-earlier.ts', sense: 'later (TS-26-04) minus earlier (TS-16-02)', ...PLANTS }, null, 1) + '\n');
-  writeFileSync(join(OUT, 'README.md'), [
-    '# TS-16-02: the invented earlier occupation of the demo line',
-    '',
-    'Generated by `scripts/make-demo-earlier.ts` from the demo cruise\'s casts; invented like them.',
-    `${written.length} casts, ten years before TS-26-04, positions about a kilometre from the demo's, station CP-07 not occupied.`,
-    '',
-    'Planted (TS-26-04 minus TS-16-02):',
-    `- heave: the thermocline isopycnals deepened by up to ${PLANTS.heave.dbar} dbar (centred at ${PLANTS.heave.pCentre} dbar, half-width ${PLANTS.heave.pWidth} dbar) in the northern half of the line (from about CP-22);`,
-    `- freshening: ${PLANTS.freshening.dSP} in practical salinity along σ0 = ${PLANTS.freshening.sigma0Centre} ± ${PLANTS.freshening.sigma0Width} kg/m³ (intermediate water), density-compensated.`,
-    '',
-  ].join('\n'));
+  writeFileSync(
+    join(OUT, 'planted.json'),
+    JSON.stringify(
+      { generatedBy: 'scripts/make-demo-earlier.ts', sense: 'later (TS-26-04) minus earlier (TS-16-02)', ...PLANTS },
+      null,
+      1,
+    ) + '\n',
+  );
+  writeFileSync(
+    join(OUT, 'README.md'),
+    [
+      '# TS-16-02: the invented earlier occupation of the demo line',
+      '',
+      "Generated by `scripts/make-demo-earlier.ts` from the demo cruise's casts; invented like them.",
+      `${written.length} casts, ten years before TS-26-04, positions about a kilometre from the demo's, station CP-07 not occupied.`,
+      '',
+      'Planted (TS-26-04 minus TS-16-02):',
+      `- heave: the thermocline isopycnals deepened by up to ${PLANTS.heave.dbar} dbar (centred at ${PLANTS.heave.pCentre} dbar, half-width ${PLANTS.heave.pWidth} dbar) in the northern half of the line (from about CP-22);`,
+      `- freshening: ${PLANTS.freshening.dSP} in practical salinity along σ0 = ${PLANTS.freshening.sigma0Centre} ± ${PLANTS.freshening.sigma0Width} kg/m³ (intermediate water), density-compensated.`,
+      '',
+    ].join('\n'),
+  );
   console.log(`wrote ${written.length} casts of the earlier occupation`);
 }
 

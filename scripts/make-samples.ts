@@ -19,7 +19,14 @@ export function sampleProfile(p: number): { t: number; s: number; o2: number; fl
   };
 }
 
-const META = ['# station: K-07', '# cast: 1', '# latitude: -34.1250', '# longitude: -21.5000', '# time: 2026-03-04T05:06:00Z', '# bottom_depth: 1480'];
+const META = [
+  '# station: K-07',
+  '# cast: 1',
+  '# latitude: -34.1250',
+  '# longitude: -21.5000',
+  '# time: 2026-03-04T05:06:00Z',
+  '# bottom_depth: 1480',
+];
 
 function levels(n: number, step = 2, start = 2): number[] {
   return Array.from({ length: n }, (_, i) => start + i * step);
@@ -32,44 +39,82 @@ function csvCast(sep: string, header: string[], rows: (p: number) => string[], p
 const P = levels(200); // 2..400 dbar
 const files: Record<string, string | Buffer> = {};
 
-files['plain.csv'] = csvCast(',', ['pressure [dbar]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]', 'oxygen [umol/kg]'], (p) => {
-  const v = sampleProfile(p);
-  return [p.toFixed(1), v.t.toFixed(4), v.s.toFixed(4), v.o2.toFixed(1)];
-}, P);
+files['plain.csv'] = csvCast(
+  ',',
+  ['pressure [dbar]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]', 'oxygen [umol/kg]'],
+  (p) => {
+    const v = sampleProfile(p);
+    return [p.toFixed(1), v.t.toFixed(4), v.s.toFixed(4), v.o2.toFixed(1)];
+  },
+  P,
+);
 
-files['plain-tab.tsv'] = csvCast('\t', ['pressure [dbar]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]'], (p) => {
-  const v = sampleProfile(p);
-  return [p.toFixed(1), v.t.toFixed(4), v.s.toFixed(4)];
-}, P);
+files['plain-tab.tsv'] = csvCast(
+  '\t',
+  ['pressure [dbar]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]'],
+  (p) => {
+    const v = sampleProfile(p);
+    return [p.toFixed(1), v.t.toFixed(4), v.s.toFixed(4)];
+  },
+  P,
+);
 
-files['plain-bom.csv'] = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(files['plain-tab.tsv'].toString().replace(/\t/g, ','))]);
+files['plain-bom.csv'] = Buffer.concat([
+  Buffer.from([0xef, 0xbb, 0xbf]),
+  Buffer.from(files['plain-tab.tsv'].toString().replace(/\t/g, ',')),
+]);
 
-files['plain-semicolon-decimal-comma.csv'] = csvCast(';', ['Pressure (dbar)', 'Temperature (°C ITS-90)', 'Salinity (PSU)'], (p) => {
-  const v = sampleProfile(p);
-  return [p.toFixed(1), v.t.toFixed(4), v.s.toFixed(4)].map((x) => x.replace('.', ','));
-}, P);
+files['plain-semicolon-decimal-comma.csv'] = csvCast(
+  ';',
+  ['Pressure (dbar)', 'Temperature (°C ITS-90)', 'Salinity (PSU)'],
+  (p) => {
+    const v = sampleProfile(p);
+    return [p.toFixed(1), v.t.toFixed(4), v.s.toFixed(4)].map((x) => x.replace('.', ','));
+  },
+  P,
+);
 
-files['plain-ipts68.csv'] = csvCast(',', ['pressure [dbar]', 'temperature [IPTS-68 degC]', 'salinity [PSS-78]'], (p) => {
-  const v = sampleProfile(p);
-  return [p.toFixed(1), (v.t * 1.00024).toFixed(4), v.s.toFixed(4)];
-}, P);
+files['plain-ipts68.csv'] = csvCast(
+  ',',
+  ['pressure [dbar]', 'temperature [IPTS-68 degC]', 'salinity [PSS-78]'],
+  (p) => {
+    const v = sampleProfile(p);
+    return [p.toFixed(1), (v.t * 1.00024).toFixed(4), v.s.toFixed(4)];
+  },
+  P,
+);
 
 // Conductivity in S/m (values ~ 3.3–5.0) instead of salinity; pressure in kPa; temperature in K.
-files['plain-conductivity-sm.csv'] = csvCast(',', ['pressure [kPa]', 'temperature [K]', 'conductivity [S/m]'], (p) => {
-  const v = sampleProfile(p);
-  const c = 3.0 + 0.09 * v.t + 0.0 * v.s; // invented, monotone in t: parser test only
-  return [(p * 10).toFixed(1), (v.t + 273.15).toFixed(4), c.toFixed(5)];
-}, P);
+files['plain-conductivity-sm.csv'] = csvCast(
+  ',',
+  ['pressure [kPa]', 'temperature [K]', 'conductivity [S/m]'],
+  (p) => {
+    const v = sampleProfile(p);
+    const c = 3.0 + 0.09 * v.t + 0.0 * v.s; // invented, monotone in t: parser test only
+    return [(p * 10).toFixed(1), (v.t + 273.15).toFixed(4), c.toFixed(5)];
+  },
+  P,
+);
 
-files['plain-depth.csv'] = csvCast(',', ['depth [m]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]'], (p) => {
-  const v = sampleProfile(p);
-  return [(p * 0.9933).toFixed(2), v.t.toFixed(4), v.s.toFixed(4)];
-}, P);
+files['plain-depth.csv'] = csvCast(
+  ',',
+  ['depth [m]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]'],
+  (p) => {
+    const v = sampleProfile(p);
+    return [(p * 0.9933).toFixed(2), v.t.toFixed(4), v.s.toFixed(4)];
+  },
+  P,
+);
 
-files['plain-whitespace.txt'] = csvCast('   ', ['pressure [dbar]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]'], (p) => {
-  const v = sampleProfile(p);
-  return [p.toFixed(1).padStart(7), v.t.toFixed(4), v.s.toFixed(4)];
-}, P);
+files['plain-whitespace.txt'] = csvCast(
+  '   ',
+  ['pressure [dbar]', 'temperature [ITS-90 degC]', 'salinity [PSS-78]'],
+  (p) => {
+    const v = sampleProfile(p);
+    return [p.toFixed(1).padStart(7), v.t.toFixed(4), v.s.toFixed(4)];
+  },
+  P,
+);
 
 // A full cast with a pressure reversal (ship heave) on the way down and an upcast to 10 dbar,
 // plus a fluorescence extra with its own flag column and a temperature flag column.
@@ -81,10 +126,22 @@ files['plain-whitespace.txt'] = csvCast('   ', ['pressure [dbar]', 'temperature 
     if (p === 100) ps.push(99, 98); // heave: pressure goes back 2 dbar
   }
   for (let p = 296; p >= 10; p -= 4) ps.push(p);
-  files['plain-upcast.csv'] = csvCast(',', ['pressure [dbar]', 'temperature [ITS-90 degC]', 'temperature_flag', 'salinity [PSS-78]', 'fluorescence [mg/m^3]', 'fluorescence_flag'], (p) => {
-    const v = sampleProfile(p);
-    return [p.toFixed(1), v.t.toFixed(4), p === 50 ? '3' : '2', v.s.toFixed(4), v.fl.toFixed(3), '2'];
-  }, ps);
+  files['plain-upcast.csv'] = csvCast(
+    ',',
+    [
+      'pressure [dbar]',
+      'temperature [ITS-90 degC]',
+      'temperature_flag',
+      'salinity [PSS-78]',
+      'fluorescence [mg/m^3]',
+      'fluorescence_flag',
+    ],
+    (p) => {
+      const v = sampleProfile(p);
+      return [p.toFixed(1), v.t.toFixed(4), p === 50 ? '3' : '2', v.s.toFixed(4), v.fl.toFixed(3), '2'];
+    },
+    ps,
+  );
 }
 
 // The exchange format with flags and fill values.
@@ -92,7 +149,16 @@ files['plain-whitespace.txt'] = csvCast('   ', ['pressure [dbar]', 'temperature 
   const rows = P.map((p, i) => {
     const v = sampleProfile(p);
     const oxyMissing = i % 50 === 7;
-    return [p.toFixed(1), '2', v.t.toFixed(4), '2', v.s.toFixed(4), i === 20 ? '3' : '2', oxyMissing ? '-999.0' : v.o2.toFixed(1), oxyMissing ? '9' : '2']
+    return [
+      p.toFixed(1),
+      '2',
+      v.t.toFixed(4),
+      '2',
+      v.s.toFixed(4),
+      i === 20 ? '3' : '2',
+      oxyMissing ? '-999.0' : v.o2.toFixed(1),
+      oxyMissing ? '9' : '2',
+    ]
       .map((x) => x.padStart(8))
       .join(',');
   });
@@ -129,7 +195,8 @@ files['stations.csv'] =
 function zipOf(entries: Record<string, string | Buffer>): Promise<Buffer> {
   return new Promise((resolve, reject) => {
     const z = new yazl.ZipFile();
-    for (const [name, data] of Object.entries(entries)) z.addBuffer(Buffer.isBuffer(data) ? data : Buffer.from(data), name, { mtime: new Date('2026-03-05T00:00:00Z') });
+    for (const [name, data] of Object.entries(entries))
+      z.addBuffer(Buffer.isBuffer(data) ? data : Buffer.from(data), name, { mtime: new Date('2026-03-05T00:00:00Z') });
     z.end();
     const chunks: Buffer[] = [];
     z.outputStream.on('data', (c: Buffer) => chunks.push(c));
@@ -141,7 +208,8 @@ function zipOf(entries: Record<string, string | Buffer>): Promise<Buffer> {
 async function main(): Promise<void> {
   mkdirSync(OUT, { recursive: true });
   // Casts in the zip carry only the station; the station table in the zip supplies the rest.
-  const bare = (station: string, from: string): string => [`# station: ${station}`, `# cast: 1`, ...from.split('\n').filter((l) => !l.startsWith('#'))].join('\n');
+  const bare = (station: string, from: string): string =>
+    [`# station: ${station}`, `# cast: 1`, ...from.split('\n').filter((l) => !l.startsWith('#'))].join('\n');
   files['casts.zip'] = await zipOf({
     'casts/K-08.csv': bare('K-08', files['plain.csv'] as string),
     'casts/K-09.tsv': bare('K-09', files['plain-tab.tsv'] as string),

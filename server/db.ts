@@ -24,7 +24,9 @@ export function connectDb(databaseUrl: string, opts: { poolMax?: number } = {}):
 }
 
 type Migration = { name: string; up: (qi: QueryInterface) => Promise<void> };
-export const MIGRATIONS: Migration[] = [{ name: '001-initial', up: m001.up }, { name: '002-analysis-and-deliveries', up: m002.up },
+export const MIGRATIONS: Migration[] = [
+  { name: '001-initial', up: m001.up },
+  { name: '002-analysis-and-deliveries', up: m002.up },
   { name: '003-cast-life', up: m003.up },
   { name: '004-lines', up: m004.up },
   { name: '005-hardening', up: m005.up },
@@ -39,7 +41,10 @@ export async function migrate(db: Db): Promise<string[]> {
   const applied: string[] = [];
   await sequelize.transaction(async (t) => {
     await sequelize.query('SELECT pg_advisory_xact_lock(724311)', { transaction: t });
-    await sequelize.query('CREATE TABLE IF NOT EXISTS schema_migrations (name text PRIMARY KEY, applied_at timestamptz NOT NULL DEFAULT now())', { transaction: t });
+    await sequelize.query(
+      'CREATE TABLE IF NOT EXISTS schema_migrations (name text PRIMARY KEY, applied_at timestamptz NOT NULL DEFAULT now())',
+      { transaction: t },
+    );
     const [rows] = await sequelize.query('SELECT name FROM schema_migrations', { transaction: t });
     const done = new Set((rows as { name: string }[]).map((r) => r.name));
     for (const mig of MIGRATIONS) {
@@ -48,13 +53,17 @@ export async function migrate(db: Db): Promise<string[]> {
       // QueryInterface helpers do not all take a transaction option; route every query the
       // migration makes through this transaction so a failed migration leaves nothing behind.
       const orig = sequelize.query.bind(sequelize);
-      (sequelize as unknown as { query: typeof orig }).query = ((sql: string, options?: object) => orig(sql, { ...(options ?? {}), transaction: t })) as typeof orig;
+      (sequelize as unknown as { query: typeof orig }).query = ((sql: string, options?: object) =>
+        orig(sql, { ...(options ?? {}), transaction: t })) as typeof orig;
       try {
         await mig.up(qi);
       } finally {
         (sequelize as unknown as { query: typeof orig }).query = orig;
       }
-      await sequelize.query('INSERT INTO schema_migrations(name) VALUES (:name)', { replacements: { name: mig.name }, transaction: t });
+      await sequelize.query('INSERT INTO schema_migrations(name) VALUES (:name)', {
+        replacements: { name: mig.name },
+        transaction: t,
+      });
       applied.push(mig.name);
     }
   });

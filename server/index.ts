@@ -13,7 +13,9 @@ if (deps.settings.RUN_WORKER_IN_PROCESS === 'true') {
   await startWorkers(deps);
 }
 const shutdown = () => {
-  server.close(() => { Promise.all([app.close(), deps.close()]).finally(() => process.exit(0)); });
+  server.close(() => {
+    Promise.all([app.close(), deps.close()]).finally(() => process.exit(0));
+  });
   setTimeout(() => process.exit(0), 8000).unref();
 };
 process.on('SIGTERM', shutdown);

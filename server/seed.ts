@@ -21,13 +21,28 @@ export const DEMO_ACCOUNTS: { email: string; name: string; role: Role | 'admin' 
   { email: 'admin@sigmaline.test', name: 'Site admin', role: 'admin' },
 ];
 
-const DemoCruise = z.object({
-  name: z.string(), ship: z.string(), startDate: z.string(), endDate: z.string(), description: z.string().nullish(),
-  ports: z.object({ departure: z.string().nullish(), arrival: z.string().nullish() }).partial().nullish(),
-  region: z.object({ name: z.string() }).passthrough().nullish(),
-  team: z.array(z.object({ name: z.string(), role: z.string(), email: z.string() })).default([]),
-  plannedStations: z.array(z.object({ station: z.string(), latitude: z.number(), longitude: z.number(), plannedBottomDepth: z.number().nullish() }).passthrough()),
-}).passthrough();
+const DemoCruise = z
+  .object({
+    name: z.string(),
+    ship: z.string(),
+    startDate: z.string(),
+    endDate: z.string(),
+    description: z.string().nullish(),
+    ports: z.object({ departure: z.string().nullish(), arrival: z.string().nullish() }).partial().nullish(),
+    region: z.object({ name: z.string() }).passthrough().nullish(),
+    team: z.array(z.object({ name: z.string(), role: z.string(), email: z.string() })).default([]),
+    plannedStations: z.array(
+      z
+        .object({
+          station: z.string(),
+          latitude: z.number(),
+          longitude: z.number(),
+          plannedBottomDepth: z.number().nullish(),
+        })
+        .passthrough(),
+    ),
+  })
+  .passthrough();
 
 export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
   const settings = loadSettings();
@@ -40,40 +55,90 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
   for (const a of DEMO_ACCOUNTS) {
     const person = demo.team.find((m) => m.email === a.email);
     const name = person ? person.name : a.name;
-    const [u] = await User.findOrCreate({ where: { email: a.email }, defaults: { email: a.email, name, passwordHash: hash, isAdmin: a.role === 'admin' } });
+    const [u] = await User.findOrCreate({
+      where: { email: a.email },
+      defaults: { email: a.email, name, passwordHash: hash, isAdmin: a.role === 'admin' },
+    });
     users[a.email] = u;
   }
   let cruise = await Cruise.findOne({ where: { name: demo.name } });
   if (!cruise) {
-    cruise = await Cruise.create({ name: demo.name, ship: demo.ship, startDate: demo.startDate, endDate: demo.endDate, portStart: demo.ports?.departure ?? null,
-      portEnd: demo.ports?.arrival ?? null, region: demo.region?.name ?? null, description: demo.description ?? null, createdBy: users['chief@sigmaline.test'].id });
+    cruise = await Cruise.create({
+      name: demo.name,
+      ship: demo.ship,
+      startDate: demo.startDate,
+      endDate: demo.endDate,
+      portStart: demo.ports?.departure ?? null,
+      portEnd: demo.ports?.arrival ?? null,
+      region: demo.region?.name ?? null,
+      description: demo.description ?? null,
+      createdBy: users['chief@sigmaline.test'].id,
+    });
     let order = 0;
-    for (const s of demo.plannedStations) await Station.create({ cruiseId: cruise.id, name: s.station, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedBottomDepth ?? null, order: ++order });
+    for (const s of demo.plannedStations)
+      await Station.create({
+        cruiseId: cruise.id,
+        name: s.station,
+        latitude: s.latitude,
+        longitude: s.longitude,
+        plannedDepth: s.plannedBottomDepth ?? null,
+        order: ++order,
+      });
   }
   // the default layer sets (σ0 for the upper ocean, σ2 below 1000 dbar) suit the demo section
   if ((await LayerSet.count({ where: { cruiseId: cruise.id } })) === 0) {
-    for (const d of suggestedLayerSets()) await LayerSet.create({ cruiseId: cruise.id, name: d.name, referencePressure: d.ref, levels: d.spec, createdBy: users['analyst@sigmaline.test'].id });
+    for (const d of suggestedLayerSets())
+      await LayerSet.create({
+        cruiseId: cruise.id,
+        name: d.name,
+        referencePressure: d.ref,
+        levels: d.spec,
+        createdBy: users['analyst@sigmaline.test'].id,
+      });
   }
   // a second, shorter line beside the default one: over the crest of the invented Corrow Rise (docs/lines.md)
   if ((await Line.count({ where: { cruiseId: cruise.id, isDefault: false } })) === 0) {
-    await Line.create({ cruiseId: cruise.id, name: 'Corrow Rise crest', stations: ['CP-20', 'CP-21', 'CP-22', 'CP-23', 'CP-24', 'CP-25', 'CP-26'],
-      polyline: null, corridorKm: null, createdBy: users['analyst@sigmaline.test'].id });
+    await Line.create({
+      cruiseId: cruise.id,
+      name: 'Corrow Rise crest',
+      stations: ['CP-20', 'CP-21', 'CP-22', 'CP-23', 'CP-24', 'CP-25', 'CP-26'],
+      polyline: null,
+      corridorKm: null,
+      createdBy: users['analyst@sigmaline.test'].id,
+    });
   }
   for (const a of DEMO_ACCOUNTS) {
     if (a.role === 'admin') continue;
-    await Membership.findOrCreate({ where: { userId: users[a.email].id, cruiseId: cruise.id }, defaults: { userId: users[a.email].id, cruiseId: cruise.id, role: a.role } });
+    await Membership.findOrCreate({
+      where: { userId: users[a.email].id, cruiseId: cruise.id },
+      defaults: { userId: users[a.email].id, cruiseId: cruise.id, role: a.role },
+    });
   }
   const dir = join(root, 'fixtures/demo/casts');
-  const files = existsSync(dir) ? readdirSync(dir).filter((f) => !f.startsWith('.')).sort() : [];
+  const files = existsSync(dir)
+    ? readdirSync(dir)
+        .filter((f) => !f.startsWith('.'))
+        .sort()
+    : [];
   const ids: string[] = [];
   for (const f of files) {
     const bytes = readFileSync(join(dir, f));
     const sha256 = createHash('sha256').update(bytes).digest('hex');
     const existing = await Upload.findOne({ where: { cruiseId: cruise.id, sha256 } });
-    if (existing) { ids.push(existing.id); continue; }
+    if (existing) {
+      ids.push(existing.id);
+      continue;
+    }
     const key = `cruises/${cruise.id}/raw/${sha256}`;
     await deps.storage.put(key, bytes);
-    const u = await Upload.create({ cruiseId: cruise.id, filename: f, storageKey: key, sha256, size: bytes.length, createdBy: users['tech@sigmaline.test'].id });
+    const u = await Upload.create({
+      cruiseId: cruise.id,
+      filename: f,
+      storageKey: key,
+      sha256,
+      size: bytes.length,
+      createdBy: users['tech@sigmaline.test'].id,
+    });
     await deps.queue.send(QUEUES.ingest, { uploadId: u.id });
     ids.push(u.id);
   }
@@ -87,7 +152,8 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
       await new Promise((r) => setTimeout(r, 300));
     }
     const failed = await Upload.findAll({ where: { id: ids, status: 'failed' } });
-    for (const f of failed) console.warn(`[sigmaline] demo file ${f.filename} failed: ${JSON.stringify(f.errors).slice(0, 300)}`);
+    for (const f of failed)
+      console.warn(`[sigmaline] demo file ${f.filename} failed: ${JSON.stringify(f.errors).slice(0, 300)}`);
   }
   await deps.close();
   return { cruiseId: cruise.id, files: files.length };

@@ -17,7 +17,9 @@ import NotFound from './routes/NotFound';
 import RouteError from './routes/RouteError';
 
 /** A screen loaded on first visit, so its code (maps, tables, later plots) stays out of the first download. */
-const lazyScreen = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({ Component: (await load()).default });
+const lazyScreen = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({
+  Component: (await load()).default,
+});
 
 /**
  * Every route of the client. Screens live one per file in src/routes/; the cruise area's

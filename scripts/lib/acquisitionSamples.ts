@@ -49,8 +49,19 @@ function twoPairs(): string {
     const p = 2 + 2 * k;
     const t = tAt(p);
     const c = 3.0 + 0.09 * t;
-    const v = [p.toFixed(3), t.toFixed(4), (t + 0.001).toFixed(4), c.toFixed(6), (c + 0.001).toFixed(6), (oAt(p) / 44.661).toFixed(4),
-      sAt(p).toFixed(4), (sAt(p) + 0.001).toFixed(4), (0.1 + 0.001 * k).toFixed(4), '98.5000', '0.000e+00'];
+    const v = [
+      p.toFixed(3),
+      t.toFixed(4),
+      (t + 0.001).toFixed(4),
+      c.toFixed(6),
+      (c + 0.001).toFixed(6),
+      (oAt(p) / 44.661).toFixed(4),
+      sAt(p).toFixed(4),
+      (sAt(p) + 0.001).toFixed(4),
+      (0.1 + 0.001 * k).toFixed(4),
+      '98.5000',
+      '0.000e+00',
+    ];
     if (k === 10) v[1] = BAD_FLAG; // primary temperature lost at one level
     if (k === 40) v[5] = BAD_FLAG; // oxygen lost at another
     rows.push(v.map(col).join(''));

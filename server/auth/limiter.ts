@@ -15,10 +15,17 @@ import type { Settings } from '../config';
 
 export const LOGIN_WINDOW_MS = 15 * 60 * 1000;
 
-type Limits = Pick<Settings, 'LOGIN_FREE_FAILURES' | 'LOGIN_MAX_FAILURES' | 'LOGIN_BACKOFF_BASE_MS' | 'LOGIN_BACKOFF_MAX_MS'>;
+type Limits = Pick<
+  Settings,
+  'LOGIN_FREE_FAILURES' | 'LOGIN_MAX_FAILURES' | 'LOGIN_BACKOFF_BASE_MS' | 'LOGIN_BACKOFF_MAX_MS'
+>;
 
 /** Milliseconds to wait after the last of `failures` failures, when `free` of them cost nothing. */
-export function backoffMs(failures: number, free: number, s: Pick<Limits, 'LOGIN_BACKOFF_BASE_MS' | 'LOGIN_BACKOFF_MAX_MS'>): number {
+export function backoffMs(
+  failures: number,
+  free: number,
+  s: Pick<Limits, 'LOGIN_BACKOFF_BASE_MS' | 'LOGIN_BACKOFF_MAX_MS'>,
+): number {
   if (failures < free) return 0;
   return Math.min(s.LOGIN_BACKOFF_MAX_MS, s.LOGIN_BACKOFF_BASE_MS * 2 ** Math.min(30, failures - free));
 }
@@ -45,7 +52,12 @@ export async function checkSignInAllowed(email: string, ip: string, s: Limits): 
 
 function tooMany(waitMs: number) {
   const seconds = Math.max(1, Math.ceil(waitMs / 1000));
-  const err = new HttpError(429, 'rate_limited', `Too many failed sign-in attempts; try again in ${seconds} s (or reset your password).`, [{ retryAfterSeconds: seconds }]);
+  const err = new HttpError(
+    429,
+    'rate_limited',
+    `Too many failed sign-in attempts; try again in ${seconds} s (or reset your password).`,
+    [{ retryAfterSeconds: seconds }],
+  );
   (err as HttpError & { retryAfter?: number }).retryAfter = seconds;
   return err;
 }

@@ -8,7 +8,9 @@ export const hashPassword = (password: string) => argon2.hash(password, { type: 
 let dummy: Promise<string> | null = null;
 const dummyHash = () => (dummy ??= argon2.hash(randomBytes(24).toString('base64url'), { type: argon2.argon2id }));
 /** Warms the dummy hash (at start-up, so the first unknown address is not the fast one). */
-export const warmPasswordCheck = () => { void dummyHash(); };
+export const warmPasswordCheck = () => {
+  void dummyHash();
+};
 
 export const verifyPassword = async (hash: string | null, password: string) => {
   if (!hash) {

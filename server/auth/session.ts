@@ -10,12 +10,19 @@ import { newToken, safeEqual } from './tokens';
 import { errorBody } from '../lib/errors';
 
 declare module 'express-session' {
-  interface SessionData { csrfToken?: string }
+  interface SessionData {
+    csrfToken?: string;
+  }
 }
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
-    interface User { id: string; email: string; name: string; isAdmin: boolean }
+    interface User {
+      id: string;
+      email: string;
+      name: string;
+      isAdmin: boolean;
+    }
   }
 }
 
@@ -24,7 +31,13 @@ export function sessionMiddleware(pool: Pool, secret: string, secure: boolean | 
   const PgStore = connectPgSimple(session);
   return session({
     // no touch: a session lives 12 h from sign-in (no write per request), then signs out
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 600, disableTouch: true }),
+    store: new PgStore({
+      pool,
+      tableName: 'session',
+      createTableIfMissing: false,
+      pruneSessionInterval: 600,
+      disableTouch: true,
+    }),
     name: 'sigmaline.sid',
     secret,
     resave: false,
@@ -36,18 +49,22 @@ export function sessionMiddleware(pool: Pool, secret: string, secure: boolean | 
 }
 
 export function configurePassport() {
-  passport.use(new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-    User.findOne({ where: { email: email.trim().toLowerCase() } })
-      .then(async (user) => {
-        const ok = await verifyPassword(user?.passwordHash ?? null, password);
-        if (!user || !ok) return done(null, false);
-        done(null, { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin });
-      })
-      .catch(done);
-  }));
+  passport.use(
+    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
+      User.findOne({ where: { email: email.trim().toLowerCase() } })
+        .then(async (user) => {
+          const ok = await verifyPassword(user?.passwordHash ?? null, password);
+          if (!user || !ok) return done(null, false);
+          done(null, { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin });
+        })
+        .catch(done);
+    }),
+  );
   // The session keeps the user's id, e-mail, name and admin bit, so a request costs no user
   // lookup; membership and role are still checked in the database on every cruise route.
-  passport.serializeUser((user, done) => done(null, { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }));
+  passport.serializeUser((user, done) =>
+    done(null, { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }),
+  );
   passport.deserializeUser((stored: unknown, done) => {
     if (stored && typeof stored === 'object' && 'id' in stored) {
       const u = stored as Express.User;

@@ -5,9 +5,22 @@
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { logger } from '../lib/logger';
-import { parsedTransferables, type DeriveOutcome, type DeriveRequest, type ParseOutcome, type ParseRequest } from './ingestCompute';
+import {
+  parsedTransferables,
+  type DeriveOutcome,
+  type DeriveRequest,
+  type ParseOutcome,
+  type ParseRequest,
+} from './ingestCompute';
 
-type Pending = { id: number; op: 'parse' | 'derive'; req: ParseRequest | DeriveRequest; transfer: ArrayBuffer[]; resolve: (r: never) => void; reject: (e: Error) => void };
+type Pending = {
+  id: number;
+  op: 'parse' | 'derive';
+  req: ParseRequest | DeriveRequest;
+  transfer: ArrayBuffer[];
+  resolve: (r: never) => void;
+  reject: (e: Error) => void;
+};
 type Slot = { worker: Worker; ready: Promise<void>; task: Pending | null };
 
 export class ComputePool {
@@ -53,9 +66,18 @@ export class ComputePool {
     const worker = new Worker(new URL('./computeThread.mjs', import.meta.url), { execArgv: [] });
     worker.unref();
     let markReady!: () => void;
-    const slot: Slot = { worker, ready: new Promise<void>((r) => { markReady = r; }), task: null };
+    const slot: Slot = {
+      worker,
+      ready: new Promise<void>((r) => {
+        markReady = r;
+      }),
+      task: null,
+    };
     worker.on('message', (m: { type: 'ready' | 'done' | 'error'; id?: number; result?: never; message?: string }) => {
-      if (m.type === 'ready') { markReady(); return; }
+      if (m.type === 'ready') {
+        markReady();
+        return;
+      }
       const t = slot.task;
       if (!t || t.id !== m.id) return;
       slot.task = null;

@@ -35,18 +35,31 @@ export type DeriveRequest = {
   plan: Record<string, PlannedStation>;
   inversionThreshold: number;
 };
-export type DeriveOutcome = { errors: FileError[]; processed: { parsed: CastHead; out: ProcessedCast }[]; deriveMs: number };
+export type DeriveOutcome = {
+  errors: FileError[];
+  processed: { parsed: CastHead; out: ProcessedCast }[];
+  deriveMs: number;
+};
 
 /** The first half: parse (and inflate) the upload. */
 export async function parseForIngest(req: ParseRequest): Promise<ParseOutcome> {
   const t0 = performance.now();
   const bytes = Buffer.from(req.bytes.buffer, req.bytes.byteOffset, req.bytes.byteLength);
   const parsed = await parseUpload(req.filename, bytes, {
-    columnMapping: req.mapping, maxBytes: req.maxBytes, maxLevels: req.maxLevels, salvage: req.salvage,
+    columnMapping: req.mapping,
+    maxBytes: req.maxBytes,
+    maxLevels: req.maxLevels,
+    salvage: req.salvage,
     zipLimits: req.maxInflatedBytes ? { maxTotalBytes: req.maxInflatedBytes } : undefined,
   });
   const parseMs = performance.now() - t0;
-  if (!parsed.ok) return { kind: 'parse_failed', errors: parsed.errors, unmappedHeaders: parsed.unmappedHeaders?.headers ?? null, parseMs };
+  if (!parsed.ok)
+    return {
+      kind: 'parse_failed',
+      errors: parsed.errors,
+      unmappedHeaders: parsed.unmappedHeaders?.headers ?? null,
+      parseMs,
+    };
   return { kind: 'parsed', casts: parsed.casts, stations: parsed.stations, warnings: parsed.warnings, parseMs };
 }
 
@@ -66,10 +79,31 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
     md.longitude ??= row?.longitude ?? planned?.longitude ?? null;
     md.bottomDepth ??= row?.bottomDepth ?? null;
     md.time ??= row?.time ?? null;
-    if (!md.station) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: no station identifier (add a "# station:" line or a station table).` }); continue; }
-    if (md.latitude == null || md.longitude == null) { errors.push({ file: c.file, line: null, column: null, code: 'bad_metadata', message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).` }); continue; }
+    if (!md.station) {
+      errors.push({
+        file: c.file,
+        line: null,
+        column: null,
+        code: 'bad_metadata',
+        message: `${c.file}: no station identifier (add a "# station:" line or a station table).`,
+      });
+      continue;
+    }
+    if (md.latitude == null || md.longitude == null) {
+      errors.push({
+        file: c.file,
+        line: null,
+        column: null,
+        code: 'bad_metadata',
+        message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).`,
+      });
+      continue;
+    }
     const result = processCast({ ...c, metadata: md }, { inversionThreshold: req.inversionThreshold });
-    if (!result.ok) { errors.push(...result.errors); continue; }
+    if (!result.ok) {
+      errors.push(...result.errors);
+      continue;
+    }
     const { columns: _c, extras: _e, flags: _f, ...head } = c;
     processed.push({ parsed: { ...head, metadata: md }, out: result.cast });
   }
@@ -79,7 +113,9 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
 /** The distinct buffers of parsed casts' columns, to hand them to another thread without a copy. */
 export function parsedTransferables(casts: ParsedCast[]): ArrayBuffer[] {
   const seen = new Set<ArrayBuffer>();
-  const add = (a: ArrayBufferView | undefined) => { if (a && a.buffer instanceof ArrayBuffer) seen.add(a.buffer); };
+  const add = (a: ArrayBufferView | undefined) => {
+    if (a && a.buffer instanceof ArrayBuffer) seen.add(a.buffer);
+  };
   for (const c of casts) {
     for (const v of Object.values(c.columns)) add(v);
     for (const e of Object.values(c.extras)) add(e.values);
@@ -91,6 +127,7 @@ export function parsedTransferables(casts: ParsedCast[]): ArrayBuffer[] {
 /** The distinct buffers of derived casts' columns. */
 export function derivedTransferables(processed: { out: ProcessedCast }[]): ArrayBuffer[] {
   const seen = new Set<ArrayBuffer>();
-  for (const { out } of processed) for (const col of out.columns) if (col.values.buffer instanceof ArrayBuffer) seen.add(col.values.buffer);
+  for (const { out } of processed)
+    for (const col of out.columns) if (col.values.buffer instanceof ArrayBuffer) seen.add(col.values.buffer);
   return [...seen];
 }

@@ -21,27 +21,44 @@ export async function startWorkers(deps: AppDeps, opts: { concurrency?: number; 
   // the threads start loading their code now; a job that comes before they are ready waits for them
   const pool = computePool();
   const ingestWorkers: string[] = [];
-  const wake = () => { for (const id of ingestWorkers) boss.notifyWorker(id); };
+  const wake = () => {
+    for (const id of ingestWorkers) boss.notifyWorker(id);
+  };
   for (let i = 0; i < n; i++) {
     let self: string | null = null;
-    self = await boss.work<{ uploadId: string; reprocess?: boolean }>(QUEUES.ingest, { batchSize, pollingIntervalSeconds: 0.5, includeMetadata: true }, async (jobs) => {
-      // this loop found work: it looks for more as soon as this batch is done
-      if (self) boss.notifyWorker(self);
-      const results = await Promise.allSettled((jobs as unknown as IngestJob[]).map((job) =>
-        runIngestJob(deps, job.data.uploadId, { reprocess: job.data.reprocess === true, queuedAt: job.createdOn })));
-      // a job that faulted is failed on its own (pg-boss retries it); the others complete
-      await Promise.all(results.map((r, k) => {
-        if (r.status === 'fulfilled') return null;
-        logger.warn({ err: r.reason, uploadId: jobs[k].data.uploadId }, 'ingest job failed; pg-boss retries it');
-        return boss.fail(QUEUES.ingest, jobs[k].id, { message: String((r.reason as Error)?.message ?? r.reason) });
-      }));
-    });
+    self = await boss.work<{ uploadId: string; reprocess?: boolean }>(
+      QUEUES.ingest,
+      { batchSize, pollingIntervalSeconds: 0.5, includeMetadata: true },
+      async (jobs) => {
+        // this loop found work: it looks for more as soon as this batch is done
+        if (self) boss.notifyWorker(self);
+        const results = await Promise.allSettled(
+          (jobs as unknown as IngestJob[]).map((job) =>
+            runIngestJob(deps, job.data.uploadId, { reprocess: job.data.reprocess === true, queuedAt: job.createdOn }),
+          ),
+        );
+        // a job that faulted is failed on its own (pg-boss retries it); the others complete
+        await Promise.all(
+          results.map((r, k) => {
+            if (r.status === 'fulfilled') return null;
+            logger.warn({ err: r.reason, uploadId: jobs[k].data.uploadId }, 'ingest job failed; pg-boss retries it');
+            return boss.fail(QUEUES.ingest, jobs[k].id, { message: String((r.reason as Error)?.message ?? r.reason) });
+          }),
+        );
+      },
+    );
     ingestWorkers.push(self);
   }
-  const stopListening = await deps.queue.listen((name) => { if (name === QUEUES.ingest) wake(); });
-  await boss.work<{ deliveryId: string }>(QUEUES.delivery, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
-    await buildDelivery(deps, job.data.deliveryId);
+  const stopListening = await deps.queue.listen((name) => {
+    if (name === QUEUES.ingest) wake();
   });
+  await boss.work<{ deliveryId: string }>(
+    QUEUES.delivery,
+    { batchSize: 1, pollingIntervalSeconds: 1 },
+    async ([job]) => {
+      await buildDelivery(deps, job.data.deliveryId);
+    },
+  );
   logger.info({ concurrency: n, batchSize, threads: pool.size }, 'ingest and delivery workers started');
   return {
     async stop() {
@@ -56,7 +73,12 @@ if (isMain) {
   const { connectServices } = await import('../services/index');
   const deps = await connectServices();
   const workers = await startWorkers(deps);
-  const stop = () => { workers.stop().then(() => deps.close()).finally(() => process.exit(0)); };
+  const stop = () => {
+    workers
+      .stop()
+      .then(() => deps.close())
+      .finally(() => process.exit(0));
+  };
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 }

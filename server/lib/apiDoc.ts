@@ -4,7 +4,12 @@ import { z } from 'zod';
 import type { RouteSpec, Rule } from './routeTable';
 import type { AppDeps } from './deps';
 
-const ROLE_TEXT: Record<string, string> = { chief_scientist: 'chief scientist', technician: 'technician', analyst: 'analyst', pi: 'PI' };
+const ROLE_TEXT: Record<string, string> = {
+  chief_scientist: 'chief scientist',
+  technician: 'technician',
+  analyst: 'analyst',
+  pi: 'PI',
+};
 
 function who(rule: Rule): string {
   if (rule.kind === 'public') return 'anyone';
@@ -16,9 +21,14 @@ function who(rule: Rule): string {
 /** The field names of an object schema with `?` after optional ones, for a table cell. */
 function fields(schema: z.ZodType | undefined, io: 'input' | 'output'): string {
   if (!schema) return '';
-  const json = z.toJSONSchema(schema, { unrepresentable: 'any', io }) as { properties?: Record<string, unknown>; required?: string[] };
+  const json = z.toJSONSchema(schema, { unrepresentable: 'any', io }) as {
+    properties?: Record<string, unknown>;
+    required?: string[];
+  };
   const req = new Set(json.required ?? []);
-  return Object.keys(json.properties ?? {}).map((k) => `\`${k}${req.has(k) ? '' : '?'}\``).join(' ');
+  return Object.keys(json.properties ?? {})
+    .map((k) => `\`${k}${req.has(k) ? '' : '?'}\``)
+    .join(' ');
 }
 
 const area = (path: string) => path.split('/')[1] ?? '';
@@ -58,7 +68,9 @@ export function renderApiDoc(routes: readonly RouteSpec[]): string {
     out.push('| method | path | who | what | body | query |');
     out.push('|---|---|---|---|---|---|');
     for (const r of sorted.filter((x) => area(x.path) === a)) {
-      out.push(`| ${r.method.toUpperCase()} | \`/api${r.path}\` | ${who(r.rule)} | ${cell(r.summary)} | ${fields(r.body, 'input')} | ${fields(r.query, 'input')} |`);
+      out.push(
+        `| ${r.method.toUpperCase()} | \`/api${r.path}\` | ${who(r.rule)} | ${cell(r.summary)} | ${fields(r.body, 'input')} | ${fields(r.query, 'input')} |`,
+      );
     }
     out.push('');
   }

@@ -10,6 +10,8 @@ export const BIN_MAX_DBAR = 500;
 const binMessage = `the pressure bin is between ${BIN_MIN_DBAR} and ${BIN_MAX_DBAR} dbar`;
 
 /** A pressure bin from a query string (text), with its default. */
-export const binQuery = (defaultDbar: number) => z.coerce.number().min(BIN_MIN_DBAR, binMessage).max(BIN_MAX_DBAR, binMessage).default(defaultDbar);
+export const binQuery = (defaultDbar: number) =>
+  z.coerce.number().min(BIN_MIN_DBAR, binMessage).max(BIN_MAX_DBAR, binMessage).default(defaultDbar);
 /** A pressure bin from a JSON body. */
-export const binBody = (defaultDbar: number) => z.number().min(BIN_MIN_DBAR, binMessage).max(BIN_MAX_DBAR, binMessage).default(defaultDbar);
+export const binBody = (defaultDbar: number) =>
+  z.number().min(BIN_MIN_DBAR, binMessage).max(BIN_MAX_DBAR, binMessage).default(defaultDbar);

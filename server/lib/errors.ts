@@ -13,9 +13,11 @@ export class HttpError extends Error {
   }
 }
 
-export const badRequest = (message: string, details: ErrorDetail[] = [], code = 'validation') => new HttpError(400, code, message, details);
+export const badRequest = (message: string, details: ErrorDetail[] = [], code = 'validation') =>
+  new HttpError(400, code, message, details);
 export const unauthorized = () => new HttpError(401, 'unauthenticated', 'Sign in to continue.');
-export const forbidden = (message = 'Your role on this cruise does not allow this.') => new HttpError(403, 'forbidden', message);
+export const forbidden = (message = 'Your role on this cruise does not allow this.') =>
+  new HttpError(403, 'forbidden', message);
 export const notFound = (what = 'Not found') => new HttpError(404, 'not_found', what);
 export const conflict = (message: string) => new HttpError(409, 'conflict', message);
 

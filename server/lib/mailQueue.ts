@@ -12,7 +12,9 @@ let running: Promise<void> | null = null;
 /** Queues work that may produce one mail (or none); returns at once. */
 export function queueMail(mailer: Mailer, task: Task): void {
   tasks.push({ mailer, task });
-  running ??= drain().finally(() => { running = null; });
+  running ??= drain().finally(() => {
+    running = null;
+  });
 }
 
 async function drain() {
@@ -30,7 +32,10 @@ async function drain() {
         await next.mailer.send(mail);
         break;
       } catch (err) {
-        if (attempt >= 3) { logger.warn({ err }, 'queued mail could not be sent'); break; }
+        if (attempt >= 3) {
+          logger.warn({ err }, 'queued mail could not be sent');
+          break;
+        }
         await new Promise((r) => setTimeout(r, 500 * attempt));
       }
     }

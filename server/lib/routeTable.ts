@@ -21,7 +21,8 @@ async function membershipOf(userId: string, cruiseId: string): Promise<{ role: R
   const hit = memberships.get(key);
   if (hit && Date.now() - hit.at < MEMBERSHIP_TTL_MS) return hit.role ? { role: hit.role } : null;
   const [m] = (await Membership.sequelize!.query('SELECT role FROM memberships WHERE user_id = :u AND cruise_id = :c', {
-    replacements: { u: userId, c: cruiseId }, type: QueryTypes.SELECT,
+    replacements: { u: userId, c: cruiseId },
+    type: QueryTypes.SELECT,
   })) as { role: Role }[];
   if (memberships.size > 10_000) memberships.clear();
   memberships.set(key, { at: Date.now(), role: m?.role ?? null });
@@ -62,20 +63,27 @@ export type RouteSpec<B extends z.ZodType = z.ZodType, Q extends z.ZodType = z.Z
 
 export type RouteContext<B = unknown, Q = unknown> = { cruiseId: string | null; role: Role | null; body: B; query: Q };
 
-export const byParam = (name = 'id') => async (req: Request) => {
-  const v = req.params[name];
-  return typeof v === 'string' && isUuid(v) ? v : null;
-};
+export const byParam =
+  (name = 'id') =>
+  async (req: Request) => {
+    const v = req.params[name];
+    return typeof v === 'string' && isUuid(v) ? v : null;
+  };
 
 /** 409 when the route changes data and the cruise is locked (read fresh: a lock takes effect at once). */
 async function checkLock(spec: RouteSpec, req: Request, cruiseId: string | null): Promise<void> {
   if (!spec.changesData || !cruiseId) return;
   if (typeof spec.changesData === 'function' && !spec.changesData(req)) return;
   const [row] = (await Membership.sequelize!.query('SELECT locked FROM cruises WHERE id = :c', {
-    replacements: { c: cruiseId }, type: QueryTypes.SELECT,
+    replacements: { c: cruiseId },
+    type: QueryTypes.SELECT,
   })) as { locked: boolean }[];
   if (row?.locked) {
-    throw new HttpError(409, 'locked', 'This cruise is locked: its casts, flags, stations, mappings, layer sets and derived variables are frozen. A chief scientist can unlock it.');
+    throw new HttpError(
+      409,
+      'locked',
+      'This cruise is locked: its casts, flags, stations, mappings, layer sets and derived variables are frozen. A chief scientist can unlock it.',
+    );
   }
 }
 
@@ -105,7 +113,9 @@ async function check(rule: Rule, req: Request): Promise<{ cruiseId: string | nul
 }
 
 /** Declares a route; `ctx.body` and `ctx.query` are typed from the route's own schemas. */
-export function defineRoute<B extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType>(spec: RouteSpec<B, Q>): RouteSpec {
+export function defineRoute<B extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType>(
+  spec: RouteSpec<B, Q>,
+): RouteSpec {
   return spec as unknown as RouteSpec;
 }
 
@@ -125,19 +135,38 @@ export function mountRoutes(router: Router, specs: RouteSpec[]) {
         })
         .catch(next);
     };
-    const before = (spec.before ?? []).map((mw): RequestHandler => (req, res, next) => mw(req, res, (err?: unknown) => next(clientBodyError(err))));
+    const before = (spec.before ?? []).map(
+      (mw): RequestHandler =>
+        (req, res, next) =>
+          mw(req, res, (err?: unknown) => next(clientBodyError(err))),
+    );
     const run = (req: Request, res: Response, next: NextFunction) => {
-      const base = (req as Request & { routeCtx?: { cruiseId: string | null; role: Role | null } }).routeCtx ?? { cruiseId: null, role: null };
+      const base = (req as Request & { routeCtx?: { cruiseId: string | null; role: Role | null } }).routeCtx ?? {
+        cruiseId: null,
+        role: null,
+      };
       let body: unknown = req.body;
       let query: unknown = req.query;
       if (spec.body) {
         const r = spec.body.safeParse(req.body ?? {});
-        if (!r.success) return next(badRequest('The request body is not valid.', r.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message }))));
+        if (!r.success)
+          return next(
+            badRequest(
+              'The request body is not valid.',
+              r.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message })),
+            ),
+          );
         body = r.data;
       }
       if (spec.query) {
         const r = spec.query.safeParse(req.query ?? {});
-        if (!r.success) return next(badRequest('The query string is not valid.', r.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message }))));
+        if (!r.success)
+          return next(
+            badRequest(
+              'The query string is not valid.',
+              r.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message })),
+            ),
+          );
         query = r.data;
       }
       Promise.resolve(spec.handler(req, res, { ...base, body, query })).then((out) => {

@@ -1,6 +1,14 @@
 // Sequelize models in one place, associations at the bottom. Tables are created by the
 // migrations in server/migrations (never by sync), so the two must agree.
-import { DataTypes, Model, Sequelize, type InferAttributes, type InferCreationAttributes, type CreationOptional, type ForeignKey } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  Sequelize,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type CreationOptional,
+  type ForeignKey,
+} from 'sequelize';
 
 import { initQcModels } from './qc';
 
@@ -98,9 +106,20 @@ export class Cast extends Model<InferAttributes<Cast>, InferCreationAttributes<C
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
-export type UploadConflict = { file: string; station: string; cast: string; existingCastId: string; existingFile: string };
+export type UploadConflict = {
+  file: string;
+  station: string;
+  cast: string;
+  existingCastId: string;
+  existingFile: string;
+};
 /** A cast ingested without some bad lines: the lines, and the technician's decision (null: not yet). */
-export type PartlyRead = { dropped: { file: string; line: number | null; column: number | null; code: string; message: string }[]; decision: 'accepted' | null; decidedBy?: string; decidedAt?: string };
+export type PartlyRead = {
+  dropped: { file: string; line: number | null; column: number | null; code: string; message: string }[];
+  decision: 'accepted' | null;
+  decidedBy?: string;
+  decidedAt?: string;
+};
 /** One row per cast and variable: the whole profile as little-endian float64 bytes (see DEVELOPERS.md). */
 export class CastColumn extends Model<InferAttributes<CastColumn>, InferCreationAttributes<CastColumn>> {
   declare id: CreationOptional<number>;
@@ -231,73 +250,256 @@ const ts = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE };
 
 export function initModels(sequelize: Sequelize) {
   const opts = (tableName: string, timestamps = true) => ({ sequelize, tableName, underscored: true, timestamps });
-  User.init({ id: uuid, email: { type: DataTypes.TEXT, unique: true, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
-    passwordHash: DataTypes.TEXT, isAdmin: { type: DataTypes.BOOLEAN, defaultValue: false }, ...ts }, opts('users'));
-  Cruise.init({ id: uuid, name: { type: DataTypes.TEXT, allowNull: false }, ship: { type: DataTypes.TEXT, allowNull: false },
-    startDate: { type: DataTypes.DATEONLY, allowNull: false }, endDate: { type: DataTypes.DATEONLY, allowNull: false },
-    portStart: DataTypes.TEXT, portEnd: DataTypes.TEXT, region: DataTypes.TEXT, description: DataTypes.TEXT,
-    locked: { type: DataTypes.BOOLEAN, defaultValue: false }, settings: { type: DataTypes.JSONB, defaultValue: {} },
-    createdBy: DataTypes.UUID, ...ts }, opts('cruises'));
-  Membership.init({ id: uuid, userId: { type: DataTypes.UUID, allowNull: false }, cruiseId: { type: DataTypes.UUID, allowNull: false },
-    role: { type: DataTypes.TEXT, allowNull: false }, ...ts }, opts('memberships'));
-  Station.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
-    latitude: { type: DataTypes.DOUBLE, allowNull: false }, longitude: { type: DataTypes.DOUBLE, allowNull: false },
-    plannedDepth: DataTypes.DOUBLE, order: { type: DataTypes.INTEGER, allowNull: false }, ...ts }, opts('stations'));
-  Upload.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, filename: { type: DataTypes.TEXT, allowNull: false },
-    storageKey: { type: DataTypes.TEXT, allowNull: false }, sha256: { type: DataTypes.TEXT, allowNull: false },
-    size: { type: DataTypes.BIGINT, allowNull: false }, status: { type: DataTypes.TEXT, defaultValue: 'queued' },
-    progress: { type: DataTypes.DOUBLE, defaultValue: 0 }, errors: { type: DataTypes.JSONB, defaultValue: [] },
-    warnings: { type: DataTypes.JSONB, defaultValue: [] }, castIds: { type: DataTypes.JSONB, defaultValue: [] },
-    unmappedHeaders: { type: DataTypes.JSONB, allowNull: true }, conflicts: { type: DataTypes.JSONB, allowNull: true },
-    attempts: { type: DataTypes.INTEGER, defaultValue: 0 },
-    createdBy: DataTypes.UUID, ...ts }, opts('uploads'));
-  Cast.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, uploadId: DataTypes.UUID,
-    station: { type: DataTypes.TEXT, allowNull: false }, cast: { type: DataTypes.TEXT, allowNull: false },
-    latitude: { type: DataTypes.DOUBLE, allowNull: false }, longitude: { type: DataTypes.DOUBLE, allowNull: false },
-    time: DataTypes.DATE, bottomDepth: DataTypes.DOUBLE, levels: { type: DataTypes.INTEGER, allowNull: false },
-    inversionCount: { type: DataTypes.INTEGER, allowNull: false }, inversions: { type: DataTypes.JSONB, allowNull: false },
-    fitness: { type: DataTypes.JSONB, defaultValue: {} }, metadata: { type: DataTypes.JSONB, defaultValue: {} },
-    notes: { type: DataTypes.JSONB, defaultValue: [] }, sourceFile: { type: DataTypes.TEXT, allowNull: false },
-    sourceSha256: { type: DataTypes.TEXT, allowNull: false },
-    removedAt: DataTypes.DATE, removedBy: DataTypes.UUID, supersededBy: DataTypes.UUID, supersededAt: DataTypes.DATE, partlyRead: DataTypes.JSONB,
-    ...ts }, { ...opts('casts'),
-    // Only live casts exist for the rest of the product: removed and superseded rows are history,
-    // read with Cast.unscoped() (cast life routes only).
-    defaultScope: { where: { removedAt: null, supersededBy: null } } });
-  CastColumn.init({ id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true }, castId: { type: DataTypes.UUID, allowNull: false },
-    name: { type: DataTypes.TEXT, allowNull: false }, unit: DataTypes.TEXT, kind: { type: DataTypes.TEXT, allowNull: false },
-    values: { type: DataTypes.BLOB, allowNull: false } }, opts('cast_columns', false));
-  AuditEntry.init({ id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true }, cruiseId: DataTypes.UUID, userId: DataTypes.UUID,
-    action: { type: DataTypes.TEXT, allowNull: false }, entity: { type: DataTypes.TEXT, allowNull: false }, entityId: DataTypes.TEXT,
-    before: DataTypes.JSONB, after: DataTypes.JSONB, at: { type: DataTypes.DATE, defaultValue: DataTypes.NOW } }, opts('audit_entries', false));
-  Invitation.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, email: { type: DataTypes.TEXT, allowNull: false },
-    role: { type: DataTypes.TEXT, allowNull: false }, tokenHash: { type: DataTypes.TEXT, allowNull: false, unique: true },
-    invitedBy: { type: DataTypes.UUID, allowNull: false }, expiresAt: { type: DataTypes.DATE, allowNull: false }, acceptedAt: DataTypes.DATE, ...ts }, opts('invitations'));
-  PasswordReset.init({ id: uuid, userId: { type: DataTypes.UUID, allowNull: false }, tokenHash: { type: DataTypes.TEXT, allowNull: false, unique: true },
-    expiresAt: { type: DataTypes.DATE, allowNull: false }, usedAt: DataTypes.DATE, ...ts }, opts('password_resets'));
-  LoginAttempt.init({ id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true }, email: { type: DataTypes.TEXT, allowNull: false },
-    ip: { type: DataTypes.TEXT, allowNull: false }, succeeded: { type: DataTypes.BOOLEAN, allowNull: false },
-    at: { type: DataTypes.DATE, defaultValue: DataTypes.NOW } }, opts('login_attempts', false));
-  LayerSet.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
-    referencePressure: { type: DataTypes.INTEGER, allowNull: false }, levels: { type: DataTypes.TEXT, allowNull: false },
-    createdBy: DataTypes.UUID, ...ts }, opts('layer_sets'));
-  ColumnMapping.init({ id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true }, cruiseId: { type: DataTypes.UUID, allowNull: false },
-    header: { type: DataTypes.TEXT, allowNull: false }, role: { type: DataTypes.TEXT, allowNull: false }, ...ts }, opts('column_mappings'));
+  User.init(
+    {
+      id: uuid,
+      email: { type: DataTypes.TEXT, unique: true, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      passwordHash: DataTypes.TEXT,
+      isAdmin: { type: DataTypes.BOOLEAN, defaultValue: false },
+      ...ts,
+    },
+    opts('users'),
+  );
+  Cruise.init(
+    {
+      id: uuid,
+      name: { type: DataTypes.TEXT, allowNull: false },
+      ship: { type: DataTypes.TEXT, allowNull: false },
+      startDate: { type: DataTypes.DATEONLY, allowNull: false },
+      endDate: { type: DataTypes.DATEONLY, allowNull: false },
+      portStart: DataTypes.TEXT,
+      portEnd: DataTypes.TEXT,
+      region: DataTypes.TEXT,
+      description: DataTypes.TEXT,
+      locked: { type: DataTypes.BOOLEAN, defaultValue: false },
+      settings: { type: DataTypes.JSONB, defaultValue: {} },
+      createdBy: DataTypes.UUID,
+      ...ts,
+    },
+    opts('cruises'),
+  );
+  Membership.init(
+    {
+      id: uuid,
+      userId: { type: DataTypes.UUID, allowNull: false },
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      role: { type: DataTypes.TEXT, allowNull: false },
+      ...ts,
+    },
+    opts('memberships'),
+  );
+  Station.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      latitude: { type: DataTypes.DOUBLE, allowNull: false },
+      longitude: { type: DataTypes.DOUBLE, allowNull: false },
+      plannedDepth: DataTypes.DOUBLE,
+      order: { type: DataTypes.INTEGER, allowNull: false },
+      ...ts,
+    },
+    opts('stations'),
+  );
+  Upload.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      filename: { type: DataTypes.TEXT, allowNull: false },
+      storageKey: { type: DataTypes.TEXT, allowNull: false },
+      sha256: { type: DataTypes.TEXT, allowNull: false },
+      size: { type: DataTypes.BIGINT, allowNull: false },
+      status: { type: DataTypes.TEXT, defaultValue: 'queued' },
+      progress: { type: DataTypes.DOUBLE, defaultValue: 0 },
+      errors: { type: DataTypes.JSONB, defaultValue: [] },
+      warnings: { type: DataTypes.JSONB, defaultValue: [] },
+      castIds: { type: DataTypes.JSONB, defaultValue: [] },
+      unmappedHeaders: { type: DataTypes.JSONB, allowNull: true },
+      conflicts: { type: DataTypes.JSONB, allowNull: true },
+      attempts: { type: DataTypes.INTEGER, defaultValue: 0 },
+      createdBy: DataTypes.UUID,
+      ...ts,
+    },
+    opts('uploads'),
+  );
+  Cast.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      uploadId: DataTypes.UUID,
+      station: { type: DataTypes.TEXT, allowNull: false },
+      cast: { type: DataTypes.TEXT, allowNull: false },
+      latitude: { type: DataTypes.DOUBLE, allowNull: false },
+      longitude: { type: DataTypes.DOUBLE, allowNull: false },
+      time: DataTypes.DATE,
+      bottomDepth: DataTypes.DOUBLE,
+      levels: { type: DataTypes.INTEGER, allowNull: false },
+      inversionCount: { type: DataTypes.INTEGER, allowNull: false },
+      inversions: { type: DataTypes.JSONB, allowNull: false },
+      fitness: { type: DataTypes.JSONB, defaultValue: {} },
+      metadata: { type: DataTypes.JSONB, defaultValue: {} },
+      notes: { type: DataTypes.JSONB, defaultValue: [] },
+      sourceFile: { type: DataTypes.TEXT, allowNull: false },
+      sourceSha256: { type: DataTypes.TEXT, allowNull: false },
+      removedAt: DataTypes.DATE,
+      removedBy: DataTypes.UUID,
+      supersededBy: DataTypes.UUID,
+      supersededAt: DataTypes.DATE,
+      partlyRead: DataTypes.JSONB,
+      ...ts,
+    },
+    {
+      ...opts('casts'),
+      // Only live casts exist for the rest of the product: removed and superseded rows are history,
+      // read with Cast.unscoped() (cast life routes only).
+      defaultScope: { where: { removedAt: null, supersededBy: null } },
+    },
+  );
+  CastColumn.init(
+    {
+      id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true },
+      castId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      unit: DataTypes.TEXT,
+      kind: { type: DataTypes.TEXT, allowNull: false },
+      values: { type: DataTypes.BLOB, allowNull: false },
+    },
+    opts('cast_columns', false),
+  );
+  AuditEntry.init(
+    {
+      id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true },
+      cruiseId: DataTypes.UUID,
+      userId: DataTypes.UUID,
+      action: { type: DataTypes.TEXT, allowNull: false },
+      entity: { type: DataTypes.TEXT, allowNull: false },
+      entityId: DataTypes.TEXT,
+      before: DataTypes.JSONB,
+      after: DataTypes.JSONB,
+      at: { type: DataTypes.DATE, defaultValue: DataTypes.NOW },
+    },
+    opts('audit_entries', false),
+  );
+  Invitation.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      email: { type: DataTypes.TEXT, allowNull: false },
+      role: { type: DataTypes.TEXT, allowNull: false },
+      tokenHash: { type: DataTypes.TEXT, allowNull: false, unique: true },
+      invitedBy: { type: DataTypes.UUID, allowNull: false },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      acceptedAt: DataTypes.DATE,
+      ...ts,
+    },
+    opts('invitations'),
+  );
+  PasswordReset.init(
+    {
+      id: uuid,
+      userId: { type: DataTypes.UUID, allowNull: false },
+      tokenHash: { type: DataTypes.TEXT, allowNull: false, unique: true },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      usedAt: DataTypes.DATE,
+      ...ts,
+    },
+    opts('password_resets'),
+  );
+  LoginAttempt.init(
+    {
+      id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true },
+      email: { type: DataTypes.TEXT, allowNull: false },
+      ip: { type: DataTypes.TEXT, allowNull: false },
+      succeeded: { type: DataTypes.BOOLEAN, allowNull: false },
+      at: { type: DataTypes.DATE, defaultValue: DataTypes.NOW },
+    },
+    opts('login_attempts', false),
+  );
+  LayerSet.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      referencePressure: { type: DataTypes.INTEGER, allowNull: false },
+      levels: { type: DataTypes.TEXT, allowNull: false },
+      createdBy: DataTypes.UUID,
+      ...ts,
+    },
+    opts('layer_sets'),
+  );
+  ColumnMapping.init(
+    {
+      id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true },
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      header: { type: DataTypes.TEXT, allowNull: false },
+      role: { type: DataTypes.TEXT, allowNull: false },
+      ...ts,
+    },
+    opts('column_mappings'),
+  );
 
-  DerivedVariable.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
-    formula: { type: DataTypes.TEXT, allowNull: false }, unit: DataTypes.TEXT, description: DataTypes.TEXT, createdBy: DataTypes.UUID, ...ts }, opts('derived_variables'));
-  SavedView.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, userId: { type: DataTypes.UUID, allowNull: false },
-    name: { type: DataTypes.TEXT, allowNull: false }, query: { type: DataTypes.TEXT, allowNull: false }, ...ts }, opts('saved_views'));
-  Delivery.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, kind: { type: DataTypes.TEXT, allowNull: false },
-    params: { type: DataTypes.JSONB, allowNull: false }, formats: { type: DataTypes.JSONB, allowNull: false }, status: { type: DataTypes.TEXT, defaultValue: 'queued' },
-    progress: { type: DataTypes.DOUBLE, defaultValue: 0 }, files: { type: DataTypes.JSONB, defaultValue: [] }, error: DataTypes.TEXT,
-    released: { type: DataTypes.BOOLEAN, defaultValue: false }, releasedAt: DataTypes.DATE, releasedBy: DataTypes.UUID, createdBy: DataTypes.UUID, ...ts }, opts('deliveries'));
+  DerivedVariable.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      formula: { type: DataTypes.TEXT, allowNull: false },
+      unit: DataTypes.TEXT,
+      description: DataTypes.TEXT,
+      createdBy: DataTypes.UUID,
+      ...ts,
+    },
+    opts('derived_variables'),
+  );
+  SavedView.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      userId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      query: { type: DataTypes.TEXT, allowNull: false },
+      ...ts,
+    },
+    opts('saved_views'),
+  );
+  Delivery.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      kind: { type: DataTypes.TEXT, allowNull: false },
+      params: { type: DataTypes.JSONB, allowNull: false },
+      formats: { type: DataTypes.JSONB, allowNull: false },
+      status: { type: DataTypes.TEXT, defaultValue: 'queued' },
+      progress: { type: DataTypes.DOUBLE, defaultValue: 0 },
+      files: { type: DataTypes.JSONB, defaultValue: [] },
+      error: DataTypes.TEXT,
+      released: { type: DataTypes.BOOLEAN, defaultValue: false },
+      releasedAt: DataTypes.DATE,
+      releasedBy: DataTypes.UUID,
+      createdBy: DataTypes.UUID,
+      ...ts,
+    },
+    opts('deliveries'),
+  );
 
-  Line.init({ id: uuid, cruiseId: { type: DataTypes.UUID, allowNull: false }, name: { type: DataTypes.TEXT, allowNull: false },
-    isDefault: { type: DataTypes.BOOLEAN, defaultValue: false }, stations: { type: DataTypes.JSONB, defaultValue: [] },
-    casts: { type: DataTypes.JSONB, defaultValue: {} }, include: { type: DataTypes.JSONB, defaultValue: [] },
-    exclude: { type: DataTypes.JSONB, defaultValue: [] }, polyline: { type: DataTypes.JSONB, allowNull: true },
-    corridorKm: { type: DataTypes.DOUBLE, allowNull: true }, createdBy: DataTypes.UUID, ...ts }, opts('lines'));
+  Line.init(
+    {
+      id: uuid,
+      cruiseId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      isDefault: { type: DataTypes.BOOLEAN, defaultValue: false },
+      stations: { type: DataTypes.JSONB, defaultValue: [] },
+      casts: { type: DataTypes.JSONB, defaultValue: {} },
+      include: { type: DataTypes.JSONB, defaultValue: [] },
+      exclude: { type: DataTypes.JSONB, defaultValue: [] },
+      polyline: { type: DataTypes.JSONB, allowNull: true },
+      corridorKm: { type: DataTypes.DOUBLE, allowNull: true },
+      createdBy: DataTypes.UUID,
+      ...ts,
+    },
+    opts('lines'),
+  );
 
   initQcModels(sequelize); // the QC desk's tables (server/models/qc.ts)
 

@@ -43,11 +43,15 @@ const SECONDARY = /,\s*2\b|\bsecondary\b|\bsensor\s*2\b/i;
 function kindOf(c: Column): Kind | null {
   const name = c.long.toLowerCase();
   const unit = (c.unit ?? '').toLowerCase().replace(/µ|μ/g, 'u');
-  if (/^pressure\b/.test(name) && !/temperature/.test(name) && /\b(db|dbar|decibars?|psi|kpa|bar)\b/.test(unit)) return 'pressure';
+  if (/^pressure\b/.test(name) && !/temperature/.test(name) && /\b(db|dbar|decibars?|psi|kpa|bar)\b/.test(unit))
+    return 'pressure';
   if (/^depth\b/.test(name) && /\bm\b|\bmeters?\b|\bmetres?\b/.test(unit)) return 'depth';
-  if (/^temperature\b/.test(name) && !/potential|\bdifference\b/.test(name) && /deg|°|its|ipts|\bc\b/.test(unit)) return 'temperature';
-  if (/^conductivity\b/.test(name) && !/difference/.test(name) && /s\/m|ms\/cm|mmho|us\/cm/.test(unit)) return 'conductivity';
-  if (/^salinity\b/.test(name) && !/difference|absolute/.test(name) && /psu|pss|practical|^$/.test(unit)) return 'salinity';
+  if (/^temperature\b/.test(name) && !/potential|\bdifference\b/.test(name) && /deg|°|its|ipts|\bc\b/.test(unit))
+    return 'temperature';
+  if (/^conductivity\b/.test(name) && !/difference/.test(name) && /s\/m|ms\/cm|mmho|us\/cm/.test(unit))
+    return 'conductivity';
+  if (/^salinity\b/.test(name) && !/difference|absolute/.test(name) && /psu|pss|practical|^$/.test(unit))
+    return 'salinity';
   if (/^oxygen\b/.test(name) && /ml\/l|umol\/kg|umol\/l|mg\/l|micromol/.test(unit)) return 'oxygen';
   return null;
 }
@@ -60,7 +64,12 @@ function extraName(c: Column): string {
   if (/transmi/.test(n)) return `transmission${two}`;
   if (/\bpar\b|irradiance/.test(n)) return `par${two}`;
   if (/turbidity/.test(n)) return `turbidity${two}`;
-  const first = c.long.split(/[,;]/)[0].trim().toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_|_$/g, '');
+  const first = c.long
+    .split(/[,;]/)[0]
+    .trim()
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '_')
+    .replace(/^_|_$/g, '');
   return (first || c.short.toLowerCase().replace(/[^a-z0-9]+/g, '_') || `column_${c.index}`) + two;
 }
 
@@ -71,7 +80,9 @@ export function parseMonthDate(text: string): string | null {
   if (!m) return null;
   const mo = months.indexOf(m[1].toLowerCase());
   if (mo < 0) return null;
-  const r = parseTime(`${m[3]}-${String(mo + 1).padStart(2, '0')}-${m[2].padStart(2, '0')}T${m[4].padStart(2, '0')}:${m[5]}:${m[6] ?? '00'}Z`);
+  const r = parseTime(
+    `${m[3]}-${String(mo + 1).padStart(2, '0')}-${m[2].padStart(2, '0')}T${m[4].padStart(2, '0')}:${m[5]}:${m[6] ?? '00'}Z`,
+  );
   return r.ok ? r.value : null;
 }
 
@@ -103,7 +114,15 @@ export function parseAcquisition(
       break;
     }
     if (!l.startsWith('*') && !l.startsWith('#'))
-      throw new ParseFailure([fileError(file, i + 1, null, 'acquisition_missing_end', `line ${i + 1} is data before the header's *END* line: the header is not closed`)]);
+      throw new ParseFailure([
+        fileError(
+          file,
+          i + 1,
+          null,
+          'acquisition_missing_end',
+          `line ${i + 1} is data before the header's *END* line: the header is not closed`,
+        ),
+      ]);
     const d = DECL.exec(l);
     if (d) {
       const { long, unit } = splitLong(d[3]);
@@ -120,7 +139,16 @@ export function parseAcquisition(
     m = /^#\s*start_time\s*=\s*(.*)$/i.exec(l);
     if (m) {
       startTime = parseMonthDate(m[1]);
-      if (!startTime) warnings.push(fileError(file, i + 1, null, 'bad_time', `line ${i + 1}: start_time "${m[1].slice(0, 40)}" is not a date; not used`));
+      if (!startTime)
+        warnings.push(
+          fileError(
+            file,
+            i + 1,
+            null,
+            'bad_time',
+            `line ${i + 1}: start_time "${m[1].slice(0, 40)}" is not a date; not used`,
+          ),
+        );
       continue;
     }
     m = /^\*\s*NMEA\s+(Latitude|Longitude|UTC\s*\(Time\))\s*=\s*(.*)$/i.exec(l);
@@ -135,11 +163,26 @@ export function parseAcquisition(
     m = /^\*\*\s*([^:=]+?)\s*[:=]\s*(.*)$/.exec(l);
     if (m) pairs.push({ key: m[1], value: m[2], line: i + 1 });
   }
-  if (end < 0) throw new ParseFailure([fileError(file, lines.length, null, 'acquisition_missing_end', 'the header never ends: no *END* line; the file looks truncated or is not an acquisition export')]);
-  if (cols.length === 0) throw bad(file, end + 1, 'the header declares no columns ("# name 0 = short: long name [unit]")');
+  if (end < 0)
+    throw new ParseFailure([
+      fileError(
+        file,
+        lines.length,
+        null,
+        'acquisition_missing_end',
+        'the header never ends: no *END* line; the file looks truncated or is not an acquisition export',
+      ),
+    ]);
+  if (cols.length === 0)
+    throw bad(file, end + 1, 'the header declares no columns ("# name 0 = short: long name [unit]")');
   cols.sort((a, b) => a.index - b.index);
   cols.forEach((c, k) => {
-    if (c.index !== k) throw bad(file, c.line, `line ${c.line}: column ${c.index} is declared where column ${k} was expected (the declarations must run 0, 1, 2, …)`);
+    if (c.index !== k)
+      throw bad(
+        file,
+        c.line,
+        `line ${c.line}: column ${c.index} is declared where column ${k} was expected (the declarations must run 0, 1, 2, …)`,
+      );
   });
 
   const md = collectMetadata(file, pairs, false);
@@ -148,12 +191,30 @@ export function parseAcquisition(
   const notes: string[] = ['read from an acquisition text export'];
   if (nmeaLat && meta.latitude === null) {
     const r = parseLatitude(nmeaLat.v);
-    if (!r.ok) throw new ParseFailure([fileError(file, nmeaLat.line, null, r.message.includes('outside') ? 'latitude_out_of_range' : 'bad_metadata', `line ${nmeaLat.line}: NMEA ${r.message}`)]);
+    if (!r.ok)
+      throw new ParseFailure([
+        fileError(
+          file,
+          nmeaLat.line,
+          null,
+          r.message.includes('outside') ? 'latitude_out_of_range' : 'bad_metadata',
+          `line ${nmeaLat.line}: NMEA ${r.message}`,
+        ),
+      ]);
     meta.latitude = r.value;
   }
   if (nmeaLon && meta.longitude === null) {
     const r = parseLongitude(nmeaLon.v);
-    if (!r.ok) throw new ParseFailure([fileError(file, nmeaLon.line, null, r.message.includes('outside') ? 'longitude_out_of_range' : 'bad_metadata', `line ${nmeaLon.line}: NMEA ${r.message}`)]);
+    if (!r.ok)
+      throw new ParseFailure([
+        fileError(
+          file,
+          nmeaLon.line,
+          null,
+          r.message.includes('outside') ? 'longitude_out_of_range' : 'bad_metadata',
+          `line ${nmeaLon.line}: NMEA ${r.message}`,
+        ),
+      ]);
     meta.longitude = r.value;
   }
   if (meta.time === null) {
@@ -169,7 +230,9 @@ export function parseAcquisition(
   const names: string[] = [];
   const chosen: string[] = [];
   const kept: string[] = [];
-  const order = [...cols].sort((a, b) => Number(SECONDARY.test(a.long)) - Number(SECONDARY.test(b.long)) || a.index - b.index);
+  const order = [...cols].sort(
+    (a, b) => Number(SECONDARY.test(a.long)) - Number(SECONDARY.test(b.long)) || a.index - b.index,
+  );
   const role = new Map<number, Kind>();
   for (const c of order) {
     const k = kindOf(c);
@@ -200,7 +263,10 @@ export function parseAcquisition(
     names.push(key);
     if (kindOf(c)) kept.push(`"${c.long}" as ${key}`);
   });
-  if (kept.length) notes.push(`several sensors: primary ${chosen.filter((s) => /^(temperature|conductivity|salinity|oxygen)/.test(s)).join(', ')}; secondary kept as extra variables (${kept.join(', ')})`);
+  if (kept.length)
+    notes.push(
+      `several sensors: primary ${chosen.filter((s) => /^(temperature|conductivity|salinity|oxygen)/.test(s)).join(', ')}; secondary kept as extra variables (${kept.join(', ')})`,
+    );
   for (const [k, v] of Object.entries(options.columnMapping ?? {})) if (headers.includes(k)) mapping[k] = v;
 
   const rows: string[][] = [];
@@ -221,7 +287,8 @@ export function parseAcquisition(
     rows.push(f);
     rowLines.push(i + 1);
   }
-  if (badFlag !== null && flagged > 0) notes.push(`${flagged} value${flagged > 1 ? 's' : ''} equal to the bad flag ${badFlag} read as missing`);
+  if (badFlag !== null && flagged > 0)
+    notes.push(`${flagged} value${flagged > 1 ? 's' : ''} equal to the bad flag ${badFlag} read as missing`);
 
   const unitOf = (c: Column): string | null => {
     if (c.unit === null) return null;

@@ -35,9 +35,19 @@ const MAX_ERRORS = 25;
 const LIMITS: Partial<Record<ColumnRole, { min: number; max: number; code: string; what: string }>> = {
   pressure: { min: -5, max: 12000, code: 'pressure_out_of_range', what: 'pressure (dbar) must lie in -5..12000' },
   depth: { min: -5, max: 12000, code: 'depth_out_of_range', what: 'depth (m) must lie in -5..12000' },
-  salinity: { min: 2, max: 42, code: 'salinity_out_of_range', what: 'Practical Salinity must lie in 2..42 (the range of PSS-78)' },
+  salinity: {
+    min: 2,
+    max: 42,
+    code: 'salinity_out_of_range',
+    what: 'Practical Salinity must lie in 2..42 (the range of PSS-78)',
+  },
   temperature: { min: -3, max: 45, code: 'temperature_out_of_range', what: 'temperature (°C) must lie in -3..45' },
-  conductivity: { min: 0, max: 100, code: 'conductivity_out_of_range', what: 'conductivity (mS/cm) must lie in 0..100' },
+  conductivity: {
+    min: 0,
+    max: 100,
+    code: 'conductivity_out_of_range',
+    what: 'conductivity (mS/cm) must lie in 0..100',
+  },
 };
 
 class Collector {
@@ -68,17 +78,34 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   const warnings = [...t.warnings];
   const ncol = t.headers.length;
   if (ncol > MAX_COLUMNS)
-    throw new ParseFailure([fileError(t.file, t.headerLine, null, 'too_many_columns', `the header has ${ncol} columns (the limit is ${MAX_COLUMNS})`)]);
+    throw new ParseFailure([
+      fileError(
+        t.file,
+        t.headerLine,
+        null,
+        'too_many_columns',
+        `the header has ${ncol} columns (the limit is ${MAX_COLUMNS})`,
+      ),
+    ]);
 
   if (t.mapping) {
     for (const [k, v] of Object.entries(t.mapping)) {
-      if (!validMappingValue(v)) err.add(null, null, 'bad_mapping', `column mapping for "${k}" names an unknown role "${v}"`);
+      if (!validMappingValue(v))
+        err.add(null, null, 'bad_mapping', `column mapping for "${k}" names an unknown role "${v}"`);
     }
     err.throwIfAny();
   }
   const { assignments, duplicates } = assignColumns(t.headers, t.names, t.mapping);
   for (const d of duplicates)
-    warnings.push(fileError(t.file, t.headerLine, d.index + 1, 'duplicate_column', `column ${colLabel(t, d.index)} is a second ${d.role} column; kept as an extra variable`));
+    warnings.push(
+      fileError(
+        t.file,
+        t.headerLine,
+        d.index + 1,
+        'duplicate_column',
+        `column ${colLabel(t, d.index)} is a second ${d.role} column; kept as an extra variable`,
+      ),
+    );
 
   const roleCol = new Map<ColumnRole, number>();
   assignments.forEach((a, j) => {
@@ -116,7 +143,10 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   err.throwIfAny();
 
   let n = t.rows.length;
-  if (n === 0) throw new ParseFailure([fileError(t.file, t.headerLine, null, 'no_data', 'the file has a header but no data lines')]);
+  if (n === 0)
+    throw new ParseFailure([
+      fileError(t.file, t.headerLine, null, 'no_data', 'the file has a header but no data lines'),
+    ]);
 
   // Extras whose first value is text are text columns (sample labels, comments): not kept.
   const textColumn: boolean[] = new Array(ncol).fill(false);
@@ -128,7 +158,9 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
       const k = classifyNumber(s).kind;
       if (k === 'text') {
         textColumn[j] = true;
-        warnings.push(fileError(t.file, t.headerLine, j + 1, 'text_column', `column ${colLabel(t, j)} holds text; it is not kept`));
+        warnings.push(
+          fileError(t.file, t.headerLine, j + 1, 'text_column', `column ${colLabel(t, j)} holds text; it is not kept`),
+        );
       }
       break;
     }
@@ -157,15 +189,39 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   rows: for (let r = 0; r < n; r++) {
     const row = t.rows[r];
     const line = t.rowLines[r];
-    if (row.length > 0 && row[0].trim().toLowerCase() === firstHeader && classifyNumber(row[0].trim()).kind === 'text') {
+    if (
+      row.length > 0 &&
+      row[0].trim().toLowerCase() === firstHeader &&
+      classifyNumber(row[0].trim()).kind === 'text'
+    ) {
       if (rowBad(r, line, 1, 'repeated_header', `line ${line} repeats the header row inside the data`)) continue;
       if (err.full) break;
       continue;
     }
     if (row.length !== ncol) {
       const cut = r === n - 1 && row.length < ncol;
-      if (cut && rowBad(r, line, row.length + 1, 'truncated', `the last line (${line}) has ${row.length} fields where the header has ${ncol}: the file looks truncated`)) continue;
-      if (!cut && rowBad(r, line, Math.min(row.length, ncol) + 1, 'field_count', `line ${line} has ${row.length} fields where the header has ${ncol}`)) continue;
+      if (
+        cut &&
+        rowBad(
+          r,
+          line,
+          row.length + 1,
+          'truncated',
+          `the last line (${line}) has ${row.length} fields where the header has ${ncol}: the file looks truncated`,
+        )
+      )
+        continue;
+      if (
+        !cut &&
+        rowBad(
+          r,
+          line,
+          Math.min(row.length, ncol) + 1,
+          'field_count',
+          `line ${line} has ${row.length} fields where the header has ${ncol}`,
+        )
+      )
+        continue;
       if (err.full) break;
       continue;
     }
@@ -182,9 +238,19 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
         }
         const c = classifyNumber(s);
         if (c.kind === 'num' && isFill(c.value)) fv[r] = 9;
-        else if (c.kind === 'num' && Number.isInteger(c.value) && c.value >= 0 && c.value <= 9) fv[r] = c.value === 0 ? 9 : c.value;
+        else if (c.kind === 'num' && Number.isInteger(c.value) && c.value >= 0 && c.value <= 9)
+          fv[r] = c.value === 0 ? 9 : c.value;
         else {
-          if (rowBad(r, line, j + 1, 'bad_flag', `line ${line}, column ${j + 1} (${colLabel(t, j)}): quality flag ${shown(s)} is not one of 1–9`)) continue rows;
+          if (
+            rowBad(
+              r,
+              line,
+              j + 1,
+              'bad_flag',
+              `line ${line}, column ${j + 1} (${colLabel(t, j)}): quality flag ${shown(s)} is not one of 1–9`,
+            )
+          )
+            continue rows;
           if (err.full) break rows;
         }
         continue;
@@ -202,7 +268,16 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
         if (cv.ipts68) v = v / 1.00024;
         const lim = limits[j];
         if (lim && !cv.guessConductivity && (v < lim.min || v > lim.max)) {
-          if (rowBad(r, line, j + 1, lim.code, `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is out of range; ${lim.what}`)) continue rows;
+          if (
+            rowBad(
+              r,
+              line,
+              j + 1,
+              lim.code,
+              `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is out of range; ${lim.what}`,
+            )
+          )
+            continue rows;
           if (err.full) break rows;
         }
         out[r] = v;
@@ -211,10 +286,28 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
       } else if (a.kind === 'extra' && (c.kind === 'nan' || c.kind === 'inf')) {
         out[r] = NaN;
       } else if (c.kind === 'nan' || c.kind === 'inf') {
-        if (rowBad(r, line, j + 1, 'nan_inf', `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a finite number; write missing values as -999 or leave the field empty`)) continue rows;
+        if (
+          rowBad(
+            r,
+            line,
+            j + 1,
+            'nan_inf',
+            `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a finite number; write missing values as -999 or leave the field empty`,
+          )
+        )
+          continue rows;
         if (err.full) break rows;
       } else {
-        if (rowBad(r, line, j + 1, 'text_in_numeric', `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a number`)) continue rows;
+        if (
+          rowBad(
+            r,
+            line,
+            j + 1,
+            'text_in_numeric',
+            `line ${line}, column ${j + 1} (${colLabel(t, j)}): ${shown(s)} is not a number`,
+          )
+        )
+          continue rows;
         if (err.full) break rows;
       }
     }
@@ -225,8 +318,11 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     // Salvage: a few bad lines are dropped and listed; too many and the file is refused as before.
     const limit = Math.min(MAX_DROPPED, Math.floor(n * SALVAGE_MAX_SHARE));
     if (badRows.size > limit) {
-      const more = badRows.size > 25 ? ` (the first 25 of ${badRows.size} bad lines; at most ${limit} can be left out)` : '';
-      throw new ParseFailure(dropped.slice(0, 25).map((e, k) => (k === 0 && more ? { ...e, message: e.message + more } : e)));
+      const more =
+        badRows.size > 25 ? ` (the first 25 of ${badRows.size} bad lines; at most ${limit} can be left out)` : '';
+      throw new ParseFailure(
+        dropped.slice(0, 25).map((e, k) => (k === 0 && more ? { ...e, message: e.message + more } : e)),
+      );
     }
     const good: number[] = [];
     for (let r = 0; r < n; r++) if (!badRows.has(r)) good.push(r);
@@ -238,22 +334,34 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     }
     rowLines = good.map((r) => t.rowLines[r]);
     n = good.length;
-    notes.push(`partly read: ${dropped.length} line${dropped.length > 1 ? 's' : ''} that could not be read left out (${dropped.map((e) => e.line).join(', ')})`);
+    notes.push(
+      `partly read: ${dropped.length} line${dropped.length > 1 ? 's' : ''} that could not be read left out (${dropped.map((e) => e.line).join(', ')})`,
+    );
   }
 
   // Conductivity without a unit: seawater is 20–70 mS/cm, i.e. 2–7 S/m.
   const cj = roleCol.get('conductivity');
   if (cj !== undefined && conv[cj]?.guessConductivity) {
     const col = values[cj] as Float64Array;
-    const finite = Array.from(col).filter(Number.isFinite).sort((a, b) => a - b);
+    const finite = Array.from(col)
+      .filter(Number.isFinite)
+      .sort((a, b) => a - b);
     const med = finite.length ? finite[finite.length >> 1] : NaN;
     if (med < 10) {
       for (let i = 0; i < n; i++) col[i] *= 10;
-      notes.push(`${colLabel(t, cj)}: no unit given; values read as S/m (median ${med.toFixed(3)}) and converted to mS/cm`);
+      notes.push(
+        `${colLabel(t, cj)}: no unit given; values read as S/m (median ${med.toFixed(3)}) and converted to mS/cm`,
+      );
     } else notes.push(`${colLabel(t, cj)}: no unit given; values read as mS/cm`);
     for (let i = 0; i < n; i++) {
       const v = col[i];
-      if (v < 0 || v > 100) err.add(rowLines[i], cj + 1, 'conductivity_out_of_range', `line ${rowLines[i]}, column ${cj + 1} (${colLabel(t, cj)}): conductivity out of range 0..100 mS/cm`);
+      if (v < 0 || v > 100)
+        err.add(
+          rowLines[i],
+          cj + 1,
+          'conductivity_out_of_range',
+          `line ${rowLines[i]}, column ${cj + 1} (${colLabel(t, cj)}): conductivity out of range 0..100 mS/cm`,
+        );
       if (err.full) break;
     }
     err.throwIfAny();
@@ -274,7 +382,8 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
       deepest = i;
     }
   }
-  if (deepest < 0) throw new ParseFailure([fileError(t.file, t.headerLine, vj + 1, 'no_data', `no level has a ${vertical} value`)]);
+  if (deepest < 0)
+    throw new ParseFailure([fileError(t.file, t.headerLine, vj + 1, 'no_data', `no level has a ${vertical} value`)]);
   const keep: number[] = [];
   for (let i = 0; i <= deepest; i++) if (!Number.isNaN(vert[i])) keep.push(i);
   let trailing = 0;
@@ -285,10 +394,14 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     if (vert[i] < trailingMin) trailingMin = vert[i];
   }
   const hasUpcast = trailing >= 2 && vmax - trailingMin >= 5;
-  if (hasUpcast) notes.push(`upcast of ${trailing} levels dropped (from ${fmt(vmax)} back to ${fmt(trailingMin)} ${vertical === 'pressure' ? 'dbar' : 'm'})`);
+  if (hasUpcast)
+    notes.push(
+      `upcast of ${trailing} levels dropped (from ${fmt(vmax)} back to ${fmt(trailingMin)} ${vertical === 'pressure' ? 'dbar' : 'm'})`,
+    );
   else if (trailing > 0) notes.push(`${trailing} level${trailing > 1 ? 's' : ''} after the deepest sample dropped`);
   const droppedNoVert = keep.length + trailing < n - 0 ? noVertical : 0;
-  if (droppedNoVert > 0) notes.push(`${droppedNoVert} level${droppedNoVert > 1 ? 's' : ''} without a ${vertical} value dropped`);
+  if (droppedNoVert > 0)
+    notes.push(`${droppedNoVert} level${droppedNoVert > 1 ? 's' : ''} without a ${vertical} value dropped`);
   let reversals = 0;
   let falling = false;
   for (let k = 1; k < keep.length; k++) {
@@ -296,7 +409,10 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     if (d < 0 && !falling) reversals++;
     falling = d < 0;
   }
-  if (reversals > 0) notes.push(`${reversals} ${vertical} reversal${reversals > 1 ? 's' : ''} within the downcast (levels kept in the order recorded)`);
+  if (reversals > 0)
+    notes.push(
+      `${reversals} ${vertical} reversal${reversals > 1 ? 's' : ''} within the downcast (levels kept in the order recorded)`,
+    );
 
   const m = keep.length;
   const pick = (a: Float64Array): Float64Array => {
@@ -320,7 +436,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     if (!v) continue;
     if (a.kind === 'role') {
       columns[a.role] = pick(v);
-      units[a.role] = a.role === 'oxygen' ? (conv[j]?.unit || 'unknown') : (conv[j] as UnitConversion).unit;
+      units[a.role] = a.role === 'oxygen' ? conv[j]?.unit || 'unknown' : (conv[j] as UnitConversion).unit;
       colKey[j] = a.role;
     } else if (a.kind === 'extra') {
       let key = a.key;
@@ -339,7 +455,16 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     if (a.kind !== 'flag') return;
     const target = a.of;
     if (colKey.includes(target)) flagSource.set(target, j);
-    else warnings.push(fileError(t.file, t.headerLine, j + 1, 'flag_without_column', `flag column ${colLabel(t, j)} belongs to no column of this file; not kept`));
+    else
+      warnings.push(
+        fileError(
+          t.file,
+          t.headerLine,
+          j + 1,
+          'flag_without_column',
+          `flag column ${colLabel(t, j)} belongs to no column of this file; not kept`,
+        ),
+      );
   });
   const unflagged: string[] = [];
   for (let j = 0; j < ncol; j++) {
@@ -356,7 +481,8 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   }
   if (unflagged.length > 0 && flagSource.size > 0)
     notes.push(`no quality flags in the file for ${unflagged.join(', ')}; levels with values marked 2`);
-  else if (flagSource.size === 0) notes.push('no quality-flag columns in the file; levels with values marked 2, missing values 9');
+  else if (flagSource.size === 0)
+    notes.push('no quality-flag columns in the file; levels with values marked 2, missing values 9');
 
   const cast = {
     file: t.file,
@@ -373,7 +499,15 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   };
   const checked = ParsedCastSchema.safeParse(cast);
   if (!checked.success)
-    throw new ParseFailure([fileError(t.file, null, null, 'internal_error', `the parsed cast failed validation: ${checked.error.issues.map((i) => i.message).join('; ')}`)]);
+    throw new ParseFailure([
+      fileError(
+        t.file,
+        null,
+        null,
+        'internal_error',
+        `the parsed cast failed validation: ${checked.error.issues.map((i) => i.message).join('; ')}`,
+      ),
+    ]);
   return { cast: checked.data, warnings };
 }
 

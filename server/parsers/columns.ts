@@ -28,7 +28,19 @@ export function normaliseName(name: string): string {
 const NAMES: Record<ColumnRole, string[]> = {
   pressure: ['pressure', 'pres', 'press', 'prs', 'p', 'ctdprs', 'sea pressure', 'ctd pressure', 'pressure sea'],
   depth: ['depth', 'dep', 'depth below surface', 'ctd depth', 'depth m', 'ctddep'],
-  temperature: ['temperature', 'temp', 't', 'ctdtmp', 'ctd temperature', 'water temperature', 'in situ temperature', 'insitu temperature', 't90', 't68', 'tmp'],
+  temperature: [
+    'temperature',
+    'temp',
+    't',
+    'ctdtmp',
+    'ctd temperature',
+    'water temperature',
+    'in situ temperature',
+    'insitu temperature',
+    't90',
+    't68',
+    'tmp',
+  ],
   salinity: ['salinity', 'sal', 's', 'sp', 'psal', 'ctdsal', 'practical salinity', 'salt', 'ctd salinity'],
   conductivity: ['conductivity', 'cond', 'c', 'ctdcond', 'ctdcnd', 'ctd conductivity'],
   oxygen: ['oxygen', 'oxy', 'o2', 'ctdoxy', 'dissolved oxygen', 'ctd oxygen', 'do'],
@@ -38,10 +50,25 @@ for (const role of COLUMN_ROLES) for (const n of NAMES[role]) BY_NAME.set(n, rol
 
 /** Optional variables the product knows by name; kept as extras under a tidy key. */
 const KNOWN_EXTRAS: Record<string, string> = {
-  fluorescence: 'fluorescence', fluor: 'fluorescence', ctdfluor: 'fluorescence', chlorophyll: 'fluorescence', fl: 'fluorescence',
-  turbidity: 'turbidity', turb: 'turbidity', ctdturb: 'turbidity', ntu: 'turbidity',
-  transmissometer: 'transmission', transmission: 'transmission', ctdxmiss: 'transmission', xmiss: 'transmission',
-  par: 'par', ctdpar: 'par', scan: 'scan', 'scan number': 'scan', nbin: 'nbin', ctdnobs: 'nbin',
+  fluorescence: 'fluorescence',
+  fluor: 'fluorescence',
+  ctdfluor: 'fluorescence',
+  chlorophyll: 'fluorescence',
+  fl: 'fluorescence',
+  turbidity: 'turbidity',
+  turb: 'turbidity',
+  ctdturb: 'turbidity',
+  ntu: 'turbidity',
+  transmissometer: 'transmission',
+  transmission: 'transmission',
+  ctdxmiss: 'transmission',
+  xmiss: 'transmission',
+  par: 'par',
+  ctdpar: 'par',
+  scan: 'scan',
+  'scan number': 'scan',
+  nbin: 'nbin',
+  ctdnobs: 'nbin',
 };
 
 const FLAG_SUFFIX = /^(.*?)\s+(?:flag w|flag|qc|quality|q)$/;

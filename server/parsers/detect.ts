@@ -6,7 +6,8 @@ import { isZip } from './zip';
 import { isHdf5, isNetcdf3 } from './ncfile';
 import { looksLikeAcquisitionExport } from './acquisition';
 
-export type DetectedFormat = 'zip' | 'netcdf' | 'hdf5' | 'exchange' | 'exchangeBottle' | 'acquisition' | 'stationTable' | 'plain';
+export type DetectedFormat =
+  'zip' | 'netcdf' | 'hdf5' | 'exchange' | 'exchangeBottle' | 'acquisition' | 'stationTable' | 'plain';
 
 export function detectFormat(filename: string, bytes: Uint8Array): DetectedFormat {
   if (isZip(bytes) || /\.zip$/i.test(filename)) return 'zip';
@@ -26,7 +27,8 @@ export function detectFormat(filename: string, bytes: Uint8Array): DetectedForma
   const header = lines.find((l) => l.trim() !== '' && !l.trimStart().startsWith('#'));
   if (header !== undefined) {
     const d = detectDelimiter(header);
-    const fields = d === 'whitespace' ? header.trim().split(/\s+/) : header.split(d).map((s) => s.trim().replace(/^"|"$/g, ''));
+    const fields =
+      d === 'whitespace' ? header.trim().split(/\s+/) : header.split(d).map((s) => s.trim().replace(/^"|"$/g, ''));
     if (looksLikeStationTable(fields)) return 'stationTable';
   }
   return 'plain';

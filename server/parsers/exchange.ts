@@ -30,27 +30,52 @@ export function parseExchange(
   i++;
   const isSkippable = (l: string): boolean => l.trim() === '' || l.trimStart().startsWith('#');
   while (i < lines.length && isSkippable(lines[i])) i++;
-  if (i >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', 'the file ends before its NUMBER_HEADERS line')]);
+  if (i >= lines.length)
+    throw new ParseFailure([
+      fileError(file, lines.length, null, 'truncated', 'the file ends before its NUMBER_HEADERS line'),
+    ]);
   const nh = /^\s*NUMBER_HEADERS\s*=\s*(\d+)[\s,]*$/i.exec(lines[i]);
-  if (!nh) throw bad(file, i + 1, `line ${i + 1}: expected "NUMBER_HEADERS = n", found ${JSON.stringify(lines[i].slice(0, 60))}`);
+  if (!nh)
+    throw bad(
+      file,
+      i + 1,
+      `line ${i + 1}: expected "NUMBER_HEADERS = n", found ${JSON.stringify(lines[i].slice(0, 60))}`,
+    );
   const count = Number(nh[1]);
-  if (count < 1 || count > 200) throw bad(file, i + 1, `line ${i + 1}: NUMBER_HEADERS = ${count} is not a sensible count (1..200)`);
+  if (count < 1 || count > 200)
+    throw bad(file, i + 1, `line ${i + 1}: NUMBER_HEADERS = ${count} is not a sensible count (1..200)`);
   i++;
   const pairs: MetaPair[] = [];
   while (pairs.length < count - 1) {
-    if (i >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', `the file ends inside its header block (${pairs.length + 1} of ${count} header lines)`)]);
+    if (i >= lines.length)
+      throw new ParseFailure([
+        fileError(
+          file,
+          lines.length,
+          null,
+          'truncated',
+          `the file ends inside its header block (${pairs.length + 1} of ${count} header lines)`,
+        ),
+      ]);
     const l = lines[i];
     if (!isSkippable(l)) {
       // Spreadsheet-saved files pad every line with commas: "STNNBR = 5,,,,".
       const m = /^\s*([A-Za-z][A-Za-z0-9_]*)\s*=\s*(.*?)[\s,]*$/.exec(l);
       if (!m)
-        throw bad(file, i + 1, `line ${i + 1}: expected header line ${pairs.length + 2} of ${count} ("KEY = value"), found ${JSON.stringify(l.slice(0, 60))}`);
+        throw bad(
+          file,
+          i + 1,
+          `line ${i + 1}: expected header line ${pairs.length + 2} of ${count} ("KEY = value"), found ${JSON.stringify(l.slice(0, 60))}`,
+        );
       pairs.push({ key: m[1], value: m[2], line: i + 1 });
     }
     i++;
   }
   while (i < lines.length && isSkippable(lines[i])) i++;
-  if (i + 1 >= lines.length) throw new ParseFailure([fileError(file, lines.length, null, 'truncated', 'the file ends before its parameter and units lines')]);
+  if (i + 1 >= lines.length)
+    throw new ParseFailure([
+      fileError(file, lines.length, null, 'truncated', 'the file ends before its parameter and units lines'),
+    ]);
   const paramLine = i + 1;
   const params = lines[i].split(',').map((s) => s.trim());
   while (params.length > 1 && params[params.length - 1] === '') params.pop(); // comma padding
@@ -60,7 +85,11 @@ export function parseExchange(
   const unitLine = i + 2;
   while (unitsRaw.length > params.length && unitsRaw[unitsRaw.length - 1] === '') unitsRaw.pop();
   if (unitsRaw.length > params.length || unitsRaw.length < params.length - 1)
-    throw bad(file, unitLine, `line ${unitLine}: the units line has ${unitsRaw.length} fields where the parameter line has ${params.length}`);
+    throw bad(
+      file,
+      unitLine,
+      `line ${unitLine}: the units line has ${unitsRaw.length} fields where the parameter line has ${params.length}`,
+    );
   while (unitsRaw.length < params.length) unitsRaw.push('');
   i += 2;
 
@@ -82,7 +111,13 @@ export function parseExchange(
   }
   if (!ended)
     throw new ParseFailure([
-      fileError(file, lines.length, null, 'exchange_missing_end', `the file ends at line ${lines.length} without END_DATA: it looks truncated`),
+      fileError(
+        file,
+        lines.length,
+        null,
+        'exchange_missing_end',
+        `the file ends at line ${lines.length} without END_DATA: it looks truncated`,
+      ),
     ]);
   const warnings: FileError[] = [];
   for (let k = i + 1; k < lines.length; k++) {
@@ -127,23 +162,61 @@ export function stationCastFromFileName(file: string): { station: string; cast: 
  */
 function exchangeHeaderGaps(file: string, pairs: MetaPair[], md: CastMetadata, warnings: FileError[]): string[] {
   const notes: string[] = [];
-  const has = (re: RegExp) => pairs.some((p) => re.test(p.key) && p.value.trim() !== '' && !/^-999(\.0*)?$/.test(p.value.trim()));
+  const has = (re: RegExp) =>
+    pairs.some((p) => re.test(p.key) && p.value.trim() !== '' && !/^-999(\.0*)?$/.test(p.value.trim()));
   if (md.station === null || md.cast === null) {
     const fromName = stationCastFromFileName(file);
     if (fromName) {
       const took: string[] = [];
-      if (md.station === null) { md.station = fromName.station; took.push(`station ${fromName.station}`); }
-      if (md.cast === null) { md.cast = fromName.cast; took.push(`cast ${fromName.cast}`); }
-      notes.push(`${took.join(' and ')} taken from the file name (EXPOCODE_STATION_CAST_ct1.csv); the header does not give ${took.length > 1 ? 'them' : 'it'}`);
+      if (md.station === null) {
+        md.station = fromName.station;
+        took.push(`station ${fromName.station}`);
+      }
+      if (md.cast === null) {
+        md.cast = fromName.cast;
+        took.push(`cast ${fromName.cast}`);
+      }
+      notes.push(
+        `${took.join(' and ')} taken from the file name (EXPOCODE_STATION_CAST_ct1.csv); the header does not give ${took.length > 1 ? 'them' : 'it'}`,
+      );
     }
   }
-  if (!has(/^SECT(ION)?_?ID$/i)) warnings.push(fileError(file, null, null, 'missing_header', 'the header has no SECT_ID (the line or section); the cast is read without it'));
-  if (md.bottomDepth === null) warnings.push(fileError(file, null, null, 'missing_header', 'the header has no DEPTH (bottom depth); the cast is read without it'));
+  if (!has(/^SECT(ION)?_?ID$/i))
+    warnings.push(
+      fileError(
+        file,
+        null,
+        null,
+        'missing_header',
+        'the header has no SECT_ID (the line or section); the cast is read without it',
+      ),
+    );
+  if (md.bottomDepth === null)
+    warnings.push(
+      fileError(
+        file,
+        null,
+        null,
+        'missing_header',
+        'the header has no DEPTH (bottom depth); the cast is read without it',
+      ),
+    );
   if (!has(/^TIME$/i)) {
     if (md.time !== null) {
-      warnings.push(fileError(file, null, null, 'missing_header', 'the header has no TIME; the cast is dated at 00:00 UTC of its DATE'));
+      warnings.push(
+        fileError(
+          file,
+          null,
+          null,
+          'missing_header',
+          'the header has no TIME; the cast is dated at 00:00 UTC of its DATE',
+        ),
+      );
       notes.push('no TIME in the header: time of day taken as 00:00 UTC');
-    } else warnings.push(fileError(file, null, null, 'missing_header', 'the header has no DATE or TIME; the cast has no time'));
+    } else
+      warnings.push(
+        fileError(file, null, null, 'missing_header', 'the header has no DATE or TIME; the cast has no time'),
+      );
   }
   return notes;
 }

@@ -8,7 +8,12 @@ export type Parsed<T> = { ok: true; value: T } | { ok: false; message: string };
 
 /** Degrees from "-35.25", "35.25 S", "35 15.0 S", "35°15.0'S", "S 35 15.0". */
 export function parseDegrees(text: string, positive: string, negative: string): Parsed<number> {
-  const t = text.trim().toUpperCase().replace(/[°º'′"″]/g, ' ').replace(/,/g, '.').trim();
+  const t = text
+    .trim()
+    .toUpperCase()
+    .replace(/[°º'′"″]/g, ' ')
+    .replace(/,/g, '.')
+    .trim();
   if (t === '') return { ok: false, message: 'empty' };
   let sign = 1;
   let body = t;
@@ -65,7 +70,10 @@ function iso(ms: number): string {
  */
 export function parseTime(text: string): Parsed<string> {
   const t = text.trim();
-  const m = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,6}))?)?)?\s*(Z|UTC|GMT|[+-]\d{2}:?\d{2})?$/i.exec(t);
+  const m =
+    /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,6}))?)?)?\s*(Z|UTC|GMT|[+-]\d{2}:?\d{2})?$/i.exec(
+      t,
+    );
   if (!m) return { ok: false, message: `time "${t}" is not an ISO 8601 date and time` };
   const [y, mo, d, h, mi, s] = [m[1], m[2], m[3], m[4] ?? '0', m[5] ?? '0', m[6] ?? '0'].map(Number);
   const frac = m[7] ? Number('0.' + m[7]) * 1000 : 0;
@@ -94,7 +102,8 @@ export function parseDateTimeCompact(date: string, time: string | null): Parsed<
     if (!t) return { ok: false, message: `TIME "${time.trim()}" is not HHMM` };
     hh = t[1].padStart(2, '0');
     mm = t[2];
-    if (Number(hh) > 23 || Number(mm) > 59) return { ok: false, message: `TIME "${time.trim()}" is not a time of day (HHMM)` };
+    if (Number(hh) > 23 || Number(mm) > 59)
+      return { ok: false, message: `TIME "${time.trim()}" is not a time of day (HHMM)` };
   }
   return parseTime(`${d[1]}-${d[2]}-${d[3]}T${hh}:${mm}:00Z`);
 }
@@ -107,33 +116,89 @@ export function parseBottomDepth(text: string): Parsed<number> {
   return { ok: true, value: v };
 }
 
-
 export type MetaPair = { key: string; value: string; line: number };
 
 const KEYS: Record<string, 'station' | 'cast' | 'latitude' | 'longitude' | 'time' | 'date' | 'bottomDepth'> = {
-  station: 'station', stn: 'station', stnnbr: 'station', 'station id': 'station', 'station name': 'station', site: 'station',
+  station: 'station',
+  stn: 'station',
+  stnnbr: 'station',
+  'station id': 'station',
+  'station name': 'station',
+  site: 'station',
   // spellings of the exchange format's STNNBR and CASTNO found in data-office files
-  'stn nbr': 'station', stnno: 'station', 'stn no': 'station', 'station number': 'station', 'station no': 'station', 'station nbr': 'station',
-  stnnum: 'station', statnum: 'station', 'stat no': 'station', stat: 'station', stnid: 'station', 'stn id': 'station', 'station num': 'station',
-  cast: 'cast', castno: 'cast', 'cast number': 'cast', 'cast no': 'cast', castnbr: 'cast', 'cast nbr': 'cast', castnum: 'cast', 'cast num': 'cast', 'cast id': 'cast',
-  latitude: 'latitude', lat: 'latitude',
-  longitude: 'longitude', lon: 'longitude', long: 'longitude', lng: 'longitude',
-  time: 'time', datetime: 'time', 'date time': 'time', 'start time': 'time', 'time utc': 'time',
+  'stn nbr': 'station',
+  stnno: 'station',
+  'stn no': 'station',
+  'station number': 'station',
+  'station no': 'station',
+  'station nbr': 'station',
+  stnnum: 'station',
+  statnum: 'station',
+  'stat no': 'station',
+  stat: 'station',
+  stnid: 'station',
+  'stn id': 'station',
+  'station num': 'station',
+  cast: 'cast',
+  castno: 'cast',
+  'cast number': 'cast',
+  'cast no': 'cast',
+  castnbr: 'cast',
+  'cast nbr': 'cast',
+  castnum: 'cast',
+  'cast num': 'cast',
+  'cast id': 'cast',
+  latitude: 'latitude',
+  lat: 'latitude',
+  longitude: 'longitude',
+  lon: 'longitude',
+  long: 'longitude',
+  lng: 'longitude',
+  time: 'time',
+  datetime: 'time',
+  'date time': 'time',
+  'start time': 'time',
+  'time utc': 'time',
   date: 'date',
-  'bottom depth': 'bottomDepth', bottom: 'bottomDepth', 'water depth': 'bottomDepth', depth: 'bottomDepth', 'bottom depth m': 'bottomDepth',
-  btmdepth: 'bottomDepth', 'btm depth': 'bottomDepth', 'depth m': 'bottomDepth', 'bottom depth meters': 'bottomDepth', 'cor depth': 'bottomDepth', 'uncor depth': 'bottomDepth',
+  'bottom depth': 'bottomDepth',
+  bottom: 'bottomDepth',
+  'water depth': 'bottomDepth',
+  depth: 'bottomDepth',
+  'bottom depth m': 'bottomDepth',
+  btmdepth: 'bottomDepth',
+  'btm depth': 'bottomDepth',
+  'depth m': 'bottomDepth',
+  'bottom depth meters': 'bottomDepth',
+  'cor depth': 'bottomDepth',
+  'uncor depth': 'bottomDepth',
 };
 
 function normKey(k: string): string {
-  return k.trim().toLowerCase().replace(/[_\-.]+/g, ' ').replace(/\s+/g, ' ');
+  return k
+    .trim()
+    .toLowerCase()
+    .replace(/[_\-.]+/g, ' ')
+    .replace(/\s+/g, ' ');
 }
 
 /**
  * Cast metadata from key/value pairs (plain `# key: value` lines or the exchange header block).
  * `compactDate` reads DATE as YYYYMMDD and TIME as HHMM (the exchange format's convention).
  */
-export function collectMetadata(file: string, pairs: MetaPair[], compactDate: boolean): { metadata: CastMetadata; errors: FileError[] } {
-  const md: CastMetadata = { station: null, cast: null, latitude: null, longitude: null, time: null, bottomDepth: null, extra: {} };
+export function collectMetadata(
+  file: string,
+  pairs: MetaPair[],
+  compactDate: boolean,
+): { metadata: CastMetadata; errors: FileError[] } {
+  const md: CastMetadata = {
+    station: null,
+    cast: null,
+    latitude: null,
+    longitude: null,
+    time: null,
+    bottomDepth: null,
+    extra: {},
+  };
   const errors: FileError[] = [];
   let date: MetaPair | null = null;
   let time: MetaPair | null = null;
@@ -155,13 +220,31 @@ export function collectMetadata(file: string, pairs: MetaPair[], compactDate: bo
       case 'latitude': {
         const r = parseLatitude(v);
         if (r.ok) md.latitude = r.value;
-        else errors.push(fileError(file, p.line, null, r.message.includes('outside') ? 'latitude_out_of_range' : 'bad_metadata', `line ${p.line}: ${r.message}`));
+        else
+          errors.push(
+            fileError(
+              file,
+              p.line,
+              null,
+              r.message.includes('outside') ? 'latitude_out_of_range' : 'bad_metadata',
+              `line ${p.line}: ${r.message}`,
+            ),
+          );
         break;
       }
       case 'longitude': {
         const r = parseLongitude(v);
         if (r.ok) md.longitude = r.value;
-        else errors.push(fileError(file, p.line, null, r.message.includes('outside') ? 'longitude_out_of_range' : 'bad_metadata', `line ${p.line}: ${r.message}`));
+        else
+          errors.push(
+            fileError(
+              file,
+              p.line,
+              null,
+              r.message.includes('outside') ? 'longitude_out_of_range' : 'bad_metadata',
+              `line ${p.line}: ${r.message}`,
+            ),
+          );
         break;
       }
       case 'time':
@@ -181,14 +264,18 @@ export function collectMetadata(file: string, pairs: MetaPair[], compactDate: bo
   if (compactDate) {
     if (date) {
       const r = parseDateTimeCompact(date.value, time ? time.value : null);
-      const at = time && /^\d{8}$/.test(date.value.trim()) && r.ok === false && r.message.startsWith('TIME') ? time : date;
+      const at =
+        time && /^\d{8}$/.test(date.value.trim()) && r.ok === false && r.message.startsWith('TIME') ? time : date;
       if (r.ok) md.time = r.value;
       else errors.push(fileError(file, at.line, null, 'bad_time', `line ${at.line}: ${r.message}`));
-    } else if (time) errors.push(fileError(file, time.line, null, 'bad_time', `line ${time.line}: TIME given without DATE`));
+    } else if (time)
+      errors.push(fileError(file, time.line, null, 'bad_time', `line ${time.line}: TIME given without DATE`));
   } else {
     const tv = time ? time.value.trim() : null;
     if (date && tv && /^\d{1,2}:\d{2}(:\d{2})?\s*(Z|UTC)?$/i.test(tv)) {
-      const r = parseTime(`${date.value.trim()}T${tv.replace(/\s*(Z|UTC)$/i, '')}${tv.split(':').length === 2 ? ':00' : ''}Z`);
+      const r = parseTime(
+        `${date.value.trim()}T${tv.replace(/\s*(Z|UTC)$/i, '')}${tv.split(':').length === 2 ? ':00' : ''}Z`,
+      );
       if (r.ok) md.time = r.value;
       else errors.push(fileError(file, time!.line, null, 'bad_time', `line ${time!.line}: ${r.message}`));
     } else if (time) {

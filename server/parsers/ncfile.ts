@@ -28,7 +28,13 @@ export type NcFile = {
 
 /** netCDF-3 magic: "CDF" and version byte 1 (classic), 2 (64-bit offset) or 5 (64-bit data). */
 export function isNetcdf3(bytes: Uint8Array): boolean {
-  return bytes.length >= 4 && bytes[0] === 0x43 && bytes[1] === 0x44 && bytes[2] === 0x46 && (bytes[3] === 1 || bytes[3] === 2 || bytes[3] === 5);
+  return (
+    bytes.length >= 4 &&
+    bytes[0] === 0x43 &&
+    bytes[1] === 0x44 &&
+    bytes[2] === 0x46 &&
+    (bytes[3] === 1 || bytes[3] === 2 || bytes[3] === 5)
+  );
 }
 
 /** HDF5 signature (netCDF-4 files are HDF5 files): \x89 H D F \r \n \x1a \n. */
@@ -46,7 +52,15 @@ function corrupt(file: string, message: string): ParseFailure {
 /** Open a netCDF-3 file or throw a ParseFailure naming what is wrong with it. */
 export function openNetcdf(file: string, bytes: Uint8Array): NcFile {
   if (bytes.length >= 4 && bytes[3] === 5 && isNetcdf3(bytes))
-    throw new ParseFailure([fileError(file, null, null, 'netcdf_unsupported', 'the file is netCDF-3 with 64-bit data (CDF-5), which is not read; save it as netCDF-3 classic or netCDF-4')]);
+    throw new ParseFailure([
+      fileError(
+        file,
+        null,
+        null,
+        'netcdf_unsupported',
+        'the file is netCDF-3 with 64-bit data (CDF-5), which is not read; save it as netCDF-3 classic or netCDF-4',
+      ),
+    ]);
   let r: NetCDFReader;
   try {
     r = new NetCDFReader(bytes);
@@ -64,7 +78,8 @@ export function openNetcdf(file: string, bytes: Uint8Array): NcFile {
   const recStep = r.recordDimension.recordStep ?? 0;
   for (const v of r.variables ?? []) {
     const ids = v.dimensions as number[];
-    if (ids.some((id) => id < 0 || id >= dimList.length)) throw corrupt(file, `variable ${v.name} names a dimension the file does not have`);
+    if (ids.some((id) => id < 0 || id >= dimList.length))
+      throw corrupt(file, `variable ${v.name} names a dimension the file does not have`);
     const names = ids.map((id) => dimList[id].name);
     const shape = ids.map((id) => (id === recId ? recLen : dimList[id].size));
     const attrs: Record<string, NcAttr> = {};
@@ -73,9 +88,14 @@ export function openNetcdf(file: string, bytes: Uint8Array): NcFile {
     if (!tb) throw corrupt(file, `variable ${v.name} has an unknown type`);
     const count = shape.reduce((a, b) => a * b, 1);
     const offset = Number(v.offset);
-    const end = v.record ? offset + Math.max(0, recLen - 1) * recStep + (count / Math.max(1, recLen)) * tb : offset + count * tb;
+    const end = v.record
+      ? offset + Math.max(0, recLen - 1) * recStep + (count / Math.max(1, recLen)) * tb
+      : offset + count * tb;
     if (!Number.isFinite(end) || offset < 0 || end > bytes.length)
-      throw corrupt(file, `variable ${v.name} is declared to run to byte ${end} but the file has ${bytes.length} bytes: it looks truncated`);
+      throw corrupt(
+        file,
+        `variable ${v.name} is declared to run to byte ${end} but the file has ${bytes.length} bytes: it looks truncated`,
+      );
     vars.set(v.name, { name: v.name, type: v.type, dims: names, shape, attrs, record: v.record, offset });
   }
   const raw = (v: NcVar): unknown[] => {
@@ -112,7 +132,14 @@ export function openNetcdf(file: string, bytes: Uint8Array): NcFile {
         : flat(v).map((x) => (typeof x === 'string' ? x : typeof x === 'number' ? String.fromCharCode(x) : ''));
       const w = v.shape.length > 0 ? v.shape[v.shape.length - 1] : chars.length;
       const out: string[] = [];
-      for (let i = 0; i < chars.length; i += Math.max(1, w)) out.push(chars.slice(i, i + w).join('').replace(/\0.*$/s, '').trim());
+      for (let i = 0; i < chars.length; i += Math.max(1, w))
+        out.push(
+          chars
+            .slice(i, i + w)
+            .join('')
+            .replace(/\0.*$/s, '')
+            .trim(),
+        );
       return out.length ? out : [''];
     },
   };
@@ -138,5 +165,8 @@ export function attrNumbers(a: NcAttr | undefined): number[] {
   if (a === undefined) return [];
   if (typeof a === 'number') return [a];
   if (Array.isArray(a)) return a;
-  return a.split(/[\s,]+/).map(Number).filter(Number.isFinite);
+  return a
+    .split(/[\s,]+/)
+    .map(Number)
+    .filter(Number.isFinite);
 }

@@ -39,9 +39,27 @@ const STANDARD_EXTRAS: Record<string, string> = {
   volume_beam_attenuation_coefficient_of_radiative_flux_in_sea_water: 'beam_attenuation',
 };
 /** WOCE parameter names (the exchange format's) of the roles. */
-const WOCE_ROLES: Record<string, Role> = { CTDPRS: 'pressure', CTDTMP: 'temperature', CTDSAL: 'salinity', CTDOXY: 'oxygen', CTDCOND: 'conductivity' };
+const WOCE_ROLES: Record<string, Role> = {
+  CTDPRS: 'pressure',
+  CTDTMP: 'temperature',
+  CTDSAL: 'salinity',
+  CTDOXY: 'oxygen',
+  CTDCOND: 'conductivity',
+};
 
-const COORD_NAMES = new Set(['latitude', 'longitude', 'lat', 'lon', 'time', 'station', 'cast', 'woce_date', 'woce_time', 'profile', 'row_size']);
+const COORD_NAMES = new Set([
+  'latitude',
+  'longitude',
+  'lat',
+  'lon',
+  'time',
+  'station',
+  'cast',
+  'woce_date',
+  'woce_time',
+  'profile',
+  'row_size',
+]);
 
 function roleOf(v: NcVar): Role | null {
   const sn = attrText(v.attrs.standard_name);
@@ -59,7 +77,12 @@ function roleOf(v: NcVar): Role | null {
 
 function isFlagVar(v: NcVar): boolean {
   const sn = attrText(v.attrs.standard_name) ?? '';
-  return /status_flag$|quality_flag$/.test(sn) || /_qc$|_flag$|_flag_w$/i.test(v.name) || attrText(v.attrs.units) === 'woce_flags' || v.attrs.flag_values !== undefined;
+  return (
+    /status_flag$|quality_flag$/.test(sn) ||
+    /_qc$|_flag$|_flag_w$/i.test(v.name) ||
+    attrText(v.attrs.units) === 'woce_flags' ||
+    v.attrs.flag_values !== undefined
+  );
 }
 
 /** The QC variable of a data variable, if the file has one. */
@@ -85,7 +108,10 @@ function sameShape(a: NcVar, b: NcVar): boolean {
 /** Unit text with the signs a lossy conversion turned into "?" put back (°C, µmol). */
 export function repairUnit(u: string | null): string | null {
   if (u === null) return null;
-  return u.replace(/^\?(?=C\b|C\s|C$)/, '°').replace(/\?(?=mol)/g, 'µ').replace(/\?(?=M$)/, 'µ');
+  return u
+    .replace(/^\?(?=C\b|C\s|C$)/, '°')
+    .replace(/\?(?=mol)/g, 'µ')
+    .replace(/\?(?=M$)/, 'µ');
 }
 
 /** Numbers of a variable unpacked: fill and out-of-valid-range values NaN, then scale and offset. */
@@ -98,7 +124,18 @@ function unpacked(nc: NcFile, v: NcVar): Float64Array {
   const scale = attrNumber(v.attrs.scale_factor) ?? 1;
   const offset = attrNumber(v.attrs.add_offset) ?? 0;
   // Without a _FillValue the classic format's default fill of the type marks unwritten values.
-  const defaultFill = fills.length === 0 ? ({ byte: -127, short: -32767, int: -2147483647, float: 9.969209968386869e36, double: 9.969209968386869e36 } as Record<string, number>)[v.type] : undefined;
+  const defaultFill =
+    fills.length === 0
+      ? (
+          {
+            byte: -127,
+            short: -32767,
+            int: -2147483647,
+            float: 9.969209968386869e36,
+            double: 9.969209968386869e36,
+          } as Record<string, number>
+        )[v.type]
+      : undefined;
   const packed = scale !== 1 || offset !== 0;
   const out = new Float64Array(raw.length);
   for (let i = 0; i < raw.length; i++) {
@@ -115,7 +152,13 @@ function unpacked(nc: NcFile, v: NcVar): Float64Array {
 function flagValues(nc: NcFile, v: NcVar): number[] {
   if (v.type === 'char') {
     const s = nc.strings({ ...v, shape: [...v.shape, 1] }).join('');
-    return Array.from(s.padEnd(v.shape.reduce((a, b) => a * b, 1), ' '), (ch) => (/[0-9]/.test(ch) ? Number(ch) : 9));
+    return Array.from(
+      s.padEnd(
+        v.shape.reduce((a, b) => a * b, 1),
+        ' ',
+      ),
+      (ch) => (/[0-9]/.test(ch) ? Number(ch) : 9),
+    );
   }
   const fills = attrNumbers(v.attrs._FillValue);
   return nc.numbers(v).map((x) => (!Number.isFinite(x) || fills.includes(x) ? 9 : x));
@@ -144,7 +187,11 @@ function findVar(nc: NcFile, standard: string[], names: string[]): NcVar | null 
 type Layout = { profiles: number; levelsOf: (p: number) => number[] /* flat indices of profile p's levels */ };
 
 /** How profiles and levels are laid out, from the vertical variable's dimensions. */
-function layoutOf(nc: NcFile, vert: NcVar, file: string): { layout: Layout; profileDim: string | null; levelDim: string } {
+function layoutOf(
+  nc: NcFile,
+  vert: NcVar,
+  file: string,
+): { layout: Layout; profileDim: string | null; levelDim: string } {
   if (vert.dims.length === 1) {
     const levelDim = vert.dims[0];
     const rowSize = [...nc.vars.values()].find((v) => attrText(v.attrs.sample_dimension) === levelDim);
@@ -157,27 +204,61 @@ function layoutOf(nc: NcFile, vert: NcVar, file: string): { layout: Layout; prof
         starts.push(s);
         s += Math.max(0, c | 0);
       }
-      if (s > vert.shape[0]) throw new ParseFailure([fileError(file, null, null, 'netcdf_bad_structure', `${rowSize.name} adds up to ${s} levels but ${levelDim} has ${vert.shape[0]}`)]);
+      if (s > vert.shape[0])
+        throw new ParseFailure([
+          fileError(
+            file,
+            null,
+            null,
+            'netcdf_bad_structure',
+            `${rowSize.name} adds up to ${s} levels but ${levelDim} has ${vert.shape[0]}`,
+          ),
+        ]);
       return {
-        layout: { profiles: counts.length, levelsOf: (p) => Array.from({ length: Math.max(0, counts[p] | 0) }, (_, k) => starts[p] + k) },
+        layout: {
+          profiles: counts.length,
+          levelsOf: (p) => Array.from({ length: Math.max(0, counts[p] | 0) }, (_, k) => starts[p] + k),
+        },
         profileDim: rowSize.dims[0] ?? null,
         levelDim,
       };
     }
     // One profile, or an orthogonal grid (profile, level) sharing this vertical coordinate.
-    const grid = [...nc.vars.values()].find((v) => v.dims.length === 2 && v.dims[1] === levelDim && roleOf(v) !== null && v !== vert);
+    const grid = [...nc.vars.values()].find(
+      (v) => v.dims.length === 2 && v.dims[1] === levelDim && roleOf(v) !== null && v !== vert,
+    );
     if (grid) {
       const np = grid.shape[0];
       const nl = vert.shape[0];
-      return { layout: { profiles: np, levelsOf: (p) => Array.from({ length: nl }, (_, k) => p * nl + k) }, profileDim: grid.dims[0], levelDim };
+      return {
+        layout: { profiles: np, levelsOf: (p) => Array.from({ length: nl }, (_, k) => p * nl + k) },
+        profileDim: grid.dims[0],
+        levelDim,
+      };
     }
-    return { layout: { profiles: 1, levelsOf: () => Array.from({ length: vert.shape[0] }, (_, k) => k) }, profileDim: null, levelDim };
+    return {
+      layout: { profiles: 1, levelsOf: () => Array.from({ length: vert.shape[0] }, (_, k) => k) },
+      profileDim: null,
+      levelDim,
+    };
   }
   if (vert.dims.length === 2) {
     const [np, nl] = vert.shape;
-    return { layout: { profiles: np, levelsOf: (p) => Array.from({ length: nl }, (_, k) => p * nl + k) }, profileDim: vert.dims[0], levelDim: vert.dims[1] };
+    return {
+      layout: { profiles: np, levelsOf: (p) => Array.from({ length: nl }, (_, k) => p * nl + k) },
+      profileDim: vert.dims[0],
+      levelDim: vert.dims[1],
+    };
   }
-  throw new ParseFailure([fileError(file, null, null, 'netcdf_bad_structure', `the vertical variable ${vert.name} has ${vert.dims.length} dimensions; expected (level) or (profile, level)`)]);
+  throw new ParseFailure([
+    fileError(
+      file,
+      null,
+      null,
+      'netcdf_bad_structure',
+      `the vertical variable ${vert.name} has ${vert.dims.length} dimensions; expected (level) or (profile, level)`,
+    ),
+  ]);
 }
 
 /** The value of a per-profile variable for profile p (a scalar, or one per profile). */
@@ -192,7 +273,8 @@ function perProfile(nc: NcFile, v: NcVar | null, p: number, profileDim: string |
 
 function perProfileText(nc: NcFile, v: NcVar | null, p: number, profileDim: string | null): string | null {
   if (!v) return null;
-  const s: string[] = v.type === 'char' ? nc.strings(v) : Array.from(unpacked(nc, v), (x) => (Number.isFinite(x) ? String(x) : ''));
+  const s: string[] =
+    v.type === 'char' ? nc.strings(v) : Array.from(unpacked(nc, v), (x) => (Number.isFinite(x) ? String(x) : ''));
   const i = profileDim && v.dims[0] === profileDim ? p : 0;
   const t = (s[i] ?? '').trim();
   return t === '' ? null : t;
@@ -213,7 +295,15 @@ export function parseNetcdf(
   const isWoce = /woce/i.test(g('Conventions') ?? '') || /woce/i.test(g('DATA_TYPE') ?? '') || nc.vars.has('woce_date');
   const isCf = /cf-\d/i.test(g('Conventions') ?? '') || featureType !== '';
   if (featureType !== '' && featureType !== 'profile')
-    throw new ParseFailure([fileError(file, null, null, 'netcdf_not_profile', `the file's featureType is "${featureType}"; only profiles (featureType = profile) are read as casts`)]);
+    throw new ParseFailure([
+      fileError(
+        file,
+        null,
+        null,
+        'netcdf_not_profile',
+        `the file's featureType is "${featureType}"; only profiles (featureType = profile) are read as casts`,
+      ),
+    ]);
 
   const all = [...nc.vars.values()];
   const roles = new Map<Role, NcVar>();
@@ -227,24 +317,55 @@ export function parseNetcdf(
   }
   const vert = roles.get('pressure') ?? roles.get('depth');
   if (!vert || !roles.has('temperature') || (!roles.has('salinity') && !roles.has('conductivity'))) {
-    const missing = [!vert && 'pressure or depth', !roles.has('temperature') && 'temperature', !roles.has('salinity') && !roles.has('conductivity') && 'salinity or conductivity'].filter(Boolean);
+    const missing = [
+      !vert && 'pressure or depth',
+      !roles.has('temperature') && 'temperature',
+      !roles.has('salinity') && !roles.has('conductivity') && 'salinity or conductivity',
+    ].filter(Boolean);
     const names = all.filter((v) => v.type !== 'char' && !isFlagVar(v)).map((v) => v.name);
     throw new ParseFailure(
-      [fileError(file, null, null, 'missing_column', `no ${missing.join(', no ')} variable recognised among the file's variables (${names.join(', ') || 'none'})${isCf || isWoce ? '' : '; the file states neither CF nor WOCE conventions'}`)],
+      [
+        fileError(
+          file,
+          null,
+          null,
+          'missing_column',
+          `no ${missing.join(', no ')} variable recognised among the file's variables (${names.join(', ') || 'none'})${isCf || isWoce ? '' : '; the file states neither CF nor WOCE conventions'}`,
+        ),
+      ],
       names.length ? { file, headers: names } : undefined,
     );
   }
   const { layout, profileDim, levelDim } = layoutOf(nc, vert, file);
-  if (layout.profiles === 0) throw new ParseFailure([fileError(file, null, null, 'no_data', 'the file holds no profiles')]);
-  if (layout.profiles > 5000) throw new ParseFailure([fileError(file, null, null, 'netcdf_bad_structure', `the file declares ${layout.profiles} profiles (the limit is 5000)`)]);
+  if (layout.profiles === 0)
+    throw new ParseFailure([fileError(file, null, null, 'no_data', 'the file holds no profiles')]);
+  if (layout.profiles > 5000)
+    throw new ParseFailure([
+      fileError(
+        file,
+        null,
+        null,
+        'netcdf_bad_structure',
+        `the file declares ${layout.profiles} profiles (the limit is 5000)`,
+      ),
+    ]);
 
   // The data variables of a level: on the level dimension (alone, or after the profile dimension).
-  const onLevels = (v: NcVar) => v.dims[v.dims.length - 1] === levelDim && (v.dims.length === 1 || (v.dims.length === 2 && v.dims[0] === profileDim));
+  const onLevels = (v: NcVar) =>
+    v.dims[v.dims.length - 1] === levelDim &&
+    (v.dims.length === 1 || (v.dims.length === 2 && v.dims[0] === profileDim));
   const columns: { v: NcVar; role: Role | 'extra'; key: string }[] = [];
   for (const [r, v] of roles) if (onLevels(v) || v === vert) columns.push({ v, role: r, key: r });
   const usedNames = new Set(columns.map((c) => c.v.name));
   for (const v of [...dupes, ...all]) {
-    if (usedNames.has(v.name) || v.type === 'char' || isFlagVar(v) || !onLevels(v) || COORD_NAMES.has(v.name.toLowerCase())) continue;
+    if (
+      usedNames.has(v.name) ||
+      v.type === 'char' ||
+      isFlagVar(v) ||
+      !onLevels(v) ||
+      COORD_NAMES.has(v.name.toLowerCase())
+    )
+      continue;
     if (attrText(v.attrs.sample_dimension)) continue;
     const sn = attrText(v.attrs.standard_name);
     const key = (sn && STANDARD_EXTRAS[sn]) || extraKey(v.name);
@@ -271,9 +392,15 @@ export function parseNetcdf(
   const latV = findVar(nc, ['latitude'], ['latitude', 'lat']);
   const lonV = findVar(nc, ['longitude'], ['longitude', 'lon', 'long']);
   const timeV = findVar(nc, ['time'], ['time', 'juld']);
-  const stationV = [...nc.vars.values()].find((v) => attrText(v.attrs.cf_role) === 'profile_id') ?? findVar(nc, [], ['station', 'station_name', 'station_id', 'stn']);
+  const stationV =
+    [...nc.vars.values()].find((v) => attrText(v.attrs.cf_role) === 'profile_id') ??
+    findVar(nc, [], ['station', 'station_name', 'station_id', 'stn']);
   const castV = findVar(nc, [], ['cast', 'cast_number']);
-  const bottomV = findVar(nc, ['sea_floor_depth_below_sea_surface', 'sea_floor_depth'], ['bottom_depth', 'water_depth']);
+  const bottomV = findVar(
+    nc,
+    ['sea_floor_depth_below_sea_surface', 'sea_floor_depth'],
+    ['bottom_depth', 'water_depth'],
+  );
   const wdate = nc.vars.get('woce_date') ?? null;
   const wtime = nc.vars.get('woce_time') ?? null;
 
@@ -283,7 +410,8 @@ export function parseNetcdf(
   for (let p = 0; p < layout.profiles; p++) {
     const idx = layout.levelsOf(p);
     // Orthogonal grids: a 1-D vertical shared by every profile is indexed by level alone.
-    const levelIndex = (v: NcVar, k: number) => (v.dims.length === 1 && multi && !profileDimIsRagged(nc, levelDim) ? k : idx[k]);
+    const levelIndex = (v: NcVar, k: number) =>
+      v.dims.length === 1 && multi && !profileDimIsRagged(nc, levelDim) ? k : idx[k];
     const name = multi ? `${file} [profile ${p + 1}]` : file;
     const headers: string[] = [];
     const units: (string | null)[] = [];
@@ -324,7 +452,15 @@ export function parseNetcdf(
     }
 
     // Metadata of the profile.
-    const md: ParsedCast['metadata'] = { station: null, cast: null, latitude: null, longitude: null, time: null, bottomDepth: null, extra: {} };
+    const md: ParsedCast['metadata'] = {
+      station: null,
+      cast: null,
+      latitude: null,
+      longitude: null,
+      time: null,
+      bottomDepth: null,
+      extra: {},
+    };
     const notes: string[] = [];
     const lat = perProfile(nc, latV, p, profileDim);
     const lon = perProfile(nc, lonV, p, profileDim);
@@ -346,7 +482,9 @@ export function parseNetcdf(
       if (d !== null) {
         const ds = String(Math.round(d)).padStart(8, '0');
         const ts = String(Math.round(t)).padStart(4, '0');
-        const r = parseTime(`${ds.slice(0, 4)}-${ds.slice(4, 6)}-${ds.slice(6, 8)}T${ts.slice(0, 2)}:${ts.slice(2, 4)}:00Z`);
+        const r = parseTime(
+          `${ds.slice(0, 4)}-${ds.slice(4, 6)}-${ds.slice(6, 8)}T${ts.slice(0, 2)}:${ts.slice(2, 4)}:00Z`,
+        );
         if (r.ok) md.time = r.value;
       }
     }
@@ -356,18 +494,37 @@ export function parseNetcdf(
     if (md.cast) md.cast = md.cast.replace(/^0+(?=\d)/, '');
     const bd = perProfile(nc, bottomV, p, profileDim) ?? (multi ? null : attrNumber(nc.globals.BOTTOM_DEPTH_METERS));
     if (bd !== null && bd > 0 && bd <= 12000) md.bottomDepth = bd;
-    else if (bd !== null && bd !== -999) warnings.push(fileError(file, null, null, 'bad_metadata', `${name}: bottom depth ${bd} m is not used (outside 0..12000 m)`));
-    for (const k of ['EXPOCODE', 'WOCE_ID', 'SECTION_ID', 'Conventions', 'title', 'institution', 'platform_code', 'cruise_id']) {
+    else if (bd !== null && bd !== -999)
+      warnings.push(
+        fileError(file, null, null, 'bad_metadata', `${name}: bottom depth ${bd} m is not used (outside 0..12000 m)`),
+      );
+    for (const k of [
+      'EXPOCODE',
+      'WOCE_ID',
+      'SECTION_ID',
+      'Conventions',
+      'title',
+      'institution',
+      'platform_code',
+      'cruise_id',
+    ]) {
       const v = g(k);
       if (v) md.extra[k === 'WOCE_ID' ? 'SECT_ID' : k] = v.slice(0, 200);
     }
     md.extra.source_format = isWoce ? 'WOCE netCDF CTD' : 'CF profile netCDF';
-    notes.push(`read from ${isWoce ? 'a WOCE netCDF CTD file' : 'a CF netCDF profile file'}${multi ? ` (profile ${p + 1} of ${layout.profiles})` : ''}`);
-    const packed = columns.filter((c) => c.v.attrs.scale_factor !== undefined || c.v.attrs.add_offset !== undefined).map((c) => c.v.name);
+    notes.push(
+      `read from ${isWoce ? 'a WOCE netCDF CTD file' : 'a CF netCDF profile file'}${multi ? ` (profile ${p + 1} of ${layout.profiles})` : ''}`,
+    );
+    const packed = columns
+      .filter((c) => c.v.attrs.scale_factor !== undefined || c.v.attrs.add_offset !== undefined)
+      .map((c) => c.v.name);
     if (packed.length) notes.push(`packed values unpacked with scale_factor/add_offset: ${packed.join(', ')}`);
-    const fixed = columns.filter((c) => attrText(c.v.attrs.units)?.includes('?')).map((c) => `${c.v.name} "${attrText(c.v.attrs.units)}"`);
+    const fixed = columns
+      .filter((c) => attrText(c.v.attrs.units)?.includes('?'))
+      .map((c) => `${c.v.name} "${attrText(c.v.attrs.units)}"`);
     if (fixed.length) notes.push(`unit strings with a lost sign read as °/µ: ${fixed.join(', ')}`);
-    if (!md.station && multi) warnings.push(fileError(file, null, null, 'bad_metadata', `${name}: no station name in the file`));
+    if (!md.station && multi)
+      warnings.push(fileError(file, null, null, 'bad_metadata', `${name}: no station name in the file`));
 
     try {
       const r = buildCast({
@@ -392,7 +549,8 @@ export function parseNetcdf(
       throw e;
     }
   }
-  if (casts.length === 0) throw new ParseFailure([fileError(file, null, null, 'no_data', 'no profile of the file holds any levels')]);
+  if (casts.length === 0)
+    throw new ParseFailure([fileError(file, null, null, 'no_data', 'no profile of the file holds any levels')]);
   return { casts, warnings };
 }
 
@@ -402,5 +560,10 @@ function profileDimIsRagged(nc: NcFile, levelDim: string): boolean {
 
 /** A binary file has no lines: say "level n" and name the variable, and give no line or column. */
 function levelWording(e: FileError): FileError {
-  return { ...e, line: null, column: null, message: e.message.replace(/\blines? (\d+)/g, 'level $1').replace(/, column \d+ \(/g, ' (') };
+  return {
+    ...e,
+    line: null,
+    column: null,
+    message: e.message.replace(/\blines? (\d+)/g, 'level $1').replace(/, column \d+ \(/g, ' ('),
+  };
 }

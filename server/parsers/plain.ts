@@ -70,7 +70,9 @@ export function parsePlain(
     break;
   }
   if (h >= lines.length)
-    throw new ParseFailure([fileError(file, null, null, 'no_header', 'no header row: the file has only comment or blank lines')]);
+    throw new ParseFailure([
+      fileError(file, null, null, 'no_header', 'no header row: the file has only comment or blank lines'),
+    ]);
 
   const md = collectMetadata(file, pairs, false);
   if (md.errors.length > 0) throw new ParseFailure(md.errors);
@@ -119,7 +121,9 @@ export function parsePlain(
       }) as unknown as { info: { lines: number }; record: string[] }[];
     } catch (e) {
       const lineNo = typeof (e as { lines?: unknown }).lines === 'number' ? (e as { lines: number }).lines + h : null;
-      throw new ParseFailure([fileError(file, lineNo, null, 'field_count', `the delimited text cannot be read: ${(e as Error).message}`)]);
+      throw new ParseFailure([
+        fileError(file, lineNo, null, 'field_count', `the delimited text cannot be read: ${(e as Error).message}`),
+      ]);
     }
     if (records.length === 0) throw new ParseFailure([fileError(file, h + 1, null, 'no_header', 'no header row')]);
     headers = records[0].record;

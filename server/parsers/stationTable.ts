@@ -10,12 +10,36 @@ import { decodeText, fileError, ParseFailure, splitLines } from './text';
 
 type Field = 'station' | 'cast' | 'latitude' | 'longitude' | 'time' | 'date' | 'clock' | 'bottomDepth';
 const FIELD_NAMES: Record<string, Field> = {
-  station: 'station', stn: 'station', stnnbr: 'station', 'station id': 'station', site: 'station', 'station name': 'station',
-  cast: 'cast', castno: 'cast', 'cast number': 'cast', 'cast no': 'cast',
-  latitude: 'latitude', lat: 'latitude', longitude: 'longitude', lon: 'longitude', long: 'longitude', lng: 'longitude',
-  time: 'time', datetime: 'time', 'date time': 'time', 'time utc': 'time', 'start time': 'time',
-  date: 'date', 'time of day': 'clock', hhmm: 'clock', 'utc time': 'clock',
-  'bottom depth': 'bottomDepth', bottom: 'bottomDepth', 'water depth': 'bottomDepth', depth: 'bottomDepth', 'bottom depth m': 'bottomDepth',
+  station: 'station',
+  stn: 'station',
+  stnnbr: 'station',
+  'station id': 'station',
+  site: 'station',
+  'station name': 'station',
+  cast: 'cast',
+  castno: 'cast',
+  'cast number': 'cast',
+  'cast no': 'cast',
+  latitude: 'latitude',
+  lat: 'latitude',
+  longitude: 'longitude',
+  lon: 'longitude',
+  long: 'longitude',
+  lng: 'longitude',
+  time: 'time',
+  datetime: 'time',
+  'date time': 'time',
+  'time utc': 'time',
+  'start time': 'time',
+  date: 'date',
+  'time of day': 'clock',
+  hhmm: 'clock',
+  'utc time': 'clock',
+  'bottom depth': 'bottomDepth',
+  bottom: 'bottomDepth',
+  'water depth': 'bottomDepth',
+  depth: 'bottomDepth',
+  'bottom depth m': 'bottomDepth',
 };
 
 function fieldOf(header: string): Field | null {
@@ -25,7 +49,11 @@ function fieldOf(header: string): Field | null {
 /** A header row of a station table: station, latitude and longitude, and nothing like a temperature. */
 export function looksLikeStationTable(headers: string[]): boolean {
   const f = new Set(headers.map(fieldOf));
-  const hasData = headers.some((h) => /^(temp|temperature|t|ctdtmp|sal|salinity|pressure|pres|ctdprs|cond|conductivity)$/.test(normaliseName(splitHeader(h).name)));
+  const hasData = headers.some((h) =>
+    /^(temp|temperature|t|ctdtmp|sal|salinity|pressure|pres|ctdprs|cond|conductivity)$/.test(
+      normaliseName(splitHeader(h).name),
+    ),
+  );
   return f.has('station') && f.has('latitude') && f.has('longitude') && !hasData;
 }
 
@@ -34,7 +62,8 @@ export function parseStationTable(file: string, bytes: Uint8Array): { stations: 
   const lines = splitLines(file, text);
   let h = 0;
   while (h < lines.length && (lines[h].trim() === '' || lines[h].trimStart().startsWith('#'))) h++;
-  if (h >= lines.length) throw new ParseFailure([fileError(file, null, null, 'no_header', 'no header row in the station table')]);
+  if (h >= lines.length)
+    throw new ParseFailure([fileError(file, null, null, 'no_header', 'no header row in the station table')]);
   const delim = detectDelimiter(lines[h]);
   let records: { info: { lines: number }; record: string[] }[];
   try {
@@ -49,7 +78,9 @@ export function parseStationTable(file: string, bytes: Uint8Array): { stations: 
       relax_quotes: true,
     }) as unknown as { info: { lines: number }; record: string[] }[];
   } catch (e) {
-    throw new ParseFailure([fileError(file, null, null, 'field_count', `the station table cannot be read: ${(e as Error).message}`)]);
+    throw new ParseFailure([
+      fileError(file, null, null, 'field_count', `the station table cannot be read: ${(e as Error).message}`),
+    ]);
   }
   const header = records[0]?.record ?? [];
   const idx = new Map<Field, number>();
@@ -70,7 +101,15 @@ export function parseStationTable(file: string, bytes: Uint8Array): { stations: 
     const rec = records[r].record;
     const line = records[r].info.lines + h;
     if (rec.length !== header.length) {
-      errors.push(fileError(file, line, null, r === records.length - 1 && rec.length < header.length ? 'truncated' : 'field_count', `line ${line} has ${rec.length} fields where the header has ${header.length}`));
+      errors.push(
+        fileError(
+          file,
+          line,
+          null,
+          r === records.length - 1 && rec.length < header.length ? 'truncated' : 'field_count',
+          `line ${line} has ${rec.length} fields where the header has ${header.length}`,
+        ),
+      );
       continue;
     }
     const get = (f: Field): string | null => {
@@ -91,18 +130,46 @@ export function parseStationTable(file: string, bytes: Uint8Array): { stations: 
       continue;
     }
     const lat = parseLatitude(get('latitude') ?? '');
-    if (!lat.ok) errors.push(fileError(file, line, col('latitude'), lat.message.includes('outside') ? 'latitude_out_of_range' : 'bad_metadata', `line ${line}, column ${col('latitude')}: ${lat.message}`));
+    if (!lat.ok)
+      errors.push(
+        fileError(
+          file,
+          line,
+          col('latitude'),
+          lat.message.includes('outside') ? 'latitude_out_of_range' : 'bad_metadata',
+          `line ${line}, column ${col('latitude')}: ${lat.message}`,
+        ),
+      );
     const lon = parseLongitude(get('longitude') ?? '');
-    if (!lon.ok) errors.push(fileError(file, line, col('longitude'), lon.message.includes('outside') ? 'longitude_out_of_range' : 'bad_metadata', `line ${line}, column ${col('longitude')}: ${lon.message}`));
+    if (!lon.ok)
+      errors.push(
+        fileError(
+          file,
+          line,
+          col('longitude'),
+          lon.message.includes('outside') ? 'longitude_out_of_range' : 'bad_metadata',
+          `line ${line}, column ${col('longitude')}: ${lon.message}`,
+        ),
+      );
     let time: string | null = null;
     const tText = (get('time') ?? '').trim();
     const dText = (get('date') ?? '').trim();
     const cText = (get('clock') ?? '').trim();
-    const tv = tText !== '' ? tText : dText !== '' ? (cText !== '' ? `${dText}T${cText.length === 5 ? cText + ':00' : cText}Z` : dText) : '';
+    const tv =
+      tText !== ''
+        ? tText
+        : dText !== ''
+          ? cText !== ''
+            ? `${dText}T${cText.length === 5 ? cText + ':00' : cText}Z`
+            : dText
+          : '';
     if (tv !== '') {
       const t = parseTime(tv);
       if (t.ok) time = t.value;
-      else errors.push(fileError(file, line, col(tText !== '' ? 'time' : 'date'), 'bad_time', `line ${line}: ${t.message}`));
+      else
+        errors.push(
+          fileError(file, line, col(tText !== '' ? 'time' : 'date'), 'bad_time', `line ${line}: ${t.message}`),
+        );
     }
     let bottomDepth: number | null = null;
     const bd = (get('bottomDepth') ?? '').trim();
@@ -114,15 +181,35 @@ export function parseStationTable(file: string, bytes: Uint8Array): { stations: 
     const cast = (get('cast') ?? '').trim() || null;
     const key = `${station}\u0000${cast ?? ''}`;
     if (seen.has(key))
-      errors.push(fileError(file, line, col('station'), 'duplicate_station', `line ${line}: station ${station}${cast ? ' cast ' + cast : ''} is listed again (first at line ${seen.get(key)})`));
+      errors.push(
+        fileError(
+          file,
+          line,
+          col('station'),
+          'duplicate_station',
+          `line ${line}: station ${station}${cast ? ' cast ' + cast : ''} is listed again (first at line ${seen.get(key)})`,
+        ),
+      );
     seen.set(key, line);
     if (lat.ok && lon.ok) {
-      const row = StationRowSchema.safeParse({ station, cast, latitude: lat.value, longitude: lon.value, time, bottomDepth, line });
+      const row = StationRowSchema.safeParse({
+        station,
+        cast,
+        latitude: lat.value,
+        longitude: lon.value,
+        time,
+        bottomDepth,
+        line,
+      });
       if (row.success) stations.push(row.data);
-      else errors.push(fileError(file, line, null, 'bad_metadata', `line ${line}: ${row.error.issues[0]?.message ?? 'invalid row'}`));
+      else
+        errors.push(
+          fileError(file, line, null, 'bad_metadata', `line ${line}: ${row.error.issues[0]?.message ?? 'invalid row'}`),
+        );
     }
   }
   if (errors.length > 0) throw new ParseFailure(errors);
-  if (stations.length === 0) throw new ParseFailure([fileError(file, h + 1, null, 'no_data', 'the station table has a header but no rows')]);
+  if (stations.length === 0)
+    throw new ParseFailure([fileError(file, h + 1, null, 'no_data', 'the station table has a header but no rows')]);
   return { stations, warnings: [] };
 }

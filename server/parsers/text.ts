@@ -88,7 +88,13 @@ export function decodeText(file: string, bytes: Uint8Array): Decoded {
     const nul = body.indexOf(0);
     if (nul >= 0)
       throw new ParseFailure([
-        fileError(file, lineOfOffset(body, nul), null, 'binary', `the file holds binary data (a NUL byte at byte ${nul + 1}); expected text`),
+        fileError(
+          file,
+          lineOfOffset(body, nul),
+          null,
+          'binary',
+          `the file holds binary data (a NUL byte at byte ${nul + 1}); expected text`,
+        ),
       ]);
     const bad = firstInvalidUtf8(body);
     if (bad >= 0)
@@ -104,8 +110,11 @@ export function decodeText(file: string, bytes: Uint8Array): Decoded {
     text = new TextDecoder('utf-8').decode(body);
   }
   if (text.includes('\u0000'))
-    throw new ParseFailure([fileError(file, null, null, 'binary', 'the file holds binary data (NUL characters); expected text')]);
-  if (text.trim().length === 0) throw new ParseFailure([fileError(file, null, null, 'empty_file', 'the file holds no text')]);
+    throw new ParseFailure([
+      fileError(file, null, null, 'binary', 'the file holds binary data (NUL characters); expected text'),
+    ]);
+  if (text.trim().length === 0)
+    throw new ParseFailure([fileError(file, null, null, 'empty_file', 'the file holds no text')]);
   return { text, encoding };
 }
 
@@ -116,7 +125,13 @@ export function splitLines(file: string, text: string, maxLineLength = MAX_LINE_
   for (let i = 0; i < lines.length; i++) {
     if (lines[i].length > maxLineLength)
       throw new ParseFailure([
-        fileError(file, i + 1, null, 'line_too_long', `line ${i + 1} is ${lines[i].length} characters long (the limit is ${maxLineLength})`),
+        fileError(
+          file,
+          i + 1,
+          null,
+          'line_too_long',
+          `line ${i + 1} is ${lines[i].length} characters long (the limit is ${maxLineLength})`,
+        ),
       ]);
   }
   return lines;
@@ -130,7 +145,8 @@ export function classifyNumber(s: string): { kind: NumKind; value: number } {
   if (Number.isFinite(v)) {
     // Number() accepts hex, binary and octal literals, which are never data in a cast file.
     const c1 = s.charCodeAt(1) | 0x20;
-    if (s.length > 1 && s.charCodeAt(0) === 48 && (c1 === 120 || c1 === 98 || c1 === 111)) return { kind: 'text', value: NaN };
+    if (s.length > 1 && s.charCodeAt(0) === 48 && (c1 === 120 || c1 === 98 || c1 === 111))
+      return { kind: 'text', value: NaN };
     return { kind: 'num', value: v };
   }
   const low = s.toLowerCase().replace(/^[+-]/, '');

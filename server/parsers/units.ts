@@ -14,7 +14,8 @@ export type UnitConversion = {
   note: string | null; // a processing note when anything was assumed or converted
   guessConductivity?: boolean; // no unit given: decide between S/m and mS/cm from the values
 };
-export type UnitResult = { ok: true; conv: UnitConversion } | { ok: false; code: 'unit_unknown' | 'unit_unconvertible'; message: string };
+export type UnitResult =
+  { ok: true; conv: UnitConversion } | { ok: false; code: 'unit_unknown' | 'unit_unconvertible'; message: string };
 
 const IDENTITY = (u: string, note: string | null = null): UnitConversion => ({
   unit: u,
@@ -38,13 +39,7 @@ function mathjsLinear(from: string, to: string): { factor: number; offset: numbe
 }
 
 function clean(text: string): string {
-  return udunits(
-    text
-      .trim()
-      .replace(/µ|μ/g, 'u')
-      .replace(/\s+/g, ' ')
-      .toLowerCase(),
-  );
+  return udunits(text.trim().replace(/µ|μ/g, 'u').replace(/\s+/g, ' ').toLowerCase());
 }
 
 /** The UDUNITS spellings netCDF files use ("S m-1", "umol kg-1", "degree_Celsius") as "S/m" etc. */
@@ -55,13 +50,36 @@ export function udunits(t: string): string {
 }
 
 function pressureUnit(t: string, col: string): UnitResult {
-  if (t === '' ) return { ok: true, conv: IDENTITY('dbar', `${col}: no unit given; dbar assumed`) };
-  const alias: Record<string, string> = { db: 'dbar', dbars: 'dbar', decibar: 'dbar', decibars: 'dbar', 'd bar': 'dbar', kpa: 'kPa', mpa: 'MPa', hpa: 'hPa', pa: 'Pa', mbar: 'mbar', bar: 'bar', bars: 'bar', psi: 'psi' };
+  if (t === '') return { ok: true, conv: IDENTITY('dbar', `${col}: no unit given; dbar assumed`) };
+  const alias: Record<string, string> = {
+    db: 'dbar',
+    dbars: 'dbar',
+    decibar: 'dbar',
+    decibars: 'dbar',
+    'd bar': 'dbar',
+    kpa: 'kPa',
+    mpa: 'MPa',
+    hpa: 'hPa',
+    pa: 'Pa',
+    mbar: 'mbar',
+    bar: 'bar',
+    bars: 'bar',
+    psi: 'psi',
+  };
   const u = alias[t] ?? t;
   if (u === 'dbar') return { ok: true, conv: IDENTITY('dbar') };
   const lin = mathjsLinear(u, 'dbar');
   if (!lin) return unconvertible(col, t, 'a pressure unit (dbar, kPa, bar)');
-  return { ok: true, conv: { unit: 'dbar', ...lin, ipts68: false, identity: false, note: `${col}: pressure converted from ${t} to dbar` } };
+  return {
+    ok: true,
+    conv: {
+      unit: 'dbar',
+      ...lin,
+      ipts68: false,
+      identity: false,
+      note: `${col}: pressure converted from ${t} to dbar`,
+    },
+  };
 }
 
 function depthUnit(t: string, col: string): UnitResult {
@@ -70,11 +88,24 @@ function depthUnit(t: string, col: string): UnitResult {
   const u = alias[t] ?? t;
   if (u === 'm') return { ok: true, conv: IDENTITY('m') };
   if (u === 'fathom' || u === 'fathoms' || u === 'fm') {
-    return { ok: true, conv: { unit: 'm', factor: 1.8288, offset: 0, ipts68: false, identity: false, note: `${col}: depth converted from fathoms to m` } };
+    return {
+      ok: true,
+      conv: {
+        unit: 'm',
+        factor: 1.8288,
+        offset: 0,
+        ipts68: false,
+        identity: false,
+        note: `${col}: depth converted from fathoms to m`,
+      },
+    };
   }
   const lin = mathjsLinear(u, 'm');
   if (!lin) return unconvertible(col, t, 'a length unit (m, ft)');
-  return { ok: true, conv: { unit: 'm', ...lin, ipts68: false, identity: false, note: `${col}: depth converted from ${t} to m` } };
+  return {
+    ok: true,
+    conv: { unit: 'm', ...lin, ipts68: false, identity: false, note: `${col}: depth converted from ${t} to m` },
+  };
 }
 
 function temperatureUnit(t: string, col: string): UnitResult {
@@ -84,13 +115,45 @@ function temperatureUnit(t: string, col: string): UnitResult {
   const scaleRe = /\b(ipts[- ]?68|t68|its[- ]?90|t90|68|90)\b/g;
   for (const m of t.matchAll(scaleRe)) {
     const s = m[1].includes('68') ? 'ipts68' : 'its90';
-    if (scale && scale !== s) return { ok: false, code: 'unit_unknown', message: `column ${col}: the unit "${t}" names both ITS-90 and IPTS-68` };
+    if (scale && scale !== s)
+      return {
+        ok: false,
+        code: 'unit_unknown',
+        message: `column ${col}: the unit "${t}" names both ITS-90 and IPTS-68`,
+      };
     scale = s;
   }
-  rest = rest.replace(scaleRe, ' ').replace(/[,;:()[\]]/g, ' ').replace(/\s+/g, ' ').trim();
+  rest = rest
+    .replace(scaleRe, ' ')
+    .replace(/[,;:()[\]]/g, ' ')
+    .replace(/\s+/g, ' ')
+    .trim();
   const alias: Record<string, string> = {
-    '': 'degC', degc: 'degC', degree_celsius: 'degC', degrees_celsius: 'degC', degree_c: 'degC', degrees_c: 'degC', deg_c: 'degC', 'deg c': 'degC', '°c': 'degC', '° c': 'degC', 'º c': 'degC', 'ºc': 'degC', c: 'degC', celsius: 'degC', 'deg celsius': 'degC', 'degrees c': 'degC', 'degrees celsius': 'degC', deg: 'degC',
-    k: 'K', kelvin: 'K', degf: 'degF', '°f': 'degF', 'deg f': 'degF', f: 'degF', fahrenheit: 'degF',
+    '': 'degC',
+    degc: 'degC',
+    degree_celsius: 'degC',
+    degrees_celsius: 'degC',
+    degree_c: 'degC',
+    degrees_c: 'degC',
+    deg_c: 'degC',
+    'deg c': 'degC',
+    '°c': 'degC',
+    '° c': 'degC',
+    'º c': 'degC',
+    ºc: 'degC',
+    c: 'degC',
+    celsius: 'degC',
+    'deg celsius': 'degC',
+    'degrees c': 'degC',
+    'degrees celsius': 'degC',
+    deg: 'degC',
+    k: 'K',
+    kelvin: 'K',
+    degf: 'degF',
+    '°f': 'degF',
+    'deg f': 'degF',
+    f: 'degF',
+    fahrenheit: 'degF',
   };
   const u = alias[rest];
   if (!u) {
@@ -104,7 +167,12 @@ function temperatureUnit(t: string, col: string): UnitResult {
   return { ok: true, conv: tempConv(lin, scale, t, col) };
 }
 
-function tempConv(lin: { factor: number; offset: number }, scale: 'its90' | 'ipts68' | null, t: string, col: string): UnitConversion {
+function tempConv(
+  lin: { factor: number; offset: number },
+  scale: 'its90' | 'ipts68' | null,
+  t: string,
+  col: string,
+): UnitConversion {
   const notes: string[] = [];
   const identityUnit = lin.factor === 1 && lin.offset === 0;
   if (!identityUnit) notes.push(`${col}: temperature converted from "${t}" to °C`);
@@ -121,8 +189,28 @@ function tempConv(lin: { factor: number; offset: number }, scale: 'its90' | 'ipt
 }
 
 function salinityUnit(t: string, col: string): UnitResult {
-  const ok = new Set(['', 'pss-78', 'pss78', 'pss 78', 'pss', 'psu', '1', 'practical', 'unitless', 'none', 'sp', 'pss-78 psu', '1e-3', '0.001', 'pss-78 (psu)']);
-  if (ok.has(t)) return { ok: true, conv: IDENTITY('PSS-78', t === '' ? `${col}: no unit given; Practical Salinity (PSS-78) assumed` : null) };
+  const ok = new Set([
+    '',
+    'pss-78',
+    'pss78',
+    'pss 78',
+    'pss',
+    'psu',
+    '1',
+    'practical',
+    'unitless',
+    'none',
+    'sp',
+    'pss-78 psu',
+    '1e-3',
+    '0.001',
+    'pss-78 (psu)',
+  ]);
+  if (ok.has(t))
+    return {
+      ok: true,
+      conv: IDENTITY('PSS-78', t === '' ? `${col}: no unit given; Practical Salinity (PSS-78) assumed` : null),
+    };
   if (t === 'g/kg' || t === 'g kg-1' || t === 'g kg^-1')
     return {
       ok: false,
@@ -139,7 +227,16 @@ function conductivityUnit(t: string, col: string): UnitResult {
   if (fixed === 'mS/cm') return { ok: true, conv: IDENTITY('mS/cm') };
   const lin = mathjsLinear(fixed, 'mS/cm');
   if (!lin || lin.offset !== 0) return unconvertible(col, t, 'a conductivity unit (mS/cm, S/m)');
-  return { ok: true, conv: { unit: 'mS/cm', ...lin, ipts68: false, identity: false, note: `${col}: conductivity converted from ${t} to mS/cm` } };
+  return {
+    ok: true,
+    conv: {
+      unit: 'mS/cm',
+      ...lin,
+      ipts68: false,
+      identity: false,
+      note: `${col}: conductivity converted from ${t} to mS/cm`,
+    },
+  };
 }
 
 /** 1 ml of O2 = 44.661 µmol: the conversion the trade uses (common practice; the molar volume of O2
@@ -162,19 +259,62 @@ function oxygenUnit(t: string, col: string, unitText: string | null): UnitResult
   const v = t.replace(/\s*\/\s*/g, '/');
   if (v === '') return { ok: true, conv: IDENTITY('µmol/kg', `${col}: no oxygen unit given; µmol/kg assumed`) };
   if (perKg.has(v)) return { ok: true, conv: IDENTITY('µmol/kg') };
-  if (v === 'mol/kg') return { ok: true, conv: { ...IDENTITY('µmol/kg'), factor: 1e6, identity: false, note: `${col}: oxygen converted from mol/kg to µmol/kg` } };
+  if (v === 'mol/kg')
+    return {
+      ok: true,
+      conv: {
+        ...IDENTITY('µmol/kg'),
+        factor: 1e6,
+        identity: false,
+        note: `${col}: oxygen converted from mol/kg to µmol/kg`,
+      },
+    };
   if (perL.has(v)) return { ok: true, conv: IDENTITY('µmol/l') };
   if (v === 'mol/m3' || v === 'mmol/l')
-    return { ok: true, conv: { ...IDENTITY('µmol/l'), factor: 1000, identity: false, note: `${col}: oxygen converted from ${t} to µmol/l` } };
+    return {
+      ok: true,
+      conv: {
+        ...IDENTITY('µmol/l'),
+        factor: 1000,
+        identity: false,
+        note: `${col}: oxygen converted from ${t} to µmol/l`,
+      },
+    };
   if (mlL.has(v))
-    return { ok: true, conv: { ...IDENTITY('µmol/l'), factor: UMOL_PER_ML_O2, identity: false, note: `${col}: oxygen converted from ml/l to µmol/l (${UMOL_PER_ML_O2} µmol/l per ml/l)` } };
+    return {
+      ok: true,
+      conv: {
+        ...IDENTITY('µmol/l'),
+        factor: UMOL_PER_ML_O2,
+        identity: false,
+        note: `${col}: oxygen converted from ml/l to µmol/l (${UMOL_PER_ML_O2} µmol/l per ml/l)`,
+      },
+    };
   if (mgL.has(v))
-    return { ok: true, conv: { ...IDENTITY('µmol/l'), factor: 1000 / O2_G_PER_MOL, identity: false, note: `${col}: oxygen converted from mg/l to µmol/l (O2 ${O2_G_PER_MOL} g/mol)` } };
-  return { ok: true, conv: IDENTITY((unitText ?? '').trim(), `${col}: oxygen unit "${t}" not recognised; values kept as given and not converted to µmol/kg`) };
+    return {
+      ok: true,
+      conv: {
+        ...IDENTITY('µmol/l'),
+        factor: 1000 / O2_G_PER_MOL,
+        identity: false,
+        note: `${col}: oxygen converted from mg/l to µmol/l (O2 ${O2_G_PER_MOL} g/mol)`,
+      },
+    };
+  return {
+    ok: true,
+    conv: IDENTITY(
+      (unitText ?? '').trim(),
+      `${col}: oxygen unit "${t}" not recognised; values kept as given and not converted to µmol/kg`,
+    ),
+  };
 }
 
 function unconvertible(col: string, t: string, wanted: string): UnitResult {
-  return { ok: false, code: 'unit_unconvertible', message: `column ${col}: unit "${t}" cannot be converted; expected ${wanted}` };
+  return {
+    ok: false,
+    code: 'unit_unconvertible',
+    message: `column ${col}: unit "${t}" cannot be converted; expected ${wanted}`,
+  };
 }
 
 /**
@@ -187,7 +327,8 @@ export function resolveUnit(role: ColumnRole | 'extra', unitText: string | null,
   // Notes and messages quote the unit as the file wrote it, not its folded form.
   const orig = (unitText ?? '').trim();
   if (orig && t !== orig) {
-    if (r.ok && r.conv.note) r.conv.note = r.conv.note.split(`"${t}"`).join(`"${orig}"`).split(` ${t} `).join(` ${orig} `);
+    if (r.ok && r.conv.note)
+      r.conv.note = r.conv.note.split(`"${t}"`).join(`"${orig}"`).split(` ${t} `).join(` ${orig} `);
     if (!r.ok) r.message = r.message.split(`"${t}"`).join(`"${orig}"`);
   }
   return r;

@@ -24,7 +24,13 @@ export const DEFAULT_ZIP_LIMITS: ZipLimits = {
 export type ZipEntryFile = { path: string; bytes: Buffer };
 
 export function isZip(bytes: Uint8Array): boolean {
-  return bytes.length >= 4 && bytes[0] === 0x50 && bytes[1] === 0x4b && (bytes[2] === 3 || bytes[2] === 5) && (bytes[3] === 4 || bytes[3] === 6);
+  return (
+    bytes.length >= 4 &&
+    bytes[0] === 0x50 &&
+    bytes[1] === 0x4b &&
+    (bytes[2] === 3 || bytes[2] === 5) &&
+    (bytes[3] === 4 || bytes[3] === 6)
+  );
 }
 
 /** Why a stored path is unsafe to use, or null if it is a plain relative path. */
@@ -87,7 +93,11 @@ function nameOf(e: Entry): string {
 }
 
 /** The files of a zip, or a ParseFailure naming the zip (and the entry) when it is unsafe. */
-export async function readZip(file: string, bytes: Buffer, limits: ZipLimits = DEFAULT_ZIP_LIMITS): Promise<{ files: ZipEntryFile[]; skipped: string[] }> {
+export async function readZip(
+  file: string,
+  bytes: Buffer,
+  limits: ZipLimits = DEFAULT_ZIP_LIMITS,
+): Promise<{ files: ZipEntryFile[]; skipped: string[] }> {
   const fail = (code: string, message: string): never => {
     throw new ParseFailure([fileError(file, null, null, code, message)]);
   };
@@ -98,7 +108,8 @@ export async function readZip(file: string, bytes: Buffer, limits: ZipLimits = D
     return fail('zip_corrupt', `the zip cannot be read: ${(e as Error).message}`);
   }
   try {
-    if (zf.entryCount > limits.maxEntries) fail('zip_too_many_entries', `the zip has ${zf.entryCount} entries (the limit is ${limits.maxEntries})`);
+    if (zf.entryCount > limits.maxEntries)
+      fail('zip_too_many_entries', `the zip has ${zf.entryCount} entries (the limit is ${limits.maxEntries})`);
     let entries: Entry[];
     try {
       entries = await listEntries(zf);
@@ -119,14 +130,22 @@ export async function readZip(file: string, bytes: Buffer, limits: ZipLimits = D
         continue;
       }
       if ((e.generalPurposeBitFlag & 1) !== 0) fail('zip_encrypted', `zip entry ${JSON.stringify(path)} is encrypted`);
-      if (/\.(zip|jar|7z|gz|tgz|bz2|xz|rar)$/i.test(base)) fail('zip_nested', `zip entry ${JSON.stringify(path)} is itself an archive; unpack it first`);
+      if (/\.(zip|jar|7z|gz|tgz|bz2|xz|rar)$/i.test(base))
+        fail('zip_nested', `zip entry ${JSON.stringify(path)} is itself an archive; unpack it first`);
       if (e.uncompressedSize > limits.maxEntryBytes)
-        fail('zip_too_large', `zip entry ${JSON.stringify(path)} would inflate to ${e.uncompressedSize} bytes (the limit is ${limits.maxEntryBytes})`);
+        fail(
+          'zip_too_large',
+          `zip entry ${JSON.stringify(path)} would inflate to ${e.uncompressedSize} bytes (the limit is ${limits.maxEntryBytes})`,
+        );
       const ratio = e.uncompressedSize / Math.max(1, e.compressedSize);
       if (e.uncompressedSize > limits.ratioFloorBytes && ratio > limits.maxRatio)
-        fail('zip_ratio', `zip entry ${JSON.stringify(path)} is compressed ${ratio.toFixed(0)}:1 (the limit is ${limits.maxRatio}:1): refused as a possible zip bomb`);
+        fail(
+          'zip_ratio',
+          `zip entry ${JSON.stringify(path)} is compressed ${ratio.toFixed(0)}:1 (the limit is ${limits.maxRatio}:1): refused as a possible zip bomb`,
+        );
       total += e.uncompressedSize;
-      if (total > limits.maxTotalBytes) fail('zip_too_large', `the zip would inflate to more than ${limits.maxTotalBytes} bytes`);
+      if (total > limits.maxTotalBytes)
+        fail('zip_too_large', `the zip would inflate to more than ${limits.maxTotalBytes} bytes`);
       wanted.push({ e, path });
     }
     if (wanted.length === 0) fail('zip_empty', 'the zip holds no files');

@@ -8,7 +8,15 @@ import { HttpError, notFound } from '../lib/errors';
 import { Upload } from '../models/index';
 import { audit } from '../lib/audit';
 import { QUEUES } from '../services/queue';
-import { castHistory, cruiseOfAnyCast, decideSalvage, removeCast, removedCasts, removeEmptyUpload, restoreCast } from '../services/castLife';
+import {
+  castHistory,
+  cruiseOfAnyCast,
+  decideSalvage,
+  removeCast,
+  removedCasts,
+  removeEmptyUpload,
+  restoreCast,
+} from '../services/castLife';
 import { uploadJson } from './uploads';
 import type { AppDeps } from '../lib/deps';
 
@@ -25,28 +33,86 @@ const ReplaceBody = z.object({ replace: z.boolean() });
 export function castLifeRoutes(deps: AppDeps): RouteSpec[] {
   const intake = ['technician', 'chief_scientist'] as const;
   return [
-    defineRoute({ method: 'post', path: '/casts/:id/remove', changesData: true, summary: 'Remove a cast from everything (audited, restorable)', rule: { kind: 'member', roles: ['chief_scientist'], cruise: anyCastCruise }, body: RemoveBody,
-      handler: async (req, _res, ctx) => removeCast(deps, String(req.params.id), req.user!.id, (ctx.body as z.infer<typeof RemoveBody>).reason ?? null) }),
-    defineRoute({ method: 'post', path: '/casts/:id/restore', changesData: true, summary: 'Restore a removed cast', rule: { kind: 'member', roles: ['chief_scientist'], cruise: anyCastCruise },
-      handler: async (req) => restoreCast(deps, String(req.params.id), req.user!.id) }),
-    defineRoute({ method: 'get', path: '/casts/:id/history', summary: "Every version of a cast's station and cast: file, who, when, live or not", rule: { kind: 'member', roles: 'any', cruise: anyCastCruise },
-      handler: async (req) => castHistory(String(req.params.id)) }),
-    defineRoute({ method: 'post', path: '/casts/:id/partly-read', changesData: true, summary: 'Accept or reject a partly read cast (lines left out)', rule: { kind: 'member', roles: [...intake], cruise: anyCastCruise }, body: SalvageBody,
-      handler: async (req, _res, ctx) => decideSalvage(deps, String(req.params.id), req.user!.id, (ctx.body as z.infer<typeof SalvageBody>).decision) }),
-    defineRoute({ method: 'get', path: '/cruises/:id/removed-casts', summary: 'Removed casts of a cruise (restorable)', rule: { kind: 'member', roles: 'any', cruise: byParam() },
-      handler: async (_req, _res, ctx) => removedCasts(ctx.cruiseId!) }),
-    defineRoute({ method: 'post', path: '/uploads/:id/replace-decision', changesData: true, summary: 'Answer an upload whose casts would replace live ones: replace them, or keep the earlier ones', rule: { kind: 'member', roles: [...intake], cruise: uploadCruise }, body: ReplaceBody,
+    defineRoute({
+      method: 'post',
+      path: '/casts/:id/remove',
+      changesData: true,
+      summary: 'Remove a cast from everything (audited, restorable)',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: anyCastCruise },
+      body: RemoveBody,
+      handler: async (req, _res, ctx) =>
+        removeCast(deps, String(req.params.id), req.user!.id, (ctx.body as z.infer<typeof RemoveBody>).reason ?? null),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/casts/:id/restore',
+      changesData: true,
+      summary: 'Restore a removed cast',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: anyCastCruise },
+      handler: async (req) => restoreCast(deps, String(req.params.id), req.user!.id),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/casts/:id/history',
+      summary: "Every version of a cast's station and cast: file, who, when, live or not",
+      rule: { kind: 'member', roles: 'any', cruise: anyCastCruise },
+      handler: async (req) => castHistory(String(req.params.id)),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/casts/:id/partly-read',
+      changesData: true,
+      summary: 'Accept or reject a partly read cast (lines left out)',
+      rule: { kind: 'member', roles: [...intake], cruise: anyCastCruise },
+      body: SalvageBody,
+      handler: async (req, _res, ctx) =>
+        decideSalvage(deps, String(req.params.id), req.user!.id, (ctx.body as z.infer<typeof SalvageBody>).decision),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/removed-casts',
+      summary: 'Removed casts of a cruise (restorable)',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      handler: async (_req, _res, ctx) => removedCasts(ctx.cruiseId!),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/replace-decision',
+      changesData: true,
+      summary: 'Answer an upload whose casts would replace live ones: replace them, or keep the earlier ones',
+      rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+      body: ReplaceBody,
       handler: async (req, res, ctx) => {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
-        if (u.status !== 'awaiting_decision' || !u.conflicts) throw new HttpError(409, 'no_decision_needed', 'This upload is not waiting for a decision.');
+        if (u.status !== 'awaiting_decision' || !u.conflicts)
+          throw new HttpError(409, 'no_decision_needed', 'This upload is not waiting for a decision.');
         const { replace } = ctx.body as z.infer<typeof ReplaceBody>;
-        await u.update({ status: 'queued', progress: 0, attempts: u.attempts + 1, conflicts: { ...u.conflicts, decision: replace ? 'replace' : 'keep' } });
-        await audit({ cruiseId: u.cruiseId, userId: req.user!.id, action: replace ? 'replace_decision' : 'keep_decision', entity: 'upload', entityId: u.id, after: { casts: u.conflicts.items.length } });
+        await u.update({
+          status: 'queued',
+          progress: 0,
+          attempts: u.attempts + 1,
+          conflicts: { ...u.conflicts, decision: replace ? 'replace' : 'keep' },
+        });
+        await audit({
+          cruiseId: u.cruiseId,
+          userId: req.user!.id,
+          action: replace ? 'replace_decision' : 'keep_decision',
+          entity: 'upload',
+          entityId: u.id,
+          after: { casts: u.conflicts.items.length },
+        });
         await deps.queue.send(QUEUES.ingest, { uploadId: u.id }, { singletonKey: `ingest:${u.id}:${u.attempts}` });
         res.status(202).json(uploadJson(u));
-      } }),
-    defineRoute({ method: 'delete', path: '/uploads/:id', changesData: true, summary: 'Remove an upload that produced no cast (failed, or waiting for a decision)', rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
-      handler: async (req) => removeEmptyUpload(deps, String(req.params.id), req.user!.id) }),
+      },
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/uploads/:id',
+      changesData: true,
+      summary: 'Remove an upload that produced no cast (failed, or waiting for a decision)',
+      rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+      handler: async (req) => removeEmptyUpload(deps, String(req.params.id), req.user!.id),
+    }),
   ];
 }

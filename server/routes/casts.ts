@@ -14,8 +14,20 @@ export const castCruise = async (req: Request) => {
 };
 const toJsonArray = (a: ArrayLike<number>) => Array.from(a, (v) => (Number.isFinite(v) ? v : null));
 
-export const castSummary = (c: Cast) => ({ id: c.id, station: c.station, cast: c.cast, latitude: c.latitude, longitude: c.longitude, time: c.time,
-  bottomDepth: c.bottomDepth, levels: c.levels, inversions: c.inversionCount, uploadId: c.uploadId, sourceFile: c.sourceFile, partlyRead: c.partlyRead ?? null });
+export const castSummary = (c: Cast) => ({
+  id: c.id,
+  station: c.station,
+  cast: c.cast,
+  latitude: c.latitude,
+  longitude: c.longitude,
+  time: c.time,
+  bottomDepth: c.bottomDepth,
+  levels: c.levels,
+  inversions: c.inversionCount,
+  uploadId: c.uploadId,
+  sourceFile: c.sourceFile,
+  partlyRead: c.partlyRead ?? null,
+});
 
 const FlagEdit = z.object({
   variable: z.enum(['temperature', 'salinity', 'conductivity', 'oxygen', 'all']),
@@ -27,9 +39,28 @@ const FlagEdit = z.object({
 
 export function castRoutes(deps: AppDeps): RouteSpec[] {
   return [
-    defineRoute({ method: 'get', path: '/cruises/:id/casts', summary: 'Casts of a cruise, in track order', rule: { kind: 'member', roles: 'any', cruise: byParam() },
-      handler: async (_req, _res, ctx) => (await Cast.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['time', 'ASC NULLS LAST'], ['station', 'ASC'], ['cast', 'ASC']] })).map(castSummary) }),
-    defineRoute({ method: 'get', path: '/casts/:id', summary: 'One cast: metadata, columns, inversions, fitness and notes', rule: { kind: 'member', roles: 'any', cruise: castCruise },
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/casts',
+      summary: 'Casts of a cruise, in track order',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      handler: async (_req, _res, ctx) =>
+        (
+          await Cast.findAll({
+            where: { cruiseId: ctx.cruiseId! },
+            order: [
+              ['time', 'ASC NULLS LAST'],
+              ['station', 'ASC'],
+              ['cast', 'ASC'],
+            ],
+          })
+        ).map(castSummary),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/casts/:id',
+      summary: 'One cast: metadata, columns, inversions, fitness and notes',
+      rule: { kind: 'member', roles: 'any', cruise: castCruise },
       handler: async (req) => {
         const c = await Cast.findByPk(String(req.params.id));
         if (!c) throw notFound();
@@ -42,10 +73,31 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
         }
         const flags: Record<string, number[]> = {};
         for (const [name, v] of Object.entries(cols.flags)) flags[name.replace(/^flag:/, '')] = Array.from(v);
-        const units = Object.fromEntries(Object.entries(cols.units).filter(([k]) => !k.startsWith('x:') && !k.startsWith('flag:')));
-        return { ...castSummary(c), metadata: c.metadata, notes: c.notes, fitness: c.fitness, inversions: c.inversions, columns, units, extras, flags };
-      } }),
-    defineRoute({ method: 'post', path: '/casts/:id/flags', changesData: true, summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable', rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise }, body: FlagEdit,
-      handler: async (req, _res, ctx) => setFlag(deps, String(req.params.id), ctx.body as z.infer<typeof FlagEdit>, req.user!.id) }),
+        const units = Object.fromEntries(
+          Object.entries(cols.units).filter(([k]) => !k.startsWith('x:') && !k.startsWith('flag:')),
+        );
+        return {
+          ...castSummary(c),
+          metadata: c.metadata,
+          notes: c.notes,
+          fitness: c.fitness,
+          inversions: c.inversions,
+          columns,
+          units,
+          extras,
+          flags,
+        };
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/casts/:id/flags',
+      changesData: true,
+      summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable',
+      rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise },
+      body: FlagEdit,
+      handler: async (req, _res, ctx) =>
+        setFlag(deps, String(req.params.id), ctx.body as z.infer<typeof FlagEdit>, req.user!.id),
+    }),
   ];
 }

@@ -7,11 +7,14 @@ import { audit } from '../lib/audit';
 import type { AppDeps } from '../lib/deps';
 
 /** A calendar date YYYY-MM-DD that exists (no 2026-02-31), in years a cruise can have (1800–2200). */
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use YYYY-MM-DD').refine((s) => {
-  const [y, m, d] = s.split('-').map(Number);
-  const t = new Date(Date.UTC(y, m - 1, d));
-  return y >= 1800 && y <= 2200 && t.getUTCFullYear() === y && t.getUTCMonth() === m - 1 && t.getUTCDate() === d;
-}, 'not a calendar date (years 1800–2200)');
+const isoDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'use YYYY-MM-DD')
+  .refine((s) => {
+    const [y, m, d] = s.split('-').map(Number);
+    const t = new Date(Date.UTC(y, m - 1, d));
+    return y >= 1800 && y <= 2200 && t.getUTCFullYear() === y && t.getUTCMonth() === m - 1 && t.getUTCDate() === d;
+  }, 'not a calendar date (years 1800–2200)');
 const optionalText = z.string().trim().max(2000).nullable().optional();
 const CruiseFields = z.object({
   name: z.string().trim().min(1, 'required').max(200),
@@ -23,10 +26,17 @@ const CruiseFields = z.object({
   region: optionalText,
   description: optionalText,
 });
-const CreateCruise = CruiseFields.refine((c) => c.endDate >= c.startDate, { message: 'the end date must not be before the start date', path: ['endDate'] });
+const CreateCruise = CruiseFields.refine((c) => c.endDate >= c.startDate, {
+  message: 'the end date must not be before the start date',
+  path: ['endDate'],
+});
 const PatchCruise = CruiseFields.partial().extend({ locked: z.boolean().optional() });
-const NewStation = z.object({ name: z.string().trim().min(1).max(100), latitude: z.number().min(-90).max(90), longitude: z.number().min(-180).max(360),
-  plannedDepth: z.number().min(0).max(12000).nullable().optional() });
+const NewStation = z.object({
+  name: z.string().trim().min(1).max(100),
+  latitude: z.number().min(-90).max(90),
+  longitude: z.number().min(-180).max(360),
+  plannedDepth: z.number().min(0).max(12000).nullable().optional(),
+});
 
 const withoutEmail = (v: unknown) => {
   if (!v || typeof v !== 'object' || Array.isArray(v)) return v;
@@ -35,40 +45,115 @@ const withoutEmail = (v: unknown) => {
 };
 
 export async function cruiseJson(c: Cruise, role: Role | null) {
-  const [stationCount, castCount] = await Promise.all([Station.count({ where: { cruiseId: c.id } }), Cast.count({ where: { cruiseId: c.id } })]);
-  return { id: c.id, name: c.name, ship: c.ship, startDate: c.startDate, endDate: c.endDate, portStart: c.portStart, portEnd: c.portEnd,
-    region: c.region, description: c.description, locked: c.locked, role, stationCount, castCount, createdAt: c.createdAt };
+  const [stationCount, castCount] = await Promise.all([
+    Station.count({ where: { cruiseId: c.id } }),
+    Cast.count({ where: { cruiseId: c.id } }),
+  ]);
+  return {
+    id: c.id,
+    name: c.name,
+    ship: c.ship,
+    startDate: c.startDate,
+    endDate: c.endDate,
+    portStart: c.portStart,
+    portEnd: c.portEnd,
+    region: c.region,
+    description: c.description,
+    locked: c.locked,
+    role,
+    stationCount,
+    castCount,
+    createdAt: c.createdAt,
+  };
 }
 
-const cruiseFields = (c: Cruise) => ({ name: c.name, ship: c.ship, startDate: c.startDate, endDate: c.endDate, portStart: c.portStart, portEnd: c.portEnd, region: c.region, description: c.description, locked: c.locked });
+const cruiseFields = (c: Cruise) => ({
+  name: c.name,
+  ship: c.ship,
+  startDate: c.startDate,
+  endDate: c.endDate,
+  portStart: c.portStart,
+  portEnd: c.portEnd,
+  region: c.region,
+  description: c.description,
+  locked: c.locked,
+});
 
 export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
   const { sequelize } = deps.db;
   return [
-    defineRoute({ method: 'post', path: '/cruises', summary: 'Create a cruise; the creator becomes its chief scientist', rule: { kind: 'signed_in' }, body: CreateCruise,
+    defineRoute({
+      method: 'post',
+      path: '/cruises',
+      summary: 'Create a cruise; the creator becomes its chief scientist',
+      rule: { kind: 'signed_in' },
+      body: CreateCruise,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof CreateCruise>;
         const cruise = await sequelize.transaction(async (transaction) => {
-          const c = await Cruise.create({ name: b.name, ship: b.ship, startDate: b.startDate, endDate: b.endDate, portStart: b.portStart ?? null,
-            portEnd: b.portEnd ?? null, region: b.region ?? null, description: b.description ?? null, createdBy: req.user!.id }, { transaction });
+          const c = await Cruise.create(
+            {
+              name: b.name,
+              ship: b.ship,
+              startDate: b.startDate,
+              endDate: b.endDate,
+              portStart: b.portStart ?? null,
+              portEnd: b.portEnd ?? null,
+              region: b.region ?? null,
+              description: b.description ?? null,
+              createdBy: req.user!.id,
+            },
+            { transaction },
+          );
           await Membership.create({ userId: req.user!.id, cruiseId: c.id, role: 'chief_scientist' }, { transaction });
-          await audit({ cruiseId: c.id, userId: req.user!.id, action: 'create', entity: 'cruise', entityId: c.id, after: cruiseFields(c) }, transaction);
+          await audit(
+            {
+              cruiseId: c.id,
+              userId: req.user!.id,
+              action: 'create',
+              entity: 'cruise',
+              entityId: c.id,
+              after: cruiseFields(c),
+            },
+            transaction,
+          );
           return c;
         });
         res.status(201).json(await cruiseJson(cruise, 'chief_scientist'));
-      } }),
-    defineRoute({ method: 'get', path: '/cruises', summary: 'The cruises you belong to, with your role', rule: { kind: 'signed_in' },
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises',
+      summary: 'The cruises you belong to, with your role',
+      rule: { kind: 'signed_in' },
       handler: async (req) => {
-        const ms = await Membership.findAll({ where: { userId: req.user!.id }, include: [Cruise], order: [[Cruise, 'startDate', 'DESC']] });
+        const ms = await Membership.findAll({
+          where: { userId: req.user!.id },
+          include: [Cruise],
+          order: [[Cruise, 'startDate', 'DESC']],
+        });
         return Promise.all(ms.map((m) => cruiseJson((m as Membership & { Cruise: Cruise }).Cruise, m.role)));
-      } }),
-    defineRoute({ method: 'get', path: '/cruises/:id', summary: 'One cruise', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id',
+      summary: 'One cruise',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => {
         const c = await Cruise.findByPk(ctx.cruiseId!);
         if (!c) throw notFound();
         return cruiseJson(c, ctx.role);
-      } }),
-    defineRoute({ method: 'patch', path: '/cruises/:id', changesData: (req) => Object.keys((req.body ?? {}) as object).some((k) => k !== 'locked'), summary: 'Edit or lock a cruise', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: PatchCruise,
+      },
+    }),
+    defineRoute({
+      method: 'patch',
+      path: '/cruises/:id',
+      changesData: (req) => Object.keys((req.body ?? {}) as object).some((k) => k !== 'locked'),
+      summary: 'Edit or lock a cruise',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      body: PatchCruise,
       handler: async (req, _res, ctx) => {
         const b = ctx.body as z.infer<typeof PatchCruise>;
         return sequelize.transaction(async (transaction) => {
@@ -76,43 +161,130 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
           if (!c) throw notFound();
           const before = cruiseFields(c);
           const next = { ...before, ...b };
-          if (next.endDate < next.startDate) throw badRequest('The end date must not be before the start date.', [{ field: 'endDate', message: 'before the start date' }]);
+          if (next.endDate < next.startDate)
+            throw badRequest('The end date must not be before the start date.', [
+              { field: 'endDate', message: 'before the start date' },
+            ]);
           await c.update(b, { transaction });
-          await audit({ cruiseId: c.id, userId: req.user!.id, action: b.locked !== undefined && b.locked !== before.locked ? (b.locked ? 'lock' : 'unlock') : 'update', entity: 'cruise', entityId: c.id, before, after: cruiseFields(c) }, transaction);
+          await audit(
+            {
+              cruiseId: c.id,
+              userId: req.user!.id,
+              action: b.locked !== undefined && b.locked !== before.locked ? (b.locked ? 'lock' : 'unlock') : 'update',
+              entity: 'cruise',
+              entityId: c.id,
+              before,
+              after: cruiseFields(c),
+            },
+            transaction,
+          );
           return cruiseJson(c, ctx.role);
         });
-      } }),
-    defineRoute({ method: 'get', path: '/cruises/:id/stations', summary: 'Planned stations, with whether each has a cast', rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/stations',
+      summary: 'Planned stations, with whether each has a cast',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => {
         const [stations, casts] = await Promise.all([
           Station.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['order', 'ASC']] }),
           Cast.findAll({ where: { cruiseId: ctx.cruiseId! }, attributes: ['station'], group: ['station'] }),
         ]);
         const occupied = new Set(casts.map((c) => c.station));
-        return stations.map((s) => ({ id: s.id, name: s.name, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedDepth, order: s.order, occupied: occupied.has(s.name) }));
-      } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/stations', changesData: true, summary: 'Add a planned station', rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() }, body: NewStation,
+        return stations.map((s) => ({
+          id: s.id,
+          name: s.name,
+          latitude: s.latitude,
+          longitude: s.longitude,
+          plannedDepth: s.plannedDepth,
+          order: s.order,
+          occupied: occupied.has(s.name),
+        }));
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/cruises/:id/stations',
+      changesData: true,
+      summary: 'Add a planned station',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      body: NewStation,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewStation>;
         const s = await sequelize.transaction(async (transaction) => {
-          if (await Station.findOne({ where: { cruiseId: ctx.cruiseId!, name: b.name }, transaction })) throw conflict(`Station ${b.name} is already planned.`);
-          const max = (await Station.max('order', { where: { cruiseId: ctx.cruiseId! }, transaction })) as number | null;
+          if (await Station.findOne({ where: { cruiseId: ctx.cruiseId!, name: b.name }, transaction }))
+            throw conflict(`Station ${b.name} is already planned.`);
+          const max = (await Station.max('order', { where: { cruiseId: ctx.cruiseId! }, transaction })) as
+            number | null;
           const lon = b.longitude > 180 ? b.longitude - 360 : b.longitude;
-          const st = await Station.create({ cruiseId: ctx.cruiseId!, name: b.name, latitude: b.latitude, longitude: lon, plannedDepth: b.plannedDepth ?? null, order: (max ?? 0) + 1 }, { transaction });
-          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'station', entityId: st.id, after: b }, transaction);
+          const st = await Station.create(
+            {
+              cruiseId: ctx.cruiseId!,
+              name: b.name,
+              latitude: b.latitude,
+              longitude: lon,
+              plannedDepth: b.plannedDepth ?? null,
+              order: (max ?? 0) + 1,
+            },
+            { transaction },
+          );
+          await audit(
+            {
+              cruiseId: ctx.cruiseId!,
+              userId: req.user!.id,
+              action: 'create',
+              entity: 'station',
+              entityId: st.id,
+              after: b,
+            },
+            transaction,
+          );
           return st;
         });
-        res.status(201).json({ id: s.id, name: s.name, latitude: s.latitude, longitude: s.longitude, plannedDepth: s.plannedDepth, order: s.order, occupied: false });
-      } }),
-    defineRoute({ method: 'get', path: '/cruises/:id/audit', summary: 'The audit trail of a cruise', rule: { kind: 'member', roles: ['chief_scientist', 'technician', 'analyst', 'pi'], cruise: byParam() },
+        res
+          .status(201)
+          .json({
+            id: s.id,
+            name: s.name,
+            latitude: s.latitude,
+            longitude: s.longitude,
+            plannedDepth: s.plannedDepth,
+            order: s.order,
+            occupied: false,
+          });
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/audit',
+      summary: 'The audit trail of a cruise',
+      rule: { kind: 'member', roles: ['chief_scientist', 'technician', 'analyst', 'pi'], cruise: byParam() },
       handler: async (_req, _res, ctx) => {
-        const rows = await AuditEntry.findAll({ where: { cruiseId: ctx.cruiseId! }, include: [{ model: User, attributes: ['id', 'name'] }], order: [['at', 'DESC']], limit: 500 });
+        const rows = await AuditEntry.findAll({
+          where: { cruiseId: ctx.cruiseId! },
+          include: [{ model: User, attributes: ['id', 'name'] }],
+          order: [['at', 'DESC']],
+          limit: 500,
+        });
         // Invitations (and their addresses) are for chief scientists only: others see that one was sent.
-        const hide = (r: AuditEntry, v: unknown) => (ctx.role !== 'chief_scientist' && r.entity === 'invitation' ? withoutEmail(v) : v);
+        const hide = (r: AuditEntry, v: unknown) =>
+          ctx.role !== 'chief_scientist' && r.entity === 'invitation' ? withoutEmail(v) : v;
         return rows.map((r) => {
           const u = (r as AuditEntry & { User?: User | null }).User;
-          return { id: String(r.id), at: r.at, actor: u ? { id: u.id, name: u.name } : null, action: r.action, entity: r.entity, entityId: r.entityId, before: hide(r, r.before), after: hide(r, r.after) };
+          return {
+            id: String(r.id),
+            at: r.at,
+            actor: u ? { id: u.id, name: u.name } : null,
+            action: r.action,
+            entity: r.entity,
+            entityId: r.entityId,
+            before: hide(r, r.before),
+            after: hide(r, r.after),
+          };
         });
-      } }),
+      },
+    }),
   ];
 }

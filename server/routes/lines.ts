@@ -17,8 +17,14 @@ const lineCruise = async (req: Request) => {
 };
 const stationName = z.string().trim().min(1).max(100);
 const uuid = z.string().regex(/^[0-9a-f-]{36}$/i, 'a cast id');
-const Choice = z.union([uuid, z.object({ shallow: uuid, deep: uuid, joinPressure: z.number().finite().positive().max(11000) })]);
-const Polyline = z.array(z.tuple([z.number().min(-540).max(540), z.number().min(-90).max(90)])).min(2).max(200);
+const Choice = z.union([
+  uuid,
+  z.object({ shallow: uuid, deep: uuid, joinPressure: z.number().finite().positive().max(11000) }),
+]);
+const Polyline = z
+  .array(z.tuple([z.number().min(-540).max(540), z.number().min(-90).max(90)]))
+  .min(2)
+  .max(200);
 const LineBase = z.object({
   name: z.string().trim().min(1).max(100),
   stations: z.array(stationName).min(1).max(2000),
@@ -28,55 +34,127 @@ const LineBase = z.object({
   include: z.array(stationName).max(2000),
   exclude: z.array(stationName).max(2000),
 });
-const NewLine = LineBase.pick({ name: true }).extend(LineBase.pick({ stations: true, casts: true, polyline: true, corridorKm: true }).partial().shape).strict();
+const NewLine = LineBase.pick({ name: true })
+  .extend(LineBase.pick({ stations: true, casts: true, polyline: true, corridorKm: true }).partial().shape)
+  .strict();
 const PatchLine = LineBase.partial().strict();
 
 export function lineRoutes(deps: AppDeps): RouteSpec[] {
   const editors = ['chief_scientist', 'analyst'] as const;
-  const one = async (row: Line) => lineJson(await resolveLine(row.cruiseId, row, await loadCruiseCasts(row.cruiseId, [])));
+  const one = async (row: Line) =>
+    lineJson(await resolveLine(row.cruiseId, row, await loadCruiseCasts(row.cruiseId, [])));
   return [
-    defineRoute({ method: 'get', path: '/cruises/:id/lines', summary: "The cruise's lines (the default line first), each station with its chosen cast", rule: { kind: 'member', roles: 'any', cruise: byParam() },
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/lines',
+      summary: "The cruise's lines (the default line first), each station with its chosen cast",
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (_req, _res, ctx) => {
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`lines:${ctx.cruiseId}:${version}`, () => listLines(ctx.cruiseId!));
-      } }),
-    defineRoute({ method: 'post', path: '/cruises/:id/lines', changesData: true, summary: 'Make a line from a station list or a drawn polyline', rule: { kind: 'member', roles: [...editors], cruise: byParam() }, body: NewLine,
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/cruises/:id/lines',
+      changesData: true,
+      summary: 'Make a line from a station list or a drawn polyline',
+      rule: { kind: 'member', roles: [...editors], cruise: byParam() },
+      body: NewLine,
       handler: async (req, res, ctx) => {
         const b = ctx.body as z.infer<typeof NewLine>;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
           const r = await createLine(ctx.cruiseId!, req.user!.id, b, transaction);
-          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'line', entityId: r.id, after: b }, transaction);
+          await audit(
+            {
+              cruiseId: ctx.cruiseId!,
+              userId: req.user!.id,
+              action: 'create',
+              entity: 'line',
+              entityId: r.id,
+              after: b,
+            },
+            transaction,
+          );
           return r;
         });
         invalidateDataVersion(ctx.cruiseId!);
         res.status(201).json(await one(row));
-      } }),
-    defineRoute({ method: 'get', path: '/lines/:id', summary: 'One line with its stations, casts, off-line and excluded stations', rule: { kind: 'member', roles: 'any', cruise: lineCruise },
-      handler: async (req) => one((await Line.findByPk(String(req.params.id)))!) }),
-    defineRoute({ method: 'patch', path: '/lines/:id', changesData: true, summary: 'Rename, reorder, include or exclude stations, choose casts or composites, redraw', rule: { kind: 'member', roles: [...editors], cruise: lineCruise }, body: PatchLine,
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/lines/:id',
+      summary: 'One line with its stations, casts, off-line and excluded stations',
+      rule: { kind: 'member', roles: 'any', cruise: lineCruise },
+      handler: async (req) => one((await Line.findByPk(String(req.params.id)))!),
+    }),
+    defineRoute({
+      method: 'patch',
+      path: '/lines/:id',
+      changesData: true,
+      summary: 'Rename, reorder, include or exclude stations, choose casts or composites, redraw',
+      rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
+      body: PatchLine,
       handler: async (req, _res, ctx) => {
         const b = ctx.body as z.infer<typeof PatchLine>;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
           const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
           if (!r) throw notFound('No such line.');
-          const before = { name: r.name, stations: r.stations, casts: r.casts, include: r.include, exclude: r.exclude, polyline: r.polyline, corridorKm: r.corridorKm };
+          const before = {
+            name: r.name,
+            stations: r.stations,
+            casts: r.casts,
+            include: r.include,
+            exclude: r.exclude,
+            polyline: r.polyline,
+            corridorKm: r.corridorKm,
+          };
           await updateLine(r, b, transaction);
-          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'update', entity: 'line', entityId: r.id, before, after: b }, transaction);
+          await audit(
+            {
+              cruiseId: ctx.cruiseId!,
+              userId: req.user!.id,
+              action: 'update',
+              entity: 'line',
+              entityId: r.id,
+              before,
+              after: b,
+            },
+            transaction,
+          );
           return r;
         });
         invalidateDataVersion(ctx.cruiseId!);
         return one(row);
-      } }),
-    defineRoute({ method: 'delete', path: '/lines/:id', changesData: true, summary: 'Delete a line (not the default line)', rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
+      },
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/lines/:id',
+      changesData: true,
+      summary: 'Delete a line (not the default line)',
+      rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
       handler: async (req, res, ctx) => {
         await deps.db.sequelize.transaction(async (transaction) => {
           const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
           if (!r) throw notFound('No such line.');
           await deleteLine(r, transaction);
-          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'delete', entity: 'line', entityId: r.id, before: { name: r.name, stations: r.stations, casts: r.casts } }, transaction);
+          await audit(
+            {
+              cruiseId: ctx.cruiseId!,
+              userId: req.user!.id,
+              action: 'delete',
+              entity: 'line',
+              entityId: r.id,
+              before: { name: r.name, stations: r.stations, casts: r.casts },
+            },
+            transaction,
+          );
         });
         invalidateDataVersion(ctx.cruiseId!);
         res.status(204).end();
-      } }),
+      },
+    }),
   ];
 }

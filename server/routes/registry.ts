@@ -21,11 +21,26 @@ type RouteFactory = (deps: AppDeps) => RouteSpec[];
 
 /** The route modules after the foundation's; add a new area's factory here. */
 export const extraRouteFactories: RouteFactory[] = [
-  uploadRoutes, castRoutes, sectionRoutes, analysisRoutes, deliveryRoutes, settingsRoutes, lineRoutes, qcRoutes, castLifeRoutes, comparisonRoutes,
+  uploadRoutes,
+  castRoutes,
+  sectionRoutes,
+  analysisRoutes,
+  deliveryRoutes,
+  settingsRoutes,
+  lineRoutes,
+  qcRoutes,
+  castLifeRoutes,
+  comparisonRoutes,
 ];
 
 /** Every route module, the foundation's first. */
-export const routeFactories: RouteFactory[] = [authRoutes, cruiseRoutes, teamRoutes, adminRoutes, ...extraRouteFactories];
+export const routeFactories: RouteFactory[] = [
+  authRoutes,
+  cruiseRoutes,
+  teamRoutes,
+  adminRoutes,
+  ...extraRouteFactories,
+];
 
 /** Every route of the API. */
 export function allRoutes(deps: AppDeps): RouteSpec[] {

@@ -6,7 +6,9 @@ import { clientSettingsSchema, type ClientSettings } from '../../shared/api/sett
 export function settingsRoutes(deps: AppDeps): RouteSpec[] {
   return [
     defineRoute({
-      method: 'get', path: '/settings', summary: 'Configured values the screens use (inversion threshold, upload limit)',
+      method: 'get',
+      path: '/settings',
+      summary: 'Configured values the screens use (inversion threshold, upload limit)',
       rule: { kind: 'signed_in' },
       response: clientSettingsSchema,
       handler: (): ClientSettings => ({

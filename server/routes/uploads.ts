@@ -12,20 +12,47 @@ import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 import type { Request } from 'express';
 
-export const uploadJson = (u: Upload) => ({ id: u.id, filename: u.filename, status: u.status, progress: u.progress, size: Number(u.size), sha256: u.sha256,
-  errors: u.errors, warnings: u.warnings, castIds: u.castIds, unmappedHeaders: u.unmappedHeaders, conflicts: u.conflicts ?? null, createdAt: u.createdAt, updatedAt: u.updatedAt });
+export const uploadJson = (u: Upload) => ({
+  id: u.id,
+  filename: u.filename,
+  status: u.status,
+  progress: u.progress,
+  size: Number(u.size),
+  sha256: u.sha256,
+  errors: u.errors,
+  warnings: u.warnings,
+  castIds: u.castIds,
+  unmappedHeaders: u.unmappedHeaders,
+  conflicts: u.conflicts ?? null,
+  createdAt: u.createdAt,
+  updatedAt: u.updatedAt,
+});
 
 const uploadCruise = async (req: Request) => {
   const id = String(req.params.id);
   if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
   return (await Upload.findByPk(id, { attributes: ['cruiseId'] }))?.cruiseId ?? null;
 };
-const safeName = (name: string) => name.replace(/\\/g, '/').split('/').pop()!.replace(/[^\w.\- ()+]/g, '_').slice(0, 200) || 'unnamed';
-const Mapping = z.object({ mapping: z.record(z.string().min(1).max(200), z.enum(['pressure', 'depth', 'temperature', 'salinity', 'conductivity', 'oxygen', 'extra', 'ignore'])) });
+const safeName = (name: string) =>
+  name
+    .replace(/\\/g, '/')
+    .split('/')
+    .pop()!
+    .replace(/[^\w.\- ()+]/g, '_')
+    .slice(0, 200) || 'unnamed';
+const Mapping = z.object({
+  mapping: z.record(
+    z.string().min(1).max(200),
+    z.enum(['pressure', 'depth', 'temperature', 'salinity', 'conductivity', 'oxygen', 'extra', 'ignore']),
+  ),
+});
 
 export function uploadRoutes(deps: AppDeps): RouteSpec[] {
   const { storage, queue, settings } = deps;
-  const upload = multer({ storage: hashingDiskStorage(), limits: { fileSize: settings.UPLOAD_MAX_BYTES, files: 200, fields: 20 } });
+  const upload = multer({
+    storage: hashingDiskStorage(),
+    limits: { fileSize: settings.UPLOAD_MAX_BYTES, files: 200, fields: 20 },
+  });
   const intake = ['technician', 'chief_scientist'] as const;
 
   async function enqueue(u: Upload) {
@@ -33,11 +60,20 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
   }
 
   return [
-    defineRoute({ method: 'post', path: '/cruises/:id/uploads', changesData: true, summary: 'Upload cast files (multipart field `files`; a zip is allowed)', rule: { kind: 'member', roles: [...intake], cruise: byParam() },
+    defineRoute({
+      method: 'post',
+      path: '/cruises/:id/uploads',
+      changesData: true,
+      summary: 'Upload cast files (multipart field `files`; a zip is allowed)',
+      rule: { kind: 'member', roles: [...intake], cruise: byParam() },
       before: [(req, res, next) => upload.array('files')(req, res, next)],
-      responses: { 202: 'accepted; each file is queued', 413: 'a file is over the size limit', 503: 'object storage unavailable' },
+      responses: {
+        202: 'accepted; each file is queued',
+        413: 'a file is over the size limit',
+        503: 'object storage unavailable',
+      },
       handler: async (req, res, ctx) => {
-        const files = ((req.files as unknown as (Express.Multer.File & StagedFile)[]) ?? []);
+        const files = (req.files as unknown as (Express.Multer.File & StagedFile)[]) ?? [];
         try {
           if (!files.length) throw badRequest('Send one or more files in the multipart field "files".', [], 'no_files');
           const cruise = await Cruise.findByPk(ctx.cruiseId!);
@@ -46,18 +82,47 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
           for (const f of files) {
             const filename = safeName(f.originalname);
             const existing = await Upload.findOne({ where: { cruiseId: ctx.cruiseId!, sha256: f.sha256 } });
-            if (existing && existing.status !== 'failed') { out.push({ ...uploadJson(existing), duplicate: true }); continue; }
+            if (existing && existing.status !== 'failed') {
+              out.push({ ...uploadJson(existing), duplicate: true });
+              continue;
+            }
             const key = `cruises/${ctx.cruiseId}/raw/${f.sha256}`;
             try {
-              if (!(await storage.exists(key))) await storage.put(key, createReadStream(f.path), 'application/octet-stream', f.size);
+              if (!(await storage.exists(key)))
+                await storage.put(key, createReadStream(f.path), 'application/octet-stream', f.size);
             } catch (err) {
               logger.warn({ err }, 'object storage write failed');
-              throw new HttpError(503, 'storage_unavailable', `Object storage is not reachable; ${filename} was not stored. Nothing was recorded; try again when storage is back.`);
+              throw new HttpError(
+                503,
+                'storage_unavailable',
+                `Object storage is not reachable; ${filename} was not stored. Nothing was recorded; try again when storage is back.`,
+              );
             }
             const u = existing
-              ? await existing.update({ filename, status: 'queued', progress: 0, errors: [], warnings: [], attempts: existing.attempts + 1 })
-              : await Upload.create({ cruiseId: ctx.cruiseId!, filename, storageKey: key, sha256: f.sha256, size: f.size, createdBy: req.user!.id });
-            await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'upload', entity: 'upload', entityId: u.id, after: { filename, sha256: f.sha256, size: f.size } });
+              ? await existing.update({
+                  filename,
+                  status: 'queued',
+                  progress: 0,
+                  errors: [],
+                  warnings: [],
+                  attempts: existing.attempts + 1,
+                })
+              : await Upload.create({
+                  cruiseId: ctx.cruiseId!,
+                  filename,
+                  storageKey: key,
+                  sha256: f.sha256,
+                  size: f.size,
+                  createdBy: req.user!.id,
+                });
+            await audit({
+              cruiseId: ctx.cruiseId!,
+              userId: req.user!.id,
+              action: 'upload',
+              entity: 'upload',
+              entityId: u.id,
+              after: { filename, sha256: f.sha256, size: f.size },
+            });
             await enqueue(u);
             out.push(uploadJson(u));
           }
@@ -65,16 +130,35 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         } finally {
           await Promise.all(files.map((f) => unlink(f.path).catch(() => undefined)));
         }
-      } }),
-    defineRoute({ method: 'get', path: '/cruises/:id/uploads', summary: 'Uploads of a cruise, newest first', rule: { kind: 'member', roles: 'any', cruise: byParam() },
-      handler: async (_req, _res, ctx) => (await Upload.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['createdAt', 'DESC']], limit: 500 })).map(uploadJson) }),
-    defineRoute({ method: 'get', path: '/uploads/:id', summary: 'Status, progress and errors of one upload', rule: { kind: 'member', roles: 'any', cruise: uploadCruise },
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/uploads',
+      summary: 'Uploads of a cruise, newest first',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      handler: async (_req, _res, ctx) =>
+        (await Upload.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['createdAt', 'DESC']], limit: 500 })).map(
+          uploadJson,
+        ),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/uploads/:id',
+      summary: 'Status, progress and errors of one upload',
+      rule: { kind: 'member', roles: 'any', cruise: uploadCruise },
       handler: async (req) => {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
         return uploadJson(u);
-      } }),
-    defineRoute({ method: 'post', path: '/uploads/:id/retry', changesData: true, summary: 'Process a failed upload again (after a column mapping, say)', rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/retry',
+      changesData: true,
+      summary: 'Process a failed upload again (after a column mapping, say)',
+      rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
       handler: async (req, res) => {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
@@ -83,29 +167,72 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         await audit({ cruiseId: u.cruiseId, userId: req.user!.id, action: 'retry', entity: 'upload', entityId: u.id });
         await enqueue(u);
         res.status(202).json(uploadJson(u));
-      } }),
-    defineRoute({ method: 'post', path: '/uploads/:id/reprocess', changesData: true, summary: "Re-run processing of an upload's casts in place (flags kept)", rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/reprocess',
+      changesData: true,
+      summary: "Re-run processing of an upload's casts in place (flags kept)",
+      rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
       handler: async (req, res) => {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
         if (u.status !== 'ready') throw new HttpError(409, 'not_ready', 'Only a processed upload can be reprocessed.');
         await u.update({ status: 'queued', progress: 0 });
-        await audit({ cruiseId: u.cruiseId, userId: req.user!.id, action: 'reprocess_requested', entity: 'upload', entityId: u.id });
+        await audit({
+          cruiseId: u.cruiseId,
+          userId: req.user!.id,
+          action: 'reprocess_requested',
+          entity: 'upload',
+          entityId: u.id,
+        });
         await queue.send(QUEUES.ingest, { uploadId: u.id, reprocess: true });
         res.status(202).json(uploadJson(u));
-      } }),
-    defineRoute({ method: 'get', path: '/cruises/:id/column-mapping', summary: "The cruise's remembered header → column role mapping", rule: { kind: 'member', roles: 'any', cruise: byParam() },
-      handler: async (_req, _res, ctx) => Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: ctx.cruiseId! } })).map((m) => [m.header, m.role])) }),
-    defineRoute({ method: 'put', path: '/cruises/:id/column-mapping', changesData: true, summary: 'Remember how unrecognised headers map to column roles', rule: { kind: 'member', roles: [...intake], cruise: byParam() }, body: Mapping,
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/column-mapping',
+      summary: "The cruise's remembered header → column role mapping",
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      handler: async (_req, _res, ctx) =>
+        Object.fromEntries(
+          (await ColumnMapping.findAll({ where: { cruiseId: ctx.cruiseId! } })).map((m) => [m.header, m.role]),
+        ),
+    }),
+    defineRoute({
+      method: 'put',
+      path: '/cruises/:id/column-mapping',
+      changesData: true,
+      summary: 'Remember how unrecognised headers map to column roles',
+      rule: { kind: 'member', roles: [...intake], cruise: byParam() },
+      body: Mapping,
       handler: async (req, _res, ctx) => {
         const { mapping } = ctx.body as z.infer<typeof Mapping>;
         await deps.db.sequelize.transaction(async (transaction) => {
           for (const [header, role] of Object.entries(mapping)) {
-            await ColumnMapping.upsert({ cruiseId: ctx.cruiseId!, header, role }, { transaction, conflictFields: ['cruise_id', 'header'] as never });
+            await ColumnMapping.upsert(
+              { cruiseId: ctx.cruiseId!, header, role },
+              { transaction, conflictFields: ['cruise_id', 'header'] as never },
+            );
           }
-          await audit({ cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'column_mapping', entity: 'cruise', entityId: ctx.cruiseId!, after: mapping }, transaction);
+          await audit(
+            {
+              cruiseId: ctx.cruiseId!,
+              userId: req.user!.id,
+              action: 'column_mapping',
+              entity: 'cruise',
+              entityId: ctx.cruiseId!,
+              after: mapping,
+            },
+            transaction,
+          );
         });
-        return Object.fromEntries((await ColumnMapping.findAll({ where: { cruiseId: ctx.cruiseId! } })).map((m) => [m.header, m.role]));
-      } }),
+        return Object.fromEntries(
+          (await ColumnMapping.findAll({ where: { cruiseId: ctx.cruiseId! } })).map((m) => [m.header, m.role]),
+        );
+      },
+    }),
   ];
 }

@@ -15,7 +15,9 @@ import type { AppDeps } from '../lib/deps';
 const key = (station: string, cast: string) => `${station}\u0000${cast}`;
 
 /** Two casts of one upload with the same station and cast: the files that clash. */
-export function duplicatesWithin(casts: { file: string; station: string; cast: string }[]): { station: string; cast: string; files: string[] }[] {
+export function duplicatesWithin(
+  casts: { file: string; station: string; cast: string }[],
+): { station: string; cast: string; files: string[] }[] {
   const by = new Map<string, { station: string; cast: string; files: string[] }>();
   for (const c of casts) {
     const k = key(c.station, c.cast);
@@ -27,14 +29,24 @@ export function duplicatesWithin(casts: { file: string; station: string; cast: s
 }
 
 /** Live casts of the cruise with the station and cast of a new one, from another file. */
-export async function conflictsWithLive(cruiseId: string, sha256: string, casts: { file: string; station: string; cast: string }[], transaction?: Transaction): Promise<UploadConflict[]> {
+export async function conflictsWithLive(
+  cruiseId: string,
+  sha256: string,
+  casts: { file: string; station: string; cast: string }[],
+  transaction?: Transaction,
+): Promise<UploadConflict[]> {
   if (casts.length === 0) return [];
-  const live = await Cast.findAll({ where: { cruiseId, station: [...new Set(casts.map((c) => c.station))] }, attributes: ['id', 'station', 'cast', 'sourceFile', 'sourceSha256'], transaction });
+  const live = await Cast.findAll({
+    where: { cruiseId, station: [...new Set(casts.map((c) => c.station))] },
+    attributes: ['id', 'station', 'cast', 'sourceFile', 'sourceSha256'],
+    transaction,
+  });
   const byKey = new Map(live.map((c) => [key(c.station, c.cast), c]));
   const out: UploadConflict[] = [];
   for (const c of casts) {
     const e = byKey.get(key(c.station, c.cast));
-    if (e && !(e.sourceSha256 === sha256 && e.sourceFile === c.file)) out.push({ file: c.file, station: c.station, cast: c.cast, existingCastId: e.id, existingFile: e.sourceFile });
+    if (e && !(e.sourceSha256 === sha256 && e.sourceFile === c.file))
+      out.push({ file: c.file, station: c.station, cast: c.cast, existingCastId: e.id, existingFile: e.sourceFile });
   }
   return out;
 }
@@ -46,18 +58,33 @@ type FlagEdit = { variable: string; pFrom: number; pTo: number; flag: number };
  * flag columns where a level of the same pressure exists in both (within 1e-6 dbar); levels of the
  * earlier version inside an edit with no match in the new one are listed.
  */
-export async function carryFlags(oldCastId: string, columns: StoredColumn[], transaction: Transaction): Promise<{ edits: FlagEdit[]; carried: number; notCarried: { variable: string; pressure: number; flag: number }[] }> {
-  const entries = await AuditEntry.findAll({ where: { entity: 'cast', entityId: oldCastId, action: 'set_flag' }, order: [['at', 'ASC'], ['id', 'ASC']], transaction });
-  const edits: FlagEdit[] = entries.map((e) => e.after as FlagEdit).filter((a) => a && typeof a.pFrom === 'number' && typeof a.pTo === 'number');
+export async function carryFlags(
+  oldCastId: string,
+  columns: StoredColumn[],
+  transaction: Transaction,
+): Promise<{ edits: FlagEdit[]; carried: number; notCarried: { variable: string; pressure: number; flag: number }[] }> {
+  const entries = await AuditEntry.findAll({
+    where: { entity: 'cast', entityId: oldCastId, action: 'set_flag' },
+    order: [
+      ['at', 'ASC'],
+      ['id', 'ASC'],
+    ],
+    transaction,
+  });
+  const edits: FlagEdit[] = entries
+    .map((e) => e.after as FlagEdit)
+    .filter((a) => a && typeof a.pFrom === 'number' && typeof a.pTo === 'number');
   if (edits.length === 0) return { edits, carried: 0, notCarried: [] };
   const oldP = (await readColumns([oldCastId], ['pressure'])).get(oldCastId)!.columns.pressure ?? new Float64Array(0);
   const newP = columns.find((c) => c.name === 'pressure')!.values as Float64Array;
   const near = (sorted: Float64Array) => (p: number) => {
-    let lo = 0, hi = sorted.length - 1;
+    let lo = 0,
+      hi = sorted.length - 1;
     while (lo <= hi) {
       const mid = (lo + hi) >> 1;
       if (Math.abs(sorted[mid] - p) <= 1e-6) return true;
-      if (sorted[mid] < p) lo = mid + 1; else hi = mid - 1;
+      if (sorted[mid] < p) lo = mid + 1;
+      else hi = mid - 1;
     }
     return false;
   };
@@ -77,9 +104,13 @@ export async function carryFlags(oldCastId: string, columns: StoredColumn[], tra
       const f = col.values as Uint8Array;
       for (let i = 0; i < newP.length; i++) {
         const p = newP[i];
-        if (p >= e.pFrom && p <= e.pTo && inOld(p)) { f[i] = e.flag; carried++; }
+        if (p >= e.pFrom && p <= e.pTo && inOld(p)) {
+          f[i] = e.flag;
+          carried++;
+        }
       }
-      for (const q of oldP) if (q >= e.pFrom && q <= e.pTo && !hasLevel(q)) notCarried.push({ variable: v, pressure: q, flag: e.flag });
+      for (const q of oldP)
+        if (q >= e.pFrom && q <= e.pTo && !hasLevel(q)) notCarried.push({ variable: v, pressure: q, flag: e.flag });
     }
   }
   return { edits, carried, notCarried };
@@ -90,17 +121,34 @@ export async function carryFlags(oldCastId: string, columns: StoredColumn[], tra
  * history (superseded), the new row's flags take the old row's edits. Called inside the ingest's
  * transaction before the new row is written, so the one-live-cast index is never violated.
  */
-export async function supersede(old: Cast, newId: string, columns: StoredColumn[], userId: string | null, file: string, transaction: Transaction) {
+export async function supersede(
+  old: Cast,
+  newId: string,
+  columns: StoredColumn[],
+  userId: string | null,
+  file: string,
+  transaction: Transaction,
+) {
   const flags = await carryFlags(old.id, columns, transaction);
   await old.update({ supersededBy: newId, supersededAt: new Date() }, { transaction });
-  return { ...flags, note: `replaces the earlier version from ${old.sourceFile} (cast ${old.id}); ${flags.carried} flagged level${flags.carried === 1 ? '' : 's'} carried over` +
-    (flags.notCarried.length ? `; ${flags.notCarried.length} could not be (no level at ${[...new Set(flags.notCarried.map((n) => n.pressure))].slice(0, 10).join(', ')} dbar in ${file})` : '') };
+  return {
+    ...flags,
+    note:
+      `replaces the earlier version from ${old.sourceFile} (cast ${old.id}); ${flags.carried} flagged level${flags.carried === 1 ? '' : 's'} carried over` +
+      (flags.notCarried.length
+        ? `; ${flags.notCarried.length} could not be (no level at ${[...new Set(flags.notCarried.map((n) => n.pressure))].slice(0, 10).join(', ')} dbar in ${file})`
+        : ''),
+  };
 }
 
 /** Inversions of a new version after carried flags, as the flag route computes them. */
 export function inversionsAfterFlags(columns: StoredColumn[], threshold: number) {
-  const byName = Object.fromEntries(columns.filter((c) => c.kind !== 'flag').map((c) => [c.name, c.values as Float64Array]));
-  const flags = Object.fromEntries(columns.filter((c) => c.kind === 'flag').map((c) => [c.name, c.values as Uint8Array]));
+  const byName = Object.fromEntries(
+    columns.filter((c) => c.kind !== 'flag').map((c) => [c.name, c.values as Float64Array]),
+  );
+  const flags = Object.fromEntries(
+    columns.filter((c) => c.kind === 'flag').map((c) => [c.name, c.values as Uint8Array]),
+  );
   return inversionsOfGoodLevels(byName, flags, threshold);
 }
 
@@ -120,10 +168,25 @@ export async function cruiseOfAnyCast(castId: string): Promise<string | null> {
 export async function removeCast(deps: AppDeps, castId: string, userId: string, reason: string | null) {
   const c = await findAny(castId);
   if (c.removedAt) throw new HttpError(409, 'already_removed', 'This cast is already removed.');
-  if (c.supersededBy) throw new HttpError(409, 'superseded', 'This version was replaced by a corrected file; remove the live version instead.');
+  if (c.supersededBy)
+    throw new HttpError(
+      409,
+      'superseded',
+      'This version was replaced by a corrected file; remove the live version instead.',
+    );
   await deps.db.sequelize.transaction(async (transaction) => {
     await c.update({ removedAt: new Date(), removedBy: userId }, { transaction });
-    await audit({ cruiseId: c.cruiseId, userId, action: 'remove_cast', entity: 'cast', entityId: c.id, after: { station: c.station, cast: c.cast, file: c.sourceFile, reason } }, transaction);
+    await audit(
+      {
+        cruiseId: c.cruiseId,
+        userId,
+        action: 'remove_cast',
+        entity: 'cast',
+        entityId: c.id,
+        after: { station: c.station, cast: c.cast, file: c.sourceFile, reason },
+      },
+      transaction,
+    );
   });
   invalidateDataVersion(c.cruiseId);
   return castLifeJson(c);
@@ -133,10 +196,26 @@ export async function restoreCast(deps: AppDeps, castId: string, userId: string)
   const c = await findAny(castId);
   if (!c.removedAt) throw new HttpError(409, 'not_removed', 'This cast is not removed.');
   const live = await Cast.findOne({ where: { cruiseId: c.cruiseId, station: c.station, cast: c.cast } });
-  if (live) throw new HttpError(409, 'duplicate_cast', `Station ${c.station} cast ${c.cast} already has a live cast (from ${live.sourceFile}); remove it first to restore this one.`, [{ castId: live.id }]);
+  if (live)
+    throw new HttpError(
+      409,
+      'duplicate_cast',
+      `Station ${c.station} cast ${c.cast} already has a live cast (from ${live.sourceFile}); remove it first to restore this one.`,
+      [{ castId: live.id }],
+    );
   await deps.db.sequelize.transaction(async (transaction) => {
     await c.update({ removedAt: null, removedBy: null }, { transaction });
-    await audit({ cruiseId: c.cruiseId, userId, action: 'restore_cast', entity: 'cast', entityId: c.id, after: { station: c.station, cast: c.cast, file: c.sourceFile } }, transaction);
+    await audit(
+      {
+        cruiseId: c.cruiseId,
+        userId,
+        action: 'restore_cast',
+        entity: 'cast',
+        entityId: c.id,
+        after: { station: c.station, cast: c.cast, file: c.sourceFile },
+      },
+      transaction,
+    );
   });
   invalidateDataVersion(c.cruiseId);
   return castLifeJson(c);
@@ -145,45 +224,102 @@ export async function restoreCast(deps: AppDeps, castId: string, userId: string)
 /** The technician's decision on a partly read cast: accept it as it is, or reject it (removed, restorable). */
 export async function decideSalvage(deps: AppDeps, castId: string, userId: string, decision: 'accept' | 'reject') {
   const c = await findAny(castId);
-  if (!c.partlyRead || c.partlyRead.decision !== null) throw new HttpError(409, 'not_pending', 'This cast is not a partly read cast awaiting a decision.');
+  if (!c.partlyRead || c.partlyRead.decision !== null)
+    throw new HttpError(409, 'not_pending', 'This cast is not a partly read cast awaiting a decision.');
   if (c.removedAt || c.supersededBy) throw new HttpError(409, 'not_live', 'This cast is no longer live.');
   await deps.db.sequelize.transaction(async (transaction) => {
-    const partlyRead = { ...c.partlyRead!, decision: 'accepted' as const, decidedBy: userId, decidedAt: new Date().toISOString() };
+    const partlyRead = {
+      ...c.partlyRead!,
+      decision: 'accepted' as const,
+      decidedBy: userId,
+      decidedAt: new Date().toISOString(),
+    };
     if (decision === 'accept') await c.update({ partlyRead }, { transaction });
     else await c.update({ removedAt: new Date(), removedBy: userId }, { transaction });
-    await audit({ cruiseId: c.cruiseId, userId, action: decision === 'accept' ? 'accept_partly_read' : 'reject_partly_read', entity: 'cast', entityId: c.id,
-      after: { station: c.station, cast: c.cast, dropped: c.partlyRead!.dropped.length } }, transaction);
+    await audit(
+      {
+        cruiseId: c.cruiseId,
+        userId,
+        action: decision === 'accept' ? 'accept_partly_read' : 'reject_partly_read',
+        entity: 'cast',
+        entityId: c.id,
+        after: { station: c.station, cast: c.cast, dropped: c.partlyRead!.dropped.length },
+      },
+      transaction,
+    );
   });
   invalidateDataVersion(c.cruiseId);
   return castLifeJson(c);
 }
 
 export function castLifeJson(c: Cast) {
-  return { id: c.id, station: c.station, cast: c.cast, sourceFile: c.sourceFile, live: !c.removedAt && !c.supersededBy, removedAt: c.removedAt, removedBy: c.removedBy,
-    supersededBy: c.supersededBy, supersededAt: c.supersededAt, partlyRead: c.partlyRead, createdAt: c.createdAt };
+  return {
+    id: c.id,
+    station: c.station,
+    cast: c.cast,
+    sourceFile: c.sourceFile,
+    live: !c.removedAt && !c.supersededBy,
+    removedAt: c.removedAt,
+    removedBy: c.removedBy,
+    supersededBy: c.supersededBy,
+    supersededAt: c.supersededAt,
+    partlyRead: c.partlyRead,
+    createdAt: c.createdAt,
+  };
 }
 
 /** Every version of a cast's station and cast, oldest first: who uploaded which file, when; which is live. */
 export async function castHistory(castId: string) {
   const c = await findAny(castId);
-  const versions = await Cast.unscoped().findAll({ where: { cruiseId: c.cruiseId, station: c.station, cast: c.cast }, order: [['createdAt', 'ASC'], ['id', 'ASC']] });
-  const uploads = await Upload.findAll({ where: { id: versions.map((v) => v.uploadId).filter((x): x is string => !!x) }, attributes: ['id', 'filename', 'createdBy', 'createdAt'] });
-  const users = await User.findAll({ where: { id: [...new Set([...uploads.map((u) => u.createdBy), ...versions.map((v) => v.removedBy)].filter((x): x is string => !!x))] }, attributes: ['id', 'name', 'email'] });
+  const versions = await Cast.unscoped().findAll({
+    where: { cruiseId: c.cruiseId, station: c.station, cast: c.cast },
+    order: [
+      ['createdAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
+  });
+  const uploads = await Upload.findAll({
+    where: { id: versions.map((v) => v.uploadId).filter((x): x is string => !!x) },
+    attributes: ['id', 'filename', 'createdBy', 'createdAt'],
+  });
+  const users = await User.findAll({
+    where: {
+      id: [
+        ...new Set(
+          [...uploads.map((u) => u.createdBy), ...versions.map((v) => v.removedBy)].filter((x): x is string => !!x),
+        ),
+      ],
+    },
+    attributes: ['id', 'name', 'email'],
+  });
   const up = new Map(uploads.map((u) => [u.id, u]));
-  const who = (id: string | null | undefined) => { const u = users.find((x) => x.id === id); return u ? { id: u.id, name: u.name } : null; };
+  const who = (id: string | null | undefined) => {
+    const u = users.find((x) => x.id === id);
+    return u ? { id: u.id, name: u.name } : null;
+  };
   return {
     station: c.station,
     cast: c.cast,
     versions: versions.map((v) => {
       const u = v.uploadId ? up.get(v.uploadId) : undefined;
-      return { ...castLifeJson(v), uploadId: v.uploadId, uploadFile: u?.filename ?? null, uploadedBy: who(u?.createdBy), uploadedAt: u?.createdAt ?? v.createdAt, removedBy: who(v.removedBy) };
+      return {
+        ...castLifeJson(v),
+        uploadId: v.uploadId,
+        uploadFile: u?.filename ?? null,
+        uploadedBy: who(u?.createdBy),
+        uploadedAt: u?.createdAt ?? v.createdAt,
+        removedBy: who(v.removedBy),
+      };
     }),
   };
 }
 
 /** Removed casts of a cruise (restorable), newest removal first. */
 export async function removedCasts(cruiseId: string) {
-  const rows = await Cast.unscoped().findAll({ where: { cruiseId, supersededBy: null }, order: [['removedAt', 'DESC']] });
+  const rows = await Cast.unscoped().findAll({
+    where: { cruiseId, supersededBy: null },
+    order: [['removedAt', 'DESC']],
+  });
   return rows.filter((r) => r.removedAt).map(castLifeJson);
 }
 
@@ -192,15 +328,30 @@ export async function removeEmptyUpload(deps: AppDeps, uploadId: string, userId:
   const u = await Upload.findByPk(uploadId);
   if (!u) throw notFound('No such upload.');
   const produced = await Cast.unscoped().count({ where: { uploadId: u.id } });
-  if (produced > 0) throw new HttpError(409, 'upload_has_casts', `This upload produced ${produced} cast${produced > 1 ? 's' : ''}; a chief scientist removes casts one by one.`);
-  if (u.status === 'queued' || u.status === 'processing') throw new HttpError(409, 'upload_busy', 'This upload is still being processed.');
+  if (produced > 0)
+    throw new HttpError(
+      409,
+      'upload_has_casts',
+      `This upload produced ${produced} cast${produced > 1 ? 's' : ''}; a chief scientist removes casts one by one.`,
+    );
+  if (u.status === 'queued' || u.status === 'processing')
+    throw new HttpError(409, 'upload_busy', 'This upload is still being processed.');
   await deps.db.sequelize.transaction(async (transaction) => {
-    await audit({ cruiseId: u.cruiseId, userId, action: 'remove_upload', entity: 'upload', entityId: u.id, before: { filename: u.filename, status: u.status, sha256: u.sha256 } }, transaction);
+    await audit(
+      {
+        cruiseId: u.cruiseId,
+        userId,
+        action: 'remove_upload',
+        entity: 'upload',
+        entityId: u.id,
+        before: { filename: u.filename, status: u.status, sha256: u.sha256 },
+      },
+      transaction,
+    );
     await u.destroy({ transaction });
   });
   return { removed: u.id };
 }
-
 
 export type Gate = { stop: true } | { stop: false; replace: Map<string, Cast>; skipped: UploadConflict[] };
 
@@ -209,11 +360,23 @@ export type Gate = { stop: true } | { stop: false; replace: Map<string, Cast>; s
  * station and cast are already live wait for the technician's answer (replace them, or keep the
  * earlier ones and leave these out), recorded on the upload.
  */
-export async function replacementGate(upload: Upload, casts: { file: string; station: string; cast: string }[]): Promise<Gate> {
+export async function replacementGate(
+  upload: Upload,
+  casts: { file: string; station: string; cast: string }[],
+): Promise<Gate> {
   const dup = duplicatesWithin(casts);
   if (dup.length) {
-    await upload.update({ status: 'failed', progress: 1, errors: dup.map((d) => ({ file: d.files[1], line: null, column: null, code: 'duplicate_cast',
-      message: `station ${d.station} cast ${d.cast} is in more than one file of this upload (${d.files.join(', ')}); a station and cast can have one live cast` })) });
+    await upload.update({
+      status: 'failed',
+      progress: 1,
+      errors: dup.map((d) => ({
+        file: d.files[1],
+        line: null,
+        column: null,
+        code: 'duplicate_cast',
+        message: `station ${d.station} cast ${d.cast} is in more than one file of this upload (${d.files.join(', ')}); a station and cast can have one live cast`,
+      })),
+    });
     return { stop: true };
   }
   const conflicts = await conflictsWithLive(upload.cruiseId, upload.sha256, casts);

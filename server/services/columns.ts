@@ -17,7 +17,12 @@ export function decodeF64(b: Buffer): Float64Array {
 }
 export const encodeU8 = (a: Uint8Array) => Buffer.from(a.buffer, a.byteOffset, a.byteLength);
 
-export type StoredColumn = { name: string; unit: string | null; kind: 'measured' | 'derived' | 'flag' | 'extra'; values: Float64Array | Uint8Array };
+export type StoredColumn = {
+  name: string;
+  unit: string | null;
+  kind: 'measured' | 'derived' | 'flag' | 'extra';
+  values: Float64Array | Uint8Array;
+};
 
 export async function writeColumns(castId: string, cols: StoredColumn[], transaction: Transaction) {
   await writeColumnsOfCasts([{ castId, columns: cols }], transaction);
@@ -34,13 +39,32 @@ const BYTES_PER_INSERT = 4 * 1024 * 1024;
  * parameters (node-postgres sends a Buffer parameter as binary), not as hex text in the SQL as
  * bulkCreate would write them: half the bytes on the wire and no escaping.
  */
-export async function writeColumnsOfCasts(casts: { castId: string; columns: StoredColumn[] }[], transaction: Transaction) {
+export async function writeColumnsOfCasts(
+  casts: { castId: string; columns: StoredColumn[] }[],
+  transaction: Transaction,
+) {
   const sequelize = CastColumn.sequelize!;
-  const rows = casts.flatMap((c) => c.columns.map((col) => [c.castId, col.name, col.unit, col.kind,
-    col.values instanceof Float64Array ? encodeF64(col.values) : encodeU8(col.values)] as const));
+  const rows = casts.flatMap((c) =>
+    c.columns.map(
+      (col) =>
+        [
+          c.castId,
+          col.name,
+          col.unit,
+          col.kind,
+          col.values instanceof Float64Array ? encodeF64(col.values) : encodeU8(col.values),
+        ] as const,
+    ),
+  );
   for (let start = 0; start < rows.length;) {
-    let end = start, bytes = 0;
-    while (end < rows.length && end - start < ROWS_PER_INSERT && (end === start || bytes + rows[end][4].length <= BYTES_PER_INSERT)) bytes += rows[end++][4].length;
+    let end = start,
+      bytes = 0;
+    while (
+      end < rows.length &&
+      end - start < ROWS_PER_INSERT &&
+      (end === start || bytes + rows[end][4].length <= BYTES_PER_INSERT)
+    )
+      bytes += rows[end++][4].length;
     const chunk = rows.slice(start, end);
     start = end;
     const bind: unknown[] = [];
@@ -49,11 +73,19 @@ export async function writeColumnsOfCasts(casts: { castId: string; columns: Stor
       bind.push(...r);
       return `($${b + 1}::uuid, $${b + 2}, $${b + 3}, $${b + 4}, $${b + 5}::bytea)`;
     });
-    await sequelize.query(`INSERT INTO cast_columns (cast_id, name, unit, kind, "values") VALUES ${tuples.join(', ')}`, { bind, transaction, type: QueryTypes.INSERT });
+    await sequelize.query(
+      `INSERT INTO cast_columns (cast_id, name, unit, kind, "values") VALUES ${tuples.join(', ')}`,
+      { bind, transaction, type: QueryTypes.INSERT },
+    );
   }
 }
 
-export type LoadedCast = { columns: Record<string, Float64Array>; flags: Record<string, Uint8Array>; units: Record<string, string | null>; kinds: Record<string, string> };
+export type LoadedCast = {
+  columns: Record<string, Float64Array>;
+  flags: Record<string, Uint8Array>;
+  units: Record<string, string | null>;
+  kinds: Record<string, string>;
+};
 
 export async function readColumns(castIds: string[], names?: string[]): Promise<Map<string, LoadedCast>> {
   const where: Record<string, unknown> = { castId: castIds };
@@ -61,7 +93,13 @@ export async function readColumns(castIds: string[], names?: string[]): Promise<
   const rows = await CastColumn.findAll({ where, attributes: ['castId', 'name', 'unit', 'kind', 'values'], raw: true });
   const out = new Map<string, LoadedCast>();
   for (const id of castIds) out.set(id, { columns: {}, flags: {}, units: {}, kinds: {} });
-  for (const r of rows as unknown as { castId: string; name: string; unit: string | null; kind: string; values: Buffer }[]) {
+  for (const r of rows as unknown as {
+    castId: string;
+    name: string;
+    unit: string | null;
+    kind: string;
+    values: Buffer;
+  }[]) {
     const c = out.get(r.castId)!;
     if (r.kind === 'flag') c.flags[r.name] = new Uint8Array(r.values);
     else c.columns[r.name] = decodeF64(r.values);

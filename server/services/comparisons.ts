@@ -17,31 +17,56 @@ import { REFERENCE_PRESSURES } from '../../shared/api/levels';
 import { badRequest, notFound, conflict } from '../lib/errors';
 
 const uuid = z.string().regex(/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i, 'a line id');
-export const ComparisonBody = z.object({
-  lineA: uuid,
-  lineB: uuid,
-  property: z.string().regex(/^[A-Za-z_][\w:]*$/).max(64).default('CT'),
-  ref: z.number().refine((v) => (REFERENCE_PRESSURES as readonly number[]).includes(v), 'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar').default(0),
-  levels: z.string().max(20000).optional(),
-  inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
-  interpolation: z.enum(['linear', 'pchip']).default('linear'),
-  pairDistanceKm: z.number().positive().max(500).default(20),
-  positions: z.enum(['stations', 'regular']).default('stations'),
-  spacingKm: z.number().positive().max(1000).optional(),
-  /** Spacing of the pressure levels, dbar. */
-  bin: z.number().positive().max(500).default(10),
-  /** Deepest pressure level, dbar (default the deepest good level of either occupation). */
-  pMax: z.number().positive().max(11000).optional(),
-  /** σ bounds of the transport layers, ascending comma list (default six layers over the levels). */
-  layers: z.string().regex(/^\s*\d+(\.\d+)?(\s*,\s*\d+(\.\d+)?)+\s*$/, 'a comma list of σ values').max(2000).optional(),
-  /** Flags kept (WOCE 1–9); levels flagged otherwise in either occupation are left out and counted. */
-  flags: z.array(z.number().int().min(1).max(9)).max(9).default([1, 2]),
-  /** Significant digits of the grids (a screen needs 6; exports use full precision). */
-  digits: z.number().int().min(3).max(17).optional(),
-}).strict();
+export const ComparisonBody = z
+  .object({
+    lineA: uuid,
+    lineB: uuid,
+    property: z
+      .string()
+      .regex(/^[A-Za-z_][\w:]*$/)
+      .max(64)
+      .default('CT'),
+    ref: z
+      .number()
+      .refine(
+        (v) => (REFERENCE_PRESSURES as readonly number[]).includes(v),
+        'the reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar',
+      )
+      .default(0),
+    levels: z.string().max(20000).optional(),
+    inversions: z.enum(['sort', 'drop', 'raw']).default('sort'),
+    interpolation: z.enum(['linear', 'pchip']).default('linear'),
+    pairDistanceKm: z.number().positive().max(500).default(20),
+    positions: z.enum(['stations', 'regular']).default('stations'),
+    spacingKm: z.number().positive().max(1000).optional(),
+    /** Spacing of the pressure levels, dbar. */
+    bin: z.number().positive().max(500).default(10),
+    /** Deepest pressure level, dbar (default the deepest good level of either occupation). */
+    pMax: z.number().positive().max(11000).optional(),
+    /** σ bounds of the transport layers, ascending comma list (default six layers over the levels). */
+    layers: z
+      .string()
+      .regex(/^\s*\d+(\.\d+)?(\s*,\s*\d+(\.\d+)?)+\s*$/, 'a comma list of σ values')
+      .max(2000)
+      .optional(),
+    /** Flags kept (WOCE 1–9); levels flagged otherwise in either occupation are left out and counted. */
+    flags: z.array(z.number().int().min(1).max(9)).max(9).default([1, 2]),
+    /** Significant digits of the grids (a screen needs 6; exports use full precision). */
+    digits: z.number().int().min(3).max(17).optional(),
+  })
+  .strict();
 export type ComparisonBody = z.infer<typeof ComparisonBody>;
 
-const UNITS: Record<string, string> = { CT: '°C', SA: 'g/kg', SP: '', temperature: '°C', pt0: '°C', oxygen: 'µmol/kg', sigma0: 'kg/m³', spiciness0: 'kg/m³' };
+const UNITS: Record<string, string> = {
+  CT: '°C',
+  SA: 'g/kg',
+  SP: '',
+  temperature: '°C',
+  pt0: '°C',
+  oxygen: 'µmol/kg',
+  sigma0: 'kg/m³',
+  spiciness0: 'kg/m³',
+};
 
 /** The cruise of a line, or null (unknown id). */
 export async function lineCruiseId(lineId: unknown): Promise<string | null> {
@@ -75,13 +100,23 @@ function flaggedMask(c: CruiseCast, property: string, keep: number[]): Uint8Arra
 
 async function loadOccupation(row: Line, q: ComparisonBody): Promise<Occupation> {
   const cruise = (await Cruise.findByPk(row.cruiseId))!;
-  const extra = q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen)$/.test(q.property) ? [q.property] : undefined;
+  const extra =
+    q.property.startsWith('x:') || /^(sigma\d|CT|SA|SP|temperature|pt0|spiciness0|rho|oxygen)$/.test(q.property)
+      ? [q.property]
+      : undefined;
   const line = await loadLineCasts(row.cruiseId, row.id, extra);
   const raw = line.casts.filter((c) => c.columns.pressure && c.columns.pressure.length > 1);
   const values = raw.length ? await propertyColumns(row.cruiseId, q.property, raw) : [];
   const casts = raw.map((c, i): OccupationCast => ({
-    station: c.station, cast: c.cast, lon: c.longitude, lat: c.latitude, time: c.time ? c.time.getTime() : null,
-    p: c.columns.pressure, SA: c.columns.SA, CT: c.columns.CT, C: values[i] ?? new Float64Array(c.columns.pressure.length).fill(NaN),
+    station: c.station,
+    cast: c.cast,
+    lon: c.longitude,
+    lat: c.latitude,
+    time: c.time ? c.time.getTime() : null,
+    p: c.columns.pressure,
+    SA: c.columns.SA,
+    CT: c.columns.CT,
+    C: values[i] ?? new Float64Array(c.columns.pressure.length).fill(NaN),
     bad: flaggedMask(c, q.property, q.flags),
   }));
   return { row, cruise, line, casts, raw };
@@ -89,9 +124,14 @@ async function loadOccupation(row: Line, q: ComparisonBody): Promise<Occupation>
 
 function deepest(o: Occupation[]): number {
   let d = 0;
-  for (const occ of o) for (const c of occ.casts) {
-    for (let i = c.p.length - 1; i >= 0; i--) if (Number.isFinite(c.p[i]) && !c.bad?.[i] && Number.isFinite(c.SA[i])) { if (c.p[i] > d) d = c.p[i]; break; }
-  }
+  for (const occ of o)
+    for (const c of occ.casts) {
+      for (let i = c.p.length - 1; i >= 0; i--)
+        if (Number.isFinite(c.p[i]) && !c.bad?.[i] && Number.isFinite(c.SA[i])) {
+          if (c.p[i] > d) d = c.p[i];
+          break;
+        }
+    }
   return d;
 }
 
@@ -99,14 +139,22 @@ const rowsOf = (g: Float64Array, nx: number, ny: number, digits?: number) => {
   const rows = toRows(g, nx, ny);
   return digits ? rows.map((r) => r.map((v) => (v === null ? null : Number(v.toPrecision(digits))))) : rows;
 };
-const list = (a: Float64Array, digits?: number) => Array.from(a, (v) => (Number.isFinite(v) ? (digits ? Number(v.toPrecision(digits)) : v) : null));
+const list = (a: Float64Array, digits?: number) =>
+  Array.from(a, (v) => (Number.isFinite(v) ? (digits ? Number(v.toPrecision(digits)) : v) : null));
 
 function occupationJson(o: Occupation) {
   const times = o.casts.map((c) => c.time).filter((t): t is number => t !== null);
   return {
-    lineId: o.row.id, line: o.line.name, isDefaultLine: o.line.isDefault, cruiseId: o.cruise.id, cruise: o.cruise.name, ship: o.cruise.ship,
-    firstCast: times.length ? new Date(Math.min(...times)).toISOString() : null, lastCast: times.length ? new Date(Math.max(...times)).toISOString() : null,
-    casts: o.casts.length, lineExcluded: o.line.excluded,
+    lineId: o.row.id,
+    line: o.line.name,
+    isDefaultLine: o.line.isDefault,
+    cruiseId: o.cruise.id,
+    cruise: o.cruise.name,
+    ship: o.cruise.ship,
+    firstCast: times.length ? new Date(Math.min(...times)).toISOString() : null,
+    lastCast: times.length ? new Date(Math.max(...times)).toISOString() : null,
+    casts: o.casts.length,
+    lineExcluded: o.line.excluded,
   };
 }
 
@@ -120,7 +168,10 @@ function tsPoints(SA: Float64Array, CT: Float64Array) {
   let k = 0;
   for (let i = 0; i < SA.length; i++) {
     if (!(Number.isFinite(SA[i]) && Number.isFinite(CT[i]))) continue;
-    if (k++ % step === 0) { sa.push(Number(SA[i].toPrecision(6))); ct.push(Number(CT[i].toPrecision(6))); }
+    if (k++ % step === 0) {
+      sa.push(Number(SA[i].toPrecision(6)));
+      ct.push(Number(CT[i].toPrecision(6)));
+    }
   }
   return { SA: sa, CT: ct };
 }
@@ -139,20 +190,54 @@ function answer(a: Occupation, b: Occupation, q: ComparisonBody, levelsText: str
   const { digits: _d, ...rest } = q;
   void _d;
   return {
-    choices: { ...rest, levels: levelsText, sigma: `sigma${q.ref / 1000}`, pressureLevels: `0:${q.bin}:${r.pressure[np - 1] ?? 0}`, digits: d ?? null },
+    choices: {
+      ...rest,
+      levels: levelsText,
+      sigma: `sigma${q.ref / 1000}`,
+      pressureLevels: `0:${q.bin}:${r.pressure[np - 1] ?? 0}`,
+      digits: d ?? null,
+    },
     unit: UNITS[q.property] ?? '',
     occupations: { A: occupationJson(a), B: occupationJson(b) },
-    years: r.years, perDecade,
-    x: list(r.x), positions: Array.from(r.x, (_, j) => ({ latitude: r.lat[j], longitude: r.lon[j] })),
-    pairs: r.pairs.map((p) => ({ ...p, castIdA: castIdA.get(p.stationA) ?? null, castIdB: castIdB.get(p.stationB) ?? null })),
-    excluded: [...a.line.excluded.map((e) => ({ ...e, line: 'A' as const })), ...b.line.excluded.map((e) => ({ ...e, line: 'B' as const })), ...r.excluded],
+    years: r.years,
+    perDecade,
+    x: list(r.x),
+    positions: Array.from(r.x, (_, j) => ({ latitude: r.lat[j], longitude: r.lon[j] })),
+    pairs: r.pairs.map((p) => ({
+      ...p,
+      castIdA: castIdA.get(p.stationA) ?? null,
+      castIdB: castIdB.get(p.stationB) ?? null,
+    })),
+    excluded: [
+      ...a.line.excluded.map((e) => ({ ...e, line: 'A' as const })),
+      ...b.line.excluded.map((e) => ({ ...e, line: 'B' as const })),
+      ...r.excluded,
+    ],
     counts: r.counts,
-    pressure: Array.from(r.pressure), sigma: Array.from(r.sigma),
+    pressure: Array.from(r.pressure),
+    sigma: Array.from(r.sigma),
     onPressure: { A: P(r.onPressure.A), B: P(r.onPressure.B), diff: P(r.onPressure.diff) },
-    onDensity: { pA: S(r.onDensity.pA), pB: S(r.onDensity.pB), heave: S(r.onDensity.heave), A: S(r.onDensity.A), B: S(r.onDensity.B), diff: S(r.onDensity.diff) },
-    decomposition: { waterMassTerm: P(r.decomposition.waterMassTerm), heaveTerm: P(r.decomposition.heaveTerm), residual: P(r.decomposition.residual), heave: P(r.decomposition.heave) },
+    onDensity: {
+      pA: S(r.onDensity.pA),
+      pB: S(r.onDensity.pB),
+      heave: S(r.onDensity.heave),
+      A: S(r.onDensity.A),
+      B: S(r.onDensity.B),
+      diff: S(r.onDensity.diff),
+    },
+    decomposition: {
+      waterMassTerm: P(r.decomposition.waterMassTerm),
+      heaveTerm: P(r.decomposition.heaveTerm),
+      residual: P(r.decomposition.residual),
+      heave: P(r.decomposition.heave),
+    },
     means: {
-      onPressure: { diff: list(r.means.onPressure.diff, d), waterMassTerm: list(r.means.onPressure.waterMassTerm, d), heaveTerm: list(r.means.onPressure.heaveTerm, d), residual: list(r.means.onPressure.residual, d) },
+      onPressure: {
+        diff: list(r.means.onPressure.diff, d),
+        waterMassTerm: list(r.means.onPressure.waterMassTerm, d),
+        heaveTerm: list(r.means.onPressure.heaveTerm, d),
+        residual: list(r.means.onPressure.residual, d),
+      },
       onDensity: { heave: list(r.means.onDensity.heave, d), diff: list(r.means.onDensity.diff, d) },
     },
     transport: r.transport,
@@ -165,7 +250,11 @@ export type ComparisonAnswer = ReturnType<typeof answer>;
 async function comparisonKey(userId: string, q: ComparisonBody): Promise<{ key: string; rowA: Line; rowB: Line }> {
   const [rowA, rowB] = await Promise.all([lineForMember(userId, q.lineA), lineForMember(userId, q.lineB)]);
   const [vA, vB] = await Promise.all([dataVersion(rowA.cruiseId), dataVersion(rowB.cruiseId)]);
-  return { key: `comparison:${rowA.id}:${rowA.updatedAt.getTime()}:${vA}:${rowB.id}:${rowB.updatedAt.getTime()}:${vB}:${JSON.stringify(q)}`, rowA, rowB };
+  return {
+    key: `comparison:${rowA.id}:${rowA.updatedAt.getTime()}:${vA}:${rowB.id}:${rowB.updatedAt.getTime()}:${vB}:${JSON.stringify(q)}`,
+    rowA,
+    rowB,
+  };
 }
 
 /** The comparison serialised, plain and gzipped, cached like a section: a warm read is a lookup and a write. */
@@ -184,7 +273,9 @@ export async function buildComparison(userId: string, q: ComparisonBody): Promis
     const a = await loadOccupation(rowA, q);
     const b = await loadOccupation(rowB, q);
     if (a.casts.length === 0 || b.casts.length === 0) {
-      throw badRequest(`Line ${a.casts.length === 0 ? 'A' : 'B'} has no cast with a profile to compare.`, [{ field: a.casts.length === 0 ? 'lineA' : 'lineB', message: 'no casts' }]);
+      throw badRequest(`Line ${a.casts.length === 0 ? 'A' : 'B'} has no cast with a profile to compare.`, [
+        { field: a.casts.length === 0 ? 'lineA' : 'lineB', message: 'no casts' },
+      ]);
     }
     const lv = resolveLevels([...a.raw, ...b.raw], q.ref, q.levels ?? null);
     const pMax = q.pMax ?? deepest([a, b]);
@@ -193,13 +284,25 @@ export async function buildComparison(userId: string, q: ComparisonBody): Promis
     let layers: Float64Array | undefined;
     if (q.layers) {
       layers = Float64Array.from(q.layers.split(',').map(Number));
-      for (let i = 1; i < layers.length; i++) if (!(layers[i] > layers[i - 1])) throw badRequest('The layer bounds must increase.', [{ field: 'layers', message: 'not increasing' }]);
+      for (let i = 1; i < layers.length; i++)
+        if (!(layers[i] > layers[i - 1]))
+          throw badRequest('The layer bounds must increase.', [{ field: 'layers', message: 'not increasing' }]);
     }
     const r = compareOccupations(a.casts, b.casts, {
-      ref: q.ref, targets: lv.levels, pressure, handling: q.inversions, interpolation: q.interpolation,
-      pairDistanceKm: q.pairDistanceKm, positions: q.positions, spacingKm: q.spacingKm, layers,
+      ref: q.ref,
+      targets: lv.levels,
+      pressure,
+      handling: q.inversions,
+      interpolation: q.interpolation,
+      pairDistanceKm: q.pairDistanceKm,
+      positions: q.positions,
+      spacingKm: q.spacingKm,
+      layers,
     });
-    if (r.x.length === 0) throw badRequest(`No station of line A has a cast of line B within ${q.pairDistanceKm} km.`, [{ field: 'pairDistanceKm', message: 'no pairs' }]);
+    if (r.x.length === 0)
+      throw badRequest(`No station of line A has a cast of line B within ${q.pairDistanceKm} km.`, [
+        { field: 'pairDistanceKm', message: 'no pairs' },
+      ]);
     return answer(a, b, q, lv.text, r);
   });
 }
@@ -213,7 +316,8 @@ async function sectionIds(cruiseIds: string[]): Promise<Map<string, string>> {
     `SELECT cruise_id AS "cruiseId", s, count(*)::int AS n FROM (
        SELECT cruise_id, upper(trim(coalesce(metadata->>'SECT_ID', metadata->>'sect_id', metadata->>'WOCE_ID', metadata->>'woce_id', metadata->>'section'))) AS s
        FROM casts WHERE cruise_id IN (:ids)) t WHERE s IS NOT NULL AND s <> '' GROUP BY cruise_id, s ORDER BY n DESC`,
-    { replacements: { ids: cruiseIds }, type: QueryTypes.SELECT })) as { cruiseId: string; s: string; n: number }[];
+    { replacements: { ids: cruiseIds }, type: QueryTypes.SELECT },
+  )) as { cruiseId: string; s: string; n: number }[];
   const out = new Map<string, string>();
   for (const r of rows) if (!out.has(r.cruiseId)) out.set(r.cruiseId, r.s);
   return out;
@@ -222,8 +326,16 @@ async function sectionIds(cruiseIds: string[]): Promise<Map<string, string>> {
 const normal = (s: string) => s.trim().toLowerCase().replace(/\s+/g, ' ');
 
 export type OccupationOffer = {
-  lineId: string; line: string; isDefault: boolean; cruiseId: string; cruise: string; ship: string; startDate: string;
-  why: ('same name' | 'same section identifier' | 'linked by hand')[]; sectionId: string | null; linked: boolean;
+  lineId: string;
+  line: string;
+  isDefault: boolean;
+  cruiseId: string;
+  cruise: string;
+  ship: string;
+  startDate: string;
+  why: ('same name' | 'same section identifier' | 'linked by hand')[];
+  sectionId: string | null;
+  linked: boolean;
 };
 
 /**
@@ -231,7 +343,10 @@ export type OccupationOffer = {
  * (lines other than the default line, whose name says nothing), the same section identifier of
  * their casts, or linked by hand. The line itself comes first.
  */
-export async function occupationsOf(userId: string, lineId: string): Promise<{ line: OccupationOffer; occupations: OccupationOffer[] }> {
+export async function occupationsOf(
+  userId: string,
+  lineId: string,
+): Promise<{ line: OccupationOffer; occupations: OccupationOffer[] }> {
   const row = await lineForMember(userId, lineId);
   const mine = (await Membership.findAll({ where: { userId }, attributes: ['cruiseId'] })).map((m) => m.cruiseId);
   const cruises = new Map((await Cruise.findAll({ where: { id: mine } })).map((c) => [c.id, c]));
@@ -240,13 +355,25 @@ export async function occupationsOf(userId: string, lineId: string): Promise<{ l
   const lines = await Line.findAll({ where: { cruiseId: mine } });
   const sects = await sectionIds(mine);
   const links = (await Line.sequelize!.query(
-    'SELECT line_a AS a, line_b AS b FROM line_links WHERE line_a = :id OR line_b = :id', { replacements: { id: row.id }, type: QueryTypes.SELECT })) as { a: string; b: string }[];
+    'SELECT line_a AS a, line_b AS b FROM line_links WHERE line_a = :id OR line_b = :id',
+    { replacements: { id: row.id }, type: QueryTypes.SELECT },
+  )) as { a: string; b: string }[];
   const linked = new Set(links.map((l) => (l.a === row.id ? l.b : l.a)));
   const mySect = sects.get(row.cruiseId) ?? null;
   const offer = (l: Line, why: OccupationOffer['why']): OccupationOffer => {
     const c = cruises.get(l.cruiseId)!;
-    return { lineId: l.id, line: l.name, isDefault: l.isDefault, cruiseId: c.id, cruise: c.name, ship: c.ship, startDate: String(c.startDate), why,
-      sectionId: sects.get(l.cruiseId) ?? null, linked: linked.has(l.id) };
+    return {
+      lineId: l.id,
+      line: l.name,
+      isDefault: l.isDefault,
+      cruiseId: c.id,
+      cruise: c.name,
+      ship: c.ship,
+      startDate: String(c.startDate),
+      why,
+      sectionId: sects.get(l.cruiseId) ?? null,
+      linked: linked.has(l.id),
+    };
   };
   const out: OccupationOffer[] = [];
   for (const l of lines) {
@@ -254,7 +381,12 @@ export async function occupationsOf(userId: string, lineId: string): Promise<{ l
     const why: OccupationOffer['why'] = [];
     if (!l.isDefault && !row.isDefault && normal(l.name) === normal(row.name)) why.push('same name');
     // a section identifier names the cruise's line as a whole: its default line, and lines of the same name
-    if (mySect && sects.get(l.cruiseId) === mySect && (l.isDefault === row.isDefault || normal(l.name) === normal(row.name))) why.push('same section identifier');
+    if (
+      mySect &&
+      sects.get(l.cruiseId) === mySect &&
+      (l.isDefault === row.isDefault || normal(l.name) === normal(row.name))
+    )
+      why.push('same section identifier');
     if (linked.has(l.id)) why.push('linked by hand');
     if (why.length) out.push(offer(l, why));
   }
@@ -266,12 +398,15 @@ export async function occupationsOf(userId: string, lineId: string): Promise<{ l
 export async function linkLines(userId: string, lineId: string, otherId: string): Promise<void> {
   const a = await lineForMember(userId, lineId);
   const b = await lineForMember(userId, otherId);
-  if (a.id === b.id) throw badRequest('A line is not an occupation of itself.', [{ field: 'line', message: 'same line' }]);
-  if (a.cruiseId === b.cruiseId) throw conflict('Both lines belong to the same cruise; an occupation is a line of another cruise.');
+  if (a.id === b.id)
+    throw badRequest('A line is not an occupation of itself.', [{ field: 'line', message: 'same line' }]);
+  if (a.cruiseId === b.cruiseId)
+    throw conflict('Both lines belong to the same cruise; an occupation is a line of another cruise.');
   const [x, y] = a.id < b.id ? [a.id, b.id] : [b.id, a.id];
   await Line.sequelize!.query(
     `INSERT INTO line_links (id, line_a, line_b, created_by, created_at) VALUES (gen_random_uuid(), :x, :y, :u, now()) ON CONFLICT (line_a, line_b) DO NOTHING`,
-    { replacements: { x, y, u: userId }, type: QueryTypes.INSERT });
+    { replacements: { x, y, u: userId }, type: QueryTypes.INSERT },
+  );
 }
 
 /** Remove a link made by hand; 404 when there is none. */
@@ -279,7 +414,9 @@ export async function unlinkLines(userId: string, lineId: string, otherId: strin
   const a = await lineForMember(userId, lineId);
   const b = await lineForMember(userId, otherId);
   const [x, y] = a.id < b.id ? [a.id, b.id] : [b.id, a.id];
-  const [, n] = (await Line.sequelize!.query('DELETE FROM line_links WHERE line_a = :x AND line_b = :y', { replacements: { x, y } })) as [unknown, { rowCount?: number } | number];
-  const count = typeof n === 'number' ? n : n?.rowCount ?? 0;
+  const [, n] = (await Line.sequelize!.query('DELETE FROM line_links WHERE line_a = :x AND line_b = :y', {
+    replacements: { x, y },
+  })) as [unknown, { rowCount?: number } | number];
+  const count = typeof n === 'number' ? n : (n?.rowCount ?? 0);
   if (!count) throw notFound('The two lines are not linked by hand.');
 }

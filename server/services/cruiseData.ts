@@ -6,8 +6,17 @@ import { readColumns } from './columns';
 import type { Inversion } from '../../shared/remap/index';
 
 export type CruiseCast = {
-  id: string; station: string; cast: string; latitude: number; longitude: number; time: Date | null; bottomDepth: number | null;
-  inversions: Inversion[]; columns: Record<string, Float64Array>; flags: Record<string, Uint8Array>; units: Record<string, string | null>;
+  id: string;
+  station: string;
+  cast: string;
+  latitude: number;
+  longitude: number;
+  time: Date | null;
+  bottomDepth: number | null;
+  inversions: Inversion[];
+  columns: Record<string, Float64Array>;
+  flags: Record<string, Uint8Array>;
+  units: Record<string, string | null>;
 };
 
 // The cache of built grids (sections, T–S points, geostrophy): bounded by count and by bytes
@@ -35,7 +44,11 @@ function sizeOf(v: unknown): number {
   if (v && typeof v === 'object' && !Array.isArray(v) && Object.values(v).every((x) => Buffer.isBuffer(x))) {
     return Object.values(v as Record<string, Buffer>).reduce((a, b) => a + b.byteLength, 0);
   }
-  try { return 2 * (JSON.stringify(v)?.length ?? 0); } catch { return Number.POSITIVE_INFINITY; }
+  try {
+    return 2 * (JSON.stringify(v)?.length ?? 0);
+  } catch {
+    return Number.POSITIVE_INFINITY;
+  }
 }
 
 function evict(room: number) {
@@ -48,19 +61,28 @@ function evict(room: number) {
 
 export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
   const hit = cache.get(key);
-  if (hit) { stats.hits++; return Promise.resolve(hit.value as T); }
+  if (hit) {
+    stats.hits++;
+    return Promise.resolve(hit.value as T);
+  }
   const running = inflight.get(key);
-  if (running) { stats.joined++; return running as Promise<T>; }
+  if (running) {
+    stats.joined++;
+    return running as Promise<T>;
+  }
   stats.builds++;
-  const p = Promise.resolve().then(make).then((value) => {
-    const bytes = sizeOf(value);
-    if (bytes <= maxBytes) {
-      evict(bytes);
-      cache.set(key, { at: Date.now(), value, bytes });
-      cacheBytes += bytes;
-    }
-    return value;
-  }).finally(() => inflight.delete(key));
+  const p = Promise.resolve()
+    .then(make)
+    .then((value) => {
+      const bytes = sizeOf(value);
+      if (bytes <= maxBytes) {
+        evict(bytes);
+        cache.set(key, { at: Date.now(), value, bytes });
+        cacheBytes += bytes;
+      }
+      return value;
+    })
+    .finally(() => inflight.delete(key));
   inflight.set(key, p);
   return p;
 }
@@ -89,21 +111,50 @@ async function readDataVersion(cruiseId: string): Promise<string> {
             (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM derived_variables WHERE cruise_id = :id) || ':' ||
             (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM lines WHERE cruise_id = :id) || ':' ||
             (SELECT count(*) || ':' || coalesce(extract(epoch from max(updated_at)) * 1000, 0) FROM stations WHERE cruise_id = :id) AS v`,
-    { replacements: { id: cruiseId } });
+    { replacements: { id: cruiseId } },
+  );
   return (rows as { v: string }[])[0].v;
 }
 
 /** names undefined: every column. */
 export async function loadCruiseCasts(cruiseId: string, names?: string[]): Promise<CruiseCast[]> {
-  const casts = await Cast.findAll({ where: { cruiseId }, order: [['time', 'ASC NULLS LAST'], ['station', 'ASC'], ['cast', 'ASC']] });
-  const wanted = names ? [...new Set(['pressure', 'SA', 'CT', 'z', ...names, 'flag:temperature', 'flag:salinity', 'flag:conductivity'])] : undefined;
-  const cols = await readColumns(casts.map((c) => c.id), wanted);
-  // A cast row without its profile columns (never written by the ingest, but possible by hand) is left out.
-  return casts.filter((c) => { const k = cols.get(c.id)!.columns; return k.pressure && k.SA && k.CT; }).map((c) => {
-    const k = cols.get(c.id)!;
-    return { id: c.id, station: c.station, cast: c.cast, latitude: c.latitude, longitude: c.longitude, time: c.time, bottomDepth: c.bottomDepth,
-      inversions: c.inversions as Inversion[], columns: k.columns, flags: k.flags, units: k.units };
+  const casts = await Cast.findAll({
+    where: { cruiseId },
+    order: [
+      ['time', 'ASC NULLS LAST'],
+      ['station', 'ASC'],
+      ['cast', 'ASC'],
+    ],
   });
+  const wanted = names
+    ? [...new Set(['pressure', 'SA', 'CT', 'z', ...names, 'flag:temperature', 'flag:salinity', 'flag:conductivity'])]
+    : undefined;
+  const cols = await readColumns(
+    casts.map((c) => c.id),
+    wanted,
+  );
+  // A cast row without its profile columns (never written by the ingest, but possible by hand) is left out.
+  return casts
+    .filter((c) => {
+      const k = cols.get(c.id)!.columns;
+      return k.pressure && k.SA && k.CT;
+    })
+    .map((c) => {
+      const k = cols.get(c.id)!;
+      return {
+        id: c.id,
+        station: c.station,
+        cast: c.cast,
+        latitude: c.latitude,
+        longitude: c.longitude,
+        time: c.time,
+        bottomDepth: c.bottomDepth,
+        inversions: c.inversions as Inversion[],
+        columns: k.columns,
+        flags: k.flags,
+        units: k.units,
+      };
+    });
 }
 
 /** Levels flagged outside `include` (1–9 scale; by default 1 and 2 kept) in T or S are set to NaN. */

@@ -6,15 +6,31 @@ import { Readable } from 'node:stream';
 import { Delivery, Upload, User, type DeliveryFile } from '../models/index';
 import { isopycnalTable, pressureTable, lineCastsForDelivery } from './deliveryTables';
 import {
-  writeCsv, writeXlsx, tableToNetcdf, buildDataPackage, formatProvenanceText, writeExchangeZip, deliveryStem, DATA_CAUTION,
-  type DeliveryTable, type DeliveryFormat,
+  writeCsv,
+  writeXlsx,
+  tableToNetcdf,
+  buildDataPackage,
+  formatProvenanceText,
+  writeExchangeZip,
+  deliveryStem,
+  DATA_CAUTION,
+  type DeliveryTable,
+  type DeliveryFormat,
 } from './deliveries/index';
 import type { AppDeps } from '../lib/deps';
 
 export type DeliveryFileFormat = 'csv' | 'xlsx' | 'nc' | 'exchange';
 export type DeliveryParams = {
-  kind: 'isopycnal' | 'pressure' | 'package'; line?: string | null; ref: number; levels?: string; inversions: 'sort' | 'drop' | 'raw';
-  interpolation: 'linear' | 'pchip'; bin: number; flags: number[]; formats: DeliveryFileFormat[]; extras?: string[];
+  kind: 'isopycnal' | 'pressure' | 'package';
+  line?: string | null;
+  ref: number;
+  levels?: string;
+  inversions: 'sort' | 'drop' | 'raw';
+  interpolation: 'linear' | 'pchip';
+  bin: number;
+  flags: number[];
+  formats: DeliveryFileFormat[];
+  extras?: string[];
 };
 
 const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
@@ -27,11 +43,22 @@ async function toBuffer(stream: Readable): Promise<Buffer> {
 const cruiseOf = (t: DeliveryTable) => t.provenance.expocode ?? t.provenance.cruise.name;
 const lineOf = (t: DeliveryTable) => t.provenance.line ?? 'default';
 
-export async function deliveryTables(cruiseId: string, who: string, p: DeliveryParams): Promise<{ name: string; table: DeliveryTable }[]> {
+export async function deliveryTables(
+  cruiseId: string,
+  who: string,
+  p: DeliveryParams,
+): Promise<{ name: string; table: DeliveryTable }[]> {
   const extras = p.extras ?? [];
   const iso = async () => {
-    const table = await isopycnalTable(cruiseId, who, { ref: p.ref, levels: p.levels ?? null, handling: p.inversions, interpolation: p.interpolation,
-      flags: p.flags, extras, line: p.line ?? null });
+    const table = await isopycnalTable(cruiseId, who, {
+      ref: p.ref,
+      levels: p.levels ?? null,
+      handling: p.inversions,
+      interpolation: p.interpolation,
+      flags: p.flags,
+      extras,
+      line: p.line ?? null,
+    });
     return { name: deliveryStem(cruiseOf(table), lineOf(table), 'isopycnal', { sigmaRef: p.ref }), table };
   };
   const pres = async () => {
@@ -56,7 +83,7 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
   if (!d || d.status === 'ready') return;
   await d.update({ status: 'building', progress: 0.05, error: null });
   const p = d.params as unknown as DeliveryParams;
-  const who = d.createdBy ? (await User.findByPk(d.createdBy))?.email ?? 'unknown' : 'unknown';
+  const who = d.createdBy ? ((await User.findByPk(d.createdBy))?.email ?? 'unknown') : 'unknown';
   try {
     const tables = await deliveryTables(d.cruiseId, who, p);
     await d.update({ progress: 0.4 });
@@ -68,22 +95,65 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
     };
     const first = tables[0].table;
     if (p.kind === 'package') {
-      const uploads = await Upload.findAll({ where: { cruiseId: d.cruiseId, status: 'ready' }, order: [['createdAt', 'ASC']] });
+      const uploads = await Upload.findAll({
+        where: { cruiseId: d.cruiseId, status: 'ready' },
+        order: [['createdAt', 'ASC']],
+      });
       const exchange = p.formats.includes('exchange') ? await exchangeZip(d.cruiseId, p, first) : null;
-      const readme = [`Sigmaline data package — ${first.provenance.cruise.name} (${first.provenance.cruise.ship}), line ${lineOf(first)}`, '', DATA_CAUTION, '',
-        formatProvenanceText(first.provenance), '',
+      const readme = [
+        `Sigmaline data package — ${first.provenance.cruise.name} (${first.provenance.cruise.ship}), line ${lineOf(first)}`,
+        '',
+        DATA_CAUTION,
+        '',
+        formatProvenanceText(first.provenance),
+        '',
         'Contents: tables/ (regridded tables in each format), exchange/ (one CTD exchange file per cast, when chosen), raw/ (the files as uploaded), ' +
-        'MANIFEST.sha256 (sha256sum -c MANIFEST.sha256).'].join('\n');
-      const zip = await toBuffer(buildDataPackage({ tables, formats: p.formats.filter((f): f is DeliveryFormat => f !== 'exchange'), readme,
-        extraFiles: exchange ? [{ path: `exchange/${exchange.stem}.zip`, describe: `CTD exchange files of the line's ${exchange.count} casts (zip)`,
-          read: async () => exchange.zip }] : [],
-        rawFiles: uploads.map((u) => ({ key: u.storageKey, filename: u.filename, read: () => deps.storage.get(u.storageKey) })) }));
-      await put(`${deliveryStem(cruiseOf(first), lineOf(first), 'package', { sigmaRef: p.ref })}.zip`, 'zip', zip, 'application/zip');
+          'MANIFEST.sha256 (sha256sum -c MANIFEST.sha256).',
+      ].join('\n');
+      const zip = await toBuffer(
+        buildDataPackage({
+          tables,
+          formats: p.formats.filter((f): f is DeliveryFormat => f !== 'exchange'),
+          readme,
+          extraFiles: exchange
+            ? [
+                {
+                  path: `exchange/${exchange.stem}.zip`,
+                  describe: `CTD exchange files of the line's ${exchange.count} casts (zip)`,
+                  read: async () => exchange.zip,
+                },
+              ]
+            : [],
+          rawFiles: uploads.map((u) => ({
+            key: u.storageKey,
+            filename: u.filename,
+            read: () => deps.storage.get(u.storageKey),
+          })),
+        }),
+      );
+      await put(
+        `${deliveryStem(cruiseOf(first), lineOf(first), 'package', { sigmaRef: p.ref })}.zip`,
+        'zip',
+        zip,
+        'application/zip',
+      );
     } else {
       for (const { name, table } of tables) {
         if (p.formats.includes('csv')) await put(`${name}.csv`, 'csv', Buffer.from(writeCsv(table)), 'text/csv');
-        if (p.formats.includes('xlsx')) await put(`${name}.xlsx`, 'xlsx', await writeXlsx(table), 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');
-        if (p.formats.includes('nc')) await put(`${name}.nc`, 'nc', tableToNetcdf(table, { title: `${name} — ${table.provenance.cruise.name}` }), 'application/x-netcdf');
+        if (p.formats.includes('xlsx'))
+          await put(
+            `${name}.xlsx`,
+            'xlsx',
+            await writeXlsx(table),
+            'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+          );
+        if (p.formats.includes('nc'))
+          await put(
+            `${name}.nc`,
+            'nc',
+            tableToNetcdf(table, { title: `${name} — ${table.provenance.cruise.name}` }),
+            'application/x-netcdf',
+          );
       }
       if (p.formats.includes('exchange')) {
         const x = await exchangeZip(d.cruiseId, p, first);

@@ -9,16 +9,36 @@ import { loadCruiseCasts, applyFlags, type CruiseCast } from './cruiseData';
 import { propertyColumns } from './sectionView';
 import { resolveLevels } from './levels';
 import { castsOfLine, type DeliveryLine } from './deliveryLine';
-import { remapToIsopycnals, binToPressure, flagNames, type InversionHandling, type SigmaInterpolation } from '../../shared/remap/index';
+import {
+  remapToIsopycnals,
+  binToPressure,
+  flagNames,
+  type InversionHandling,
+  type SigmaInterpolation,
+} from '../../shared/remap/index';
 import { sigma_batch } from '../../shared/seawater/index';
 import { DEFAULT_LEVELS_RULE } from '../../shared/api/levels';
 import { variableInfo as catalogue } from '../../shared/api/variables';
 import {
-  ISOPYCNAL_COLUMNS, PRESSURE_COLUMNS, type DeliveryColumn, type DeliveryRow, type DeliveryTable, type Provenance,
+  ISOPYCNAL_COLUMNS,
+  PRESSURE_COLUMNS,
+  type DeliveryColumn,
+  type DeliveryRow,
+  type DeliveryTable,
+  type Provenance,
 } from './deliveries/index';
 import {
-  CT_FLAGS_FROM, DERIVED_VARIABLES, FLAG_RULE, KNOWN_VARIABLES, PRECISION_RULE, SA_FLAGS_FROM, columnName, roundTo, variableInfo,
-  worseFlag, type VariableInfo,
+  CT_FLAGS_FROM,
+  DERIVED_VARIABLES,
+  FLAG_RULE,
+  KNOWN_VARIABLES,
+  PRECISION_RULE,
+  SA_FLAGS_FROM,
+  columnName,
+  roundTo,
+  variableInfo,
+  worseFlag,
+  type VariableInfo,
 } from './deliveries/variables';
 import { VERSION } from '../version';
 
@@ -27,9 +47,14 @@ export const SAAR_SOURCE = 'McDougall et al. (2012) SAAR atlas, regenerated from
 
 /** levels: a specification as asked for, or null for the default levels of the reference pressure. */
 export type IsopycnalRequest = {
-  ref: number; levels: string | null; handling: InversionHandling; interpolation: SigmaInterpolation; flags: number[];
+  ref: number;
+  levels: string | null;
+  handling: InversionHandling;
+  interpolation: SigmaInterpolation;
+  flags: number[];
   /** Derived variables to add (stored derived columns such as pt0, or the cruise's derived variables by name). */
-  extras: string[]; line?: string | null;
+  extras: string[];
+  line?: string | null;
 };
 export type PressureRequest = { bin: number; flags: number[]; extras: string[]; line?: string | null };
 
@@ -38,13 +63,34 @@ const CONTEXT_COLUMNS: DeliveryColumn[] = [
   { name: 'cruise', unit: null, type: 'string', long_name: 'Cruise (expocode where known)' },
   { name: 'line', unit: null, type: 'string', long_name: 'Line (section) the cast belongs to' },
   { name: 'time', unit: 'ISO 8601 UTC', type: 'string', long_name: 'Time of the cast' },
-  { name: 'bottom_depth', unit: 'm', type: 'number', long_name: 'Depth of the sea floor at the cast', standard_name: 'sea_floor_depth_below_sea_surface' },
+  {
+    name: 'bottom_depth',
+    unit: 'm',
+    type: 'number',
+    long_name: 'Depth of the sea floor at the cast',
+    standard_name: 'sea_floor_depth_below_sea_surface',
+  },
 ];
-const flagColumn = (of: string): DeliveryColumn => ({ name: `${of}_flag`, unit: null, type: 'number', long_name: `WOCE quality flag of ${of}` });
+const flagColumn = (of: string): DeliveryColumn => ({
+  name: `${of}_flag`,
+  unit: null,
+  type: 'number',
+  long_name: `WOCE quality flag of ${of}`,
+});
 
 /** Decimals of the contract columns (the rest come from the variable catalogue). */
-const DECIMALS: Record<string, number> = { latitude: 6, longitude: 6, sigma_ref: 0, sigma_level: 6, thickness: 3, crossings: 0, count: 0, bottom_depth: 3 };
-const decimalsOf = (name: string): number => DECIMALS[name] ?? catalogue(name === 't' ? 'temperature' : name)?.decimals ?? 6;
+const DECIMALS: Record<string, number> = {
+  latitude: 6,
+  longitude: 6,
+  sigma_ref: 0,
+  sigma_level: 6,
+  thickness: 3,
+  crossings: 0,
+  count: 0,
+  bottom_depth: 3,
+};
+const decimalsOf = (name: string): number =>
+  DECIMALS[name] ?? catalogue(name === 't' ? 'temperature' : name)?.decimals ?? 6;
 const r = (name: string, v: number | null | undefined): number | null =>
   v === null || v === undefined || !Number.isFinite(v) ? null : roundTo(v, decimalsOf(name));
 
@@ -64,9 +110,15 @@ async function cruiseLabel(cruiseId: string, name: string): Promise<{ label: str
 
 /** How many levels each technician flagged what, from the audit trail. */
 async function flagHistory(cruiseId: string): Promise<string[]> {
-  const rows = await AuditEntry.findAll({ where: { cruiseId, action: 'set_flag', entity: 'cast' }, order: [['at', 'ASC']], limit: 5000 });
+  const rows = await AuditEntry.findAll({
+    where: { cruiseId, action: 'set_flag', entity: 'cast' },
+    order: [['at', 'ASC']],
+    limit: 5000,
+  });
   if (!rows.length) return ['no flags set by hand'];
-  const users = await User.findAll({ where: { id: { [Op.in]: [...new Set(rows.map((a) => a.userId).filter((u): u is string => !!u))] } } });
+  const users = await User.findAll({
+    where: { id: { [Op.in]: [...new Set(rows.map((a) => a.userId).filter((u): u is string => !!u))] } },
+  });
   const name = new Map(users.map((u) => [u.id, u.email]));
   const sum = new Map<string, { levels: number; edits: number }>();
   for (const a of rows) {
@@ -86,18 +138,35 @@ async function flagHistory(cruiseId: string): Promise<string[]> {
 export async function provenanceFor(cruiseId: string, who: string, p: Partial<Provenance>): Promise<Provenance> {
   const c = (await Cruise.findByPk(cruiseId))!;
   return {
-    software: 'Sigmaline', version: VERSION, equationOfState: EOS,
-    functions: ['SA_from_SP', 'CT_from_t', 'sigma_pr', 'Nsquared', 'z_from_p'], saarSource: SAAR_SOURCE,
-    referencePressure: null, layerSet: null, inversionHandling: null, interpolation: null, flagsIncluded: [1, 2],
-    exportedBy: who, exportedAt: new Date().toISOString(), cruise: { id: c.id, name: c.name, ship: c.ship },
-    precision: PRECISION_RULE, flagRule: FLAG_RULE, flagHistory: await flagHistory(cruiseId), ...p,
+    software: 'Sigmaline',
+    version: VERSION,
+    equationOfState: EOS,
+    functions: ['SA_from_SP', 'CT_from_t', 'sigma_pr', 'Nsquared', 'z_from_p'],
+    saarSource: SAAR_SOURCE,
+    referencePressure: null,
+    layerSet: null,
+    inversionHandling: null,
+    interpolation: null,
+    flagsIncluded: [1, 2],
+    exportedBy: who,
+    exportedAt: new Date().toISOString(),
+    cruise: { id: c.id, name: c.name, ship: c.ship },
+    precision: PRECISION_RULE,
+    flagRule: FLAG_RULE,
+    flagHistory: await flagHistory(cruiseId),
+    ...p,
   };
 }
 
 type Plan = { vars: VariableInfo[]; columns: DeliveryColumn[] };
 
 /** The other variables the casts carry (measured ones first, then extras), and the derived ones asked for. */
-function planVariables(casts: readonly CruiseCast[], extras: readonly string[], taken: Set<string>, skip: readonly string[] = []): Plan {
+function planVariables(
+  casts: readonly CruiseCast[],
+  extras: readonly string[],
+  taken: Set<string>,
+  skip: readonly string[] = [],
+): Plan {
   const keys = new Set<string>();
   for (const c of casts) for (const k of Object.keys(c.columns)) keys.add(k);
   const found: VariableInfo[] = [];
@@ -120,7 +189,13 @@ function planVariables(casts: readonly CruiseCast[], extras: readonly string[], 
     taken.add(name);
     taken.add(`${name}_flag`);
     vars.push({ ...v, column: name });
-    columns.push({ name, unit: v.unit, type: 'number', long_name: v.longName, ...(v.standardName ? { standard_name: v.standardName } : {}) });
+    columns.push({
+      name,
+      unit: v.unit,
+      type: 'number',
+      long_name: v.longName,
+      ...(v.standardName ? { standard_name: v.standardName } : {}),
+    });
     columns.push(flagColumn(name));
   }
   return { vars, columns };
@@ -141,10 +216,18 @@ function levelFlags(c: CruiseCast, from: readonly string[], n: number): Float64A
 }
 
 /** The cast's values of every planned variable (store column or derived formula). */
-async function variableValues(cruiseId: string, casts: CruiseCast[], vars: readonly VariableInfo[]): Promise<Map<string, (Float64Array | null)[]>> {
+async function variableValues(
+  cruiseId: string,
+  casts: CruiseCast[],
+  vars: readonly VariableInfo[],
+): Promise<Map<string, (Float64Array | null)[]>> {
   const out = new Map<string, (Float64Array | null)[]>();
   for (const v of vars) {
-    if (casts.some((c) => c.columns[v.key])) out.set(v.key, casts.map((c) => c.columns[v.key] ?? null));
+    if (casts.some((c) => c.columns[v.key]))
+      out.set(
+        v.key,
+        casts.map((c) => c.columns[v.key] ?? null),
+      );
     else out.set(v.key, await propertyColumns(cruiseId, v.key, casts));
   }
   return out;
@@ -165,7 +248,12 @@ function bracket(p: Float64Array, x: number): number {
 }
 
 /** The casts of a line with the flagged levels kept or dropped, flags filtered alongside. */
-function withFlags(c: CruiseCast, include: number[], sources: Record<string, readonly string[]>, values: Record<string, Float64Array | null>) {
+function withFlags(
+  c: CruiseCast,
+  include: number[],
+  sources: Record<string, readonly string[]>,
+  values: Record<string, Float64Array | null>,
+) {
   const n = c.columns.pressure.length;
   const extra: Record<string, Float64Array> = {};
   for (const [name, from] of Object.entries(sources)) extra[`__flag:${name}`] = levelFlags(c, from, n);
@@ -173,7 +261,10 @@ function withFlags(c: CruiseCast, include: number[], sources: Record<string, rea
   return applyFlags({ ...c, columns: { ...c.columns, ...extra } }, include);
 }
 
-async function lineCasts(cruiseId: string, line: string | null | undefined): Promise<{ line: DeliveryLine; casts: CruiseCast[] }> {
+async function lineCasts(
+  cruiseId: string,
+  line: string | null | undefined,
+): Promise<{ line: DeliveryLine; casts: CruiseCast[] }> {
   const all = await loadCruiseCasts(cruiseId);
   const l = await castsOfLine(cruiseId, line ?? null, all);
   return { line: l, casts: l.casts };
@@ -191,12 +282,20 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
   casts.forEach((c, ci) => {
     const sources: Record<string, readonly string[]> = { CT: CT_FLAGS_FROM, SA: SA_FLAGS_FROM };
     for (const v of plan.vars) sources[v.key] = v.flagsFrom;
-    const cols = withFlags(c, q.flags, sources, Object.fromEntries(plan.vars.map((v) => [v.key, values.get(v.key)![ci]])));
+    const cols = withFlags(
+      c,
+      q.flags,
+      sources,
+      Object.fromEntries(plan.vars.map((v) => [v.key, values.get(v.key)![ci]])),
+    );
     if (!cols.pressure || cols.pressure.length < 2) return;
     const sigma = sigma_batch(cols.SA, cols.CT, q.ref);
     const props: Record<string, Float64Array> = { CT: cols.CT, SA: cols.SA };
     for (const v of plan.vars) if (cols[`__val:${v.key}`]) props[v.key] = cols[`__val:${v.key}`];
-    const rm = remapToIsopycnals({ p: cols.pressure, z: cols.z, sigma, props }, levels, { handling: q.handling, interpolation: q.interpolation });
+    const rm = remapToIsopycnals({ p: cols.pressure, z: cols.z, sigma, props }, levels, {
+      handling: q.handling,
+      interpolation: q.interpolation,
+    });
     const thick = rm.thicknessDepth ?? rm.thickness;
     const time = c.time ? c.time.toISOString().replace('.000Z', 'Z') : null;
     const bottom = r('bottom_depth', c.bottomDepth);
@@ -210,9 +309,27 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
       };
       const ct = r('CT', rm.props.CT[k]);
       const sa = r('SA', rm.props.SA[k]);
-      const row: DeliveryRow = [c.station, c.cast, r('latitude', c.latitude), r('longitude', c.longitude), q.ref, r('sigma_level', levels[k]),
-        r('pressure', pk), rm.depth ? r('depth', rm.depth[k]) : null, ct, sa, r('thickness', thick[k]), rm.crossings[k],
-        flagNames(rm.flags[k]).join(';') || null, label, line.name, time, bottom, flagAt('CT', ct), flagAt('SA', sa)];
+      const row: DeliveryRow = [
+        c.station,
+        c.cast,
+        r('latitude', c.latitude),
+        r('longitude', c.longitude),
+        q.ref,
+        r('sigma_level', levels[k]),
+        r('pressure', pk),
+        rm.depth ? r('depth', rm.depth[k]) : null,
+        ct,
+        sa,
+        r('thickness', thick[k]),
+        rm.crossings[k],
+        flagNames(rm.flags[k]).join(';') || null,
+        label,
+        line.name,
+        time,
+        bottom,
+        flagAt('CT', ct),
+        flagAt('SA', sa),
+      ];
       for (const v of plan.vars) {
         const raw = rm.props[v.key] ? rm.props[v.key][k] : NaN;
         const val = Number.isFinite(raw) ? roundTo(raw, v.decimals) : null;
@@ -226,9 +343,21 @@ export async function isopycnalTable(cruiseId: string, who: string, q: Isopycnal
     ...(isDefault ? [`Levels: the default policy, ${DEFAULT_LEVELS_RULE}.`] : []),
     line.note ?? `Line ${line.name}: ${casts.length} casts.`,
   ];
-  return { kind: 'isopycnal', columns, rows,
-    provenance: await provenanceFor(cruiseId, who, { referencePressure: q.ref, layerSet: levelsText, inversionHandling: q.handling,
-      interpolation: q.interpolation, flagsIncluded: q.flags, line: line.name, expocode, notes }) };
+  return {
+    kind: 'isopycnal',
+    columns,
+    rows,
+    provenance: await provenanceFor(cruiseId, who, {
+      referencePressure: q.ref,
+      layerSet: levelsText,
+      inversionHandling: q.handling,
+      interpolation: q.interpolation,
+      flagsIncluded: q.flags,
+      line: line.name,
+      expocode,
+      notes,
+    }),
+  };
 }
 
 export async function pressureTable(cruiseId: string, who: string, q: PressureRequest): Promise<DeliveryTable> {
@@ -236,14 +365,26 @@ export async function pressureTable(cruiseId: string, who: string, q: PressureRe
   const { line, casts } = await lineCasts(cruiseId, q.line);
   const { label, expocode } = await cruiseLabel(cruiseId, cruise.name);
   // t and SP are contract columns of the pressure table; the plan adds the rest.
-  const taken = new Set([...PRESSURE_COLUMNS, ...CONTEXT_COLUMNS].map((c) => c.name).concat(['CT_flag', 'SA_flag', 't_flag', 'SP_flag']));
+  const taken = new Set(
+    [...PRESSURE_COLUMNS, ...CONTEXT_COLUMNS].map((c) => c.name).concat(['CT_flag', 'SA_flag', 't_flag', 'SP_flag']),
+  );
   const plan = planVariables(casts, q.extras, taken, ['temperature', 'SP']);
   const values = await variableValues(cruiseId, casts, plan.vars);
   const rows: DeliveryRow[] = [];
   casts.forEach((c, ci) => {
-    const sources: Record<string, readonly string[]> = { CT: CT_FLAGS_FROM, SA: SA_FLAGS_FROM, temperature: ['temperature'], SP: SA_FLAGS_FROM };
+    const sources: Record<string, readonly string[]> = {
+      CT: CT_FLAGS_FROM,
+      SA: SA_FLAGS_FROM,
+      temperature: ['temperature'],
+      SP: SA_FLAGS_FROM,
+    };
     for (const v of plan.vars) sources[v.key] = v.flagsFrom;
-    const cols = withFlags(c, q.flags, sources, Object.fromEntries(plan.vars.map((v) => [v.key, values.get(v.key)![ci]])));
+    const cols = withFlags(
+      c,
+      q.flags,
+      sources,
+      Object.fromEntries(plan.vars.map((v) => [v.key, values.get(v.key)![ci]])),
+    );
     if (!cols.pressure || !cols.pressure.length) return;
     const props: Record<string, Float64Array> = {};
     for (const n of ['CT', 'SA', 'sigma0', 'z', 'temperature', 'SP']) if (cols[n]) props[n] = cols[n];
@@ -274,8 +415,28 @@ export async function pressureTable(cruiseId: string, who: string, q: PressureRe
       const sa = g('SA');
       const t = g('temperature', 't');
       const sp = g('SP');
-      const row: DeliveryRow = [c.station, c.cast, r('latitude', c.latitude), r('longitude', c.longitude), r('pressure', b.pressure[k]), b.count[k],
-        ct, sa, g('sigma0'), z === null ? null : -z || 0, t, sp, label, line.name, time, bottom, fl('CT', ct), fl('SA', sa), fl('temperature', t), fl('SP', sp)];
+      const row: DeliveryRow = [
+        c.station,
+        c.cast,
+        r('latitude', c.latitude),
+        r('longitude', c.longitude),
+        r('pressure', b.pressure[k]),
+        b.count[k],
+        ct,
+        sa,
+        g('sigma0'),
+        z === null ? null : -z || 0,
+        t,
+        sp,
+        label,
+        line.name,
+        time,
+        bottom,
+        fl('CT', ct),
+        fl('SA', sa),
+        fl('temperature', t),
+        fl('SP', sp),
+      ];
       for (const v of plan.vars) {
         const raw = b.props[v.key] ? b.props[v.key][k] : NaN;
         const val = Number.isFinite(raw) ? roundTo(raw, v.decimals) : null;
@@ -284,10 +445,27 @@ export async function pressureTable(cruiseId: string, who: string, q: PressureRe
       rows.push(row);
     }
   });
-  const columns = [...PRESSURE_COLUMNS, ...CONTEXT_COLUMNS, flagColumn('CT'), flagColumn('SA'), flagColumn('t'), flagColumn('SP'), ...plan.columns];
-  return { kind: 'pressure', columns, rows,
-    provenance: await provenanceFor(cruiseId, who, { layerSet: `pressure bins of ${q.bin} dbar`, flagsIncluded: q.flags, line: line.name, expocode,
-      notes: [line.note ?? `Line ${line.name}: ${casts.length} casts.`] }) };
+  const columns = [
+    ...PRESSURE_COLUMNS,
+    ...CONTEXT_COLUMNS,
+    flagColumn('CT'),
+    flagColumn('SA'),
+    flagColumn('t'),
+    flagColumn('SP'),
+    ...plan.columns,
+  ];
+  return {
+    kind: 'pressure',
+    columns,
+    rows,
+    provenance: await provenanceFor(cruiseId, who, {
+      layerSet: `pressure bins of ${q.bin} dbar`,
+      flagsIncluded: q.flags,
+      line: line.name,
+      expocode,
+      notes: [line.note ?? `Line ${line.name}: ${casts.length} casts.`],
+    }),
+  };
 }
 
 export { columnName };

@@ -30,8 +30,10 @@ export function sigmaRange(casts: readonly CruiseCast[], ref: number): [number, 
 export function levelsOrError(spec: string): Float64Array {
   const r = safeParseLevels(spec);
   if (!r.ok) {
-    throw badRequest(`The levels "${spec.slice(0, 80)}" are not valid: ${r.errors.join('; ')}`,
-      r.errors.map((m) => ({ field: 'levels', message: m })));
+    throw badRequest(
+      `The levels "${spec.slice(0, 80)}" are not valid: ${r.errors.join('; ')}`,
+      r.errors.map((m) => ({ field: 'levels', message: m })),
+    );
   }
   return r.levels;
 }
@@ -45,7 +47,11 @@ export function resolveLevels(casts: readonly CruiseCast[], ref: number, asked?:
 }
 
 /** Geostrophy's layer boundaries: asked for, or the thinned default levels. */
-export function resolveLayerBoundaries(casts: readonly CruiseCast[], ref: number, asked?: string | null): ResolvedLevels {
+export function resolveLayerBoundaries(
+  casts: readonly CruiseCast[],
+  ref: number,
+  asked?: string | null,
+): ResolvedLevels {
   const text = asked ?? defaultLayerBoundaries(ref, sigmaRange(casts, ref));
   return { text, levels: levelsOrError(text), isDefault: asked == null };
 }

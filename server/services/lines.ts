@@ -67,7 +67,8 @@ export function deepestGood(c: CruiseCast): number {
   let deep = -Infinity;
   const p = k.pressure;
   if (!p) return deep;
-  for (let i = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(k.SA?.[i]) && Number.isFinite(k.CT?.[i]) && p[i] > deep) deep = p[i];
+  for (let i = 0; i < p.length; i++)
+    if (Number.isFinite(p[i]) && Number.isFinite(k.SA?.[i]) && Number.isFinite(k.CT?.[i]) && p[i] > deep) deep = p[i];
   return deep;
 }
 
@@ -84,8 +85,12 @@ export function compositeCast(shallow: CruiseCast, deep: CruiseCast, joinPressur
   for (let i = 0; i < pd.length; i++) if (pd[i] >= joinPressure) bottom.push(i);
   const join = <T extends Float64Array | Uint8Array>(a: T, b: T, make: (n: number) => T): T => {
     const out = make(top.length + bottom.length);
-    top.forEach((i, j) => { out[j] = a[i]; });
-    bottom.forEach((i, j) => { out[top.length + j] = b[i]; });
+    top.forEach((i, j) => {
+      out[j] = a[i];
+    });
+    bottom.forEach((i, j) => {
+      out[top.length + j] = b[i];
+    });
     return out;
   };
   const columns: Record<string, Float64Array> = {};
@@ -98,8 +103,18 @@ export function compositeCast(shallow: CruiseCast, deep: CruiseCast, joinPressur
     const b = deep.flags[name];
     if (b && a.length === ps.length && b.length === pd.length) flags[name] = join(a, b, (n) => new Uint8Array(n));
   }
-  const inversions = [...shallow.inversions.filter((v) => v.pBottom < joinPressure), ...deep.inversions.filter((v) => v.pTop >= joinPressure)];
-  return { ...deep, cast: `${shallow.cast}+${deep.cast}`, bottomDepth: deep.bottomDepth ?? shallow.bottomDepth, inversions, columns, flags };
+  const inversions = [
+    ...shallow.inversions.filter((v) => v.pBottom < joinPressure),
+    ...deep.inversions.filter((v) => v.pTop >= joinPressure),
+  ];
+  return {
+    ...deep,
+    cast: `${shallow.cast}+${deep.cast}`,
+    bottomDepth: deep.bottomDepth ?? shallow.bottomDepth,
+    inversions,
+    columns,
+    flags,
+  };
 }
 
 /** The cruise's default line row, made on first need (one per cruise, by a unique index). */
@@ -109,7 +124,8 @@ export async function ensureDefaultLine(cruiseId: string, transaction?: Transact
   await Line.sequelize!.query(
     `INSERT INTO lines (id, cruise_id, name, is_default, stations, casts, include, exclude, created_at, updated_at)
      VALUES (gen_random_uuid(), :cruiseId, :name, true, '[]', '{}', '[]', '[]', now(), now()) ON CONFLICT (cruise_id) WHERE is_default DO NOTHING`,
-    { replacements: { cruiseId, name: DEFAULT_LINE_NAME }, type: QueryTypes.INSERT, transaction });
+    { replacements: { cruiseId, name: DEFAULT_LINE_NAME }, type: QueryTypes.INSERT, transaction },
+  );
   return (await Line.findOne({ where: { cruiseId, isDefault: true }, transaction }))!;
 }
 
@@ -128,7 +144,10 @@ function groupByStation(all: CruiseCast[]): Map<string, StationCasts> {
   const by = new Map<string, StationCasts>();
   for (const c of all) {
     let g = by.get(c.station);
-    if (!g) { g = { station: c.station, casts: [], deepest: new Map() }; by.set(c.station, g); }
+    if (!g) {
+      g = { station: c.station, casts: [], deepest: new Map() };
+      by.set(c.station, g);
+    }
     g.casts.push(c);
     g.deepest.set(c.id, deepestGood(c));
   }
@@ -139,11 +158,25 @@ function groupByStation(all: CruiseCast[]): Map<string, StationCasts> {
 function deepestCast(g: StationCasts): CruiseCast | null {
   let best: CruiseCast | null = null;
   let bestP = -Infinity;
-  for (const c of g.casts) { const p = g.deepest.get(c.id)!; if (p > bestP) { best = c; bestP = p; } }
+  for (const c of g.casts) {
+    const p = g.deepest.get(c.id)!;
+    if (p > bestP) {
+      best = c;
+      bestP = p;
+    }
+  }
   return best && Number.isFinite(bestP) ? best : null;
 }
 
-function pickCast(g: StationCasts, choice: LineCastChoice | undefined): { cast: CruiseCast; choice: ResolvedStation['choice']; composite: CompositeInfo | null; note: string | null } | null {
+function pickCast(
+  g: StationCasts,
+  choice: LineCastChoice | undefined,
+): {
+  cast: CruiseCast;
+  choice: ResolvedStation['choice'];
+  composite: CompositeInfo | null;
+  note: string | null;
+} | null {
   const deepest = deepestCast(g);
   if (choice !== undefined) {
     const byId = new Map(g.casts.map((c) => [c.id, c]));
@@ -154,12 +187,27 @@ function pickCast(g: StationCasts, choice: LineCastChoice | undefined): { cast: 
       const s = byId.get(choice.shallow);
       const d = byId.get(choice.deep);
       if (s && d) {
-        return { cast: compositeCast(s, d, choice.joinPressure), choice: 'composite',
-          composite: { shallowCastId: s.id, shallowCast: s.cast, deepCastId: d.id, deepCast: d.cast, joinPressure: choice.joinPressure },
-          note: `composite: cast ${s.cast} above ${choice.joinPressure} dbar, cast ${d.cast} from ${choice.joinPressure} dbar down` };
+        return {
+          cast: compositeCast(s, d, choice.joinPressure),
+          choice: 'composite',
+          composite: {
+            shallowCastId: s.id,
+            shallowCast: s.cast,
+            deepCastId: d.id,
+            deepCast: d.cast,
+            joinPressure: choice.joinPressure,
+          },
+          note: `composite: cast ${s.cast} above ${choice.joinPressure} dbar, cast ${d.cast} from ${choice.joinPressure} dbar down`,
+        };
       }
     }
-    if (deepest) return { cast: deepest, choice: 'deepest', composite: null, note: 'the cast chosen for this station is gone; its deepest good cast stands in' };
+    if (deepest)
+      return {
+        cast: deepest,
+        choice: 'deepest',
+        composite: null,
+        note: 'the cast chosen for this station is gone; its deepest good cast stands in',
+      };
     return null;
   }
   return deepest ? { cast: deepest, choice: 'deepest', composite: null, note: null } : null;
@@ -170,7 +218,11 @@ function pickCast(g: StationCasts, choice: LineCastChoice | undefined): { cast: 
 function defaultOrder(plan: Station[], groups: Map<string, StationCasts>): string[] {
   const names = plan.map((s) => s.name).filter((n) => groups.has(n));
   const seen = new Set(names);
-  for (const name of groups.keys()) if (!seen.has(name)) { names.push(name); seen.add(name); }
+  for (const name of groups.keys())
+    if (!seen.has(name)) {
+      names.push(name);
+      seen.add(name);
+    }
   return names;
 }
 
@@ -181,30 +233,56 @@ function defaultOrder(plan: Station[], groups: Map<string, StationCasts>): strin
  */
 export async function resolveLine(cruiseId: string, row: Line, all: CruiseCast[]): Promise<ResolvedLine> {
   const groups = groupByStation(all);
-  const plan = await Station.findAll({ where: { cruiseId }, attributes: ['name', 'order', 'plannedDepth'], order: [['order', 'ASC'], ['name', 'ASC']] });
+  const plan = await Station.findAll({
+    where: { cruiseId },
+    attributes: ['name', 'order', 'plannedDepth'],
+    order: [
+      ['order', 'ASC'],
+      ['name', 'ASC'],
+    ],
+  });
   const plannedDepth = new Map(plan.map((s) => [s.name, s.plannedDepth]));
   const excluded: ResolvedLine['excluded'] = [];
   let offLine: ResolvedLine['offLine'] = [];
-  const chosen: { station: string; pick: NonNullable<ReturnType<typeof pickCast>>; g: StationCasts; fromPlan: boolean }[] = [];
+  const chosen: {
+    station: string;
+    pick: NonNullable<ReturnType<typeof pickCast>>;
+    g: StationCasts;
+    fromPlan: boolean;
+  }[] = [];
   const take = (name: string) => {
     const g = groups.get(name);
-    if (!g) { excluded.push({ station: name, why: 'no cast at this station' }); return; }
+    if (!g) {
+      excluded.push({ station: name, why: 'no cast at this station' });
+      return;
+    }
     const pick = pickCast(g, row.casts[name]);
-    if (!pick) { excluded.push({ station: name, why: 'no cast with good data at this station' }); return; }
+    if (!pick) {
+      excluded.push({ station: name, why: 'no cast with good data at this station' });
+      return;
+    }
     chosen.push({ station: name, pick, g, fromPlan: false });
   };
   if (row.isDefault) {
     const exclude = new Set(row.exclude);
     const order = defaultOrder(plan, groups).filter((n) => {
-      if (exclude.has(n)) { excluded.push({ station: n, why: 'left out by the analyst' }); return false; }
+      if (exclude.has(n)) {
+        excluded.push({ station: n, why: 'left out by the analyst' });
+        return false;
+      }
       return true;
     });
     for (const n of order) take(n);
     const include = new Set(row.include);
-    const off = offLineStations(chosen.map((c) => ({ station: c.station, lon: c.pick.cast.longitude, lat: c.pick.cast.latitude })), OFF_LINE_FACTOR)
-      .filter((o) => !include.has(o.station));
+    const off = offLineStations(
+      chosen.map((c) => ({ station: c.station, lon: c.pick.cast.longitude, lat: c.pick.cast.latitude })),
+      OFF_LINE_FACTOR,
+    ).filter((o) => !include.has(o.station));
     const offSet = new Set(off.map((o) => o.station));
-    offLine = off.map((o) => { const c = chosen.find((x) => x.station === o.station)!; return { ...o, castId: c.pick.cast.id, latitude: c.pick.cast.latitude, longitude: c.pick.cast.longitude }; });
+    offLine = off.map((o) => {
+      const c = chosen.find((x) => x.station === o.station)!;
+      return { ...o, castId: c.pick.cast.id, latitude: c.pick.cast.latitude, longitude: c.pick.cast.longitude };
+    });
     for (let i = chosen.length - 1; i >= 0; i--) if (offSet.has(chosen[i].station)) chosen.splice(i, 1);
   } else {
     for (const n of row.stations) take(n);
@@ -217,19 +295,48 @@ export async function resolveLine(cruiseId: string, row: Line, all: CruiseCast[]
       c.fromPlan = true;
     }
   }
-  const x = lineDistances(chosen.map((c) => ({ lon: c.pick.cast.longitude, lat: c.pick.cast.latitude })), row.polyline);
+  const x = lineDistances(
+    chosen.map((c) => ({ lon: c.pick.cast.longitude, lat: c.pick.cast.latitude })),
+    row.polyline,
+  );
   const stations: ResolvedStation[] = chosen.map((c, i) => ({
-    station: c.station, castId: c.pick.cast.id, cast: c.pick.cast.cast, latitude: c.pick.cast.latitude, longitude: c.pick.cast.longitude,
-    choice: c.pick.choice, composite: c.pick.composite, deepest: deepestGood(c.pick.cast), note: c.pick.note, x: x[i],
-    bottomDepth: c.pick.cast.bottomDepth, bottomSource: c.pick.cast.bottomDepth === null ? null : c.fromPlan ? 'plan' : 'file',
-    candidates: c.g.casts.map((k) => ({ castId: k.id, cast: k.cast, deepest: c.g.deepest.get(k.id)! })).filter((k) => Number.isFinite(k.deepest))
+    station: c.station,
+    castId: c.pick.cast.id,
+    cast: c.pick.cast.cast,
+    latitude: c.pick.cast.latitude,
+    longitude: c.pick.cast.longitude,
+    choice: c.pick.choice,
+    composite: c.pick.composite,
+    deepest: deepestGood(c.pick.cast),
+    note: c.pick.note,
+    x: x[i],
+    bottomDepth: c.pick.cast.bottomDepth,
+    bottomSource: c.pick.cast.bottomDepth === null ? null : c.fromPlan ? 'plan' : 'file',
+    candidates: c.g.casts
+      .map((k) => ({ castId: k.id, cast: k.cast, deepest: c.g.deepest.get(k.id)! }))
+      .filter((k) => Number.isFinite(k.deepest))
       .sort((a, b) => b.deepest - a.deepest),
   }));
-  return { id: row.id, name: row.name, isDefault: row.isDefault, polyline: row.polyline, corridorKm: row.corridorKm, stations, offLine, excluded, include: row.include, casts: chosen.map((c) => c.pick.cast) };
+  return {
+    id: row.id,
+    name: row.name,
+    isDefault: row.isDefault,
+    polyline: row.polyline,
+    corridorKm: row.corridorKm,
+    stations,
+    offLine,
+    excluded,
+    include: row.include,
+    casts: chosen.map((c) => c.pick.cast),
+  };
 }
 
 /** The casts of a line (or the default line) in line order with their distances: what every section-shaped route draws from. */
-export async function loadLineCasts(cruiseId: string, lineId: string | undefined | null, names?: string[]): Promise<ResolvedLine> {
+export async function loadLineCasts(
+  cruiseId: string,
+  lineId: string | undefined | null,
+  names?: string[],
+): Promise<ResolvedLine> {
   const row = await lineRow(cruiseId, lineId);
   const all = await loadCruiseCasts(cruiseId, names);
   return resolveLine(cruiseId, row, all);
@@ -237,7 +344,11 @@ export async function loadLineCasts(cruiseId: string, lineId: string | undefined
 
 /** A provenance note naming the line and its stations (every file carries it). */
 export function lineProvenanceNote(l: ResolvedLine): string {
-  const st = l.stations.map((s) => (s.composite ? `${s.station} (casts ${s.composite.shallowCast}+${s.composite.deepCast} joined at ${s.composite.joinPressure} dbar)` : `${s.station} (cast ${s.cast})`));
+  const st = l.stations.map((s) =>
+    s.composite
+      ? `${s.station} (casts ${s.composite.shallowCast}+${s.composite.deepCast} joined at ${s.composite.joinPressure} dbar)`
+      : `${s.station} (cast ${s.cast})`,
+  );
   return `Line: ${l.name}${l.isDefault ? ' (the default line)' : ''}, id ${l.id}; ${l.stations.length} stations in order: ${st.join(', ')}`;
 }
 
@@ -250,7 +361,14 @@ export function lineJson(l: ResolvedLine) {
 
 export async function listLines(cruiseId: string): Promise<ReturnType<typeof lineJson>[]> {
   await ensureDefaultLine(cruiseId);
-  const rows = await Line.findAll({ where: { cruiseId }, order: [['isDefault', 'DESC'], ['name', 'ASC'], ['createdAt', 'ASC']] });
+  const rows = await Line.findAll({
+    where: { cruiseId },
+    order: [
+      ['isDefault', 'DESC'],
+      ['name', 'ASC'],
+      ['createdAt', 'ASC'],
+    ],
+  });
   const all = await loadCruiseCasts(cruiseId, []);
   const out = [];
   for (const r of rows) out.push(lineJson(await resolveLine(cruiseId, r, all)));
@@ -268,20 +386,40 @@ export type LineInput = {
 };
 
 /** Checks of a line's stations and cast choices against the cruise's casts; throws 400 with details. */
-async function checkInput(cruiseId: string, input: LineInput, isDefault: boolean): Promise<{ stations?: string[]; casts?: Record<string, LineCastChoice> }> {
-  const rows = await Cast.findAll({ where: { cruiseId }, attributes: ['id', 'station', 'cast', 'latitude', 'longitude', 'time'], order: [['time', 'ASC NULLS LAST'], ['station', 'ASC'], ['cast', 'ASC']] });
+async function checkInput(
+  cruiseId: string,
+  input: LineInput,
+  isDefault: boolean,
+): Promise<{ stations?: string[]; casts?: Record<string, LineCastChoice> }> {
+  const rows = await Cast.findAll({
+    where: { cruiseId },
+    attributes: ['id', 'station', 'cast', 'latitude', 'longitude', 'time'],
+    order: [
+      ['time', 'ASC NULLS LAST'],
+      ['station', 'ASC'],
+      ['cast', 'ASC'],
+    ],
+  });
   const stationsKnown = new Map<string, { lon: number; lat: number }>();
-  for (const r of rows) if (!stationsKnown.has(r.station)) stationsKnown.set(r.station, { lon: r.longitude, lat: r.latitude });
+  for (const r of rows)
+    if (!stationsKnown.has(r.station)) stationsKnown.set(r.station, { lon: r.longitude, lat: r.latitude });
   const details: { field: string; message: string }[] = [];
   let stations = input.stations;
-  if (isDefault && stations) throw badRequest('The default line takes its stations from the casts and the plan; use include and exclude.', [{ field: 'stations', message: 'not for the default line' }]);
+  if (isDefault && stations)
+    throw badRequest('The default line takes its stations from the casts and the plan; use include and exclude.', [
+      { field: 'stations', message: 'not for the default line' },
+    ]);
   if (input.polyline && input.polyline.length >= 2 && !isDefault) {
     // stations near the drawn polyline, ordered by their projection on it
     const pool = stations ?? [...stationsKnown.keys()];
     const points = pool.filter((s) => stationsKnown.has(s)).map((s) => ({ station: s, ...stationsKnown.get(s)! }));
     const near = stationsNearPolyline(points, input.polyline, input.corridorKm ?? DEFAULT_CORRIDOR_KM);
     stations = near.map((p) => p.station);
-    if (stations.length < 2) details.push({ field: 'polyline', message: `fewer than two stations lie within ${input.corridorKm ?? DEFAULT_CORRIDOR_KM} km of the drawn line` });
+    if (stations.length < 2)
+      details.push({
+        field: 'polyline',
+        message: `fewer than two stations lie within ${input.corridorKm ?? DEFAULT_CORRIDOR_KM} km of the drawn line`,
+      });
   }
   if (stations) {
     const seen = new Set<string>();
@@ -290,10 +428,15 @@ async function checkInput(cruiseId: string, input: LineInput, isDefault: boolean
       if (seen.has(s)) details.push({ field: `stations[${i}]`, message: `station ${s} is listed twice` });
       seen.add(s);
     });
-    if (!isDefault && stations.length < 1) details.push({ field: 'stations', message: 'a line needs at least one station' });
+    if (!isDefault && stations.length < 1)
+      details.push({ field: 'stations', message: 'a line needs at least one station' });
   }
-  for (const [k, list] of [['include', input.include], ['exclude', input.exclude]] as const) {
-    if (list && !isDefault) details.push({ field: k, message: 'only the default line takes include and exclude; edit the stations list' });
+  for (const [k, list] of [
+    ['include', input.include],
+    ['exclude', input.exclude],
+  ] as const) {
+    if (list && !isDefault)
+      details.push({ field: k, message: 'only the default line takes include and exclude; edit the stations list' });
   }
   let casts: Record<string, LineCastChoice> | undefined;
   if (input.casts) {
@@ -306,10 +449,15 @@ async function checkInput(cruiseId: string, input: LineInput, isDefault: boolean
       for (const id of ids) {
         const c = byId.get(id);
         if (!c) details.push({ field: `casts.${station}`, message: `no cast ${id} in this cruise` });
-        else if (c.station !== station) details.push({ field: `casts.${station}`, message: `cast ${c.cast} (${id}) is at station ${c.station}, not ${station}` });
+        else if (c.station !== station)
+          details.push({
+            field: `casts.${station}`,
+            message: `cast ${c.cast} (${id}) is at station ${c.station}, not ${station}`,
+          });
       }
       if (typeof choice !== 'string') {
-        if (choice.shallow === choice.deep) details.push({ field: `casts.${station}`, message: 'a composite needs two different casts' });
+        if (choice.shallow === choice.deep)
+          details.push({ field: `casts.${station}`, message: 'a composite needs two different casts' });
         needRange.push(choice.shallow, choice.deep);
       }
       casts[station] = choice;
@@ -320,10 +468,25 @@ async function checkInput(cruiseId: string, input: LineInput, isDefault: boolean
         if (typeof choice === 'string') continue;
         const ps = cols.get(choice.shallow)?.columns.pressure;
         const pd = cols.get(choice.deep)?.columns.pressure;
-        if (!ps?.length || !pd?.length) { details.push({ field: `casts.${station}`, message: 'a cast of the composite has no profile' }); continue; }
-        if (!(ps[0] < choice.joinPressure)) details.push({ field: `casts.${station}.joinPressure`, message: `the shallow cast starts at ${ps[0]} dbar, below the join` });
-        if (!(pd[0] <= choice.joinPressure && pd[pd.length - 1] > choice.joinPressure)) details.push({ field: `casts.${station}.joinPressure`, message: `the deep cast spans ${pd[0]}–${pd[pd.length - 1]} dbar and does not cross the join` });
-        if (ps[ps.length - 1] < choice.joinPressure - 50) details.push({ field: `casts.${station}.joinPressure`, message: `the shallow cast stops at ${ps[ps.length - 1]} dbar, more than 50 dbar above the join` });
+        if (!ps?.length || !pd?.length) {
+          details.push({ field: `casts.${station}`, message: 'a cast of the composite has no profile' });
+          continue;
+        }
+        if (!(ps[0] < choice.joinPressure))
+          details.push({
+            field: `casts.${station}.joinPressure`,
+            message: `the shallow cast starts at ${ps[0]} dbar, below the join`,
+          });
+        if (!(pd[0] <= choice.joinPressure && pd[pd.length - 1] > choice.joinPressure))
+          details.push({
+            field: `casts.${station}.joinPressure`,
+            message: `the deep cast spans ${pd[0]}–${pd[pd.length - 1]} dbar and does not cross the join`,
+          });
+        if (ps[ps.length - 1] < choice.joinPressure - 50)
+          details.push({
+            field: `casts.${station}.joinPressure`,
+            message: `the shallow cast stops at ${ps[ps.length - 1]} dbar, more than 50 dbar above the join`,
+          });
       }
     }
   }
@@ -331,28 +494,58 @@ async function checkInput(cruiseId: string, input: LineInput, isDefault: boolean
   return { stations, casts };
 }
 
-export async function createLine(cruiseId: string, userId: string | null, input: LineInput & { name: string }, transaction: Transaction): Promise<Line> {
-  if (!input.stations && !input.polyline) throw badRequest('A line needs its stations or a drawn polyline.', [{ field: 'stations', message: 'required' }]);
+export async function createLine(
+  cruiseId: string,
+  userId: string | null,
+  input: LineInput & { name: string },
+  transaction: Transaction,
+): Promise<Line> {
+  if (!input.stations && !input.polyline)
+    throw badRequest('A line needs its stations or a drawn polyline.', [{ field: 'stations', message: 'required' }]);
   const checked = await checkInput(cruiseId, input, false);
-  return Line.create({ cruiseId, name: input.name, isDefault: false, stations: checked.stations ?? [], casts: checked.casts ?? {},
-    polyline: input.polyline ?? null, corridorKm: input.polyline ? input.corridorKm ?? DEFAULT_CORRIDOR_KM : null, createdBy: userId }, { transaction });
+  return Line.create(
+    {
+      cruiseId,
+      name: input.name,
+      isDefault: false,
+      stations: checked.stations ?? [],
+      casts: checked.casts ?? {},
+      polyline: input.polyline ?? null,
+      corridorKm: input.polyline ? (input.corridorKm ?? DEFAULT_CORRIDOR_KM) : null,
+      createdBy: userId,
+    },
+    { transaction },
+  );
 }
 
 export async function updateLine(row: Line, input: LineInput, transaction: Transaction): Promise<Line> {
   const polylineChanged = input.polyline !== undefined;
-  const checked = await checkInput(row.cruiseId, { ...input, polyline: polylineChanged ? input.polyline : undefined, stations: input.stations ?? (polylineChanged && input.polyline ? undefined : input.stations) }, row.isDefault);
+  const checked = await checkInput(
+    row.cruiseId,
+    {
+      ...input,
+      polyline: polylineChanged ? input.polyline : undefined,
+      stations: input.stations ?? (polylineChanged && input.polyline ? undefined : input.stations),
+    },
+    row.isDefault,
+  );
   const next: Partial<Line> = {};
   if (input.name !== undefined) next.name = input.name;
   if (checked.stations) next.stations = checked.stations;
   if (input.casts) {
     const merged = { ...row.casts };
-    for (const [k, v] of Object.entries(input.casts)) { if (v === null) delete merged[k]; else merged[k] = v; }
+    for (const [k, v] of Object.entries(input.casts)) {
+      if (v === null) delete merged[k];
+      else merged[k] = v;
+    }
     next.casts = merged;
   }
   if (input.include) next.include = input.include;
   if (input.exclude) next.exclude = input.exclude;
-  if (polylineChanged) { next.polyline = input.polyline ?? null; next.corridorKm = input.polyline ? input.corridorKm ?? row.corridorKm ?? DEFAULT_CORRIDOR_KM : null; }
-  else if (input.corridorKm !== undefined) next.corridorKm = input.corridorKm;
+  if (polylineChanged) {
+    next.polyline = input.polyline ?? null;
+    next.corridorKm = input.polyline ? (input.corridorKm ?? row.corridorKm ?? DEFAULT_CORRIDOR_KM) : null;
+  } else if (input.corridorKm !== undefined) next.corridorKm = input.corridorKm;
   row.changed('updatedAt', true);
   return row.update({ ...next, updatedAt: new Date() }, { transaction });
 }

@@ -5,7 +5,15 @@ import { z } from 'zod';
 
 export type OutgoingMail = { to: string | string[]; subject: string; text: string; html?: string };
 export type CaughtMail = z.infer<typeof CaughtMail>;
-const CaughtMail = z.object({ id: z.string(), from: z.string(), to: z.array(z.string()), subject: z.string(), date: z.string(), text: z.string(), html: z.string() });
+const CaughtMail = z.object({
+  id: z.string(),
+  from: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  date: z.string(),
+  text: z.string(),
+  html: z.string(),
+});
 
 export type Mailer = {
   send(mail: OutgoingMail): Promise<void>;
@@ -29,4 +37,5 @@ export function createMailer(opts: { smtpUrl: string; from: string; captureUrl?:
   };
 }
 
-export const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+export const escapeHtml = (s: string) =>
+  s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);

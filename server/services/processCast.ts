@@ -17,10 +17,32 @@ export type ProcessedCast = {
   mld: unknown;
 };
 
-const UNITS: Record<string, string> = { pressure: 'dbar', depth: 'm', temperature: 'degC (ITS-90)', SP: '1 (PSS-78)', conductivity: 'mS/cm', SA: 'g/kg', SR: 'g/kg', CT: 'degC', pt0: 'degC', rho: 'kg/m3',
-  sigma0: 'kg/m3', sigma1: 'kg/m3', sigma2: 'kg/m3', sigma3: 'kg/m3', sigma4: 'kg/m3', N2: '1/s2', p_mid: 'dbar', spiciness0: 'kg/m3', z: 'm' };
+const UNITS: Record<string, string> = {
+  pressure: 'dbar',
+  depth: 'm',
+  temperature: 'degC (ITS-90)',
+  SP: '1 (PSS-78)',
+  conductivity: 'mS/cm',
+  SA: 'g/kg',
+  SR: 'g/kg',
+  CT: 'degC',
+  pt0: 'degC',
+  rho: 'kg/m3',
+  sigma0: 'kg/m3',
+  sigma1: 'kg/m3',
+  sigma2: 'kg/m3',
+  sigma3: 'kg/m3',
+  sigma4: 'kg/m3',
+  N2: '1/s2',
+  p_mid: 'dbar',
+  spiciness0: 'kg/m3',
+  z: 'm',
+};
 
-export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }): { ok: true; cast: ProcessedCast } | { ok: false; errors: FileError[] } {
+export function processCast(
+  c0: ParsedCast,
+  opts: { inversionThreshold: number },
+): { ok: true; cast: ProcessedCast } | { ok: false; errors: FileError[] } {
   let c = c0;
   const lat = c.metadata.latitude!;
   const lon = c.metadata.longitude!;
@@ -37,7 +59,10 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
   // only levels deeper than every level before them, so pressure increases strictly.
   let keep: number[] | null = null;
   for (let i = 1, max = p[0]; i < n; i++) {
-    if (!(p[i] > max)) { keep ??= Array.from({ length: i }, (_, k) => k); continue; }
+    if (!(p[i] > max)) {
+      keep ??= Array.from({ length: i }, (_, k) => k);
+      continue;
+    }
     max = p[i];
     keep?.push(i);
   }
@@ -45,9 +70,17 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
     const pick = (a: Float64Array) => Float64Array.from(keep!, (k) => a[k]);
     const pickU8 = (a: Uint8Array) => Uint8Array.from(keep!, (k) => a[k]);
     notes.push(`${n - keep.length} levels dropped where pressure did not increase (pressure reversals)`);
-    c = { ...c, columns: Object.fromEntries(Object.entries(c.columns).map(([k, v]) => [k, v ? pick(v) : v])) as ParsedCast['columns'],
-      extras: Object.fromEntries(Object.entries(c.extras).map(([k, e]) => [k, { unit: e.unit, values: pick(e.values) }])),
-      flags: Object.fromEntries(Object.entries(c.flags).map(([k, v]) => [k, pickU8(v)])), profile: { ...c.profile, levels: keep.length } };
+    c = {
+      ...c,
+      columns: Object.fromEntries(
+        Object.entries(c.columns).map(([k, v]) => [k, v ? pick(v) : v]),
+      ) as ParsedCast['columns'],
+      extras: Object.fromEntries(
+        Object.entries(c.extras).map(([k, e]) => [k, { unit: e.unit, values: pick(e.values) }]),
+      ),
+      flags: Object.fromEntries(Object.entries(c.flags).map(([k, v]) => [k, pickU8(v)])),
+      profile: { ...c.profile, levels: keep.length },
+    };
     p = pick(p);
     n = keep.length;
   }
@@ -59,11 +92,30 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
   notes.push(...derived.notes.map((n) => n.message + (n.count && n.count > 1 ? ` (${n.count} levels)` : '')));
   const z = new Float64Array(n);
   for (let i = 0; i < n; i++) z[i] = -derived.depth[i];
-  const cols: Record<string, Float64Array | undefined> = { SP: derived.SP, SA: derived.SA, CT: derived.CT, pt0: derived.pt0, sigma0: derived.sigma0, sigma1: derived.sigma1,
-    sigma2: derived.sigma2, sigma3: derived.sigma3, sigma4: derived.sigma4, rho: derived.rho, spiciness0: derived.spiciness0, N2: derived.N2, p_mid: derived.p_mid, z };
+  const cols: Record<string, Float64Array | undefined> = {
+    SP: derived.SP,
+    SA: derived.SA,
+    CT: derived.CT,
+    pt0: derived.pt0,
+    sigma0: derived.sigma0,
+    sigma1: derived.sigma1,
+    sigma2: derived.sigma2,
+    sigma3: derived.sigma3,
+    sigma4: derived.sigma4,
+    rho: derived.rho,
+    spiciness0: derived.spiciness0,
+    N2: derived.N2,
+    p_mid: derived.p_mid,
+    z,
+  };
   const srFallback = derived.notes.some((n) => n.kind === 'sr_fallback');
   const sigma0 = cols.sigma0!;
-  const inversions = detectInversions(p, sigma0, { threshold: opts.inversionThreshold, N2: cols.N2, p_mid: cols.p_mid, z: cols.z });
+  const inversions = detectInversions(p, sigma0, {
+    threshold: opts.inversionThreshold,
+    N2: cols.N2,
+    p_mid: cols.p_mid,
+    z: cols.z,
+  });
   const fitness: Record<string, unknown> = {};
   for (const name of ['sigma0', 'sigma1', 'sigma2', 'sigma3', 'sigma4', 'CT', 'SA', 'pressure']) {
     const v = name === 'pressure' ? p : cols[name];
@@ -72,29 +124,50 @@ export function processCast(c0: ParsedCast, opts: { inversionThreshold: number }
     const tol = name.startsWith('sigma') ? opts.inversionThreshold : name === 'CT' ? 0.01 : name === 'SA' ? 0.005 : 0;
     if (v) fitness[name] = { ...coordinateFitness(p, v), resolved: coordinateFitnessAtResolution(p, v, tol) };
   }
-  const columns: StoredColumn[] = [{ name: 'pressure', unit: 'dbar', kind: c.vertical === 'pressure' ? 'measured' : 'derived', values: p }];
+  const columns: StoredColumn[] = [
+    { name: 'pressure', unit: 'dbar', kind: c.vertical === 'pressure' ? 'measured' : 'derived', values: p },
+  ];
   if (c.columns.depth) columns.push({ name: 'depth', unit: 'm', kind: 'measured', values: c.columns.depth });
   columns.push({ name: 'temperature', unit: UNITS.temperature, kind: 'measured', values: c.columns.temperature });
   if (c.columns.salinity) columns.push({ name: 'SP', unit: UNITS.SP, kind: 'measured', values: c.columns.salinity });
-  if (c.columns.conductivity) columns.push({ name: 'conductivity', unit: 'mS/cm', kind: 'measured', values: c.columns.conductivity });
+  if (c.columns.conductivity)
+    columns.push({ name: 'conductivity', unit: 'mS/cm', kind: 'measured', values: c.columns.conductivity });
   if (c.columns.oxygen) columns.push(oxygenColumn(c.columns.oxygen, c.units.oxygen ?? null, derived.sigma0, notes));
   for (const [name, v] of Object.entries(cols)) {
     if (!v || name === 'pressure' || (name === 'SP' && c.columns.salinity)) continue;
     columns.push({ name, unit: UNITS[name] ?? null, kind: 'derived', values: v });
   }
-  for (const [name, e] of Object.entries(c.extras)) columns.push({ name: `x:${name}`, unit: e.unit, kind: 'extra', values: e.values });
-  for (const [name, f] of Object.entries(c.flags)) columns.push({ name: `flag:${name}`, unit: null, kind: 'flag', values: f });
-  return { ok: true, cast: { levels: n, columns, inversions, fitness, notes, saar: srFallback ? 'SR fallback (outside the SAAR atlas)' : 'SAAR atlas', mld: derived.mld } };
+  for (const [name, e] of Object.entries(c.extras))
+    columns.push({ name: `x:${name}`, unit: e.unit, kind: 'extra', values: e.values });
+  for (const [name, f] of Object.entries(c.flags))
+    columns.push({ name: `flag:${name}`, unit: null, kind: 'flag', values: f });
+  return {
+    ok: true,
+    cast: {
+      levels: n,
+      columns,
+      inversions,
+      fitness,
+      notes,
+      saar: srFallback ? 'SR fallback (outside the SAAR atlas)' : 'SAAR atlas',
+      mld: derived.mld,
+    },
+  };
 }
 
 /** Inversions of σ0 over the levels whose T and S flags are good (1 or 2): a level a technician
  * flags questionable or bad stops raising a warning. Indices refer to the full profile. */
-export function inversionsOfGoodLevels(cols: Record<string, Float64Array>, flags: Record<string, Uint8Array>, threshold: number) {
+export function inversionsOfGoodLevels(
+  cols: Record<string, Float64Array>,
+  flags: Record<string, Uint8Array>,
+  threshold: number,
+) {
   const p = cols.pressure;
   const keep: number[] = [];
   for (let i = 0; i < p.length; i++) {
     let ok = true;
-    for (const [name, f] of Object.entries(flags)) if (/^flag:(temperature|salinity|conductivity)$/.test(name) && f[i] !== 1 && f[i] !== 2) ok = false;
+    for (const [name, f] of Object.entries(flags))
+      if (/^flag:(temperature|salinity|conductivity)$/.test(name) && f[i] !== 1 && f[i] !== 2) ok = false;
     if (ok) keep.push(i);
   }
   const pick = (a: Float64Array) => Float64Array.from(keep, (k) => a[k]);
@@ -109,7 +182,12 @@ export function inversionsOfGoodLevels(cols: Record<string, Float64Array>, flags
  * dissolved oxygen in seawater by Winkler titration using the amperometric technique", GO-SHIP Repeat
  * Hydrography Manual; from memory). Other units stay as given.
  */
-export function oxygenColumn(o2: Float64Array, unit: string | null, sigma0: Float64Array, notes: string[]): StoredColumn {
+export function oxygenColumn(
+  o2: Float64Array,
+  unit: string | null,
+  sigma0: Float64Array,
+  notes: string[],
+): StoredColumn {
   if (unit !== 'µmol/l') return { name: 'oxygen', unit, kind: 'measured', values: o2 };
   const out = new Float64Array(o2.length);
   for (let i = 0; i < o2.length; i++) out[i] = o2[i] / ((sigma0[i] + 1000) / 1000);

@@ -16,14 +16,30 @@ export type Queue = {
   stop(): Promise<void>;
 };
 
-export async function createQueue(databaseUrl: string, opts: { max?: number; expireInSeconds?: number; maintenanceIntervalSeconds?: number } = {}): Promise<Queue> {
+export async function createQueue(
+  databaseUrl: string,
+  opts: { max?: number; expireInSeconds?: number; maintenanceIntervalSeconds?: number } = {},
+): Promise<Queue> {
   // A job whose worker died stays `active` until it expires; maintenance then hands it to another
   // worker (retry). Both intervals are settings so the fault tests need not wait minutes.
-  const boss = new PgBoss({ connectionString: databaseUrl, max: opts.max ?? 4, schema: 'pgboss', maintenanceIntervalSeconds: opts.maintenanceIntervalSeconds ?? 60 });
-  boss.on('error', () => { /* reported through health and job state; pg-boss reconnects by itself */ });
+  const boss = new PgBoss({
+    connectionString: databaseUrl,
+    max: opts.max ?? 4,
+    schema: 'pgboss',
+    maintenanceIntervalSeconds: opts.maintenanceIntervalSeconds ?? 60,
+  });
+  boss.on('error', () => {
+    /* reported through health and job state; pg-boss reconnects by itself */
+  });
   await boss.start();
   for (const name of Object.values(QUEUES)) {
-    const policy = { name, retryLimit: 3, retryDelay: 2, retryBackoff: false, expireInSeconds: opts.expireInSeconds ?? 300 };
+    const policy = {
+      name,
+      retryLimit: 3,
+      retryDelay: 2,
+      retryBackoff: false,
+      expireInSeconds: opts.expireInSeconds ?? 300,
+    };
     await boss.createQueue(name, policy);
     // createQueue does nothing when the queue exists, so apply the settings to an existing queue too
     // (otherwise a changed JOB_EXPIRE_SECONDS would never take effect after the first start).
@@ -34,7 +50,11 @@ export async function createQueue(databaseUrl: string, opts: { max?: number; exp
     boss,
     async send(name, data, o) {
       const id = await boss.send(name, data, o ?? {});
-      if (id) await boss.getDb().executeSql('SELECT pg_notify($1, $2)', [JOB_CHANNEL, name]).catch(() => undefined);
+      if (id)
+        await boss
+          .getDb()
+          .executeSql('SELECT pg_notify($1, $2)', [JOB_CHANNEL, name])
+          .catch(() => undefined);
       return id;
     },
     async listen(onJob) {
@@ -43,16 +63,29 @@ export async function createQueue(databaseUrl: string, opts: { max?: number; exp
       const connect = async (): Promise<void> => {
         if (stopped) return;
         const c = new pg.Client({ connectionString: databaseUrl });
-        c.on('notification', (n) => { if (n.channel === JOB_CHANNEL) onJob(n.payload ?? ''); });
+        c.on('notification', (n) => {
+          if (n.channel === JOB_CHANNEL) onJob(n.payload ?? '');
+        });
         // a lost connection only slows the workers down to polling; reconnect in the background
-        c.on('error', () => { c.end().catch(() => undefined); if (client === c) { client = null; setTimeout(() => { connect().catch(() => undefined); }, 1000).unref(); } });
+        c.on('error', () => {
+          c.end().catch(() => undefined);
+          if (client === c) {
+            client = null;
+            setTimeout(() => {
+              connect().catch(() => undefined);
+            }, 1000).unref();
+          }
+        });
         try {
           await c.connect();
           await c.query(`LISTEN ${JOB_CHANNEL}`);
           client = c;
         } catch {
           c.end().catch(() => undefined);
-          if (!stopped) setTimeout(() => { connect().catch(() => undefined); }, 1000).unref();
+          if (!stopped)
+            setTimeout(() => {
+              connect().catch(() => undefined);
+            }, 1000).unref();
         }
       };
       await connect();

@@ -1,5 +1,13 @@
 // Object storage through the AWS SDK: s3rver locally, any S3 endpoint in production.
-import { S3Client, PutObjectCommand, GetObjectCommand, HeadBucketCommand, HeadObjectCommand, CreateBucketCommand, DeleteObjectCommand } from '@aws-sdk/client-s3';
+import {
+  S3Client,
+  PutObjectCommand,
+  GetObjectCommand,
+  HeadBucketCommand,
+  HeadObjectCommand,
+  CreateBucketCommand,
+  DeleteObjectCommand,
+} from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import type { Readable } from 'node:stream';
 
@@ -19,7 +27,13 @@ export type Storage = {
   check(): Promise<void>;
 };
 
-export function createStorage(opts: { endpoint: string; bucket: string; region: string; accessKeyId: string; secretAccessKey: string }): Storage {
+export function createStorage(opts: {
+  endpoint: string;
+  bucket: string;
+  region: string;
+  accessKeyId: string;
+  secretAccessKey: string;
+}): Storage {
   const client = new S3Client({
     endpoint: opts.endpoint,
     region: opts.region,
@@ -33,7 +47,9 @@ export function createStorage(opts: { endpoint: string; bucket: string; region: 
   return {
     bucket: Bucket,
     async put(key, body, contentType = 'application/octet-stream', contentLength) {
-      await client.send(new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType, ContentLength: contentLength }));
+      await client.send(
+        new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType, ContentLength: contentLength }),
+      );
     },
     async get(key) {
       const res = await client.send(new GetObjectCommand({ Bucket, Key: key }));
@@ -54,7 +70,15 @@ export function createStorage(opts: { endpoint: string; bucket: string; region: 
       await client.send(new DeleteObjectCommand({ Bucket, Key: key }));
     },
     async presignedGetUrl(key, filename, expiresSeconds = 900) {
-      return getSignedUrl(client, new GetObjectCommand({ Bucket, Key: key, ResponseContentDisposition: `attachment; filename="${filename.replace(/[^\w.-]/g, '_')}"` }), { expiresIn: expiresSeconds });
+      return getSignedUrl(
+        client,
+        new GetObjectCommand({
+          Bucket,
+          Key: key,
+          ResponseContentDisposition: `attachment; filename="${filename.replace(/[^\w.-]/g, '_')}"`,
+        }),
+        { expiresIn: expiresSeconds },
+      );
     },
     async ensureBucket() {
       try {

@@ -18,13 +18,25 @@ export function hashingDiskStorage(): StorageEngine {
       const path = join(tmpdir(), `sigmaline-upload-${randomUUID()}`);
       const hash = createHash('sha256');
       let size = 0;
-      const tap = new Transform({ transform(chunk: Buffer, _enc, done) { hash.update(chunk); size += chunk.length; done(null, chunk); } });
+      const tap = new Transform({
+        transform(chunk: Buffer, _enc, done) {
+          hash.update(chunk);
+          size += chunk.length;
+          done(null, chunk);
+        },
+      });
       pipeline(file.stream, tap, createWriteStream(path))
         .then(() => cb(null, { path, size, sha256: hash.digest('hex') } as unknown as Partial<Express.Multer.File>))
-        .catch((err: Error) => { unlink(path).catch(() => undefined); cb(err); });
+        .catch((err: Error) => {
+          unlink(path).catch(() => undefined);
+          cb(err);
+        });
     },
     _removeFile(_req, file, cb) {
-      unlink((file as unknown as StagedFile).path).then(() => cb(null), () => cb(null));
+      unlink((file as unknown as StagedFile).path).then(
+        () => cb(null),
+        () => cb(null),
+      );
     },
   };
 }

@@ -44,7 +44,7 @@ export const FALLBACK_LEVELS: Readonly<Record<ReferencePressure, string>> = {
 /** The policy in words, for provenance and the screens. */
 export const DEFAULT_LEVELS_RULE =
   `about ${DEFAULT_LEVEL_COUNT} levels on a round step (${DEFAULT_STEPS.join(', ')} kg/m³) over the σ range ` +
-  'the cruise\'s good values (flags 1 and 2) span at the reference pressure';
+  "the cruise's good values (flags 1 and 2) span at the reference pressure";
 
 export interface LayerSet {
   name: string;
@@ -86,10 +86,19 @@ const rangeSpec = z
     const start = Number(a);
     const step = Number(b);
     const end = Number(c);
-    if (!(step > 0)) { ctx.addIssue({ code: 'custom', message: 'step must be positive' }); return z.NEVER; }
-    if (!(end >= start)) { ctx.addIssue({ code: 'custom', message: 'end must not be below start' }); return z.NEVER; }
+    if (!(step > 0)) {
+      ctx.addIssue({ code: 'custom', message: 'step must be positive' });
+      return z.NEVER;
+    }
+    if (!(end >= start)) {
+      ctx.addIssue({ code: 'custom', message: 'end must not be below start' });
+      return z.NEVER;
+    }
     const count = Math.floor((end - start) / step + 1e-9) + 1;
-    if (count > MAX_LEVELS) { ctx.addIssue({ code: 'custom', message: `more than ${MAX_LEVELS} levels` }); return z.NEVER; }
+    if (count > MAX_LEVELS) {
+      ctx.addIssue({ code: 'custom', message: `more than ${MAX_LEVELS} levels` });
+      return z.NEVER;
+    }
     // Round to the digits written so 24.0:0.1:27.6 gives 24.3, not 24.300000000000004.
     const dp = Math.max(decimals(a), decimals(b));
     const levels: number[] = [];
@@ -101,9 +110,18 @@ const listSpec = z
   .string()
   .trim()
   .transform((s, ctx) => {
-    const items = s.split(',').map((t) => t.trim()).filter((t) => t.length > 0);
-    if (items.length === 0) { ctx.addIssue({ code: 'custom', message: 'no levels' }); return z.NEVER; }
-    if (items.length > MAX_LEVELS) { ctx.addIssue({ code: 'custom', message: `more than ${MAX_LEVELS} levels` }); return z.NEVER; }
+    const items = s
+      .split(',')
+      .map((t) => t.trim())
+      .filter((t) => t.length > 0);
+    if (items.length === 0) {
+      ctx.addIssue({ code: 'custom', message: 'no levels' });
+      return z.NEVER;
+    }
+    if (items.length > MAX_LEVELS) {
+      ctx.addIssue({ code: 'custom', message: `more than ${MAX_LEVELS} levels` });
+      return z.NEVER;
+    }
     const levels: number[] = [];
     for (const t of items) {
       const r = number.safeParse(t);
@@ -134,8 +152,10 @@ export const levelSpecSchema = z
   })
   .superRefine((levels, ctx) => {
     for (let i = 0; i < levels.length; i++) {
-      if (!(levels[i] >= 0 && levels[i] <= 60)) ctx.addIssue({ code: 'custom', message: `level ${levels[i]} outside 0–60 kg/m³` });
-      if (i > 0 && !(levels[i] > levels[i - 1])) ctx.addIssue({ code: 'custom', message: 'levels must be strictly increasing' });
+      if (!(levels[i] >= 0 && levels[i] <= 60))
+        ctx.addIssue({ code: 'custom', message: `level ${levels[i]} outside 0–60 kg/m³` });
+      if (i > 0 && !(levels[i] > levels[i - 1]))
+        ctx.addIssue({ code: 'custom', message: 'levels must be strictly increasing' });
     }
   });
 
@@ -150,7 +170,8 @@ export const layerSetSchema = z
   })
   .superRefine((v, ctx) => {
     const r = levelSpecSchema.safeParse(v.spec);
-    if (!r.success) for (const issue of r.error.issues) ctx.addIssue({ code: 'custom', path: ['spec'], message: issue.message });
+    if (!r.success)
+      for (const issue of r.error.issues) ctx.addIssue({ code: 'custom', path: ['spec'], message: issue.message });
     if (v.pMin !== undefined && v.pMax !== undefined && !(v.pMax > v.pMin)) {
       ctx.addIssue({ code: 'custom', path: ['pMax'], message: 'pMax must exceed pMin' });
     }
@@ -165,7 +186,9 @@ export function parseLevels(spec: string): Float64Array {
 /** Parse a level specification without throwing. */
 export function safeParseLevels(spec: string): { ok: true; levels: Float64Array } | { ok: false; errors: string[] } {
   const r = levelSpecSchema.safeParse(spec);
-  return r.success ? { ok: true, levels: Float64Array.from(r.data) } : { ok: false, errors: r.error.issues.map((i) => i.message) };
+  return r.success
+    ? { ok: true, levels: Float64Array.from(r.data) }
+    : { ok: false, errors: r.error.issues.map((i) => i.message) };
 }
 
 const isRef = (v: number): v is ReferencePressure => (REFERENCE_PRESSURES as readonly number[]).includes(v);
@@ -176,7 +199,11 @@ const isRef = (v: number): v is ReferencePressure => (REFERENCE_PRESSURES as rea
  * @param range [min, max] σ at `ref` of the cruise's good values, kg/m³; null or empty when there are none
  * @param count levels to aim at (the policy's {@link DEFAULT_LEVEL_COUNT}; geostrophy thins these)
  */
-export function defaultLevels(ref: number, range: readonly [number, number] | null, count = DEFAULT_LEVEL_COUNT): string {
+export function defaultLevels(
+  ref: number,
+  range: readonly [number, number] | null,
+  count = DEFAULT_LEVEL_COUNT,
+): string {
   const fallback = isRef(ref) ? FALLBACK_LEVELS[ref] : FALLBACK_LEVELS[0];
   if (!range) return fallback;
   const [min, max] = range;

@@ -22,8 +22,14 @@ export const derivedVariableResponseSchema = z.object({
   id: idSchema,
   name: z.string(),
   formula: z.string(),
-  unit: z.string().nullish().transform((v) => v ?? null),
-  description: z.string().nullish().transform((v) => v ?? null),
+  unit: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
+  description: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
 });
 export type DerivedVariableResponse = z.output<typeof derivedVariableResponseSchema>;
 export const derivedVariableListResponseSchema = z.array(derivedVariableResponseSchema);

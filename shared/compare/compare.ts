@@ -73,7 +73,11 @@ export interface Comparison {
 
 /** A cast with its flagged and non-finite levels taken out, the flagged pressure spans kept. */
 interface CleanCast {
-  p: Float64Array; SA: Float64Array; CT: Float64Array; C: Float64Array; sigma: Float64Array;
+  p: Float64Array;
+  SA: Float64Array;
+  CT: Float64Array;
+  C: Float64Array;
+  sigma: Float64Array;
   /** Open pressure intervals (dbar) over which a flagged level was bridged. */
   spans: [number, number][];
   flagged: number;
@@ -88,15 +92,23 @@ function clean(c: OccupationCast, ref: number): CleanCast {
   let lastGood = NaN;
   for (let i = 0; i < n; i++) {
     const bad = c.bad ? c.bad[i] === 1 : false;
-    if (bad) { flagged++; if (runStart < 0) runStart = i; continue; }
+    if (bad) {
+      flagged++;
+      if (runStart < 0) runStart = i;
+      continue;
+    }
     const finite = Number.isFinite(c.p[i]) && Number.isFinite(c.SA[i]) && Number.isFinite(c.CT[i]);
     if (!finite) continue;
-    if (runStart >= 0) { spans.push([Number.isFinite(lastGood) ? lastGood : -Infinity, c.p[i]]); runStart = -1; }
+    if (runStart >= 0) {
+      spans.push([Number.isFinite(lastGood) ? lastGood : -Infinity, c.p[i]]);
+      runStart = -1;
+    }
     keep.push(i);
     lastGood = c.p[i];
   }
   if (runStart >= 0) spans.push([Number.isFinite(lastGood) ? lastGood : -Infinity, Infinity]);
-  if (keep.length === n) return { p: c.p, SA: c.SA, CT: c.CT, C: c.C, sigma: sigma_batch(c.SA, c.CT, ref), spans, flagged };
+  if (keep.length === n)
+    return { p: c.p, SA: c.SA, CT: c.CT, C: c.C, sigma: sigma_batch(c.SA, c.CT, ref), spans, flagged };
   const take = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
   const SA = take(c.SA);
   const CT = take(c.CT);
@@ -111,8 +123,13 @@ const inSpan = (v: number, spans: [number, number][]) => {
 
 /** One cast gridded on the pressure levels and on the targets, with its flagged cells. */
 interface CastGrids {
-  C: Float64Array; SA: Float64Array; CT: Float64Array; badP: Uint8Array;
-  pS: Float64Array; CS: Float64Array; badS: Uint8Array;
+  C: Float64Array;
+  SA: Float64Array;
+  CT: Float64Array;
+  badP: Uint8Array;
+  pS: Float64Array;
+  CS: Float64Array;
+  badS: Uint8Array;
 }
 
 function gridCast(c: CleanCast, opts: CompareOptions): CastGrids {
@@ -121,7 +138,10 @@ function gridCast(c: CleanCast, opts: CompareOptions): CastGrids {
   const SA = onLevels(c.p, c.SA, P);
   const CT = onLevels(c.p, c.CT, P);
   const badP = Uint8Array.from(P, (v) => (inSpan(v, c.spans) ? 1 : 0));
-  const r = remapToIsopycnals({ p: c.p, sigma: c.sigma, props: { C: c.C } }, opts.targets, { handling: opts.handling, interpolation: opts.interpolation ?? 'linear' });
+  const r = remapToIsopycnals({ p: c.p, sigma: c.sigma, props: { C: c.C } }, opts.targets, {
+    handling: opts.handling,
+    interpolation: opts.interpolation ?? 'linear',
+  });
   const badS = Uint8Array.from(r.pressure, (v) => (inSpan(v, c.spans) ? 1 : 0));
   return { C, SA, CT, badP, pS: r.pressure, CS: r.props.C, badS };
 }
@@ -193,16 +213,64 @@ export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opt
   const gB = cleanB.map((c) => gridCast(c, opts));
   const badP = new Uint8Array(np * nx);
   const badS = new Uint8Array(ns * nx);
-  const A = across(pos.weightsA, gA.map((g) => g.C), np, gA.map((g) => g.badP), badP);
-  const B = across(pos.weightsB, gB.map((g) => g.C), np, gB.map((g) => g.badP), badP);
-  const SA_A = across(pos.weightsA, gA.map((g) => g.SA), np);
-  const CT_A = across(pos.weightsA, gA.map((g) => g.CT), np);
-  const SA_B = across(pos.weightsB, gB.map((g) => g.SA), np);
-  const CT_B = across(pos.weightsB, gB.map((g) => g.CT), np);
-  const pA = across(pos.weightsA, gA.map((g) => g.pS), ns, gA.map((g) => g.badS), badS);
-  const pB = across(pos.weightsB, gB.map((g) => g.pS), ns, gB.map((g) => g.badS), badS);
-  const sA = across(pos.weightsA, gA.map((g) => g.CS), ns);
-  const sB = across(pos.weightsB, gB.map((g) => g.CS), ns);
+  const A = across(
+    pos.weightsA,
+    gA.map((g) => g.C),
+    np,
+    gA.map((g) => g.badP),
+    badP,
+  );
+  const B = across(
+    pos.weightsB,
+    gB.map((g) => g.C),
+    np,
+    gB.map((g) => g.badP),
+    badP,
+  );
+  const SA_A = across(
+    pos.weightsA,
+    gA.map((g) => g.SA),
+    np,
+  );
+  const CT_A = across(
+    pos.weightsA,
+    gA.map((g) => g.CT),
+    np,
+  );
+  const SA_B = across(
+    pos.weightsB,
+    gB.map((g) => g.SA),
+    np,
+  );
+  const CT_B = across(
+    pos.weightsB,
+    gB.map((g) => g.CT),
+    np,
+  );
+  const pA = across(
+    pos.weightsA,
+    gA.map((g) => g.pS),
+    ns,
+    gA.map((g) => g.badS),
+    badS,
+  );
+  const pB = across(
+    pos.weightsB,
+    gB.map((g) => g.pS),
+    ns,
+    gB.map((g) => g.badS),
+    badS,
+  );
+  const sA = across(
+    pos.weightsA,
+    gA.map((g) => g.CS),
+    ns,
+  );
+  const sB = across(
+    pos.weightsB,
+    gB.map((g) => g.CS),
+    ns,
+  );
   const diffP = sub(B, A);
   const heave = sub(pB, pA);
   const diffS = sub(sB, sA);
@@ -229,21 +297,39 @@ export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opt
   }
   const mean = (g: Grid, ny: number) => alongLineMean(pos.x, g, ny);
   const layers = opts.layers ?? defaultLayers(T);
-  const transport = nx >= 2 ? layerTransportChange(pos.lon, pos.lat, P, { SA: SA_A, CT: CT_A }, { SA: SA_B, CT: CT_B }, opts.ref, layers) : [];
+  const transport =
+    nx >= 2
+      ? layerTransportChange(pos.lon, pos.lat, P, { SA: SA_A, CT: CT_A }, { SA: SA_B, CT: CT_B }, opts.ref, layers)
+      : [];
   return {
-    x: pos.x, lon: pos.lon, lat: pos.lat, pairs: pos.pairs, excluded: pos.excluded, pressure: P, sigma: T,
+    x: pos.x,
+    lon: pos.lon,
+    lat: pos.lat,
+    pairs: pos.pairs,
+    excluded: pos.excluded,
+    pressure: P,
+    sigma: T,
     onPressure: { A, B, diff: diffP, SA_A, CT_A, SA_B, CT_B },
     onDensity: { pA, pB, heave, A: sA, B: sB, diff: diffS },
     decomposition: { waterMassTerm: wmT, heaveTerm: hvT, residual: rsT, heave: hv },
     means: {
-      onPressure: { diff: mean(diffP, np), waterMassTerm: mean(wmT, np), heaveTerm: mean(hvT, np), residual: mean(rsT, np) },
+      onPressure: {
+        diff: mean(diffP, np),
+        waterMassTerm: mean(wmT, np),
+        heaveTerm: mean(hvT, np),
+        residual: mean(rsT, np),
+      },
       onDensity: { heave: mean(heave, ns), diff: mean(diffS, ns) },
     },
     transport,
-    years: yearsBetween(pos.usedA.map((i) => a[i].time), pos.usedB.map((i) => b[i].time)),
+    years: yearsBetween(
+      pos.usedA.map((i) => a[i].time),
+      pos.usedB.map((i) => b[i].time),
+    ),
     counts: {
       flaggedLevels: { A: cleanA.reduce((s, c) => s + c.flagged, 0), B: cleanB.reduce((s, c) => s + c.flagged, 0) },
-      leftOut: { pressure: leftP, density: leftS }, positions: nx,
+      leftOut: { pressure: leftP, density: leftS },
+      positions: nx,
     },
   };
 }

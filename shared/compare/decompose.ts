@@ -54,7 +54,9 @@ function sigmaAt(sigma: Float64Array, handling: InversionHandling): Float64Array
   for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) idx.push(k);
   const sorted = Float64Array.from(idx, (k) => sigma[k]).sort();
   const out = new Float64Array(sigma.length).fill(NaN);
-  idx.forEach((k, i) => { out[k] = sorted[i]; });
+  idx.forEach((k, i) => {
+    out[k] = sorted[i];
+  });
   return out;
 }
 
@@ -65,8 +67,13 @@ function sigmaAt(sigma: Float64Array, handling: InversionHandling): Float64Array
  * as everywhere else (shared/remap).
  */
 export function decomposeColumn(
-  p: Float64Array, cA: Float64Array, sigmaA: Float64Array, cB: Float64Array, sigmaB: Float64Array,
-  handling: InversionHandling, interpolation: SigmaInterpolation = 'linear',
+  p: Float64Array,
+  cA: Float64Array,
+  sigmaA: Float64Array,
+  cB: Float64Array,
+  sigmaB: Float64Array,
+  handling: InversionHandling,
+  interpolation: SigmaInterpolation = 'linear',
 ): DecompositionColumn {
   const n = p.length;
   const diff = new Float64Array(n);
@@ -92,7 +99,11 @@ export function decomposeColumn(
     // targets are the sorted distinct σ*: a bisection finds this level's one.
     let lo = 0;
     let hi = t.length - 1;
-    while (lo < hi) { const mid = (lo + hi) >> 1; if (t[mid] < s) lo = mid + 1; else hi = mid; }
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (t[mid] < s) lo = mid + 1;
+      else hi = mid;
+    }
     const wm = rB.props.C[lo] - rA.props.C[lo];
     const dp = rB.pressure[lo] - rA.pressure[lo];
     waterMassTerm[k] = wm;

@@ -86,8 +86,13 @@ function enKm(lon: number, lat: number, lon0: number, lat0: number): [number, nu
  * the stations (lon, lat) whose along-track positions are xs: the nearest foot over all legs, each
  * leg taken as straight in local east/north kilometres (ample for pairing distances of tens of km).
  */
-export function projectOnTrack(lon: number, lat: number, lons: ArrayLike<number>, lats: ArrayLike<number>, xs: ArrayLike<number>):
-  { x: number; offsetKm: number } {
+export function projectOnTrack(
+  lon: number,
+  lat: number,
+  lons: ArrayLike<number>,
+  lats: ArrayLike<number>,
+  xs: ArrayLike<number>,
+): { x: number; offsetKm: number } {
   const n = lons.length;
   if (n === 1) return { x: xs[0], offsetKm: greatCircleKm(lons[0], lats[0], lon, lat) };
   let best = { x: NaN, offsetKm: Infinity };
@@ -113,16 +118,29 @@ function weightsAt(x: Float64Array, xc: Float64Array, fallback?: Int32Array): We
   for (let j = 0; j < m; j++) {
     const v = x[j];
     let hit = -1;
-    for (let k = 0; k < n; k++) if (Math.abs(xc[k] - v) <= 1e-6) { hit = k; break; }
-    if (hit >= 0) { k0[j] = hit; k1[j] = hit; continue; }
+    for (let k = 0; k < n; k++)
+      if (Math.abs(xc[k] - v) <= 1e-6) {
+        hit = k;
+        break;
+      }
+    if (hit >= 0) {
+      k0[j] = hit;
+      k1[j] = hit;
+      continue;
+    }
     if (n >= 2 && v > xc[0] && v < xc[n - 1]) {
       let k = 0;
       while (k < n - 2 && xc[k + 1] < v) k++;
-      k0[j] = k; k1[j] = k + 1; w[j] = (v - xc[k]) / (xc[k + 1] - xc[k]);
+      k0[j] = k;
+      k1[j] = k + 1;
+      w[j] = (v - xc[k]) / (xc[k + 1] - xc[k]);
       continue;
     }
     // Beyond the ends of the occupation: its paired cast stands in, if it has one.
-    if (fallback && fallback[j] >= 0) { k0[j] = fallback[j]; k1[j] = fallback[j]; }
+    if (fallback && fallback[j] >= 0) {
+      k0[j] = fallback[j];
+      k1[j] = fallback[j];
+    }
   }
   return { k0, k1, w };
 }
@@ -147,13 +165,24 @@ export function commonPositions(a: Place[], b: Place[], opts: PositionOptions): 
   const projB = b.map((c) => {
     if (!opts.line) return projectOnTrack(c.lon, c.lat, lonA, latA, xAll);
     const xl = alongLineKm(c.lon, c.lat, opts.line[0], opts.line[1]) - x0;
-    const off = projectOnTrack(c.lon, c.lat, [opts.line[0][0], opts.line[1][0]], [opts.line[0][1], opts.line[1][1]], [0, 1]).offsetKm;
+    const off = projectOnTrack(
+      c.lon,
+      c.lat,
+      [opts.line[0][0], opts.line[1][0]],
+      [opts.line[0][1], opts.line[1][1]],
+      [0, 1],
+    ).offsetKm;
     return { x: xl, offsetKm: off };
   });
   const eligibleB: number[] = [];
   b.forEach((c, i) => {
     if (projB[i].offsetKm <= opts.pairDistanceKm) eligibleB.push(i);
-    else excluded.push({ station: c.station, line: 'B', why: `farther than ${opts.pairDistanceKm} km from line A (${projB[i].offsetKm.toFixed(1)} km)` });
+    else
+      excluded.push({
+        station: c.station,
+        line: 'B',
+        why: `farther than ${opts.pairDistanceKm} km from line A (${projB[i].offsetKm.toFixed(1)} km)`,
+      });
   });
   const pairs: Pair[] = [];
   const pairedA: number[] = [];
@@ -161,26 +190,42 @@ export function commonPositions(a: Place[], b: Place[], opts: PositionOptions): 
   a.forEach((c, i) => {
     let best = -1;
     let d = Infinity;
-    for (const k of eligibleB) { const dk = greatCircleKm(c.lon, c.lat, b[k].lon, b[k].lat); if (dk < d) { d = dk; best = k; } }
+    for (const k of eligibleB) {
+      const dk = greatCircleKm(c.lon, c.lat, b[k].lon, b[k].lat);
+      if (dk < d) {
+        d = dk;
+        best = k;
+      }
+    }
     if (best < 0 || d > opts.pairDistanceKm) {
       excluded.push({ station: c.station, line: 'A', why: `no cast of B within ${opts.pairDistanceKm} km` });
       return;
     }
     pairedA.push(i);
     partner.push(best);
-    pairs.push({ x: xAll[i], stationA: c.station, castA: c.cast, stationB: b[best].station, castB: b[best].cast, offsetKm: d });
+    pairs.push({
+      x: xAll[i],
+      stationA: c.station,
+      castA: c.cast,
+      stationB: b[best].station,
+      castB: b[best].cast,
+      offsetKm: d,
+    });
   });
   // B casts that are near the line but beyond both ends of A's paired stretch add nothing.
   const usedA = [...pairedA].sort((p, q) => xAll[p] - xAll[q]);
   const xA = Float64Array.from(usedA, (i) => xAll[i]);
   const lo = xA.length ? xA[0] : 0;
   const hi = xA.length ? xA[xA.length - 1] : 0;
-  const usedB = eligibleB.filter((i) => {
-    if (partner.includes(i)) return true;
-    const inside = projB[i].x >= lo - opts.pairDistanceKm && projB[i].x <= hi + opts.pairDistanceKm;
-    if (!inside) excluded.push({ station: b[i].station, line: 'B', why: 'beyond the ends of the paired stretch of line A' });
-    return inside;
-  }).sort((p, q) => projB[p].x - projB[q].x);
+  const usedB = eligibleB
+    .filter((i) => {
+      if (partner.includes(i)) return true;
+      const inside = projB[i].x >= lo - opts.pairDistanceKm && projB[i].x <= hi + opts.pairDistanceKm;
+      if (!inside)
+        excluded.push({ station: b[i].station, line: 'B', why: 'beyond the ends of the paired stretch of line A' });
+      return inside;
+    })
+    .sort((p, q) => projB[p].x - projB[q].x);
   const xB = Float64Array.from(usedB, (i) => projB[i].x);
 
   let x: Float64Array;
@@ -207,7 +252,11 @@ export function commonPositions(a: Place[], b: Place[], opts: PositionOptions): 
   const lat = new Float64Array(x.length);
   for (let j = 0; j < x.length; j++) {
     const { k0, k1, w } = { k0: weightsA.k0[j], k1: weightsA.k1[j], w: weightsA.w[j] };
-    if (k0 < 0) { lon[j] = NaN; lat[j] = NaN; continue; }
+    if (k0 < 0) {
+      lon[j] = NaN;
+      lat[j] = NaN;
+      continue;
+    }
     const c0 = a[usedA[k0]];
     const c1 = a[usedA[k1]];
     lon[j] = c0.lon + w * (c1.lon - c0.lon);

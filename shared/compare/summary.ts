@@ -21,7 +21,13 @@ export function alongLineMean(x: Float64Array, g: Float64Array, ny: number): Flo
   for (let i = 0; i < ny; i++) {
     let s = 0;
     let sw = 0;
-    for (let j = 0; j < nx; j++) { const v = g[i * nx + j]; if (v === v) { s += w[j] * v; sw += w[j]; } }
+    for (let j = 0; j < nx; j++) {
+      const v = g[i * nx + j];
+      if (v === v) {
+        s += w[j] * v;
+        sw += w[j];
+      }
+    }
     out[i] = sw > 0 ? s / sw : NaN;
   }
   return out;
@@ -43,24 +49,45 @@ export interface LayerChange {
  * shared/section/geostrophy (TEOS-10 Manual §3.27).
  */
 export function layerTransportChange(
-  lon: Float64Array, lat: Float64Array, p: Float64Array,
-  a: { SA: Float64Array; CT: Float64Array }, b: { SA: Float64Array; CT: Float64Array }, ref: number, bounds: Float64Array,
+  lon: Float64Array,
+  lat: Float64Array,
+  p: Float64Array,
+  a: { SA: Float64Array; CT: Float64Array },
+  b: { SA: Float64Array; CT: Float64Array },
+  ref: number,
+  bounds: Float64Array,
 ): LayerChange[] {
   const nx = lon.length;
   const np = p.length;
-  const casts = (o: { SA: Float64Array; CT: Float64Array }) => Array.from({ length: nx }, (_, j) => ({
-    id: String(j), lon: lon[j], lat: lat[j], p,
-    SA: Float64Array.from({ length: np }, (_, i) => o.SA[i * nx + j]),
-    CT: Float64Array.from({ length: np }, (_, i) => o.CT[i * nx + j]),
-  })).filter((c) => Number.isFinite(c.lon) && Number.isFinite(c.lat));
+  const casts = (o: { SA: Float64Array; CT: Float64Array }) =>
+    Array.from({ length: nx }, (_, j) => ({
+      id: String(j),
+      lon: lon[j],
+      lat: lat[j],
+      p,
+      SA: Float64Array.from({ length: np }, (_, i) => o.SA[i * nx + j]),
+      CT: Float64Array.from({ length: np }, (_, i) => o.CT[i * nx + j]),
+    })).filter((c) => Number.isFinite(c.lon) && Number.isFinite(c.lat));
   if (bounds.length < 2) return [];
   // The levels are the integration grid (trapezoid between them, TEOS-10 Manual §3.27): no finer
   // interpolated grid is needed for a comparison of two occupations on the same levels.
   const step = np > 1 ? p[1] - p[0] : 1;
-  const o = { pRef: 'deepest_common' as const, levels: p, sigmaRef: ref, max_dp: step, interpolation: 'linear' as const };
+  const o = {
+    pRef: 'deepest_common' as const,
+    levels: p,
+    sigmaRef: ref,
+    max_dp: step,
+    interpolation: 'linear' as const,
+  };
   const ta = transportPerLayer(geostrophicSection(casts(a), o), bounds);
   const tb = transportPerLayer(geostrophicSection(casts(b), o), bounds);
-  return ta.map((l, i) => ({ sigmaTop: l.sigmaTop, sigmaBottom: l.sigmaBottom, A: l.total, B: tb[i].total, change: tb[i].total - l.total }));
+  return ta.map((l, i) => ({
+    sigmaTop: l.sigmaTop,
+    sigmaBottom: l.sigmaBottom,
+    A: l.total,
+    B: tb[i].total,
+    change: tb[i].total - l.total,
+  }));
 }
 
 const YEAR_MS = 365.2425 * 86_400_000;

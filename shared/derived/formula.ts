@@ -81,7 +81,12 @@ const FUNCTIONS: Record<string, { min: number; max: number; fn: (...xs: number[]
   isNaN: { min: 1, max: 1, fn: (x: number) => (Number.isNaN(x) ? 1 : 0) },
 };
 
-const CONSTANTS: Record<string, number> = { pi: Math.PI, e: Math.E, NaN: Number.NaN, Infinity: Number.POSITIVE_INFINITY };
+const CONSTANTS: Record<string, number> = {
+  pi: Math.PI,
+  e: Math.E,
+  NaN: Number.NaN,
+  Infinity: Number.POSITIVE_INFINITY,
+};
 
 const truth = (x: number): boolean => x !== 0 && !Number.isNaN(x);
 const BINARY: Record<string, Binary> = {
@@ -110,8 +115,12 @@ const UNARY: Record<string, Unary> = {
   not: (a) => (truth(a) ? 0 : 1),
 };
 const RELATIONAL: Record<string, Binary> = {
-  smaller: BINARY.smaller, larger: BINARY.larger, smallerEq: BINARY.smallerEq,
-  largerEq: BINARY.largerEq, equal: BINARY.equal, unequal: BINARY.unequal,
+  smaller: BINARY.smaller,
+  larger: BINARY.larger,
+  smallerEq: BINARY.smallerEq,
+  largerEq: BINARY.largerEq,
+  equal: BINARY.equal,
+  unequal: BINARY.unequal,
 };
 
 /** A compiled node: fills `out` (length n) from the columns. */
@@ -135,7 +144,10 @@ export type CompiledFormula =
   | { ok: false; error: FormulaError };
 
 class FormulaRejection extends Error {
-  constructor(message: string, readonly needle: string | null) {
+  constructor(
+    message: string,
+    readonly needle: string | null,
+  ) {
     super(message);
   }
 }
@@ -159,7 +171,11 @@ function compileNode(node: MathNode, allowed: ReadonlySet<string>, used: string[
   switch (node.type) {
     case 'ConstantNode': {
       const value = (node as unknown as { value: unknown }).value;
-      if (typeof value !== 'number') throw new FormulaRejection('only numbers may appear as constants (no strings or other values)', typeof value === 'string' ? `"${value}` : null);
+      if (typeof value !== 'number')
+        throw new FormulaRejection(
+          'only numbers may appear as constants (no strings or other values)',
+          typeof value === 'string' ? `"${value}` : null,
+        );
       return (_c, n) => new Float64Array(n).fill(value);
     }
     case 'SymbolNode': {
@@ -169,7 +185,8 @@ function compileNode(node: MathNode, allowed: ReadonlySet<string>, used: string[
         return (_c, n) => new Float64Array(n).fill(value);
       }
       if (!allowed.has(name)) {
-        if (Object.prototype.hasOwnProperty.call(FUNCTIONS, name)) throw new FormulaRejection(`${name} is a function; call it as ${name}(…)`, name);
+        if (Object.prototype.hasOwnProperty.call(FUNCTIONS, name))
+          throw new FormulaRejection(`${name} is a function; call it as ${name}(…)`, name);
         throw new FormulaRejection(`unknown variable "${name}" (available: ${[...allowed].join(', ')})`, name);
       }
       if (!used.includes(name)) used.push(name);
@@ -187,27 +204,44 @@ function compileNode(node: MathNode, allowed: ReadonlySet<string>, used: string[
       if (kids.length === 1 && Object.prototype.hasOwnProperty.call(UNARY, fn)) {
         const u = UNARY[fn];
         const [a] = kids;
-        return (c, n) => { const x = a(c, n); return mapInto(n, (i) => u(x[i])); };
+        return (c, n) => {
+          const x = a(c, n);
+          return mapInto(n, (i) => u(x[i]));
+        };
       }
       if (kids.length === 2 && Object.prototype.hasOwnProperty.call(BINARY, fn)) {
         const b = BINARY[fn];
         const [ka, kb] = kids;
-        return (c, n) => { const x = ka(c, n), y = kb(c, n); return mapInto(n, (i) => b(x[i], y[i])); };
+        return (c, n) => {
+          const x = ka(c, n),
+            y = kb(c, n);
+          return mapInto(n, (i) => b(x[i], y[i]));
+        };
       }
       throw new FormulaRejection(`operator "${op}" is not allowed in formulas`, op);
     }
     case 'ConditionalNode': {
-      const { condition, trueExpr, falseExpr } = node as unknown as { condition: MathNode; trueExpr: MathNode; falseExpr: MathNode };
+      const { condition, trueExpr, falseExpr } = node as unknown as {
+        condition: MathNode;
+        trueExpr: MathNode;
+        falseExpr: MathNode;
+      };
       const kc = compileNode(condition, allowed, used, depth + 1);
       const kt = compileNode(trueExpr, allowed, used, depth + 1);
       const kf = compileNode(falseExpr, allowed, used, depth + 1);
-      return (c, n) => { const x = kc(c, n), t = kt(c, n), e = kf(c, n); return mapInto(n, (i) => (truth(x[i]) ? t[i] : e[i])); };
+      return (c, n) => {
+        const x = kc(c, n),
+          t = kt(c, n),
+          e = kf(c, n);
+        return mapInto(n, (i) => (truth(x[i]) ? t[i] : e[i]));
+      };
     }
     case 'RelationalNode': {
       const { conditionals, params } = node as unknown as { conditionals: string[]; params: MathNode[] };
       const kids = params.map((p) => compileNode(p, allowed, used, depth + 1));
       const rels = conditionals.map((name) => {
-        if (!Object.prototype.hasOwnProperty.call(RELATIONAL, name)) throw new FormulaRejection(`comparison "${name}" is not allowed`, null);
+        if (!Object.prototype.hasOwnProperty.call(RELATIONAL, name))
+          throw new FormulaRejection(`comparison "${name}" is not allowed`, null);
         return RELATIONAL[name];
       });
       return (c, n) => {
@@ -223,22 +257,34 @@ function compileNode(node: MathNode, allowed: ReadonlySet<string>, used: string[
       if (fn.type !== 'SymbolNode') throw new FormulaRejection('only named math functions may be called', null);
       const name = (fn as unknown as { name: string }).name;
       if (!Object.prototype.hasOwnProperty.call(FUNCTIONS, name)) {
-        throw new FormulaRejection(`function "${name}" is not allowed (allowed: ${Object.keys(FUNCTIONS).join(', ')})`, name);
+        throw new FormulaRejection(
+          `function "${name}" is not allowed (allowed: ${Object.keys(FUNCTIONS).join(', ')})`,
+          name,
+        );
       }
       const spec = FUNCTIONS[name];
       if (args.length < spec.min || args.length > spec.max) {
-        throw new FormulaRejection(`${name} takes ${spec.min === spec.max ? spec.min : `${spec.min} to ${spec.max}`} argument(s), got ${args.length}`, name);
+        throw new FormulaRejection(
+          `${name} takes ${spec.min === spec.max ? spec.min : `${spec.min} to ${spec.max}`} argument(s), got ${args.length}`,
+          name,
+        );
       }
       const kids = args.map((a) => compileNode(a, allowed, used, depth + 1));
       const g = spec.fn;
       if (kids.length === 1) {
         const [a] = kids;
-        return (c, n) => { const x = a(c, n); return mapInto(n, (i) => g(x[i])); };
+        return (c, n) => {
+          const x = a(c, n);
+          return mapInto(n, (i) => g(x[i]));
+        };
       }
       return (c, n) => {
         const xs = kids.map((k) => k(c, n));
         const buf = new Array<number>(xs.length);
-        return mapInto(n, (i) => { for (let k = 0; k < xs.length; k++) buf[k] = xs[k][i]; return g(...buf); });
+        return mapInto(n, (i) => {
+          for (let k = 0; k < xs.length; k++) buf[k] = xs[k][i];
+          return g(...buf);
+        });
       };
     }
     case 'AssignmentNode':
@@ -268,9 +314,13 @@ function compileNode(node: MathNode, allowed: ReadonlySet<string>, used: string[
  * Returns the evaluator and the columns it reads, or an error with a message and position.
  */
 export function compileFormula(text: string, allowedColumns: Iterable<string>): CompiledFormula {
-  if (typeof text !== 'string' || text.trim() === '') return { ok: false, error: { message: 'the formula is empty', position: 0 } };
+  if (typeof text !== 'string' || text.trim() === '')
+    return { ok: false, error: { message: 'the formula is empty', position: 0 } };
   if (text.length > MAX_FORMULA_LENGTH) {
-    return { ok: false, error: { message: `the formula is longer than ${MAX_FORMULA_LENGTH} characters`, position: MAX_FORMULA_LENGTH } };
+    return {
+      ok: false,
+      error: { message: `the formula is longer than ${MAX_FORMULA_LENGTH} characters`, position: MAX_FORMULA_LENGTH },
+    };
   }
   const allowed = new Set<string>();
   for (const c of allowedColumns) if (/^[A-Za-z_][A-Za-z0-9_]*$/.test(c) && !(c in CONSTANTS)) allowed.add(c);
@@ -280,14 +330,21 @@ export function compileFormula(text: string, allowedColumns: Iterable<string>): 
   } catch (err) {
     const e = err as { message?: string; char?: number };
     const position = typeof e.char === 'number' ? Math.max(0, e.char - 1) : null;
-    return { ok: false, error: { message: `syntax error: ${(e.message ?? 'cannot read the formula').replace(/ \(char \d+\)$/, '')}`, position } };
+    return {
+      ok: false,
+      error: {
+        message: `syntax error: ${(e.message ?? 'cannot read the formula').replace(/ \(char \d+\)$/, '')}`,
+        position,
+      },
+    };
   }
   const used: string[] = [];
   let kernel: Kernel;
   try {
     kernel = compileNode(tree, allowed, used, 0);
   } catch (err) {
-    if (err instanceof FormulaRejection) return { ok: false, error: { message: err.message, position: positionOf(text, err.needle) } };
+    if (err instanceof FormulaRejection)
+      return { ok: false, error: { message: err.message, position: positionOf(text, err.needle) } };
     throw err;
   }
   return {

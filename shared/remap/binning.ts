@@ -23,13 +23,32 @@ export interface BinOptions {
 }
 
 /** Mean of each property within pressure bins of binSize dbar; p dbar, any order. */
-export function binToPressure(p: Float64Array, props: Record<string, Float64Array>, binSize: number, opts: BinOptions = {}): PressureBins {
+export function binToPressure(
+  p: Float64Array,
+  props: Record<string, Float64Array>,
+  binSize: number,
+  opts: BinOptions = {},
+): PressureBins {
   if (!(binSize > 0) || !Number.isFinite(binSize)) throw new RangeError('binSize must be a positive number of dbar');
   let pLo = Infinity;
   let pHi = -Infinity;
-  for (let i = 0; i < p.length; i++) { const v = p[i]; if (v < pLo) pLo = v; if (v > pHi) pHi = v; }
-  const kFirst = opts.pMin !== undefined ? Math.round(opts.pMin / binSize) : Number.isFinite(pLo) ? Math.max(0, Math.floor(pLo / binSize + 0.5)) : 0;
-  const kLast = opts.pMax !== undefined ? Math.round(opts.pMax / binSize) : Number.isFinite(pHi) ? Math.floor(pHi / binSize + 0.5) : kFirst - 1;
+  for (let i = 0; i < p.length; i++) {
+    const v = p[i];
+    if (v < pLo) pLo = v;
+    if (v > pHi) pHi = v;
+  }
+  const kFirst =
+    opts.pMin !== undefined
+      ? Math.round(opts.pMin / binSize)
+      : Number.isFinite(pLo)
+        ? Math.max(0, Math.floor(pLo / binSize + 0.5))
+        : 0;
+  const kLast =
+    opts.pMax !== undefined
+      ? Math.round(opts.pMax / binSize)
+      : Number.isFinite(pHi)
+        ? Math.floor(pHi / binSize + 0.5)
+        : kFirst - 1;
   const nb = Math.max(0, kLast - kFirst + 1);
   const pressure = new Float64Array(nb);
   for (let b = 0; b < nb; b++) pressure[b] = (kFirst + b) * binSize;
@@ -50,7 +69,10 @@ export function binToPressure(p: Float64Array, props: Record<string, Float64Arra
     for (let i = 0; i < p.length; i++) {
       const b = bin[i];
       const v = col[i];
-      if (b >= 0 && v === v) { sum[b] += v; n[b]++; }
+      if (b >= 0 && v === v) {
+        sum[b] += v;
+        n[b]++;
+      }
     }
     for (let b = 0; b < nb; b++) sum[b] = n[b] > 0 ? sum[b] / n[b] : NaN;
     out[name] = sum;

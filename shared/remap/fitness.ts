@@ -25,7 +25,8 @@ export interface CoordinateFitness {
 function sortByKey(keys: Float64Array, order: Int32Array, m: number, value: Float64Array): void {
   let budget = 8 * m;
   for (let i = 1; i < m; i++) {
-    const x = keys[i], o = order[i];
+    const x = keys[i],
+      o = order[i];
     let j = i - 1;
     while (j >= 0 && keys[j] > x) {
       keys[j + 1] = keys[j];
@@ -54,12 +55,18 @@ function sortByKey(keys: Float64Array, order: Int32Array, m: number, value: Floa
  */
 export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateFitness {
   // The usable levels, packed (no per-level objects: this runs for 8 variables of every cast).
-  let P = p, V = v, n = 0;
+  let P = p,
+    V = v,
+    n = 0;
   for (let i = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(v[i])) n++;
   if (n !== p.length) {
     P = new Float64Array(n);
     V = new Float64Array(n);
-    for (let i = 0, k = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(v[i])) { P[k] = p[i]; V[k++] = v[i]; }
+    for (let i = 0, k = 0; i < p.length; i++)
+      if (Number.isFinite(p[i]) && Number.isFinite(v[i])) {
+        P[k] = p[i];
+        V[k++] = v[i];
+      }
   }
   if (n < 2) return { monotonicShare: 0, multiValuedShare: 0, direction: 'none', segments: [] };
   let spanUp = 0;
@@ -80,7 +87,10 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
     const dv = V[k + 1] - V[k];
     const good = sign !== 0 && dv * sign > 0;
     if (good && open < 0) open = k;
-    if (!good && open >= 0) { segments.push({ pTop: P[open], pBottom: P[k] }); open = -1; }
+    if (!good && open >= 0) {
+      segments.push({ pTop: P[open], pBottom: P[k] });
+      open = -1;
+    }
   }
   if (open >= 0) segments.push({ pTop: P[open], pBottom: P[n - 1] });
 
@@ -93,7 +103,10 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
   let m = 0;
   for (let j = 0; j < n; j++) {
     const k = sign < 0 ? n - 1 - j : j;
-    if ((k > 0 && V[k - 1] !== V[k]) || (k < n - 1 && V[k] !== V[k + 1])) { order[m] = k; keys[m++] = V[k]; }
+    if ((k > 0 && V[k - 1] !== V[k]) || (k < n - 1 && V[k] !== V[k + 1])) {
+      order[m] = k;
+      keys[m++] = V[k];
+    }
   }
   sortByKey(keys, order, m, V);
   const rank = new Int32Array(n);
@@ -125,7 +138,10 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
     const a = V[k];
     const b = V[k + 1];
     const dp = P[k + 1] - P[k];
-    if (a === b) { multi += dp; continue; }
+    if (a === b) {
+      multi += dp;
+      continue;
+    }
     const lo = Math.min(a, b);
     const hi = Math.max(a, b);
     // the part of [lo, hi] covered twice: the prefix measure at its two end points
@@ -147,16 +163,29 @@ export function coordinateFitness(p: Float64Array, v: Float64Array): CoordinateF
  * strict measure of `coordinateFitness` sees every wiggle; this one answers whether the variable
  * can serve as a coordinate at the resolution the analysis uses.
  */
-export function coordinateFitnessAtResolution(p: Float64Array, v: Float64Array, tolerance: number): CoordinateFitness & { tolerance: number } {
+export function coordinateFitnessAtResolution(
+  p: Float64Array,
+  v: Float64Array,
+  tolerance: number,
+): CoordinateFitness & { tolerance: number } {
   const kp: number[] = [];
   const kv: number[] = [];
   for (let i = 0; i < p.length; i++) {
     if (!Number.isFinite(p[i]) || !Number.isFinite(v[i])) continue;
-    if (kv.length === 0 || Math.abs(v[i] - kv[kv.length - 1]) >= tolerance) { kp.push(p[i]); kv.push(v[i]); }
+    if (kv.length === 0 || Math.abs(v[i] - kv[kv.length - 1]) >= tolerance) {
+      kp.push(p[i]);
+      kv.push(v[i]);
+    }
   }
   // the deepest level closes the span even when it moved less than the tolerance
   for (let i = p.length - 1; i >= 0; i--) {
-    if (Number.isFinite(p[i]) && Number.isFinite(v[i])) { if (kp[kp.length - 1] !== p[i]) { kp.push(p[i]); kv.push(v[i]); } break; }
+    if (Number.isFinite(p[i]) && Number.isFinite(v[i])) {
+      if (kp[kp.length - 1] !== p[i]) {
+        kp.push(p[i]);
+        kv.push(v[i]);
+      }
+      break;
+    }
   }
   return { ...coordinateFitness(Float64Array.from(kp), Float64Array.from(kv)), tolerance };
 }

@@ -65,14 +65,22 @@ export function firstCrossing(x: Float64Array, targets: Float64Array, out?: Brac
   if (m === 0) return { index, weight };
   if (n === 1) {
     // A single level brackets only a target equal to it.
-    for (let j = 0; j < m; j++) if (targets[j] === x[0]) { index[j] = 0; weight[j] = 0; }
+    for (let j = 0; j < m; j++)
+      if (targets[j] === x[0]) {
+        index[j] = 0;
+        weight[j] = 0;
+      }
     return { index, weight };
   }
   // Monotone non-decreasing profiles (stable or sorted casts) take a single merge walk.
   let monotone = knownMonotone;
   if (!monotone) {
     monotone = true;
-    for (let k = 1; k < n; k++) if (x[k] < x[k - 1]) { monotone = false; break; }
+    for (let k = 1; k < n; k++)
+      if (x[k] < x[k - 1]) {
+        monotone = false;
+        break;
+      }
   }
   if (monotone) {
     const last = x[n - 1];
@@ -101,7 +109,11 @@ export function firstCrossing(x: Float64Array, targets: Float64Array, out?: Brac
   const find = (j: number): number => {
     let r = j;
     while (next[r] !== r) r = next[r];
-    while (next[j] !== r) { const t = next[j]; next[j] = r; j = t; }
+    while (next[j] !== r) {
+      const t = next[j];
+      next[j] = r;
+      j = t;
+    }
     return r;
   };
   let unclaimed = m;
@@ -130,7 +142,10 @@ export function interpLinearAt(y: Float64Array, br: Bracket, out?: Float64Array)
   const res = out ?? new Float64Array(m);
   for (let j = 0; j < m; j++) {
     const k = br.index[j];
-    if (k < 0) { res[j] = NaN; continue; }
+    if (k < 0) {
+      res[j] = NaN;
+      continue;
+    }
     const w = br.weight[j];
     res[j] = w === 0 ? y[k] : y[k] + w * (y[k + 1] - y[k]);
   }
@@ -146,8 +161,14 @@ export function interpLinearAt(y: Float64Array, br: Bracket, out?: Float64Array)
 function fcInitialSlope(x: Float64Array, y: Float64Array, k: number): number {
   const n = x.length;
   if (n < 2) return 0;
-  if (k === 0) { const h = x[1] - x[0]; return h !== 0 ? (y[1] - y[0]) / h : 0; }
-  if (k === n - 1) { const h = x[k] - x[k - 1]; return h !== 0 ? (y[k] - y[k - 1]) / h : 0; }
+  if (k === 0) {
+    const h = x[1] - x[0];
+    return h !== 0 ? (y[1] - y[0]) / h : 0;
+  }
+  if (k === n - 1) {
+    const h = x[k] - x[k - 1];
+    return h !== 0 ? (y[k] - y[k - 1]) / h : 0;
+  }
   const hm = x[k] - x[k - 1];
   const hp = x[k + 1] - x[k];
   if (hm === 0 || hp === 0) return 0;
@@ -212,10 +233,20 @@ export function interpPchipAt(x: Float64Array, y: Float64Array, br: Bracket, out
   let d1 = 0;
   for (let j = 0; j < m; j++) {
     const k = br.index[j];
-    if (k < 0) { res[j] = NaN; continue; }
+    if (k < 0) {
+      res[j] = NaN;
+      continue;
+    }
     const t = br.weight[j];
-    if (x.length === 1 || t === 0) { res[j] = y[k]; continue; }
-    if (k !== kCached) { d0 = fcSlope(x, y, k); d1 = fcSlope(x, y, k + 1); kCached = k; }
+    if (x.length === 1 || t === 0) {
+      res[j] = y[k];
+      continue;
+    }
+    if (k !== kCached) {
+      d0 = fcSlope(x, y, k);
+      d1 = fcSlope(x, y, k + 1);
+      kCached = k;
+    }
     const h = x[k + 1] - x[k];
     const t2 = t * t;
     const t3 = t2 * t;
@@ -232,12 +263,20 @@ export function interpPchipAt(x: Float64Array, y: Float64Array, br: Bracket, out
  * Linear interpolation like interpLinearAt for a reordered profile whose level k holds the
  * parcel order[k] of y (Thorpe-sorted casts), without building the reordered column.
  */
-export function interpLinearOrderedAt(y: Float64Array, order: Int32Array, br: Bracket, out?: Float64Array): Float64Array {
+export function interpLinearOrderedAt(
+  y: Float64Array,
+  order: Int32Array,
+  br: Bracket,
+  out?: Float64Array,
+): Float64Array {
   const m = br.index.length;
   const res = out ?? new Float64Array(m);
   for (let j = 0; j < m; j++) {
     const k = br.index[j];
-    if (k < 0) { res[j] = NaN; continue; }
+    if (k < 0) {
+      res[j] = NaN;
+      continue;
+    }
     const w = br.weight[j];
     const a = y[order[k]];
     res[j] = w === 0 ? a : a + w * (y[order[k + 1]] - a);
@@ -250,10 +289,16 @@ export function interpLinear(x: Float64Array, y: Float64Array, xq: Float64Array)
   const out = new Float64Array(xq.length);
   for (let j = 0; j < xq.length; j++) {
     const q = xq[j];
-    if (!(q >= x[0] && q <= x[x.length - 1])) { out[j] = NaN; continue; }
+    if (!(q >= x[0] && q <= x[x.length - 1])) {
+      out[j] = NaN;
+      continue;
+    }
     let k = upperBound(x, q) - 1;
     if (k >= x.length - 1) k = x.length - 2;
-    if (k < 0) { out[j] = y[0]; continue; }
+    if (k < 0) {
+      out[j] = y[0];
+      continue;
+    }
     const h = x[k + 1] - x[k];
     out[j] = h > 0 ? y[k] + ((q - x[k]) / h) * (y[k + 1] - y[k]) : y[k];
   }

@@ -88,7 +88,12 @@ export function detectInversions(p: Float64Array, sigma: Float64Array, opts: Inv
   k++;
   while (k < n) {
     const s = sigma[k];
-    if (s >= M) { M = s; kM = k; k++; continue; }
+    if (s >= M) {
+      M = s;
+      kM = k;
+      k++;
+      continue;
+    }
     // A run of water lighter than the parcel at kM (or of missing values) starts at k.
     let j = k;
     let minS = Infinity;
@@ -106,7 +111,11 @@ export function detectInversions(p: Float64Array, sigma: Float64Array, opts: Inv
     while (j < n && !(sigma[j] >= recovered)) {
       const v = sigma[j];
       if (v < minS) minS = v;
-      if (v < significant) { lastLight = j; nLight++; if (firstLight < 0) firstLight = j; }
+      if (v < significant) {
+        lastLight = j;
+        nLight++;
+        if (firstLight < 0) firstLight = j;
+      }
       j++;
     }
     const deficit = M - minS;
@@ -120,7 +129,10 @@ export function detectInversions(p: Float64Array, sigma: Float64Array, opts: Inv
       const levels = iBottom - iTop;
       const cls: InversionClass = isSpike ? 'spike' : 'overturn';
       found.push({
-        iTop, iBottom, pTop, pBottom,
+        iTop,
+        iBottom,
+        pTop,
+        pBottom,
         depthTop: z ? -z[iTop] : null,
         depthBottom: z ? -z[iBottom] : null,
         deficit,
@@ -129,8 +141,10 @@ export function detectInversions(p: Float64Array, sigma: Float64Array, opts: Inv
         levels,
       });
     }
-    if (j < n && sigma[j] > M) { M = sigma[j]; kM = j; }
-    else if (j < n && sigma[j] === M) kM = j;
+    if (j < n && sigma[j] > M) {
+      M = sigma[j];
+      kM = j;
+    } else if (j < n && sigma[j] === M) kM = j;
     k = j + 1;
   }
   return found;

@@ -24,7 +24,16 @@
  */
 import { detectInversions, type Inversion } from './inversions';
 import { thorpeOrder } from './thorpe';
-import { assertAscending, firstCrossing, interpLinearAt, interpLinearOrderedAt, interpPchipAt, lowerBound, upperBound, type Bracket } from './interpolate';
+import {
+  assertAscending,
+  firstCrossing,
+  interpLinearAt,
+  interpLinearOrderedAt,
+  interpPchipAt,
+  lowerBound,
+  upperBound,
+  type Bracket,
+} from './interpolate';
 
 export type InversionHandling = 'sort' | 'drop' | 'raw';
 export type SigmaInterpolation = 'linear' | 'pchip';
@@ -108,7 +117,10 @@ export function countCrossings(sigma: Float64Array, targets: Float64Array, out?:
   const res = out ?? new Int32Array(m);
   const diff = new Int32Array(m + 1);
   const n = sigma.length;
-  if (n === 0 || m === 0) { res.fill(0); return res; }
+  if (n === 0 || m === 0) {
+    res.fill(0);
+    return res;
+  }
   // gt(v): first target > v; ge(v): first target ≥ v. σ moves little between levels, so each is
   // found by walking from the previous answer rather than searching afresh.
   let gPrev = upperBound(targets, sigma[0]);
@@ -130,15 +142,24 @@ export function countCrossings(sigma: Float64Array, targets: Float64Array, out?:
       // Strict passes: targets with min < s < max.
       const j0 = a < b ? gPrev : g;
       const j1 = a < b ? e : ePrev;
-      if (j0 < j1) { diff[j0]++; diff[j1]--; }
+      if (j0 < j1) {
+        diff[j0]++;
+        diff[j1]--;
+      }
       // A new run of levels lying exactly on a target.
-      if (e < m && targets[e] === b) { diff[e]++; diff[e + 1]--; }
+      if (e < m && targets[e] === b) {
+        diff[e]++;
+        diff[e + 1]--;
+      }
     }
     gPrev = g;
     ePrev = e;
   }
   let c = 0;
-  for (let j = 0; j < m; j++) { c += diff[j]; res[j] = c; }
+  for (let j = 0; j < m; j++) {
+    c += diff[j];
+    res[j] = c;
+  }
   return res;
 }
 
@@ -163,7 +184,10 @@ function scanCast(cast: RemapCast): { keep: Int32Array | null; monotone: boolean
   prev = -Infinity;
   for (let k = 0; k < n; k++) {
     const sk = s[k];
-    if (p[k] - p[k] !== 0 || sk - sk !== 0) { bad++; continue; }
+    if (p[k] - p[k] !== 0 || sk - sk !== 0) {
+      bad++;
+      continue;
+    }
     if (sk < prev) monotone = false;
     prev = sk;
   }
@@ -204,7 +228,10 @@ function handleCast(cast: RemapCast, handling: InversionHandling, inversions: In
   if (handling === 'raw') return { ...cast, order: null };
   const n = cast.p.length;
   if (handling === 'sort') {
-    if (scratchOrder.length < n) { scratchOrder = new Int32Array(n); scratchSorted = new Float64Array(n); }
+    if (scratchOrder.length < n) {
+      scratchOrder = new Int32Array(n);
+      scratchSorted = new Float64Array(n);
+    }
     const order = scratchOrder.subarray(0, n);
     const sorted = scratchSorted.subarray(0, n);
     return thorpeOrder(cast.sigma, order, sorted) ? { ...cast, sigma: sorted, order } : { ...cast, order: null };
@@ -213,7 +240,11 @@ function handleCast(cast: RemapCast, handling: InversionHandling, inversions: In
   const drop = new Uint8Array(n);
   let dropped = 0;
   for (const inv of inversions) {
-    for (let i = inv.iTop + 1; i <= inv.iBottom && i < n; i++) if (!drop[i]) { drop[i] = 1; dropped++; }
+    for (let i = inv.iTop + 1; i <= inv.iBottom && i < n; i++)
+      if (!drop[i]) {
+        drop[i] = 1;
+        dropped++;
+      }
   }
   const keep = new Int32Array(n - dropped);
   let j = 0;
@@ -222,7 +253,13 @@ function handleCast(cast: RemapCast, handling: InversionHandling, inversions: In
 }
 
 /** Column values at the bracketed targets by the chosen interpolation in σ (order: Thorpe order of y). */
-function evaluate(sigma: Float64Array, y: Float64Array, br: Bracket, how: SigmaInterpolation, order: Int32Array | null): Float64Array {
+function evaluate(
+  sigma: Float64Array,
+  y: Float64Array,
+  br: Bracket,
+  how: SigmaInterpolation,
+  order: Int32Array | null,
+): Float64Array {
   if (order) {
     if (how === 'linear') return interpLinearOrderedAt(y, order, br);
     const moved = new Float64Array(order.length);
@@ -236,7 +273,11 @@ function evaluate(sigma: Float64Array, y: Float64Array, br: Bracket, how: SigmaI
 function midLevels(targets: Float64Array): Float64Array {
   const m = targets.length;
   const mid = new Float64Array(m + 1);
-  if (m === 1) { mid[0] = targets[0]; mid[1] = targets[0]; return mid; }
+  if (m === 1) {
+    mid[0] = targets[0];
+    mid[1] = targets[0];
+    return mid;
+  }
   for (let i = 1; i < m; i++) mid[i] = 0.5 * (targets[i - 1] + targets[i]);
   mid[0] = targets[0] - 0.5 * (targets[1] - targets[0]);
   mid[m] = targets[m - 1] + 0.5 * (targets[m - 1] - targets[m - 2]);
@@ -264,7 +305,8 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
   const { keep, monotone } = scanCast(cast);
   const clean = keep ? subCast(cast, keep) : cast;
   let inversions = keep ? undefined : opts.inversions;
-  if (!inversions) inversions = monotone ? [] : detectInversions(clean.p, clean.sigma, { threshold: opts.threshold, z: clean.z });
+  if (!inversions)
+    inversions = monotone ? [] : detectInversions(clean.p, clean.sigma, { threshold: opts.threshold, z: clean.z });
   const handled: HandledCast = monotone ? { ...clean, order: null } : handleCast(clean, opts.handling, inversions);
   const m = targets.length;
   const sig = handled.sigma;
@@ -273,7 +315,11 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
 
   const crossingsRaw = monotone ? monotoneCrossings(clean.sigma, targets) : countCrossings(clean.sigma, targets);
   const sameProfile = handled.sigma === clean.sigma;
-  const crossings = sameProfile ? crossingsRaw.slice() : opts.handling === 'sort' ? monotoneCrossings(sig, targets) : countCrossings(sig, targets);
+  const crossings = sameProfile
+    ? crossingsRaw.slice()
+    : opts.handling === 'sort'
+      ? monotoneCrossings(sig, targets)
+      : countCrossings(sig, targets);
   const sortedSig = monotone || order !== null;
   const mids = midLevels(targets);
   let br: Bracket;
@@ -281,13 +327,22 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
   if (sortedSig) {
     // Mid-levels and targets interleave (mid₀ < t₀ < mid₁ < … < mid_m): one walk brackets both.
     const both = new Float64Array(2 * m + 1);
-    for (let j = 0; j < m; j++) { both[2 * j] = mids[j]; both[2 * j + 1] = targets[j]; }
+    for (let j = 0; j < m; j++) {
+      both[2 * j] = mids[j];
+      both[2 * j + 1] = targets[j];
+    }
     both[2 * m] = mids[m];
     const all = firstCrossing(sig, both, undefined, true);
     br = { index: new Int32Array(m), weight: new Float64Array(m) };
     brMid = { index: new Int32Array(m + 1), weight: new Float64Array(m + 1) };
-    for (let j = 0; j <= m; j++) { brMid.index[j] = all.index[2 * j]; brMid.weight[j] = all.weight[2 * j]; }
-    for (let j = 0; j < m; j++) { br.index[j] = all.index[2 * j + 1]; br.weight[j] = all.weight[2 * j + 1]; }
+    for (let j = 0; j <= m; j++) {
+      brMid.index[j] = all.index[2 * j];
+      brMid.weight[j] = all.weight[2 * j];
+    }
+    for (let j = 0; j < m; j++) {
+      br.index[j] = all.index[2 * j + 1];
+      br.weight[j] = all.weight[2 * j + 1];
+    }
   } else {
     br = firstCrossing(sig, targets, undefined, false);
     brMid = firstCrossing(sig, mids, undefined, false);
@@ -309,8 +364,16 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
 
   let sMin = Infinity;
   let sMax = -Infinity;
-  if (monotone || order) { if (sig.length) { sMin = sig[0]; sMax = sig[sig.length - 1]; } }
-  else for (let k = 0; k < sig.length; k++) { if (sig[k] < sMin) sMin = sig[k]; if (sig[k] > sMax) sMax = sig[k]; }
+  if (monotone || order) {
+    if (sig.length) {
+      sMin = sig[0];
+      sMax = sig[sig.length - 1];
+    }
+  } else
+    for (let k = 0; k < sig.length; k++) {
+      if (sig[k] < sMin) sMin = sig[k];
+      if (sig[k] > sMax) sMax = sig[k];
+    }
   const flags = new Uint8Array(m);
   for (let j = 0; j < m; j++) {
     let f = 0;
@@ -319,12 +382,26 @@ export function remapToIsopycnals(cast: RemapCast, targets: Float64Array, opts: 
     if (crossingsRaw[j] > 1) f |= FLAG_MULTI_CROSSING;
     const pj = pressure[j];
     if (pj === pj) {
-      for (const inv of inversions) if (pj >= inv.pTop && pj <= inv.pBottom) { f |= FLAG_IN_INVERSION; break; }
+      for (const inv of inversions)
+        if (pj >= inv.pTop && pj <= inv.pBottom) {
+          f |= FLAG_IN_INVERSION;
+          break;
+        }
     }
     flags[j] = f;
   }
   return {
-    targets, pressure, depth, props, thickness, thicknessDepth, crossings, crossingsRaw, flags,
-    inversions, handling: opts.handling, interpolation: opts.interpolation,
+    targets,
+    pressure,
+    depth,
+    props,
+    thickness,
+    thicknessDepth,
+    crossings,
+    crossingsRaw,
+    flags,
+    inversions,
+    handling: opts.handling,
+    interpolation: opts.interpolation,
   };
 }

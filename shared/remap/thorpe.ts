@@ -24,18 +24,28 @@ export interface ThorpeResult {
  * nearly stable casts (cost grows with the overturned parcels only); a scrambled cast falls back
  * to a comparison sort. Returns whether any parcel moves. Buffers may be passed in for reuse.
  */
-export function thorpeOrder(sigma: Float64Array, order: Int32Array = new Int32Array(sigma.length), sorted: Float64Array = new Float64Array(sigma.length)): boolean {
+export function thorpeOrder(
+  sigma: Float64Array,
+  order: Int32Array = new Int32Array(sigma.length),
+  sorted: Float64Array = new Float64Array(sigma.length),
+): boolean {
   const n = sigma.length;
   let descents = 0;
   for (let i = 0; i < n; i++) order[i] = i;
   for (let i = 1; i < n; i++) if (sigma[i] < sigma[i - 1]) descents++;
-  if (descents === 0) { sorted.set(sigma.subarray(0, n)); return false; }
+  if (descents === 0) {
+    sorted.set(sigma.subarray(0, n));
+    return false;
+  }
   if (descents * 64 < n) {
     for (let i = 1; i < n; i++) {
       const oi = order[i];
       const s = sigma[oi];
       let j = i - 1;
-      while (j >= 0 && sigma[order[j]] > s) { order[j + 1] = order[j]; j--; }
+      while (j >= 0 && sigma[order[j]] > s) {
+        order[j + 1] = order[j];
+        j--;
+      }
       order[j + 1] = oi;
     }
   } else {

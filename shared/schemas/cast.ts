@@ -131,7 +131,8 @@ export const ParsedCastSchema = z
     for (const [k, v] of Object.entries(c.columns)) if (v) check(k, v.length);
     for (const [k, v] of Object.entries(c.extras)) check(`extra ${k}`, v.values.length);
     for (const [k, v] of Object.entries(c.flags)) check(`flag ${k}`, v.length);
-    if (c.vertical === 'pressure' && !c.columns.pressure) ctx.addIssue({ code: 'custom', message: 'pressure column missing' });
+    if (c.vertical === 'pressure' && !c.columns.pressure)
+      ctx.addIssue({ code: 'custom', message: 'pressure column missing' });
     if (c.vertical === 'depth' && !c.columns.depth) ctx.addIssue({ code: 'custom', message: 'depth column missing' });
     if (!c.columns.salinity && !c.columns.conductivity)
       ctx.addIssue({ code: 'custom', message: 'neither salinity nor conductivity' });

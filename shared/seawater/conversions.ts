@@ -28,7 +28,9 @@ const Y_TOLERANCE = 1e-6;
  * steps reach the tolerance above where t itself as the start needs three.
  */
 function pt0Guess(SA: number, t: number, p: number): number {
-  const P = p * 1e-4, T = t / tScale, S = SA / tScale - 0.875;
+  const P = p * 1e-4,
+    T = t / tScale,
+    S = SA / tScale - 0.875;
   const drop =
     P * (0.3570249 + T * (3.3995953 + T * (-0.93233475 + 0.20916172 * T)) + S * (0.71230912 - 0.49400274 * T)) +
     P * P * (0.8212842 + T * (-1.08046095 + 0.35992254 * T) - 0.07870827 * P - 0.12634066 * S);
@@ -56,9 +58,25 @@ function gyyAt(a: Float64Array, y: number): number {
  */
 function yOfEntropy(a: Float64Array, target: number, y0: number): number {
   // ∂g/∂y and ∂²g/∂y² share their powers of y: evaluated together, from the coefficients read once.
-  const a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7];
-  const b1 = 2 * a2, b2 = 3 * a3, b3 = 4 * a4, b4 = 5 * a5, b5 = 6 * a6, b6 = 7 * a7;
-  const c0 = 2 * a2, c1 = 6 * a3, c2 = 12 * a4, c3 = 20 * a5, c4 = 30 * a6, c5 = 42 * a7;
+  const a1 = a[1],
+    a2 = a[2],
+    a3 = a[3],
+    a4 = a[4],
+    a5 = a[5],
+    a6 = a[6],
+    a7 = a[7];
+  const b1 = 2 * a2,
+    b2 = 3 * a3,
+    b3 = 4 * a4,
+    b4 = 5 * a5,
+    b5 = 6 * a6,
+    b6 = 7 * a7;
+  const c0 = 2 * a2,
+    c1 = 6 * a3,
+    c2 = 12 * a4,
+    c3 = 20 * a5,
+    c4 = 30 * a6,
+    c5 = 42 * a7;
   let y = y0;
   for (let n = 0; n < MAX_ITERATIONS; n++) {
     const y2 = y * y;
@@ -74,7 +92,14 @@ function yOfEntropy(a: Float64Array, target: number, y0: number): number {
 /** Potential enthalpy h0 = g − (T0 + t)·∂g/∂t at the collapsed pressure (0 dbar), J/kg. */
 function enthalpyAt(a: Float64Array, y: number): number {
   // g and ∂g/∂y in one pass over the coefficients (the same sums as gAt and gyAt).
-  const a0 = a[0], a1 = a[1], a2 = a[2], a3 = a[3], a4 = a[4], a5 = a[5], a6 = a[6], a7 = a[7];
+  const a0 = a[0],
+    a1 = a[1],
+    a2 = a[2],
+    a3 = a[3],
+    a4 = a[4],
+    a5 = a[5],
+    a6 = a[6],
+    a7 = a[7];
   const y2 = y * y;
   const g = a0 + a1 * y + y2 * (a2 + a3 * y + y2 * (a4 + a5 * y + y2 * (a6 + a7 * y)));
   const gy = a1 + 2 * a2 * y + y2 * (3 * a3 + 4 * a4 * y + y2 * (5 * a5 + 6 * a6 * y + y2 * 7 * a7));
@@ -126,7 +151,11 @@ export function CT_from_t(SA: number, t: number, p: number): number {
  * range. SA g/kg, t °C (ITS-90), p dbar.
  */
 export function pt0_CT_from_t(SA: number, t: number, p: number, pair: Float64Array): void {
-  if (!inRange(SA, t, p)) { pair[0] = NaN; pair[1] = NaN; return; }
+  if (!inRange(SA, t, p)) {
+    pair[0] = NaN;
+    pair[1] = NaN;
+    return;
+  }
   collapsePair(SA, p, 0, aInSitu, aRef);
   const y = t / tScale;
   const y0 = yOfEntropy(aRef, gyAt(aInSitu, y), pt0Guess(SA, t, p) / tScale);
@@ -190,7 +219,13 @@ export function pt0_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Ar
 }
 
 /** pt_from_t over columns to one reference pressure p_ref (dbar) → pt °C. */
-export function pt_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Array, p_ref: number, out?: Float64Array): Float64Array {
+export function pt_from_t_batch(
+  SA: Float64Array,
+  t: Float64Array,
+  p: Float64Array,
+  p_ref: number,
+  out?: Float64Array,
+): Float64Array {
   const n = sameLength('pt_from_t_batch', SA, t, p);
   const o = out ?? new Float64Array(n);
   for (let i = 0; i < n; i++) o[i] = pt_from_t(SA[i], t[i], p[i], p_ref);

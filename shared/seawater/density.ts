@@ -32,39 +32,79 @@ export const db2Pa = 1e4;
  * indexed [i = power of xs, j = power of ys, k = power of z, value].
  */
 const V_TABLE: ReadonlyArray<readonly [number, number, number, number]> = [
-  [0, 0, 0, 1.0769995862e-3], [0, 0, 1, -6.0799143809e-5], [0, 0, 2, 9.9856169219e-6],
-  [0, 0, 3, -1.1309361437e-6], [0, 0, 4, 1.053115308e-7], [0, 0, 5, -1.2647261286e-8],
+  [0, 0, 0, 1.0769995862e-3],
+  [0, 0, 1, -6.0799143809e-5],
+  [0, 0, 2, 9.9856169219e-6],
+  [0, 0, 3, -1.1309361437e-6],
+  [0, 0, 4, 1.053115308e-7],
+  [0, 0, 5, -1.2647261286e-8],
   [0, 0, 6, 1.961350393e-9],
-  [0, 1, 0, -1.5649734675e-5], [0, 1, 1, 1.8505765429e-5], [0, 1, 2, -1.1736386731e-6],
-  [0, 1, 3, -3.6527006553e-7], [0, 1, 4, 3.1454099902e-7],
-  [0, 2, 0, 2.7762106484e-5], [0, 2, 1, -1.1716606853e-5], [0, 2, 2, 2.130502874e-6],
+  [0, 1, 0, -1.5649734675e-5],
+  [0, 1, 1, 1.8505765429e-5],
+  [0, 1, 2, -1.1736386731e-6],
+  [0, 1, 3, -3.6527006553e-7],
+  [0, 1, 4, 3.1454099902e-7],
+  [0, 2, 0, 2.7762106484e-5],
+  [0, 2, 1, -1.1716606853e-5],
+  [0, 2, 2, 2.130502874e-6],
   [0, 2, 3, 2.8695905159e-7],
-  [0, 3, 0, -1.6521159259e-5], [0, 3, 1, 7.9279656173e-6], [0, 3, 2, -4.6132540037e-7],
-  [0, 4, 0, 6.9111322702e-6], [0, 4, 1, -3.4102187482e-6], [0, 4, 2, -6.3352916514e-8],
-  [0, 5, 0, -8.053961554e-7], [0, 5, 1, 5.0736766814e-7],
+  [0, 3, 0, -1.6521159259e-5],
+  [0, 3, 1, 7.9279656173e-6],
+  [0, 3, 2, -4.6132540037e-7],
+  [0, 4, 0, 6.9111322702e-6],
+  [0, 4, 1, -3.4102187482e-6],
+  [0, 4, 2, -6.3352916514e-8],
+  [0, 5, 0, -8.053961554e-7],
+  [0, 5, 1, 5.0736766814e-7],
   [0, 6, 0, 2.0543094268e-7],
-  [1, 0, 0, -3.1038981976e-4], [1, 0, 1, 2.4262468747e-5], [1, 0, 2, -5.8484432984e-7],
-  [1, 0, 3, 3.6310188515e-7], [1, 0, 4, -1.1147125423e-7],
-  [1, 1, 0, 3.5009599764e-5], [1, 1, 1, -9.5677088156e-6], [1, 1, 2, -5.5699154557e-6],
+  [1, 0, 0, -3.1038981976e-4],
+  [1, 0, 1, 2.4262468747e-5],
+  [1, 0, 2, -5.8484432984e-7],
+  [1, 0, 3, 3.6310188515e-7],
+  [1, 0, 4, -1.1147125423e-7],
+  [1, 1, 0, 3.5009599764e-5],
+  [1, 1, 1, -9.5677088156e-6],
+  [1, 1, 2, -5.5699154557e-6],
   [1, 1, 3, -2.7295696237e-7],
-  [1, 2, 0, -3.7435842344e-5], [1, 2, 1, -2.3678308361e-7], [1, 2, 2, 3.913738708e-7],
-  [1, 3, 0, 2.4141479483e-5], [1, 3, 1, -3.4558773655e-6], [1, 3, 2, 7.7618888092e-9],
-  [1, 4, 0, -8.7595873154e-6], [1, 4, 1, 1.2956717783e-6],
+  [1, 2, 0, -3.7435842344e-5],
+  [1, 2, 1, -2.3678308361e-7],
+  [1, 2, 2, 3.913738708e-7],
+  [1, 3, 0, 2.4141479483e-5],
+  [1, 3, 1, -3.4558773655e-6],
+  [1, 3, 2, 7.7618888092e-9],
+  [1, 4, 0, -8.7595873154e-6],
+  [1, 4, 1, 1.2956717783e-6],
   [1, 5, 0, -3.30527589e-7],
-  [2, 0, 0, 6.6928067038e-4], [2, 0, 1, -3.4792460974e-5], [2, 0, 2, -4.8122251597e-6],
+  [2, 0, 0, 6.6928067038e-4],
+  [2, 0, 1, -3.4792460974e-5],
+  [2, 0, 2, -4.8122251597e-6],
   [2, 0, 3, 1.674630378e-8],
-  [2, 1, 0, -4.3592678561e-5], [2, 1, 1, 1.1100834765e-5], [2, 1, 2, 5.4620748834e-6],
-  [2, 2, 0, 3.590782276e-5], [2, 2, 1, 2.9283346295e-6], [2, 2, 2, -6.5731104067e-7],
-  [2, 3, 0, -1.4353633048e-5], [2, 3, 1, 3.1655306078e-7],
+  [2, 1, 0, -4.3592678561e-5],
+  [2, 1, 1, 1.1100834765e-5],
+  [2, 1, 2, 5.4620748834e-6],
+  [2, 2, 0, 3.590782276e-5],
+  [2, 2, 1, 2.9283346295e-6],
+  [2, 2, 2, -6.5731104067e-7],
+  [2, 3, 0, -1.4353633048e-5],
+  [2, 3, 1, 3.1655306078e-7],
   [2, 4, 0, 4.3703680598e-6],
-  [3, 0, 0, -8.5047933937e-4], [3, 0, 1, 3.7470777305e-5], [3, 0, 2, 4.9263106998e-6],
-  [3, 1, 0, 3.4532461828e-5], [3, 1, 1, -9.8447117844e-6], [3, 1, 2, -1.3544185627e-6],
-  [3, 2, 0, -1.8698584187e-5], [3, 2, 1, -4.88261392e-7],
+  [3, 0, 0, -8.5047933937e-4],
+  [3, 0, 1, 3.7470777305e-5],
+  [3, 0, 2, 4.9263106998e-6],
+  [3, 1, 0, 3.4532461828e-5],
+  [3, 1, 1, -9.8447117844e-6],
+  [3, 1, 2, -1.3544185627e-6],
+  [3, 2, 0, -1.8698584187e-5],
+  [3, 2, 1, -4.88261392e-7],
   [3, 3, 0, 2.2863324556e-6],
-  [4, 0, 0, 5.8086069943e-4], [4, 0, 1, -1.7322218612e-5], [4, 0, 2, -1.7811974727e-6],
-  [4, 1, 0, -1.1959409788e-5], [4, 1, 1, 2.590922526e-6],
+  [4, 0, 0, 5.8086069943e-4],
+  [4, 0, 1, -1.7322218612e-5],
+  [4, 0, 2, -1.7811974727e-6],
+  [4, 1, 0, -1.1959409788e-5],
+  [4, 1, 1, 2.590922526e-6],
   [4, 2, 0, 3.8595339244e-6],
-  [5, 0, 0, -2.1092370507e-4], [5, 0, 1, 3.0927427253e-6],
+  [5, 0, 0, -2.1092370507e-4],
+  [5, 0, 1, 3.0927427253e-6],
   [5, 1, 0, 1.3864594581e-6],
   [6, 0, 0, 3.1932457305e-5],
 ];
@@ -75,7 +115,9 @@ const N = 8;
 /** Dense index of c_ijk in an 8×8×8 cube; entries above the polynomial's degree stay zero. */
 const cubeIndex = (i: number, j: number, k: number): number => (k * N + j) * N + i;
 
-function buildCube(transform: (i: number, j: number, k: number) => { i: number; j: number; k: number; factor: number } | null): Float64Array {
+function buildCube(
+  transform: (i: number, j: number, k: number) => { i: number; j: number; k: number; factor: number } | null,
+): Float64Array {
   const cube = new Float64Array(N * N * N);
   for (const [i, j, k, value] of V_TABLE) {
     const t = transform(i, j, k);
@@ -166,7 +208,9 @@ export function rho(SA: number, CT: number, p: number): number {
  */
 export function alpha(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
-  const xs = xsOf(SA), ys = CT * 0.025, z = p * 1e-4;
+  const xs = xsOf(SA),
+    ys = CT * 0.025,
+    z = p * 1e-4;
   return (0.025 * evalCube(V_YS, xs, ys, z)) / evalCube(V, xs, ys, z);
 }
 
@@ -177,14 +221,22 @@ export function alpha(SA: number, CT: number, p: number): number {
  */
 export function beta(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
-  const xs = xsOf(SA), ys = CT * 0.025, z = p * 1e-4;
+  const xs = xsOf(SA),
+    ys = CT * 0.025,
+    z = p * 1e-4;
   return (-evalCube(V_XS, xs, ys, z) * 0.5 * sfac) / (xs * evalCube(V, xs, ys, z));
 }
 
 /** v, α and β together at one point (N² needs all three; the cube is walked three times). */
-export function specvol_alpha_beta(SA: number, CT: number, p: number): { specvol: number; alpha: number; beta: number } {
+export function specvol_alpha_beta(
+  SA: number,
+  CT: number,
+  p: number,
+): { specvol: number; alpha: number; beta: number } {
   if (!inRange(SA, CT, p)) return { specvol: NaN, alpha: NaN, beta: NaN };
-  const xs = xsOf(SA), ys = CT * 0.025, z = p * 1e-4;
+  const xs = xsOf(SA),
+    ys = CT * 0.025,
+    z = p * 1e-4;
   const v = evalCube(V, xs, ys, z);
   return {
     specvol: v,
@@ -285,14 +337,41 @@ export function sigma_batch(SA: Float64Array, CT: Float64Array, p_ref: number, o
   const q = planeAt(p_ref);
   // The 28 coefficients as locals: V8 keeps them in registers across the loop, which is what
   // makes this kernel as fast as the C library (evalPlane re-reads them from memory per point).
-  const q0 = q[0], q1 = q[1], q2 = q[2], q3 = q[3], q4 = q[4], q5 = q[5], q6 = q[6];
-  const q7 = q[7], q8 = q[8], q9 = q[9], q10 = q[10], q11 = q[11], q12 = q[12];
-  const q13 = q[13], q14 = q[14], q15 = q[15], q16 = q[16], q17 = q[17];
-  const q18 = q[18], q19 = q[19], q20 = q[20], q21 = q[21];
-  const q22 = q[22], q23 = q[23], q24 = q[24], q25 = q[25], q26 = q[26], q27 = q[27];
-  const saLo = SA_RANGE[0], saHi = SA_RANGE[1], tLo = T_RANGE[0], tHi = T_RANGE[1];
+  const q0 = q[0],
+    q1 = q[1],
+    q2 = q[2],
+    q3 = q[3],
+    q4 = q[4],
+    q5 = q[5],
+    q6 = q[6];
+  const q7 = q[7],
+    q8 = q[8],
+    q9 = q[9],
+    q10 = q[10],
+    q11 = q[11],
+    q12 = q[12];
+  const q13 = q[13],
+    q14 = q[14],
+    q15 = q[15],
+    q16 = q[16],
+    q17 = q[17];
+  const q18 = q[18],
+    q19 = q[19],
+    q20 = q[20],
+    q21 = q[21];
+  const q22 = q[22],
+    q23 = q[23],
+    q24 = q[24],
+    q25 = q[25],
+    q26 = q[26],
+    q27 = q[27];
+  const saLo = SA_RANGE[0],
+    saHi = SA_RANGE[1],
+    tLo = T_RANGE[0],
+    tHi = T_RANGE[1];
   for (let m = 0; m < n; m++) {
-    const xs = Math.sqrt(sfac * SA[m] + offset), ys = CT[m] * 0.025;
+    const xs = Math.sqrt(sfac * SA[m] + offset),
+      ys = CT[m] * 0.025;
     const r0 = q0 + xs * (q1 + xs * (q2 + xs * (q3 + xs * (q4 + xs * (q5 + xs * q6)))));
     const r1 = q7 + xs * (q8 + xs * (q9 + xs * (q10 + xs * (q11 + xs * q12))));
     const r2 = q13 + xs * (q14 + xs * (q15 + xs * (q16 + xs * q17)));
@@ -304,14 +383,16 @@ export function sigma_batch(SA: Float64Array, CT: Float64Array, p_ref: number, o
   // Out-of-range points to NaN in a second, branch-predictable pass: inside the kernel the test
   // doubled its cost. NaN inputs are NaN already.
   for (let m = 0; m < n; m++) {
-    const sa = SA[m], ct = CT[m];
+    const sa = SA[m],
+      ct = CT[m];
     if (sa < saLo || sa > saHi || ct < tLo || ct > tHi) o[m] = NaN;
   }
   return o;
 }
 
 /** σ0 over columns, kg/m³ (Roquet et al. 2015). */
-export const sigma0_batch = (SA: Float64Array, CT: Float64Array, out?: Float64Array): Float64Array => sigma_batch(SA, CT, 0, out);
+export const sigma0_batch = (SA: Float64Array, CT: Float64Array, out?: Float64Array): Float64Array =>
+  sigma_batch(SA, CT, 0, out);
 
 /** In-situ density over columns, kg/m³. SA g/kg, CT °C, p dbar (Roquet et al. 2015). */
 export function rho_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {

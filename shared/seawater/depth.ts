@@ -9,7 +9,8 @@
 import { db2Pa, enthalpy_SSO_0, specvol_SSO_0 } from './density';
 import { P_RANGE, LAT_RANGE } from './ranges';
 
-const usable = (p: number, lat: number): boolean => p >= P_RANGE[0] && p <= P_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1];
+const usable = (p: number, lat: number): boolean =>
+  p >= P_RANGE[0] && p <= P_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1];
 
 /** Vertical gradient of gravity, 1/m (TEOS-10, after Moritz 2000: 2.26e-7 per metre of depth). */
 const GAMMA = 2.26e-7;

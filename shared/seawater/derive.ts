@@ -32,7 +32,9 @@ export const CastInputSchema = z
     mldThreshold: z.number().positive().default(0.03),
   })
   .refine((v) => v.SP !== undefined || v.C !== undefined, { message: 'give SP or C' })
-  .refine((v) => v.t.length === v.p.length && (v.SP ?? v.C ?? v.t).length === v.p.length, { message: 'columns differ in length' });
+  .refine((v) => v.t.length === v.p.length && (v.SP ?? v.C ?? v.t).length === v.p.length, {
+    message: 'columns differ in length',
+  });
 
 export type CastInput = z.input<typeof CastInputSchema>;
 
@@ -74,8 +76,10 @@ function collectNotes(kind: CastNote['kind'], reasons: (string | null)[]): CastN
     if (r === null) return;
     const key = r.replace(/= [-\d.e+]+/, '= …');
     const note = byMessage.get(key);
-    if (note) { note.last = i; note.count = (note.count ?? 0) + 1; }
-    else byMessage.set(key, { kind, message: r, first: i, last: i, count: 1 });
+    if (note) {
+      note.last = i;
+      note.count = (note.count ?? 0) + 1;
+    } else byMessage.set(key, { kind, message: r, first: i, last: i, count: 1 });
   });
   return [...byMessage.values()];
 }
@@ -101,7 +105,9 @@ export function deriveCast(input: CastInput): DerivedCast {
     for (let i = 0; i < n; i++) SP[i] = SP_from_C(C[i] * factor, t[i], p[i]);
   }
 
-  const SA = new Float64Array(n), CT = new Float64Array(n), pt0 = new Float64Array(n);
+  const SA = new Float64Array(n),
+    CT = new Float64Array(n),
+    pt0 = new Float64Array(n);
   const depth = new Float64Array(n);
   const reasons: (string | null)[] = new Array(n).fill(null);
   const fallback: (string | null)[] = new Array(n).fill(null);
@@ -114,11 +120,20 @@ export function deriveCast(input: CastInput): DerivedCast {
     pt0_CT_from_t(SA[i], t[i], p[i], pair);
     pt0[i] = pair[0];
     CT[i] = pair[1];
-    if (silent[i] && SA[i] === SA[i]) fallback[i] = 'no Absolute Salinity Anomaly Ratio atlas value here: SA = SR (Reference Salinity) used';
-    if (!(SP[i] >= SP_RANGE[0] && SP[i] <= SP_RANGE[1] && t[i] >= T_RANGE[0] && t[i] <= T_RANGE[1] && p[i] >= P_RANGE[0] && p[i] <= P_RANGE[1])) {
+    if (silent[i] && SA[i] === SA[i])
+      fallback[i] = 'no Absolute Salinity Anomaly Ratio atlas value here: SA = SR (Reference Salinity) used';
+    if (!(
+      SP[i] >= SP_RANGE[0] &&
+      SP[i] <= SP_RANGE[1] &&
+      t[i] >= T_RANGE[0] &&
+      t[i] <= T_RANGE[1] &&
+      p[i] >= P_RANGE[0] &&
+      p[i] <= P_RANGE[1]
+    )) {
       reasons[i] = checkRange({ SP: SP[i], t: t[i], p: p[i] });
     }
-    if (reasons[i] === null && CT[i] !== CT[i]) reasons[i] = checkRange({ SA: SA[i], t: t[i], p: p[i] }) ?? 'Conservative Temperature could not be computed';
+    if (reasons[i] === null && CT[i] !== CT[i])
+      reasons[i] = checkRange({ SA: SA[i], t: t[i], p: p[i] }) ?? 'Conservative Temperature could not be computed';
   }
   const sig = SIGMA_REFERENCE_PRESSURES.map((pr) => sigma_batch(SA, CT, pr));
   const rhoCol = rho_batch(SA, CT, p);
@@ -128,8 +143,16 @@ export function deriveCast(input: CastInput): DerivedCast {
 
   // N² needs pressure increasing; a cast with reversals is reported, not silently reordered.
   let increasing = true;
-  for (let i = 1; i < n; i++) if (!(p[i] > p[i - 1])) { increasing = false; break; }
-  if (!increasing) notes.push({ kind: 'pressure_order', message: 'pressure does not increase at every level: N² is NaN where it does not' });
+  for (let i = 1; i < n; i++)
+    if (!(p[i] > p[i - 1])) {
+      increasing = false;
+      break;
+    }
+  if (!increasing)
+    notes.push({
+      kind: 'pressure_order',
+      message: 'pressure does not increase at every level: N² is NaN where it does not',
+    });
   const { N2, p_mid } = Nsquared(SA, CT, p, lat);
   for (let i = 0; i < N2.length; i++) if (!(p[i + 1] > p[i])) N2[i] = NaN;
 
@@ -137,8 +160,22 @@ export function deriveCast(input: CastInput): DerivedCast {
   if (mld.status !== 'ok') notes.push({ kind: 'mld', message: mld.reason });
 
   return {
-    p, depth, SP, SA, CT, pt0,
-    sigma0: sig[0], sigma1: sig[1], sigma2: sig[2], sigma3: sig[3], sigma4: sig[4],
-    rho: rhoCol, spiciness0: spic, N2, p_mid, mld, notes,
+    p,
+    depth,
+    SP,
+    SA,
+    CT,
+    pt0,
+    sigma0: sig[0],
+    sigma1: sig[1],
+    sigma2: sig[2],
+    sigma3: sig[3],
+    sigma4: sig[4],
+    rho: rhoCol,
+    spiciness0: spic,
+    N2,
+    p_mid,
+    mld,
+    notes,
   };
 }

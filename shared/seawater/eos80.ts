@@ -36,7 +36,10 @@ export function secant_bulk_modulus_eos80(S: number, t68: number, p: number): nu
   const Kw = 19652.21 + t * (148.4206 + t * (-2.327105 + t * (1.360477e-2 - 5.155288e-5 * t)));
   const Aw = 3.239908 + t * (1.43713e-3 + t * (1.16092e-4 - 5.77905e-7 * t));
   const Bw = 8.50935e-5 + t * (-6.12293e-6 + 5.2787e-8 * t);
-  const K0 = Kw + S * (54.6746 + t * (-0.603459 + t * (1.09987e-2 - 6.167e-5 * t))) + s15 * (7.944e-2 + t * (1.6483e-2 - 5.3009e-4 * t));
+  const K0 =
+    Kw +
+    S * (54.6746 + t * (-0.603459 + t * (1.09987e-2 - 6.167e-5 * t))) +
+    s15 * (7.944e-2 + t * (1.6483e-2 - 5.3009e-4 * t));
   const A = Aw + S * (2.2838e-3 + t * (-1.0981e-5 - 1.6078e-6 * t)) + 1.91075e-4 * s15;
   const B = Bw + S * (-9.9348e-7 + t * (2.0816e-8 + 9.1697e-10 * t));
   return K0 + P * (A + P * B);
@@ -54,7 +57,8 @@ export function adiabatic_lapse_rate_eos80(S: number, t68: number, p: number): n
   const t = t68;
   const ds = S - 35;
   return (
-    3.5803e-5 + t * (8.5258e-6 + t * (-6.836e-8 + t * 6.6228e-10)) +
+    3.5803e-5 +
+    t * (8.5258e-6 + t * (-6.836e-8 + t * 6.6228e-10)) +
     (1.8932e-6 - 4.2393e-8 * t) * ds +
     (1.8741e-8 + t * (-6.7795e-10 + t * (8.733e-12 - 5.4481e-14 * t)) + (-1.1351e-10 + 2.7759e-12 * t) * ds) * p +
     (-4.6206e-13 + t * (1.8676e-14 - 2.1687e-16 * t)) * p * p
@@ -108,7 +112,12 @@ export function sigma_theta_eos80(SP: number, t: number, p: number): number {
 }
 
 /** sigma_theta_eos80 over columns → kg/m³. Allocates only the output. */
-export function sigma_theta_eos80_batch(SP: Float64Array, t: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
+export function sigma_theta_eos80_batch(
+  SP: Float64Array,
+  t: Float64Array,
+  p: Float64Array,
+  out?: Float64Array,
+): Float64Array {
   const n = SP.length;
   if (t.length !== n || p.length !== n) throw new RangeError('sigma_theta_eos80_batch: input columns differ in length');
   const o = out ?? new Float64Array(n);

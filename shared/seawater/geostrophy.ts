@@ -44,7 +44,11 @@ function pchipEndSlope(h0: number, h1: number, m0: number, m1: number): number {
  * Derivatives at the knots of a shape-preserving piecewise cubic Hermite interpolant
  * (Fritsch & Carlson 1980; Fritsch & Butland 1984 weighted harmonic mean). x increasing.
  */
-export function pchipSlopes(x: ArrayLike<number>, y: ArrayLike<number>, d: Float64Array = new Float64Array(x.length)): Float64Array {
+export function pchipSlopes(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  d: Float64Array = new Float64Array(x.length),
+): Float64Array {
   const n = x.length;
   if (n < 2) return d;
   if (n === 2) {
@@ -52,18 +56,23 @@ export function pchipSlopes(x: ArrayLike<number>, y: ArrayLike<number>, d: Float
     return d;
   }
   for (let i = 1; i < n - 1; i++) {
-    const hm = x[i] - x[i - 1], hp = x[i + 1] - x[i];
-    const mm = (y[i] - y[i - 1]) / hm, mp = (y[i + 1] - y[i]) / hp;
+    const hm = x[i] - x[i - 1],
+      hp = x[i + 1] - x[i];
+    const mm = (y[i] - y[i - 1]) / hm,
+      mp = (y[i + 1] - y[i]) / hp;
     if (mm === 0 || mp === 0 || sgn(mm) !== sgn(mp)) {
       d[i] = 0; // a local extremum or flat stretch: no overshoot
     } else {
-      const w1 = 2 * hp + hm, w2 = hp + 2 * hm;
+      const w1 = 2 * hp + hm,
+        w2 = hp + 2 * hm;
       d[i] = (w1 + w2) / (w1 / mm + w2 / mp);
     }
   }
-  const h0 = x[1] - x[0], h1 = x[2] - x[1];
+  const h0 = x[1] - x[0],
+    h1 = x[2] - x[1];
   d[0] = pchipEndSlope(h0, h1, (y[1] - y[0]) / h0, (y[2] - y[1]) / h1);
-  const hl = x[n - 1] - x[n - 2], hl1 = x[n - 2] - x[n - 3];
+  const hl = x[n - 1] - x[n - 2],
+    hl1 = x[n - 2] - x[n - 3];
   d[n - 1] = pchipEndSlope(hl, hl1, (y[n - 1] - y[n - 2]) / hl, (y[n - 2] - y[n - 3]) / hl1);
   return d;
 }
@@ -72,13 +81,25 @@ export function pchipSlopes(x: ArrayLike<number>, y: ArrayLike<number>, d: Float
  * Evaluate the interpolant through (x, y) with knot slopes d at increasing targets xi into yi
  * (cubic Hermite basis; targets outside the knots take the end values).
  */
-function hermiteAt(x: ArrayLike<number>, y: ArrayLike<number>, d: ArrayLike<number> | null, xi: ArrayLike<number>, yi: Float64Array): void {
+function hermiteAt(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  d: ArrayLike<number> | null,
+  xi: ArrayLike<number>,
+  yi: Float64Array,
+): void {
   const n = x.length;
   let j = 0;
   for (let m = 0; m < xi.length; m++) {
     const t0 = xi[m];
-    if (t0 <= x[0]) { yi[m] = y[0]; continue; }
-    if (t0 >= x[n - 1]) { yi[m] = y[n - 1]; continue; }
+    if (t0 <= x[0]) {
+      yi[m] = y[0];
+      continue;
+    }
+    if (t0 >= x[n - 1]) {
+      yi[m] = y[n - 1];
+      continue;
+    }
     while (j < n - 2 && t0 > x[j + 1]) j++;
     const h = x[j + 1] - x[j];
     const t = (t0 - x[j]) / h;
@@ -86,8 +107,13 @@ function hermiteAt(x: ArrayLike<number>, y: ArrayLike<number>, d: ArrayLike<numb
       yi[m] = y[j] + t * (y[j + 1] - y[j]);
       continue;
     }
-    const t2 = t * t, t3 = t2 * t;
-    yi[m] = y[j] * (2 * t3 - 3 * t2 + 1) + d[j] * h * (t3 - 2 * t2 + t) + y[j + 1] * (3 * t2 - 2 * t3) + d[j + 1] * h * (t3 - t2);
+    const t2 = t * t,
+      t3 = t2 * t;
+    yi[m] =
+      y[j] * (2 * t3 - 3 * t2 + 1) +
+      d[j] * h * (t3 - 2 * t2 + t) +
+      y[j + 1] * (3 * t2 - 2 * t3) +
+      d[j + 1] * h * (t3 - t2);
   }
 }
 
@@ -96,7 +122,11 @@ function hermiteAt(x: ArrayLike<number>, y: ArrayLike<number>, d: ArrayLike<numb
  * within 0.001·dp of a level (nor just below... above p_ref by less than that). Returns the grid,
  * where each level landed in it, and where p_ref landed.
  */
-function integrationGrid(p: ArrayLike<number>, p_ref: number, dp: number): { grid: Float64Array; levelAt: Int32Array; refAt: number } {
+function integrationGrid(
+  p: ArrayLike<number>,
+  p_ref: number,
+  dp: number,
+): { grid: Float64Array; levelAt: Int32Array; refAt: number } {
   const n = p.length;
   const tol = 0.001 * dp;
   const cap = n + Math.ceil((p[n - 1] - p[0]) / dp) + 2;
@@ -124,7 +154,11 @@ function integrationGrid(p: ArrayLike<number>, p_ref: number, dp: number): { gri
       k++;
     } else {
       // The multiple is skipped for the level; a reference between the two must still get its point.
-      if (refAt < 0 && p_ref < p[lev]) { grid[g] = p_ref; refAt = g; g++; }
+      if (refAt < 0 && p_ref < p[lev]) {
+        grid[g] = p_ref;
+        refAt = g;
+        g++;
+      }
       grid[g] = p[lev];
       if (refAt < 0 && p_ref === p[lev]) refAt = g;
       levelAt[lev++] = g;
@@ -156,7 +190,8 @@ export function geo_strf_dyn_height(
   const out = new Float64Array(n).fill(NaN);
 
   const good: number[] = [];
-  for (let i = 0; i < n; i++) if (Number.isFinite(SA[i]) && Number.isFinite(CT[i]) && Number.isFinite(p[i])) good.push(i);
+  for (let i = 0; i < n; i++)
+    if (Number.isFinite(SA[i]) && Number.isFinite(CT[i]) && Number.isFinite(p[i])) good.push(i);
   for (let i = 1; i < good.length; i++) {
     if (!(p[good[i]] > p[good[i - 1]])) throw new RangeError(`pressure must increase down the cast (level ${good[i]})`);
   }
@@ -166,12 +201,18 @@ export function geo_strf_dyn_height(
   const pad: number[] = [];
   for (let q = p_ref; q < p[good[0]]; q += maxDp) pad.push(q);
   const m = pad.length + good.length;
-  const pp = new Float64Array(m), sa = new Float64Array(m), ct = new Float64Array(m);
+  const pp = new Float64Array(m),
+    sa = new Float64Array(m),
+    ct = new Float64Array(m);
   for (let i = 0; i < pad.length; i++) {
-    pp[i] = pad[i]; sa[i] = SA[good[0]]; ct[i] = CT[good[0]];
+    pp[i] = pad[i];
+    sa[i] = SA[good[0]];
+    ct[i] = CT[good[0]];
   }
   for (let i = 0; i < good.length; i++) {
-    pp[pad.length + i] = p[good[i]]; sa[pad.length + i] = SA[good[i]]; ct[pad.length + i] = CT[good[i]];
+    pp[pad.length + i] = p[good[i]];
+    sa[pad.length + i] = SA[good[i]];
+    ct[pad.length + i] = CT[good[i]];
   }
 
   let largestGap = 0;
@@ -195,7 +236,8 @@ export function geo_strf_dyn_height(
     dAtRef = D[refLevel];
   } else {
     const { grid, levelAt, refAt } = integrationGrid(pp, p_ref, maxDp);
-    const saI = new Float64Array(grid.length), ctI = new Float64Array(grid.length);
+    const saI = new Float64Array(grid.length),
+      ctI = new Float64Array(grid.length);
     if (interpolation === 'pchip') {
       hermiteAt(pp, sa, pchipSlopes(pp, sa), grid, saI);
       hermiteAt(pp, ct, pchipSlopes(pp, ct), grid, ctI);
@@ -232,10 +274,19 @@ export function f(lat: number): number {
  * Great-circle distance (haversine) between two positions, m; lon/lat degrees. An optional
  * sea pressure p (dbar) shortens the arc to the radius at that depth, (R + z(p)).
  */
-export function distance(lon_a: number, lat_a: number, lon_b: number, lat_b: number, p = 0, radius = EARTH_MEAN_RADIUS): number {
+export function distance(
+  lon_a: number,
+  lat_a: number,
+  lon_b: number,
+  lat_b: number,
+  p = 0,
+  radius = EARTH_MEAN_RADIUS,
+): number {
   const r = Math.PI / 180;
-  const phiA = lat_a * r, phiB = lat_b * r;
-  const sLat = Math.sin((phiB - phiA) / 2), sLon = Math.sin(((lon_b - lon_a) * r) / 2);
+  const phiA = lat_a * r,
+    phiB = lat_b * r;
+  const sLat = Math.sin((phiB - phiA) / 2),
+    sLon = Math.sin(((lon_b - lon_a) * r) / 2);
   const a = sLat * sLat + Math.cos(phiA) * Math.cos(phiB) * sLon * sLon;
   const angle = 2 * Math.atan2(Math.sqrt(a), Math.sqrt(1 - a));
   const z = p === 0 ? 0 : z_from_p(p, 0.5 * (lat_a + lat_b));
@@ -318,8 +369,12 @@ export function geo_strf_velocity(
   if (reference === 'deepest_common') {
     p_ref = NaN;
     for (let i = n - 1; i >= 0; i--) {
-      const both = Number.isFinite(a.SA[i]) && Number.isFinite(a.CT[i]) && Number.isFinite(b.SA[i]) && Number.isFinite(b.CT[i]);
-      if (both && Number.isFinite(p[i])) { p_ref = p[i]; break; }
+      const both =
+        Number.isFinite(a.SA[i]) && Number.isFinite(a.CT[i]) && Number.isFinite(b.SA[i]) && Number.isFinite(b.CT[i]);
+      if (both && Number.isFinite(p[i])) {
+        p_ref = p[i];
+        break;
+      }
     }
   } else {
     p_ref = reference;

@@ -6,9 +6,19 @@ export * from './density';
 export { grav, grav_surface, z_from_p, p_from_z, depth_from_z, z_from_p_batch, depth_from_p_batch } from './depth';
 export { Nsquared, type NsquaredResult } from './stability';
 export {
-  geo_strf_dyn_height, geostrophic_velocity, geo_strf_velocity, layer_transport, distance, f, pchipSlopes,
-  EARTH_MEAN_RADIUS, type DynHeightOptions, type DynHeightInterpolation, type GeostrophicVelocityOptions,
-  type CastTS, type StrfVelocityResult,
+  geo_strf_dyn_height,
+  geostrophic_velocity,
+  geo_strf_velocity,
+  layer_transport,
+  distance,
+  f,
+  pchipSlopes,
+  EARTH_MEAN_RADIUS,
+  type DynHeightOptions,
+  type DynHeightInterpolation,
+  type GeostrophicVelocityOptions,
+  type CastTS,
+  type StrfVelocityResult,
 } from './geostrophy';
 export { spiciness0, spiciness0_batch } from './spiciness';
 export { mixed_layer_depth, type MldOptions, type MldResult, type MldStatus } from './mld';

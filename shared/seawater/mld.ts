@@ -36,30 +36,46 @@ export interface MldResult {
  * interpolated linearly to p_ref; a cast whose first good level is deeper than p_ref has no
  * reference (NaN with a reason). Convert to depth with z_from_p.
  */
-export function mixed_layer_depth(sigma0: ArrayLike<number>, p: ArrayLike<number>, options: MldOptions = {}): MldResult {
+export function mixed_layer_depth(
+  sigma0: ArrayLike<number>,
+  p: ArrayLike<number>,
+  options: MldOptions = {},
+): MldResult {
   const threshold = options.threshold ?? 0.03;
   const pRef = options.p_ref ?? 10;
   const idx: number[] = [];
   for (let i = 0; i < p.length; i++) if (Number.isFinite(p[i]) && Number.isFinite(sigma0[i])) idx.push(i);
   if (idx.length === 0 || p[idx[0]] > pRef) {
-    return { p_mld: NaN, sigma0_ref: NaN, status: 'no_reference', reason: `no good sample at or above the ${pRef} dbar reference level` };
+    return {
+      p_mld: NaN,
+      sigma0_ref: NaN,
+      status: 'no_reference',
+      reason: `no good sample at or above the ${pRef} dbar reference level`,
+    };
   }
   // σ0 at p_ref, linear between the samples that bracket it (or the last sample above it).
   let k = 0;
   while (k + 1 < idx.length && p[idx[k + 1]] <= pRef) k++;
   let sRef = sigma0[idx[k]];
   if (p[idx[k]] < pRef && k + 1 < idx.length) {
-    const a = idx[k], b = idx[k + 1];
+    const a = idx[k],
+      b = idx[k + 1];
     sRef = sigma0[a] + ((pRef - p[a]) / (p[b] - p[a])) * (sigma0[b] - sigma0[a]);
   }
   const target = sRef + threshold;
-  let prevP = pRef, prevS = sRef;
+  let prevP = pRef,
+    prevS = sRef;
   for (let m = k + 1; m < idx.length; m++) {
     const i = idx[m];
     if (p[i] <= pRef) continue;
     if (sigma0[i] >= target) {
       const p_mld = prevP + ((target - prevS) / (sigma0[i] - prevS)) * (p[i] - prevP);
-      return { p_mld, sigma0_ref: sRef, status: 'ok', reason: `σ0 exceeds its ${pRef} dbar value by ${threshold} kg/m³` };
+      return {
+        p_mld,
+        sigma0_ref: sRef,
+        status: 'ok',
+        reason: `σ0 exceeds its ${pRef} dbar value by ${threshold} kg/m³`,
+      };
     }
     prevP = p[i];
     prevS = sigma0[i];

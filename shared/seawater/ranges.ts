@@ -27,9 +27,7 @@ export const LON_RANGE = [-360, 720] as const;
 /** True when (SA, temperature, p) lies inside the box (any NaN gives false). */
 export function inRange(SA: number, T: number, p: number): boolean {
   return (
-    SA >= SA_RANGE[0] && SA <= SA_RANGE[1] &&
-    T >= T_RANGE[0] && T <= T_RANGE[1] &&
-    p >= P_RANGE[0] && p <= P_RANGE[1]
+    SA >= SA_RANGE[0] && SA <= SA_RANGE[1] && T >= T_RANGE[0] && T <= T_RANGE[1] && p >= P_RANGE[0] && p <= P_RANGE[1]
   );
 }
 

@@ -32,7 +32,11 @@ interface AtlasFile {
   saar_base64: string;
   cell_deepest_level: { values: number[] };
   baltic: { rows: [number, number, number][] };
-  panama: { line_lon: number[]; line_lat: number[]; cells: { lon_cell: number; lat_cell: number; above_base64: string; below_base64: string; outside_base64: string }[] };
+  panama: {
+    line_lon: number[];
+    line_lat: number[];
+    cells: { lon_cell: number; lat_cell: number; above_base64: string; below_base64: string; outside_base64: string }[];
+  };
 }
 
 interface Atlas {
@@ -75,21 +79,35 @@ function loadAtlas(): Atlas {
   const bytes = decodeBase64(file.saar_base64);
   // Copy into an aligned buffer: a Float64Array view needs an 8-byte aligned offset.
   const saar = new Float64Array(bytes.slice().buffer);
-  const nx = file.longitudes.count, ny = file.latitudes.count, nz = file.pressures.length;
+  const nx = file.longitudes.count,
+    ny = file.latitudes.count,
+    nz = file.pressures.length;
   if (saar.length !== nx * ny * nz) throw new Error('saar-atlas.json: grid size and data disagree');
   const deepest = Int32Array.from(file.cell_deepest_level.values);
   if (deepest.length !== (nx - 1) * (ny - 1)) throw new Error('saar-atlas.json: cell table and grid disagree');
   atlas = {
-    lon0: file.longitudes.first, dlon: file.longitudes.step, nx,
-    lat0: file.latitudes.first, dlat: file.latitudes.step, ny,
-    p: Float64Array.from(file.pressures), nz,
-    saar, deepest, cellsPerRow: nx - 1,
+    lon0: file.longitudes.first,
+    dlon: file.longitudes.step,
+    nx,
+    lat0: file.latitudes.first,
+    dlat: file.latitudes.step,
+    ny,
+    p: Float64Array.from(file.pressures),
+    nz,
+    saar,
+    deepest,
+    cellsPerRow: nx - 1,
     baltic: Float64Array.from(file.baltic.rows.flat()),
-    panama: new Map(file.panama.cells.map((c) => [c.lat_cell * (nx - 1) + c.lon_cell, {
-      above: new Float64Array(decodeBase64(c.above_base64).slice().buffer),
-      below: new Float64Array(decodeBase64(c.below_base64).slice().buffer),
-      outside: new Float64Array(decodeBase64(c.outside_base64).slice().buffer),
-    }])),
+    panama: new Map(
+      file.panama.cells.map((c) => [
+        c.lat_cell * (nx - 1) + c.lon_cell,
+        {
+          above: new Float64Array(decodeBase64(c.above_base64).slice().buffer),
+          below: new Float64Array(decodeBase64(c.below_base64).slice().buffer),
+          outside: new Float64Array(decodeBase64(c.outside_base64).slice().buffer),
+        },
+      ]),
+    ),
   };
   return atlas;
 }
@@ -114,14 +132,19 @@ function cellAt(a: Atlas, k: number, ix: number, iy: number, corners: Float64Arr
   corners[3] = a.saar[base + a.nx];
   const cell = a.panama.size ? a.panama.get(iy * a.cellsPerRow + ix) : undefined;
   if (cell) {
-    const inBox = x >= PANAMA_LON[0] && x <= PANAMA_LON[PANAMA_LON.length - 1] - 0.001 && lat >= PANAMA_LAT[PANAMA_LAT.length - 1] &&
+    const inBox =
+      x >= PANAMA_LON[0] &&
+      x <= PANAMA_LON[PANAMA_LON.length - 1] - 0.001 &&
+      lat >= PANAMA_LAT[PANAMA_LAT.length - 1] &&
       lat <= PANAMA_LAT[0];
     const side = !inBox ? cell.outside : panamaLat(x) <= lat ? cell.above : cell.below;
     for (let c = 0; c < 4; c++) corners[c] = side[4 * k + c];
     return;
   }
-  if (corners[0] === corners[0] && corners[1] === corners[1] && corners[2] === corners[2] && corners[3] === corners[3]) return;
-  let sum = 0, count = 0;
+  if (corners[0] === corners[0] && corners[1] === corners[1] && corners[2] === corners[2] && corners[3] === corners[3])
+    return;
+  let sum = 0,
+    count = 0;
   for (let c = 0; c < 4; c++) {
     if (corners[c] === corners[c]) {
       sum += corners[c];
@@ -176,7 +199,8 @@ function saarAt(a: Atlas, p: number, x: number, lat: number): number {
   const levels = a.p;
   const pc = p > levels[kMax] ? levels[kMax] : p;
   // The level pair that brackets pc, by bisection.
-  let lo = 0, hi = a.nz - 1;
+  let lo = 0,
+    hi = a.nz - 1;
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1;
     if (pc > levels[mid]) lo = mid;
@@ -212,7 +236,9 @@ export function inBaltic(lon: number, lat: number): boolean {
 
 function balticAt(b: Float64Array, x: number, lat: number): boolean {
   const rows = b.length / 3;
-  const first = b[0], last = b[3 * (rows - 1)], step = b[3] - b[0];
+  const first = b[0],
+    last = b[3 * (rows - 1)],
+    step = b[3] - b[0];
   // The edges are straight between the tabulated latitudes, and half a step beyond the ends.
   if (!(lat > first - step && lat < last + step)) return false;
   const i = Math.min(Math.max(Math.floor((lat - first) / step), 0), rows - 2);
@@ -259,8 +285,17 @@ export function SA_from_SP_detail(SP: number, p: number, lon: number, lat: numbe
 /** Absolute Salinity SA_from_SP(SP, p, lon, lat), g/kg: SR·(1 + SAAR), Baltic formula, or SR fallback. */
 export function SA_from_SP(SP: number, p: number, lon: number, lat: number): number {
   // The range test of `checkRange`, written out: this runs once per level of every cast.
-  if (!(SP >= SP_RANGE[0] && SP <= SP_RANGE[1] && p >= P_RANGE[0] && p <= P_RANGE[1] &&
-    lon >= LON_RANGE[0] && lon <= LON_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1])) return NaN;
+  if (!(
+    SP >= SP_RANGE[0] &&
+    SP <= SP_RANGE[1] &&
+    p >= P_RANGE[0] &&
+    p <= P_RANGE[1] &&
+    lon >= LON_RANGE[0] &&
+    lon <= LON_RANGE[1] &&
+    lat >= LAT_RANGE[0] &&
+    lat <= LAT_RANGE[1]
+  ))
+    return NaN;
   const a = atlas ?? loadAtlas();
   const x = wrapLon(lon);
   if (balticAt(a.baltic, x, lat)) return SA_from_SP_Baltic(SP);
@@ -272,18 +307,35 @@ export function SA_from_SP(SP: number, p: number, lon: number, lat: number): num
  * SA_from_SP over a cast's columns at one position, and where the atlas is silent there
  * (`silent[i] = 1`: SA = SR used), with one atlas look-up a level. SP unitless, p dbar → SA g/kg.
  */
-export function SA_from_SP_cast(SP: Float64Array, p: Float64Array, lon: number, lat: number, SA: Float64Array, silent: Uint8Array): void {
+export function SA_from_SP_cast(
+  SP: Float64Array,
+  p: Float64Array,
+  lon: number,
+  lat: number,
+  SA: Float64Array,
+  silent: Uint8Array,
+): void {
   const a = atlas ?? loadAtlas();
   const x = wrapLon(lon);
   const baltic = balticAt(a.baltic, x, lat);
   const posOk = lon >= LON_RANGE[0] && lon <= LON_RANGE[1] && lat >= LAT_RANGE[0] && lat <= LAT_RANGE[1];
   for (let i = 0; i < SP.length; i++) {
-    const s = SP[i], pi = p[i];
+    const s = SP[i],
+      pi = p[i];
     silent[i] = 0;
-    if (!(posOk && s >= SP_RANGE[0] && s <= SP_RANGE[1] && pi >= P_RANGE[0] && pi <= P_RANGE[1])) { SA[i] = NaN; continue; }
-    if (baltic) { SA[i] = SA_from_SP_Baltic(s); continue; }
+    if (!(posOk && s >= SP_RANGE[0] && s <= SP_RANGE[1] && pi >= P_RANGE[0] && pi <= P_RANGE[1])) {
+      SA[i] = NaN;
+      continue;
+    }
+    if (baltic) {
+      SA[i] = SA_from_SP_Baltic(s);
+      continue;
+    }
     const ratio = saarAt(a, pi, x, lat);
-    if (ratio !== ratio) { silent[i] = 1; SA[i] = uPS * s; } else SA[i] = uPS * s * (1 + ratio);
+    if (ratio !== ratio) {
+      silent[i] = 1;
+      SA[i] = uPS * s;
+    } else SA[i] = uPS * s * (1 + ratio);
   }
 }
 

@@ -21,9 +21,17 @@ export function greatCircleKm(lon1: number, lat1: number, lon2: number, lat2: nu
 }
 
 type Vec3 = [number, number, number];
-const unit = (lon: number, lat: number): Vec3 => [Math.cos(lat * RAD) * Math.cos(lon * RAD), Math.cos(lat * RAD) * Math.sin(lon * RAD), Math.sin(lat * RAD)];
+const unit = (lon: number, lat: number): Vec3 => [
+  Math.cos(lat * RAD) * Math.cos(lon * RAD),
+  Math.cos(lat * RAD) * Math.sin(lon * RAD),
+  Math.sin(lat * RAD),
+];
 const dot = (a: Vec3, b: Vec3): number => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a: Vec3, b: Vec3): Vec3 => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+const cross = (a: Vec3, b: Vec3): Vec3 => [
+  a[1] * b[2] - a[2] * b[1],
+  a[2] * b[0] - a[0] * b[2],
+  a[0] * b[1] - a[1] * b[0],
+];
 
 /**
  * Along-line distance (km) of a position on the great circle through A → B, measured from A,

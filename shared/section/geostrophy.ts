@@ -78,7 +78,10 @@ export function onLevels(p: Float64Array, c: Float64Array, levels: Float64Array)
     const q = levels[j];
     if (n === 0 || q < p[0] || q > p[n - 1]) continue;
     while (k < n - 2 && p[k + 1] < q) k++;
-    if (n === 1) { out[j] = c[0]; continue; }
+    if (n === 1) {
+      out[j] = c[0];
+      continue;
+    }
     const h = p[k + 1] - p[k];
     const w = h > 0 ? (q - p[k]) / h : 0;
     out[j] = c[k] + w * (c[k + 1] - c[k]);
@@ -89,8 +92,13 @@ export function onLevels(p: Float64Array, c: Float64Array, levels: Float64Array)
 /** Finite levels only: a cast may carry NaN pressures or values from quality flags. */
 function cleanCast(c: GeostrophyCast): { p: Float64Array; SA: Float64Array; CT: Float64Array } {
   const keep: number[] = [];
-  for (let i = 0; i < c.p.length; i++) if (Number.isFinite(c.p[i]) && Number.isFinite(c.SA[i]) && Number.isFinite(c.CT[i])) keep.push(i);
-  return { p: Float64Array.from(keep, (i) => c.p[i]), SA: Float64Array.from(keep, (i) => c.SA[i]), CT: Float64Array.from(keep, (i) => c.CT[i]) };
+  for (let i = 0; i < c.p.length; i++)
+    if (Number.isFinite(c.p[i]) && Number.isFinite(c.SA[i]) && Number.isFinite(c.CT[i])) keep.push(i);
+  return {
+    p: Float64Array.from(keep, (i) => c.p[i]),
+    SA: Float64Array.from(keep, (i) => c.SA[i]),
+    CT: Float64Array.from(keep, (i) => c.CT[i]),
+  };
 }
 
 /**
@@ -113,7 +121,11 @@ export function geostrophicSection(casts: GeostrophyCast[], opts: GeostrophyOpti
     const CT = onLevels(c.p, c.CT, levels!);
     return { SA, CT, sigma: sigma_batch(SA, CT, sigmaRef) };
   });
-  const x = alongTrackDistance(Float64Array.from(casts, (c) => c.lon), Float64Array.from(casts, (c) => c.lat), { positions: opts.positions });
+  const x = alongTrackDistance(
+    Float64Array.from(casts, (c) => c.lon),
+    Float64Array.from(casts, (c) => c.lat),
+    { positions: opts.positions },
+  );
   const pairs: GeostrophicPair[] = [];
   const skipped: GeostrophicSection['skipped'] = [];
   const minKm = opts.minDistanceKm ?? 2;
@@ -121,16 +133,35 @@ export function geostrophicSection(casts: GeostrophyCast[], opts: GeostrophyOpti
     const a = casts[i];
     const b = casts[i + 1];
     const apartKm = greatCircleKm(a.lon, a.lat, b.lon, b.lat);
-    if (apartKm < minKm) { skipped.push({ a: a.id, b: b.id, distanceKm: apartKm }); continue; }
+    if (apartKm < minKm) {
+      skipped.push({ a: a.id, b: b.id, distanceKm: apartKm });
+      continue;
+    }
     const la = onLv[i];
     const lb = onLv[i + 1];
-    const r = geo_strf_velocity({ SA: la.SA, CT: la.CT, lon: a.lon, lat: a.lat }, { SA: lb.SA, CT: lb.CT, lon: b.lon, lat: b.lat }, levels, opts.pRef, { max_dp: opts.max_dp, interpolation: opts.interpolation });
+    const r = geo_strf_velocity(
+      { SA: la.SA, CT: la.CT, lon: a.lon, lat: a.lat },
+      { SA: lb.SA, CT: lb.CT, lon: b.lon, lat: b.lat },
+      levels,
+      opts.pRef,
+      { max_dp: opts.max_dp, interpolation: opts.interpolation },
+    );
     const sigma = new Float64Array(levels.length);
     for (let j = 0; j < levels.length; j++) sigma[j] = 0.5 * (la.sigma[j] + lb.sigma[j]);
-    pairs.push({ a: a.id, b: b.id, x: 0.5 * (x[i] + x[i + 1]), width: r.distance, lat: 0.5 * (a.lat + b.lat), pRef: r.p_ref, velocity: r.v, sigma });
+    pairs.push({
+      a: a.id,
+      b: b.id,
+      x: 0.5 * (x[i] + x[i + 1]),
+      width: r.distance,
+      lat: 0.5 * (a.lat + b.lat),
+      pRef: r.p_ref,
+      velocity: r.v,
+      sigma,
+    });
   }
   const z: (number | null)[][] = [];
-  for (let j = 0; j < levels.length; j++) z.push(pairs.map((pr) => (Number.isFinite(pr.velocity[j]) ? pr.velocity[j] : null)));
+  for (let j = 0; j < levels.length; j++)
+    z.push(pairs.map((pr) => (Number.isFinite(pr.velocity[j]) ? pr.velocity[j] : null)));
   return { p: levels, pairs, sigmaRef, grid: { x: pairs.map((pr) => pr.x), y: Array.from(levels), z }, skipped };
 }
 
@@ -151,11 +182,22 @@ export interface LayerTransport {
  * the piece, dz from TEOS-10 z_from_p at the pair's latitude) times the width (m) to the layer
  * holding the piece's mid σ. widths default to the pair distances.
  */
-export function transportPerLayer(section: GeostrophicSection, boundaries: Float64Array, widths?: Float64Array): LayerTransport[] {
+export function transportPerLayer(
+  section: GeostrophicSection,
+  boundaries: Float64Array,
+  widths?: Float64Array,
+): LayerTransport[] {
   const nl = boundaries.length - 1;
-  for (let i = 1; i < boundaries.length; i++) if (!(boundaries[i] > boundaries[i - 1])) throw new RangeError('layer boundaries must increase');
+  for (let i = 1; i < boundaries.length; i++)
+    if (!(boundaries[i] > boundaries[i - 1])) throw new RangeError('layer boundaries must increase');
   const layers: LayerTransport[] = [];
-  for (let l = 0; l < nl; l++) layers.push({ sigmaTop: boundaries[l], sigmaBottom: boundaries[l + 1], transport: new Float64Array(section.pairs.length), total: 0 });
+  for (let l = 0; l < nl; l++)
+    layers.push({
+      sigmaTop: boundaries[l],
+      sigmaBottom: boundaries[l + 1],
+      transport: new Float64Array(section.pairs.length),
+      total: 0,
+    });
   if (nl <= 0) return layers;
   const p = section.p;
   const cuts: number[] = [];
@@ -163,7 +205,11 @@ export function transportPerLayer(section: GeostrophicSection, boundaries: Float
     if (!(s >= boundaries[0] && s < boundaries[nl])) return -1;
     let lo = 0;
     let hi = nl;
-    while (hi - lo > 1) { const mid = (lo + hi) >> 1; if (boundaries[mid] <= s) lo = mid; else hi = mid; }
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (boundaries[mid] <= s) lo = mid;
+      else hi = mid;
+    }
     return lo;
   };
   section.pairs.forEach((pair, ip) => {
@@ -172,7 +218,8 @@ export function transportPerLayer(section: GeostrophicSection, boundaries: Float
     const s = pair.sigma;
     const height = Float64Array.from(p, (pk) => z_from_p(pk, pair.lat));
     for (let k = 0; k + 1 < p.length; k++) {
-      if (!(Number.isFinite(v[k]) && Number.isFinite(v[k + 1]) && Number.isFinite(s[k]) && Number.isFinite(s[k + 1]))) continue;
+      if (!(Number.isFinite(v[k]) && Number.isFinite(v[k + 1]) && Number.isFinite(s[k]) && Number.isFinite(s[k + 1])))
+        continue;
       const dz = height[k] - height[k + 1];
       const s0 = s[k];
       const s1 = s[k + 1];
@@ -182,7 +229,8 @@ export function transportPerLayer(section: GeostrophicSection, boundaries: Float
         const lo = Math.min(s0, s1);
         const hi = Math.max(s0, s1);
         const ts: number[] = [];
-        for (let b = 0; b <= nl; b++) if (boundaries[b] > lo && boundaries[b] < hi) ts.push((boundaries[b] - s0) / (s1 - s0));
+        for (let b = 0; b <= nl; b++)
+          if (boundaries[b] > lo && boundaries[b] < hi) ts.push((boundaries[b] - s0) / (s1 - s0));
         ts.sort((a, c) => a - c);
         cuts.push(...ts);
       }

@@ -124,13 +124,23 @@ export function bottomPressure(cast: SectionCast): number {
 
 /** Whether a cast's bottom is known: it has a bottom depth (from its file or the station plan). */
 export function bottomKnown(cast: SectionCast): boolean {
-  return cast.bottomDepth !== null && Number.isFinite(cast.bottomDepth) && Number.isFinite(p_from_z(-cast.bottomDepth, cast.lat));
+  return (
+    cast.bottomDepth !== null &&
+    Number.isFinite(cast.bottomDepth) &&
+    Number.isFinite(p_from_z(-cast.bottomDepth, cast.lat))
+  );
 }
 
 /** Casts with their along-track distance and bottom, ordered by distance. */
 function placeCasts(casts: SectionCast[], opts: DistanceOptions): PlacedCast[] {
-  const x = alongTrackDistance(Float64Array.from(casts, (c) => c.lon), Float64Array.from(casts, (c) => c.lat), opts);
-  return casts.map((cast, i) => ({ cast, x: x[i], bottom: bottomPressure(cast), known: bottomKnown(cast) })).sort((a, b) => a.x - b.x);
+  const x = alongTrackDistance(
+    Float64Array.from(casts, (c) => c.lon),
+    Float64Array.from(casts, (c) => c.lat),
+    opts,
+  );
+  return casts
+    .map((cast, i) => ({ cast, x: x[i], bottom: bottomPressure(cast), known: bottomKnown(cast) }))
+    .sort((a, b) => a.x - b.x);
 }
 
 /** Column positions: every cast, plus a regular grid of the given step between the first and last. */
@@ -154,13 +164,20 @@ export function sectionColumns(castX: number[], stepKm: number): Float64Array {
  * each cast in row units; gapKm the widest interpolated spacing.
  */
 export function interpolateColumns(
-  xg: Float64Array, castX: number[], cols: Float64Array[], top: number[], bottom: number[], y: Float64Array, gapKm: number,
+  xg: Float64Array,
+  castX: number[],
+  cols: Float64Array[],
+  top: number[],
+  bottom: number[],
+  y: Float64Array,
+  gapKm: number,
 ): { data: Float64Array; gaps: { from: number; to: number }[] } {
   const nx = xg.length;
   const ny = y.length;
   const data = new Float64Array(nx * ny).fill(NaN);
   const gaps: { from: number; to: number }[] = [];
-  for (let c = 0; c + 1 < castX.length; c++) if (castX[c + 1] - castX[c] > gapKm) gaps.push({ from: castX[c], to: castX[c + 1] });
+  for (let c = 0; c + 1 < castX.length; c++)
+    if (castX[c + 1] - castX[c] > gapKm) gaps.push({ from: castX[c], to: castX[c + 1] });
   let c = 0;
   for (let ix = 0; ix < nx; ix++) {
     const xv = xg[ix];
@@ -203,7 +220,10 @@ export function toRows(data: Float64Array, nx: number, ny: number): (number | nu
   for (let iy = 0; iy < ny; iy++) {
     const row: (number | null)[] = new Array(nx);
     const o = iy * nx;
-    for (let ix = 0; ix < nx; ix++) { const v = data[o + ix]; row[ix] = v === v ? v : null; }
+    for (let ix = 0; ix < nx; ix++) {
+      const v = data[o + ix];
+      row[ix] = v === v ? v : null;
+    }
     rows[iy] = row;
   }
   return rows;
@@ -214,7 +234,11 @@ export function fromRows(rows: (number | null)[][]): Float64Array {
   const ny = rows.length;
   const nx = ny ? rows[0].length : 0;
   const out = new Float64Array(nx * ny);
-  for (let iy = 0; iy < ny; iy++) for (let ix = 0; ix < nx; ix++) { const v = rows[iy][ix]; out[iy * nx + ix] = v === null ? NaN : v; }
+  for (let iy = 0; iy < ny; iy++)
+    for (let ix = 0; ix < nx; ix++) {
+      const v = rows[iy][ix];
+      out[iy * nx + ix] = v === null ? NaN : v;
+    }
   return out;
 }
 
@@ -228,7 +252,10 @@ function column(cast: SectionCast, property: string): Float64Array {
 
 function spacing(placed: PlacedCast[], gapFactor: number): { medianSpacingKm: number; gapKm: number } {
   const d: number[] = [];
-  for (let i = 1; i < placed.length; i++) { const s = placed[i].x - placed[i - 1].x; if (s > 0) d.push(s); }
+  for (let i = 1; i < placed.length; i++) {
+    const s = placed[i].x - placed[i - 1].x;
+    if (s > 0) d.push(s);
+  }
   const med = median(d);
   return { medianSpacingKm: Number.isFinite(med) ? med : 0, gapKm: Number.isFinite(med) ? gapFactor * med : Infinity };
 }
@@ -236,8 +263,14 @@ function spacing(placed: PlacedCast[], gapFactor: number): { medianSpacingKm: nu
 function castInfo(pc: PlacedCast, threshold: number | undefined): SectionCastInfo {
   const inv = detectInversions(pc.cast.p, pc.cast.sigma, { threshold });
   return {
-    id: pc.cast.id, station: pc.cast.station, lon: pc.cast.lon, lat: pc.cast.lat, x: pc.x, bottom: pc.bottom,
-    bottomDepth: pc.cast.bottomDepth, bottomKnown: pc.known,
+    id: pc.cast.id,
+    station: pc.cast.station,
+    lon: pc.cast.lon,
+    lat: pc.cast.lat,
+    x: pc.x,
+    bottom: pc.bottom,
+    bottomDepth: pc.cast.bottomDepth,
+    bottomKnown: pc.known,
     inversions: inv.map((i) => ({ pTop: i.pTop, pBottom: i.pBottom, deficit: i.deficit, class: i.class })),
   };
 }
@@ -245,7 +278,11 @@ function castInfo(pc: PlacedCast, threshold: number | undefined): SectionCastInf
 function densest(sigma: Float64Array): { min: number; max: number } {
   let min = Infinity;
   let max = -Infinity;
-  for (let i = 0; i < sigma.length; i++) { const s = sigma[i]; if (s < min) min = s; if (s > max) max = s; }
+  for (let i = 0; i < sigma.length; i++) {
+    const s = sigma[i];
+    if (s < min) min = s;
+    if (s > max) max = s;
+  }
   return { min, max };
 }
 
@@ -262,7 +299,8 @@ export function buildPressureSection(casts: SectionCast[], opts: PressureSection
   if (casts.length === 0) throw new RangeError('a section needs at least one cast');
   const placed = placeCasts(casts, opts);
   let pMax = opts.pMax ?? -Infinity;
-  if (opts.pMax === undefined) for (const pc of placed) for (let i = 0; i < pc.cast.p.length; i++) if (pc.cast.p[i] > pMax) pMax = pc.cast.p[i];
+  if (opts.pMax === undefined)
+    for (const pc of placed) for (let i = 0; i < pc.cast.p.length; i++) if (pc.cast.p[i] > pMax) pMax = pc.cast.p[i];
   const cols: Float64Array[] = [];
   const top: number[] = [];
   const bottom: number[] = [];
@@ -272,7 +310,11 @@ export function buildPressureSection(casts: SectionCast[], opts: PressureSection
     y = b.pressure;
     cols.push(b.props.v);
     let first = -1;
-    for (let i = 0; i < b.count.length; i++) if (b.count[i] > 0) { first = i; break; }
+    for (let i = 0; i < b.count.length; i++)
+      if (b.count[i] > 0) {
+        first = i;
+        break;
+      }
     top.push(first >= 0 ? b.pressure[first] : Infinity);
     bottom.push(pc.bottom);
   }
@@ -281,10 +323,21 @@ export function buildPressureSection(casts: SectionCast[], opts: PressureSection
   const xg = sectionColumns(castX, opts.distanceKm ?? medianSpacingKm / 4);
   const { data, gaps } = interpolateColumns(xg, castX, cols, top, bottom, y, gapKm);
   return {
-    coord: 'pressure', property: opts.property, x: Array.from(xg), y: Array.from(y), z: toRows(data, xg.length, y.length),
+    coord: 'pressure',
+    property: opts.property,
+    x: Array.from(xg),
+    y: Array.from(y),
+    z: toRows(data, xg.length, y.length),
     casts: placed.map((pc) => castInfo(pc, opts.inversionThreshold)),
-    bottom: placed.map((pc) => ({ x: pc.x, p: pc.bottom, sigma: Number.isFinite(densest(pc.cast.sigma).max) ? densest(pc.cast.sigma).max : null, known: pc.known })),
-    gaps, medianSpacingKm, gapKm,
+    bottom: placed.map((pc) => ({
+      x: pc.x,
+      p: pc.bottom,
+      sigma: Number.isFinite(densest(pc.cast.sigma).max) ? densest(pc.cast.sigma).max : null,
+      known: pc.known,
+    })),
+    gaps,
+    medianSpacingKm,
+    gapKm,
   };
 }
 
@@ -297,15 +350,33 @@ export interface DensitySectionOptions extends CommonSectionOptions {
 }
 
 /** Remap of every cast onto the targets, in distance order (exposed so a caller can reuse it). */
-export function remapSectionCasts(casts: SectionCast[], targets: Float64Array, handling: InversionHandling, interpolation: SigmaInterpolation, threshold?: number): RemapResult[] {
-  return casts.map((c) => remapToIsopycnals({ p: c.p, z: c.z, sigma: c.sigma, props: c.props }, targets, { handling, interpolation, threshold }));
+export function remapSectionCasts(
+  casts: SectionCast[],
+  targets: Float64Array,
+  handling: InversionHandling,
+  interpolation: SigmaInterpolation,
+  threshold?: number,
+): RemapResult[] {
+  return casts.map((c) =>
+    remapToIsopycnals({ p: c.p, z: c.z, sigma: c.sigma, props: c.props }, targets, {
+      handling,
+      interpolation,
+      threshold,
+    }),
+  );
 }
 
 /** Property on σ levels (remap.ts) × along-track distance, with the pressure (and depth) of each level. */
 export function buildDensitySection(casts: SectionCast[], opts: DensitySectionOptions): DensitySectionGrid {
   if (casts.length === 0) throw new RangeError('a section needs at least one cast');
   const placed = placeCasts(casts, opts);
-  const remaps = remapSectionCasts(placed.map((pc) => pc.cast), opts.targets, opts.handling, opts.interpolation, opts.inversionThreshold);
+  const remaps = remapSectionCasts(
+    placed.map((pc) => pc.cast),
+    opts.targets,
+    opts.handling,
+    opts.interpolation,
+    opts.inversionThreshold,
+  );
   const cols: Float64Array[] = [];
   const pCols: Float64Array[] = [];
   const dCols: Float64Array[] = [];
@@ -314,7 +385,12 @@ export function buildDensitySection(casts: SectionCast[], opts: DensitySectionOp
   const withDepth = remaps.every((r) => r.depth !== null);
   placed.forEach((pc, i) => {
     const r = remaps[i];
-    const col = opts.property === 'pressure' ? r.pressure : opts.property === 'depth' && r.depth ? r.depth : r.props[opts.property];
+    const col =
+      opts.property === 'pressure'
+        ? r.pressure
+        : opts.property === 'depth' && r.depth
+          ? r.depth
+          : r.props[opts.property];
     if (!col) throw new RangeError(`cast ${pc.cast.id} has no column "${opts.property}"`);
     cols.push(col);
     pCols.push(r.pressure);
@@ -331,11 +407,25 @@ export function buildDensitySection(casts: SectionCast[], opts: DensitySectionOp
   const pg = interpolateColumns(xg, castX, pCols, top, bottom, y, gapKm);
   const dg = withDepth ? interpolateColumns(xg, castX, dCols, top, bottom, y, gapKm) : null;
   return {
-    coord: 'density', property: opts.property, x: Array.from(xg), y: Array.from(y), z: toRows(main.data, xg.length, y.length),
-    pressure: toRows(pg.data, xg.length, y.length), depth: dg ? toRows(dg.data, xg.length, y.length) : null,
+    coord: 'density',
+    property: opts.property,
+    x: Array.from(xg),
+    y: Array.from(y),
+    z: toRows(main.data, xg.length, y.length),
+    pressure: toRows(pg.data, xg.length, y.length),
+    depth: dg ? toRows(dg.data, xg.length, y.length) : null,
     casts: placed.map((pc) => castInfo(pc, opts.inversionThreshold)),
-    bottom: placed.map((pc, i) => ({ x: pc.x, p: pc.bottom, sigma: Number.isFinite(bottom[i]) ? bottom[i] : null, known: pc.known })),
-    gaps: main.gaps, medianSpacingKm, gapKm, handling: opts.handling, interpolation: opts.interpolation,
+    bottom: placed.map((pc, i) => ({
+      x: pc.x,
+      p: pc.bottom,
+      sigma: Number.isFinite(bottom[i]) ? bottom[i] : null,
+      known: pc.known,
+    })),
+    gaps: main.gaps,
+    medianSpacingKm,
+    gapKm,
+    handling: opts.handling,
+    interpolation: opts.interpolation,
   };
 }
 
@@ -344,11 +434,21 @@ export function buildDensitySection(casts: SectionCast[], opts: DensitySectionOp
  * cast, p[itarget][icast], null where the level is not in the cast; x km of the casts.
  */
 export function isopycnalLines(
-  casts: SectionCast[], targets: Float64Array, handling: InversionHandling, interpolation: SigmaInterpolation = 'linear', opts: DistanceOptions = {},
+  casts: SectionCast[],
+  targets: Float64Array,
+  handling: InversionHandling,
+  interpolation: SigmaInterpolation = 'linear',
+  opts: DistanceOptions = {},
 ): { x: number[]; sigma: number[]; p: (number | null)[][] } {
   const placed = placeCasts(casts, opts);
-  const remaps = remapSectionCasts(placed.map((pc) => pc.cast), targets, handling, interpolation);
+  const remaps = remapSectionCasts(
+    placed.map((pc) => pc.cast),
+    targets,
+    handling,
+    interpolation,
+  );
   const p: (number | null)[][] = [];
-  for (let j = 0; j < targets.length; j++) p.push(remaps.map((r) => (Number.isFinite(r.pressure[j]) ? r.pressure[j] : null)));
+  for (let j = 0; j < targets.length; j++)
+    p.push(remaps.map((r) => (Number.isFinite(r.pressure[j]) ? r.pressure[j] : null)));
   return { x: placed.map((pc) => pc.x), sigma: Array.from(targets), p };
 }

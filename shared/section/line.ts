@@ -13,9 +13,17 @@ export interface LinePoint {
 
 type Vec3 = [number, number, number];
 const RAD = Math.PI / 180;
-const unit = (lon: number, lat: number): Vec3 => [Math.cos(lat * RAD) * Math.cos(lon * RAD), Math.cos(lat * RAD) * Math.sin(lon * RAD), Math.sin(lat * RAD)];
+const unit = (lon: number, lat: number): Vec3 => [
+  Math.cos(lat * RAD) * Math.cos(lon * RAD),
+  Math.cos(lat * RAD) * Math.sin(lon * RAD),
+  Math.sin(lat * RAD),
+];
 const dot = (a: Vec3, b: Vec3) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a: Vec3, b: Vec3): Vec3 => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+const cross = (a: Vec3, b: Vec3): Vec3 => [
+  a[1] * b[2] - a[2] * b[1],
+  a[2] * b[0] - a[0] * b[2],
+  a[0] * b[1] - a[1] * b[0],
+];
 const norm = (a: Vec3) => Math.hypot(a[0], a[1], a[2]);
 const angle = (a: Vec3, b: Vec3) => Math.atan2(norm(cross(a, b)), dot(a, b));
 
@@ -76,8 +84,12 @@ export function offLineStations(points: LinePoint[], factor = 3): OffLineStation
       // one stands in for the distance to their circle.
       const ab = greatCircleKm(a.lon, a.lat, b.lon, b.lat);
       let off = ab >= 0.5 * spacing ? crossTrackKm([p.lon, p.lat], [a.lon, a.lat], [b.lon, b.lat]) : NaN;
-      if (!Number.isFinite(off)) off = Math.min(greatCircleKm(p.lon, p.lat, a.lon, a.lat), greatCircleKm(p.lon, p.lat, b.lon, b.lat));
-      if (off > worstKm) { worstKm = off; worst = i; }
+      if (!Number.isFinite(off))
+        off = Math.min(greatCircleKm(p.lon, p.lat, a.lon, a.lat), greatCircleKm(p.lon, p.lat, b.lon, b.lat));
+      if (off > worstKm) {
+        worstKm = off;
+        worst = i;
+      }
     }
     if (worst < 0 || worstKm <= factor * spacing) break;
     out.push({ station: kept[worst].station, offKm: worstKm, spacingKm: spacing });
@@ -144,7 +156,10 @@ export const MIN_STEP_KM = 1e-3;
  * foot. x strictly increases: a leg shorter than MIN_STEP_KM (two stations at one place, or two
  * with one foot on the polyline) is stretched to it.
  */
-export function lineDistances(points: { lon: number; lat: number }[], polyline?: [number, number][] | null): Float64Array {
+export function lineDistances(
+  points: { lon: number; lat: number }[],
+  polyline?: [number, number][] | null,
+): Float64Array {
   const n = points.length;
   const x = new Float64Array(n);
   if (!n) return x;
@@ -153,7 +168,8 @@ export function lineDistances(points: { lon: number; lat: number }[], polyline?:
     const x0 = x[0];
     for (let i = 0; i < n; i++) x[i] -= x0;
   } else {
-    for (let i = 1; i < n; i++) x[i] = x[i - 1] + greatCircleKm(points[i - 1].lon, points[i - 1].lat, points[i].lon, points[i].lat);
+    for (let i = 1; i < n; i++)
+      x[i] = x[i - 1] + greatCircleKm(points[i - 1].lon, points[i - 1].lat, points[i].lon, points[i].lat);
   }
   for (let i = 1; i < n; i++) if (!(x[i] >= x[i - 1] + MIN_STEP_KM)) x[i] = x[i - 1] + MIN_STEP_KM;
   return x;
@@ -163,7 +179,11 @@ export function lineDistances(points: { lon: number; lat: number }[], polyline?:
  * Stations within corridorKm of a drawn polyline, ordered by their projection on it (ties by
  * offset), with their along-line distance and offset.
  */
-export function stationsNearPolyline(points: LinePoint[], polyline: [number, number][], corridorKm: number): (LinePoint & PolylineFoot)[] {
+export function stationsNearPolyline(
+  points: LinePoint[],
+  polyline: [number, number][],
+  corridorKm: number,
+): (LinePoint & PolylineFoot)[] {
   return points
     .map((p) => ({ ...p, ...projectOnPolyline(p.lon, p.lat, polyline) }))
     .filter((p) => p.offsetKm <= corridorKm)
@@ -177,7 +197,10 @@ export function stationsNearPolyline(points: LinePoint[], polyline: [number, num
 export function unwrapLongitudes(lon: ArrayLike<number>): Float64Array {
   const out = new Float64Array(lon.length);
   for (let i = 0; i < lon.length; i++) {
-    if (i === 0) { out[0] = lon[0]; continue; }
+    if (i === 0) {
+      out[0] = lon[0];
+      continue;
+    }
     let d = lon[i] - lon[i - 1];
     d -= 360 * Math.round(d / 360);
     out[i] = out[i - 1] + d;

@@ -12,7 +12,16 @@
  */
 
 /** Derivative of samples f (stride apart in data, positions s) at every position, NaN-aware. */
-function derivative1D(s: Float64Array, data: Float64Array, offset: number, stride: number, out: Float64Array, outOffset: number, outStride: number, scale: number): void {
+function derivative1D(
+  s: Float64Array,
+  data: Float64Array,
+  offset: number,
+  stride: number,
+  out: Float64Array,
+  outOffset: number,
+  outStride: number,
+  scale: number,
+): void {
   const n = s.length;
   for (let i = 0; i < n; i++) {
     const fi = data[offset + i * stride];
@@ -69,7 +78,11 @@ function columnAt(y: Float64Array, data: Float64Array, nx: number, ix: number, y
   if (!(yq >= y[0] && yq <= y[ny - 1])) return NaN;
   let lo = 0;
   let hi = ny - 1;
-  while (hi - lo > 1) { const mid = (lo + hi) >> 1; if (y[mid] <= yq) lo = mid; else hi = mid; }
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (y[mid] <= yq) lo = mid;
+    else hi = mid;
+  }
   const a = data[lo * nx + ix];
   const b = data[hi * nx + ix];
   const w = (yq - y[lo]) / (y[hi] - y[lo]);
@@ -94,7 +107,13 @@ export interface AlongIsopycnalGradient {
  * along-level and vertical gradients are taken on the level grid and read, linearly in depth, at
  * the isopycnal's depth in the same column.
  */
-export function alongIsopycnalGradient(x: Float64Array, levelDepth: Float64Array, phiOnLevels: Float64Array, depthOfSigma: Float64Array, nSigma: number): AlongIsopycnalGradient {
+export function alongIsopycnalGradient(
+  x: Float64Array,
+  levelDepth: Float64Array,
+  phiOnLevels: Float64Array,
+  depthOfSigma: Float64Array,
+  nSigma: number,
+): AlongIsopycnalGradient {
   const nx = x.length;
   const gx = gradientAlongRows(x, phiOnLevels, levelDepth.length);
   const gd = gradientAlongColumns(levelDepth, phiOnLevels, nx);

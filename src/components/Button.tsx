@@ -18,7 +18,16 @@ export interface ButtonProps extends ButtonHTMLAttributes<HTMLButtonElement> {
   busy?: boolean;
 }
 
-export function Button({ variant = 'secondary', size = 'md', busy = false, className = '', children, disabled, type = 'button', ...rest }: ButtonProps) {
+export function Button({
+  variant = 'secondary',
+  size = 'md',
+  busy = false,
+  className = '',
+  children,
+  disabled,
+  type = 'button',
+  ...rest
+}: ButtonProps) {
   const sizing = size === 'sm' ? 'h-7 px-2.5 text-sm' : 'h-9 px-3.5 text-[0.95rem]';
   return (
     <button

@@ -1,4 +1,10 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import {
+  useId,
+  type InputHTMLAttributes,
+  type ReactNode,
+  type SelectHTMLAttributes,
+  type TextareaHTMLAttributes,
+} from 'react';
 
 const CONTROL =
   'w-full rounded border bg-paper-raised px-2.5 text-[0.95rem] text-ink-strong placeholder:text-ink-faint ' +
@@ -54,7 +60,16 @@ export interface TextFieldProps extends Omit<InputHTMLAttributes<HTMLInputElemen
   fieldClassName?: string;
 }
 
-export function TextField({ label, hint, error, optional, mono, fieldClassName, className = '', ...rest }: TextFieldProps) {
+export function TextField({
+  label,
+  hint,
+  error,
+  optional,
+  mono,
+  fieldClassName,
+  className = '',
+  ...rest
+}: TextFieldProps) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} optional={optional} className={fieldClassName}>
@@ -77,7 +92,15 @@ export interface SelectFieldProps extends Omit<SelectHTMLAttributes<HTMLSelectEl
   children: ReactNode;
 }
 
-export function SelectField({ label, hint, error, fieldClassName, className = '', children, ...rest }: SelectFieldProps) {
+export function SelectField({
+  label,
+  hint,
+  error,
+  fieldClassName,
+  className = '',
+  children,
+  ...rest
+}: SelectFieldProps) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} className={fieldClassName}>
@@ -102,7 +125,15 @@ export interface TextAreaFieldProps extends Omit<TextareaHTMLAttributes<HTMLText
   fieldClassName?: string;
 }
 
-export function TextAreaField({ label, hint, error, optional, fieldClassName, className = '', ...rest }: TextAreaFieldProps) {
+export function TextAreaField({
+  label,
+  hint,
+  error,
+  optional,
+  fieldClassName,
+  className = '',
+  ...rest
+}: TextAreaFieldProps) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} optional={optional} className={fieldClassName}>

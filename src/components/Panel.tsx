@@ -29,7 +29,17 @@ export function Panel({
   );
 }
 
-export function PageHeader({ kicker, title, meta, actions }: { kicker?: ReactNode; title: ReactNode; meta?: ReactNode; actions?: ReactNode }) {
+export function PageHeader({
+  kicker,
+  title,
+  meta,
+  actions,
+}: {
+  kicker?: ReactNode;
+  title: ReactNode;
+  meta?: ReactNode;
+  actions?: ReactNode;
+}) {
   return (
     <div className="flex flex-wrap items-end justify-between gap-4 border-b border-ink/15 pb-4">
       <div className="min-w-0">

@@ -19,15 +19,25 @@ export function TopBar() {
           <Brand />
         </NavLink>
         <nav aria-label="Main" className="flex items-center gap-1">
-          <NavLink to="/" end className={navClass}>Cruises</NavLink>
-          {user?.isAdmin && <NavLink to="/admin/mail" className={navClass}>Mail</NavLink>}
+          <NavLink to="/" end className={navClass}>
+            Cruises
+          </NavLink>
+          {user?.isAdmin && (
+            <NavLink to="/admin/mail" className={navClass}>
+              Mail
+            </NavLink>
+          )}
         </nav>
         {user && (
           <div className="ml-auto flex items-center gap-3 text-sm">
             <span className="text-ink-soft">
               <span className="font-semibold text-ink-strong">{user.name}</span>
               <span className="ml-2 hidden font-mono text-xs text-ink-muted md:inline">{user.email}</span>
-              {user.isAdmin && <span className="ml-2 border border-ink/30 px-1 py-px text-[0.65rem] uppercase tracking-[0.08em]">site admin</span>}
+              {user.isAdmin && (
+                <span className="ml-2 border border-ink/30 px-1 py-px text-[0.65rem] uppercase tracking-[0.08em]">
+                  site admin
+                </span>
+              )}
             </span>
             <Button
               size="sm"

@@ -77,11 +77,10 @@ function getCsrfToken(): Promise<string> {
       method: 'GET',
       credentials: 'same-origin',
       headers: { accept: 'application/json' },
-    })
-      .then(async (response) => {
-        if (!response.ok) throw await toApiError(response);
-        return csrfResponseSchema.parse(await response.json()).token;
-      });
+    }).then(async (response) => {
+      if (!response.ok) throw await toApiError(response);
+      return csrfResponseSchema.parse(await response.json()).token;
+    });
     // A failed fetch must not poison the cache.
     pending.catch(() => {
       if (csrfToken === pending) csrfToken = null;

@@ -12,7 +12,9 @@ export default function AdminMail() {
     return (
       <div className="flex flex-col gap-2 py-8">
         <h1 className="text-xl font-semibold text-ink-strong">Mail is for site admins</h1>
-        <p className="text-sm text-ink-soft">This page lists the messages the local mail catcher received; only site admins see it.</p>
+        <p className="text-sm text-ink-soft">
+          This page lists the messages the local mail catcher received; only site admins see it.
+        </p>
       </div>
     );
   }
@@ -33,9 +35,17 @@ function MailBox() {
         meta="What the local mail catcher received: invitations, reset links, release notices. Nothing here was delivered to a real inbox."
       />
       <div className="grid gap-5 lg:grid-cols-[minmax(0,26rem)_minmax(0,1fr)]">
-        <Panel title="Caught messages" titleId="caught" actions={mail.isSuccess && <span className="font-mono text-xs text-ink-muted">{messages.length}</span>}>
+        <Panel
+          title="Caught messages"
+          titleId="caught"
+          actions={mail.isSuccess && <span className="font-mono text-xs text-ink-muted">{messages.length}</span>}
+        >
           {mail.isPending && <Progress label="Loading the caught mail…" />}
-          {mail.isError && <div className="p-4"><ErrorNotice error={mail.error} title="The mail could not be loaded" /></div>}
+          {mail.isError && (
+            <div className="p-4">
+              <ErrorNotice error={mail.error} title="The mail could not be loaded" />
+            </div>
+          )}
           {mail.isSuccess && messages.length === 0 && <EmptyState title="No messages caught yet" />}
           {messages.length > 0 && (
             <ul className="max-h-[36rem] divide-y divide-paper-rule overflow-auto" aria-label="Caught messages">
@@ -94,12 +104,21 @@ function MessageView({ message }: { message: CaughtMail }) {
         ))}
       </div>
       {view === 'text' ? (
-        <pre className="max-h-[30rem] overflow-auto whitespace-pre-wrap px-4 py-3 font-mono text-[0.8rem] text-ink-strong" role="tabpanel">
+        <pre
+          className="max-h-[30rem] overflow-auto whitespace-pre-wrap px-4 py-3 font-mono text-[0.8rem] text-ink-strong"
+          role="tabpanel"
+        >
           <Linkified text={message.text} />
         </pre>
       ) : (
         // No scripts, no same-origin access, no forms: the message is shown, nothing in it runs.
-        <iframe title="Message as HTML" sandbox="" srcDoc={message.html} className="h-[30rem] w-full bg-white" role="tabpanel" />
+        <iframe
+          title="Message as HTML"
+          sandbox=""
+          srcDoc={message.html}
+          className="h-[30rem] w-full bg-white"
+          role="tabpanel"
+        />
       )}
     </article>
   );
@@ -115,7 +134,8 @@ function Linkified({ text }: { text: string }) {
         let local: string | null = null;
         try {
           const url = new URL(part);
-          if (url.origin === window.location.origin || url.hostname === '127.0.0.1' || url.hostname === 'localhost') local = url.pathname + url.search;
+          if (url.origin === window.location.origin || url.hostname === '127.0.0.1' || url.hostname === 'localhost')
+            local = url.pathname + url.search;
         } catch {
           local = null;
         }

@@ -7,7 +7,6 @@ import { AddStationForm, AuditTrail, StationList, StationMap, useStations } from
 import { LinesDesk } from '../features/lines';
 import { useCurrentCruise } from './CruiseLayout';
 
-
 export default function CruiseDesk() {
   const cruise = useCurrentCruise();
   const stations = useStations(cruise.id);
@@ -21,7 +20,10 @@ export default function CruiseDesk() {
     <div className="flex flex-col gap-5">
       {cruise.description && <p className="max-w-[80ch] text-sm text-ink-soft">{cruise.description}</p>}
 
-      <dl className="grid grid-cols-2 border border-paper-rule bg-paper-raised sm:grid-cols-4" aria-label="Cruise status">
+      <dl
+        className="grid grid-cols-2 border border-paper-rule bg-paper-raised sm:grid-cols-4"
+        aria-label="Cruise status"
+      >
         <Stat term="Planned stations" value={stations.isSuccess ? planned.length : '…'} />
         <Stat term="Occupied" value={stations.isSuccess ? occupied : '…'} />
         <Stat term="Casts" value={casts.isSuccess ? castList.length : '…'} />
@@ -31,24 +33,48 @@ export default function CruiseDesk() {
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1.35fr)_minmax(0,1fr)]">
         <Panel title="Lines and stations" titleId="station-map">
           {stations.isPending && <Progress label="Loading the stations…" />}
-          {stations.isError && <div className="p-4"><ErrorNotice error={stations.error} title="The stations could not be loaded" /></div>}
+          {stations.isError && (
+            <div className="p-4">
+              <ErrorNotice error={stations.error} title="The stations could not be loaded" />
+            </div>
+          )}
           {stations.isSuccess &&
-            castList.length === 0 && (planned.length === 0 ? (
-              <EmptyState title="Nothing to map yet">The map shows the planned stations, the section line and what has been occupied.</EmptyState>
+            castList.length === 0 &&
+            (planned.length === 0 ? (
+              <EmptyState title="Nothing to map yet">
+                The map shows the planned stations, the section line and what has been occupied.
+              </EmptyState>
             ) : (
               <StationMap stations={planned} cruiseName={cruise.name} />
             ))}
-          {stations.isSuccess && (planned.length > 0 || castList.length > 0) && (castList.length > 0
-            ? <LinesDesk cruiseId={cruise.id} cruiseName={cruise.name} plan={planned} canEdit={(cruise.role === 'chief_scientist' || cruise.role === 'analyst') && !cruise.locked} />
-            : null)}
+          {stations.isSuccess &&
+            (planned.length > 0 || castList.length > 0) &&
+            (castList.length > 0 ? (
+              <LinesDesk
+                cruiseId={cruise.id}
+                cruiseName={cruise.name}
+                plan={planned}
+                canEdit={(cruise.role === 'chief_scientist' || cruise.role === 'analyst') && !cruise.locked}
+              />
+            ) : null)}
         </Panel>
         <Panel
           title="Plan"
           titleId="station-plan"
-          actions={stations.isSuccess && <span className="text-xs text-ink-muted"><Num>{occupied}</Num> of <Num>{planned.length}</Num> occupied</span>}
+          actions={
+            stations.isSuccess && (
+              <span className="text-xs text-ink-muted">
+                <Num>{occupied}</Num> of <Num>{planned.length}</Num> occupied
+              </span>
+            )
+          }
         >
           {stations.isPending && <Progress label="Loading the plan…" />}
-          {stations.isError && <div className="p-4"><ErrorNotice error={stations.error} title="The plan could not be loaded" /></div>}
+          {stations.isError && (
+            <div className="p-4">
+              <ErrorNotice error={stations.error} title="The plan could not be loaded" />
+            </div>
+          )}
           {stations.isSuccess && <StationList stations={planned} />}
           {can.planStations(cruise.role) && !cruise.locked && <AddStationForm cruiseId={cruise.id} />}
         </Panel>
@@ -56,11 +82,19 @@ export default function CruiseDesk() {
 
       <Panel title="Casts" titleId="casts">
         {casts.isPending && <Progress label="Loading the casts…" />}
-        {casts.isError && <div className="p-4"><ErrorNotice error={casts.error} title="The casts could not be loaded" /></div>}
+        {casts.isError && (
+          <div className="p-4">
+            <ErrorNotice error={casts.error} title="The casts could not be loaded" />
+          </div>
+        )}
         {casts.isSuccess && (
           <CastsTable
             casts={castList}
-            actions={{ cruiseId: cruise.id, canRemove: can.editCruise(cruise.role) && !cruise.locked, canDecide: can.uploadCasts(cruise.role) && !cruise.locked }}
+            actions={{
+              cruiseId: cruise.id,
+              canRemove: can.editCruise(cruise.role) && !cruise.locked,
+              canDecide: can.uploadCasts(cruise.role) && !cruise.locked,
+            }}
           />
         )}
         <RemovedCasts cruiseId={cruise.id} canRestore={can.editCruise(cruise.role) && !cruise.locked} />

@@ -16,7 +16,9 @@ export default function CruiseLayout() {
         <div className="flex flex-col gap-3 py-8">
           <h1 className="text-xl font-semibold text-ink-strong">No such cruise</h1>
           <p className="text-sm text-ink-soft">Either it does not exist or you are not a member of it.</p>
-          <p><Link to="/">Back to your cruises</Link></p>
+          <p>
+            <Link to="/">Back to your cruises</Link>
+          </p>
         </div>
       );
     }
@@ -28,10 +30,17 @@ export default function CruiseLayout() {
   return (
     <div className="flex flex-col gap-3">
       <nav aria-label="Breadcrumb" className="-mb-2 text-xs text-ink-muted print:hidden">
-        <Link to="/" className="text-ink-muted">Cruises</Link> <span aria-hidden>/</span> <span className="text-ink-soft">{cruise.data.name}</span> <span aria-hidden>/</span> <span className="text-ink-soft">{screen}</span>
+        <Link to="/" className="text-ink-muted">
+          Cruises
+        </Link>{' '}
+        <span aria-hidden>/</span> <span className="text-ink-soft">{cruise.data.name}</span> <span aria-hidden>/</span>{' '}
+        <span className="text-ink-soft">{screen}</span>
       </nav>
       <CruiseHeader cruise={cruise.data} screen={screen} />
-      <nav aria-label="Cruise sections" className="-mt-1 flex flex-wrap gap-0.5 border-b border-paper-rule print:hidden">
+      <nav
+        aria-label="Cruise sections"
+        className="-mt-1 flex flex-wrap gap-0.5 border-b border-paper-rule print:hidden"
+      >
         {sections.map((s) => (
           <NavLink
             key={s.label}

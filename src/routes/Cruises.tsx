@@ -40,8 +40,8 @@ export default function Cruises() {
           )}
           {cruises.isSuccess && list.length === 0 && (
             <EmptyState title="You are not on any cruise yet">
-              Create one — you become its chief scientist and can invite the science party — or follow an invitation link from
-              a chief scientist.
+              Create one — you become its chief scientist and can invite the science party — or follow an invitation
+              link from a chief scientist.
             </EmptyState>
           )}
           {list.length > 0 && <CruiseTable cruises={list} />}
@@ -66,13 +66,27 @@ function CruiseTable({ cruises }: { cruises: readonly Cruise[] }) {
       <table className="w-full border-collapse text-sm" aria-label="Your cruises">
         <thead>
           <tr className="border-b border-paper-rule text-left text-xs uppercase tracking-[0.08em] text-ink-muted">
-            <th scope="col" className="px-4 py-1.5 font-semibold">Cruise</th>
-            <th scope="col" className="px-4 py-1.5 font-semibold">Your role</th>
-            <th scope="col" className="px-4 py-1.5 font-semibold">Ship</th>
-            <th scope="col" className="px-4 py-1.5 font-semibold">Dates</th>
-            <th scope="col" className="px-4 py-1.5 font-semibold">Region</th>
-            <th scope="col" className="px-4 py-1.5 text-right font-semibold">Stations</th>
-            <th scope="col" className="px-4 py-1.5 text-right font-semibold">Casts</th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Cruise
+            </th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Your role
+            </th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Ship
+            </th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Dates
+            </th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Region
+            </th>
+            <th scope="col" className="px-4 py-1.5 text-right font-semibold">
+              Stations
+            </th>
+            <th scope="col" className="px-4 py-1.5 text-right font-semibold">
+              Casts
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -84,7 +98,11 @@ function CruiseTable({ cruises }: { cruises: readonly Cruise[] }) {
                   <Link to={`/cruises/${encodeURIComponent(c.id)}`} className="font-semibold text-ink-strong">
                     {c.name}
                   </Link>
-                  {c.locked && <span className="ml-2 border border-ink/30 px-1 text-[0.65rem] uppercase tracking-[0.08em] text-ink-soft">locked</span>}
+                  {c.locked && (
+                    <span className="ml-2 border border-ink/30 px-1 text-[0.65rem] uppercase tracking-[0.08em] text-ink-soft">
+                      locked
+                    </span>
+                  )}
                 </td>
                 <td className="px-4 py-2 whitespace-nowrap">{c.role ? roleLabel(c.role) : '—'}</td>
                 <td className="px-4 py-2 whitespace-nowrap italic text-ink-soft">{c.ship}</td>
@@ -95,8 +113,12 @@ function CruiseTable({ cruises }: { cruises: readonly Cruise[] }) {
                   {days !== null && <span className="ml-1.5 text-xs text-ink-muted">{days} d</span>}
                 </td>
                 <td className="px-4 py-2 text-ink-soft">{c.region ?? '—'}</td>
-                <td className="px-4 py-2 text-right"><Num>{c.stationCount}</Num></td>
-                <td className="px-4 py-2 text-right"><Num>{c.castCount}</Num></td>
+                <td className="px-4 py-2 text-right">
+                  <Num>{c.stationCount}</Num>
+                </td>
+                <td className="px-4 py-2 text-right">
+                  <Num>{c.castCount}</Num>
+                </td>
               </tr>
             );
           })}

@@ -19,7 +19,9 @@ export default function Deliveries() {
     <div className={`grid gap-5 ${mayBuild ? 'xl:grid-cols-[26rem_minmax(0,1fr)]' : ''}`}>
       {mayBuild ? (
         <Panel title="Build a delivery" titleId="build-delivery" className="self-start">
-          <div className="px-4 pt-4"><LinePicker cruiseId={cruise.id} value={line} onChange={setLine} label="From the line" /></div>
+          <div className="px-4 pt-4">
+            <LinePicker cruiseId={cruise.id} value={line} onChange={setLine} label="From the line" />
+          </div>
           <BuildDeliveryForm cruiseId={cruise.id} layerSets={sets} line={line} />
         </Panel>
       ) : (
@@ -31,11 +33,21 @@ export default function Deliveries() {
       <Panel
         title="Deliveries"
         titleId="delivery-list"
-        actions={!canDeliver.release(cruise.role) && <span className="text-xs text-ink-muted">Only a principal investigator releases a delivery.</span>}
+        actions={
+          !canDeliver.release(cruise.role) && (
+            <span className="text-xs text-ink-muted">Only a principal investigator releases a delivery.</span>
+          )
+        }
       >
         {deliveries.isPending && <Progress label="Loading the deliveries…" />}
-        {deliveries.isError && <div className="p-4"><ErrorNotice error={deliveries.error} title="The deliveries could not be loaded" /></div>}
-        {deliveries.isSuccess && <DeliveryList cruiseId={cruise.id} deliveries={deliveries.data} role={cruise.role} layerSets={sets} />}
+        {deliveries.isError && (
+          <div className="p-4">
+            <ErrorNotice error={deliveries.error} title="The deliveries could not be loaded" />
+          </div>
+        )}
+        {deliveries.isSuccess && (
+          <DeliveryList cruiseId={cruise.id} deliveries={deliveries.data} role={cruise.role} layerSets={sets} />
+        )}
       </Panel>
     </div>
   );

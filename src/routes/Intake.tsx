@@ -16,12 +16,19 @@ export default function Intake() {
       {mayUpload && !cruise.locked && (
         <>
           <DropZone onFiles={sender.send} />
-          <OutgoingList cruiseId={cruise.id} outgoing={sender.outgoing} onCancel={sender.cancel} onClear={sender.clearFinished} />
+          <OutgoingList
+            cruiseId={cruise.id}
+            outgoing={sender.outgoing}
+            onCancel={sender.cancel}
+            onClear={sender.clearFinished}
+          />
         </>
       )}
       {mayUpload && cruise.locked && <InfoNotice>This cruise is locked: no more files can come in.</InfoNotice>}
       {!mayUpload && (
-        <InfoNotice>Technicians and the chief scientist upload cast files. You can follow what came in and how it went.</InfoNotice>
+        <InfoNotice>
+          Technicians and the chief scientist upload cast files. You can follow what came in and how it went.
+        </InfoNotice>
       )}
       <Panel title="Upload history" titleId="upload-history">
         {uploads.isPending && <Progress label="Loading the uploads…" />}
@@ -30,7 +37,9 @@ export default function Intake() {
             <ErrorNotice error={uploads.error} title="The uploads could not be loaded" />
           </div>
         )}
-        {uploads.isSuccess && <UploadHistory cruiseId={cruise.id} uploads={uploads.data} canUpload={mayUpload && !cruise.locked} />}
+        {uploads.isSuccess && (
+          <UploadHistory cruiseId={cruise.id} uploads={uploads.data} canUpload={mayUpload && !cruise.locked} />
+        )}
       </Panel>
     </div>
   );

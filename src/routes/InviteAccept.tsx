@@ -46,7 +46,11 @@ export default function InviteAccept() {
     e.preventDefault();
     const problems = {
       name: newAccount && !name.trim() ? 'Enter your name as the team should see it.' : undefined,
-      password: newAccount ? (passwordProblem(password) ?? undefined) : password ? undefined : 'Enter the password of your account.',
+      password: newAccount
+        ? (passwordProblem(password) ?? undefined)
+        : password
+          ? undefined
+          : 'Enter the password of your account.',
     };
     setErrors(problems);
     if (problems.name || problems.password) return;
@@ -59,7 +63,8 @@ export default function InviteAccept() {
     });
   };
 
-  const handled = isApiError(accept.error, 401) || (isApiError(accept.error, 400) && accept.error.code === 'weak_password');
+  const handled =
+    isApiError(accept.error, 401) || (isApiError(accept.error, 400) && accept.error.code === 'weak_password');
 
   return (
     <AuthFrame title={`Join ${inv.cruise.name}`}>
@@ -79,13 +84,38 @@ export default function InviteAccept() {
         {newAccount ? (
           <>
             <p className="text-sm text-ink-soft">Create your Sigmaline account to join the cruise.</p>
-            <TextField label="Your name" autoComplete="name" value={name} onChange={(e) => setName(e.target.value)} error={errors.name} autoFocus />
-            <TextField label="Choose a password" type="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} error={errors.password} hint="At least 10 characters, not all of one kind: mix cases, digits or symbols." />
+            <TextField
+              label="Your name"
+              autoComplete="name"
+              value={name}
+              onChange={(e) => setName(e.target.value)}
+              error={errors.name}
+              autoFocus
+            />
+            <TextField
+              label="Choose a password"
+              type="password"
+              autoComplete="new-password"
+              value={password}
+              onChange={(e) => setPassword(e.target.value)}
+              error={errors.password}
+              hint="At least 10 characters, not all of one kind: mix cases, digits or symbols."
+            />
           </>
         ) : (
           <>
-            <p className="text-sm text-ink-soft">You already have an account. Confirm with its password to add this cruise to it.</p>
-            <TextField label="Password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={errors.password} autoFocus />
+            <p className="text-sm text-ink-soft">
+              You already have an account. Confirm with its password to add this cruise to it.
+            </p>
+            <TextField
+              label="Password"
+              type="password"
+              autoComplete="current-password"
+              value={password}
+              onChange={(e) => setPassword(e.target.value)}
+              error={errors.password}
+              autoFocus
+            />
           </>
         )}
         {accept.error && !handled && <ErrorNotice error={accept.error} title="The invitation was not accepted" />}

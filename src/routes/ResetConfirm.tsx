@@ -25,7 +25,11 @@ export default function ResetConfirm() {
     if (problems.password || problems.repeat) return;
     confirm.mutate(
       { token, password },
-      { onError: (error) => { if (isApiError(error, 400) && error.code === 'weak_password') setErrors({ password: error.message }); } },
+      {
+        onError: (error) => {
+          if (isApiError(error, 400) && error.code === 'weak_password') setErrors({ password: error.message });
+        },
+      },
     );
   };
 
@@ -33,7 +37,9 @@ export default function ResetConfirm() {
     return (
       <AuthFrame title="Password changed">
         <InfoNotice>Your new password is set.</InfoNotice>
-        <p className="mt-4"><Link to="/signin">Sign in</Link></p>
+        <p className="mt-4">
+          <Link to="/signin">Sign in</Link>
+        </p>
       </AuthFrame>
     );
   }
@@ -45,15 +51,37 @@ export default function ResetConfirm() {
       {invalidToken ? (
         <div className="flex flex-col gap-3">
           <ErrorNotice error={confirm.error} title="This link no longer works" />
-          <p className="text-sm text-ink-soft">Reset links work once and expire. <Link to="/reset">Ask for a new one.</Link></p>
+          <p className="text-sm text-ink-soft">
+            Reset links work once and expire. <Link to="/reset">Ask for a new one.</Link>
+          </p>
         </div>
       ) : (
         <form onSubmit={submit} noValidate aria-label="Choose a new password" className="flex flex-col gap-4">
-          <TextField label="New password" type="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} error={errors.password} hint="At least 10 characters, not all of one kind: mix cases, digits or symbols." autoFocus />
-          <TextField label="Repeat the new password" type="password" autoComplete="new-password" value={repeat} onChange={(e) => setRepeat(e.target.value)} error={errors.repeat} />
-          {confirm.error && !(isApiError(confirm.error, 400) && confirm.error.code === 'weak_password') && <ErrorNotice error={confirm.error} title="The password was not changed" />}
+          <TextField
+            label="New password"
+            type="password"
+            autoComplete="new-password"
+            value={password}
+            onChange={(e) => setPassword(e.target.value)}
+            error={errors.password}
+            hint="At least 10 characters, not all of one kind: mix cases, digits or symbols."
+            autoFocus
+          />
+          <TextField
+            label="Repeat the new password"
+            type="password"
+            autoComplete="new-password"
+            value={repeat}
+            onChange={(e) => setRepeat(e.target.value)}
+            error={errors.repeat}
+          />
+          {confirm.error && !(isApiError(confirm.error, 400) && confirm.error.code === 'weak_password') && (
+            <ErrorNotice error={confirm.error} title="The password was not changed" />
+          )}
           <div>
-            <Button type="submit" variant="primary" busy={confirm.isPending}>Set password</Button>
+            <Button type="submit" variant="primary" busy={confirm.isPending}>
+              Set password
+            </Button>
           </div>
         </form>
       )}

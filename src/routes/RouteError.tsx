@@ -10,11 +10,15 @@ export default function RouteError() {
   return (
     <div className="flex min-h-screen flex-col">
       <header className="border-b border-paper-rule">
-        <div className="mx-auto flex h-12 max-w-[1840px] items-center px-6"><Brand /></div>
+        <div className="mx-auto flex h-12 max-w-[1840px] items-center px-6">
+          <Brand />
+        </div>
       </header>
       <main className="mx-auto flex w-full max-w-3xl flex-1 flex-col gap-4 px-6 py-10">
         <ErrorNotice error={isRouteErrorResponse(error) ? new Error(String(error.data ?? '')) : error} title={title} />
-        <p><Link to="/">Back to your cruises</Link></p>
+        <p>
+          <Link to="/">Back to your cruises</Link>
+        </p>
       </main>
       <Footer />
     </div>

@@ -72,7 +72,10 @@ export default function Section() {
   const look = useFramesLook(view, byPressure.data, byDensity.data);
   const range = look.pressureRange;
   const digits = digitsFor(range ? range.max - range.min : NaN);
-  const stations = useMemo(() => byPressure.data?.stations ?? byDensity.data?.stations ?? [], [byPressure.data, byDensity.data]);
+  const stations = useMemo(
+    () => byPressure.data?.stations ?? byDensity.data?.stations ?? [],
+    [byPressure.data, byDensity.data],
+  );
   const sigma = sigmaName(view.ref);
 
   const step = useCallback(
@@ -101,9 +104,12 @@ export default function Section() {
   };
 
   const pickStation = useCallback((id: string) => setView({ station: id }, { replace: true }), [setView]);
-  const openCast = (castId: string) => navigate(`/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(castId)}`);
+  const openCast = (castId: string) =>
+    navigate(`/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(castId)}`);
   const valueTitle = `${view.property}${unit ? ` (${unit})` : ''}`;
-  const levelsText = layerSet ? `${layerSet.name} (${layerSet.levels})` : `default levels ${byDensity.data?.choices.levels ?? ''}`;
+  const levelsText = layerSet
+    ? `${layerSet.name} (${layerSet.levels})`
+    : `default levels ${byDensity.data?.choices.levels ?? ''}`;
   const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
   const frameHeight = useFrameHeight(view.frames);
   // Figures leave with a provenance line and a file name of cruise, line and property.
@@ -113,13 +119,21 @@ export default function Section() {
   const pressureCaption = sentence(
     `${propLabel}${unit ? ` (${unit})` : ''} by pressure on ${byPressure.data?.choices.bin ?? 10} dbar bins`,
     `isopycnals ${sigma} (reference ${view.ref} dbar, solid, labelled along the lines), inversions ${handling}`,
-    look.words.contours('pressure'), look.words.palette, look.words.range('pressure'), look.words.axes,
+    look.words.contours('pressure'),
+    look.words.palette,
+    look.words.range('pressure'),
+    look.words.axes,
     `warm marks: inversions of ${sigma} at the cast, from top to bottom of the inverted interval; dark fill: the bottom`,
   );
   const densityCaption = sentence(
     `${densityShowsDepth ? 'Pressure (dbar) of the isopycnals' : `${propLabel}${unit ? ` (${unit})` : ''}`} on ${sigma} (reference ${view.ref} dbar)`,
-    `inversions ${handling}`, `interpolation ${INTERPOLATION_TEXT[view.interpolation].toLowerCase()}`, `levels ${levelsText}`,
-    look.words.contours('density'), densityShowsDepth ? null : look.words.palette, look.words.range('density'), look.xAxisWords,
+    `inversions ${handling}`,
+    `interpolation ${INTERPOLATION_TEXT[view.interpolation].toLowerCase()}`,
+    `levels ${levelsText}`,
+    look.words.contours('density'),
+    densityShowsDepth ? null : look.words.palette,
+    look.words.range('density'),
+    look.xAxisWords,
   );
   const cursor = stations.find((s) => s.id === view.station) ?? null;
   const inversions = byPressure.data?.inversions ?? [];
@@ -145,7 +159,9 @@ export default function Section() {
       <div className="flex flex-wrap items-center gap-3">
         <LinePicker cruiseId={cruise.id} value={view.line} onChange={(line) => setView({ line, station: null })} />
         {byPressure.data?.line?.offLine?.length ? (
-          <span className="text-xs text-ink-muted">Off the line, not drawn: {byPressure.data.line.offLine.map((o) => o.station).join(', ')}</span>
+          <span className="text-xs text-ink-muted">
+            Off the line, not drawn: {byPressure.data.line.offLine.map((o) => o.station).join(', ')}
+          </span>
         ) : null}
       </div>
       <SectionControls
@@ -158,73 +174,99 @@ export default function Section() {
         autoPaletteLabel={look.autoPaletteLabel}
       />
       {(layerSets.isError || derived.isError) && (
-        <ErrorNotice error={layerSets.error ?? derived.error} title="The layer sets or derived variables could not be loaded; the defaults are used" />
+        <ErrorNotice
+          error={layerSets.error ?? derived.error}
+          title="The layer sets or derived variables could not be loaded; the defaults are used"
+        />
       )}
 
       {noCasts ? (
         <Panel title="Section">
-          <EmptyState title="No casts yet">The section is drawn from the cruise’s processed casts. Upload cast files on the intake first.</EmptyState>
+          <EmptyState title="No casts yet">
+            The section is drawn from the cruise’s processed casts. Upload cast files on the intake first.
+          </EmptyState>
         </Panel>
       ) : (
         <div className="grid items-start gap-4 min-[1800px]:grid-cols-[minmax(0,1fr)_20rem]">
           <div className="flex min-w-0 flex-col gap-2">
-          <SectionFigureBar
-            frames={view.frames}
-            onFrames={(frames) => setView({ frames })}
-            exportProps={{ text: { title: `${cruise.name}: ${propLabel} section`, provenance }, fileName: `${fileBase}_section`, captions: { pressure: pressureCaption, density: densityCaption } }}
-          />
-          <div
-            tabIndex={0}
-            role="application"
-            aria-label={`Section frames. Station cursor: ${cursor ? cursor.station : 'none'}. Use the left and right arrow keys to step between stations, Home and End for the ends.`}
-            onKeyDown={onKeyDown}
-            data-section-frames
-            className={`grid gap-3 outline-none focus-visible:ring-2 focus-visible:ring-ink/50 ${view.frames === 'both' ? 'min-[1200px]:grid-cols-2' : ''}`}
-          >
-            {view.frames !== 'density' && <FrameBox
-              title="By pressure"
-              query={byPressure}
-              exportAs={{ text: { title: `${cruise.name}: ${propLabel} by pressure`, provenance }, fileName: `${fileBase}_by-pressure`, caption: pressureCaption, frame: 'pressure' }}
-              render={(data) => (
-                <SectionFrame
-                  section={data}
-                  coord="pressure"
-                  valueTitle={valueTitle}
-                  range={range}
-                  look={look.pressure}
-                  fileName={`${fileBase}_by-pressure`}
-                  cursorStationId={view.station}
-                  height={frameHeight}
-                  onHover={setHover}
-                  onPickStation={pickStation}
-                  onPickInversion={openCast}
-                  onDrawn={framesDrawn ? undefined : onFirstDrawn}
-                  caption={pressureCaption}
+            <SectionFigureBar
+              frames={view.frames}
+              onFrames={(frames) => setView({ frames })}
+              exportProps={{
+                text: { title: `${cruise.name}: ${propLabel} section`, provenance },
+                fileName: `${fileBase}_section`,
+                captions: { pressure: pressureCaption, density: densityCaption },
+              }}
+            />
+            <div
+              tabIndex={0}
+              role="application"
+              aria-label={`Section frames. Station cursor: ${cursor ? cursor.station : 'none'}. Use the left and right arrow keys to step between stations, Home and End for the ends.`}
+              onKeyDown={onKeyDown}
+              data-section-frames
+              className={`grid gap-3 outline-none focus-visible:ring-2 focus-visible:ring-ink/50 ${view.frames === 'both' ? 'min-[1200px]:grid-cols-2' : ''}`}
+            >
+              {view.frames !== 'density' && (
+                <FrameBox
+                  title="By pressure"
+                  query={byPressure}
+                  exportAs={{
+                    text: { title: `${cruise.name}: ${propLabel} by pressure`, provenance },
+                    fileName: `${fileBase}_by-pressure`,
+                    caption: pressureCaption,
+                    frame: 'pressure',
+                  }}
+                  render={(data) => (
+                    <SectionFrame
+                      section={data}
+                      coord="pressure"
+                      valueTitle={valueTitle}
+                      range={range}
+                      look={look.pressure}
+                      fileName={`${fileBase}_by-pressure`}
+                      cursorStationId={view.station}
+                      height={frameHeight}
+                      onHover={setHover}
+                      onPickStation={pickStation}
+                      onPickInversion={openCast}
+                      onDrawn={framesDrawn ? undefined : onFirstDrawn}
+                      caption={pressureCaption}
+                    />
+                  )}
                 />
               )}
-            />}
-            {view.frames !== 'pressure' && <FrameBox
-              title={`By density (${sigma})`}
-              query={byDensity}
-              exportAs={{ text: { title: `${cruise.name}: ${densityShowsDepth ? 'pressure of the isopycnals' : propLabel} by density (${sigma})`, provenance }, fileName: `${fileBase}_by-density-${sigma}`, caption: densityCaption, frame: 'density' }}
-              render={(data) => (
-                <SectionFrame
-                  section={data}
-                  coord="density"
-                  valueTitle={densityShowsDepth ? 'Pressure (dbar)' : valueTitle}
-                  range={look.densityRange}
-                  look={look.density}
-                  fileName={`${fileBase}_by-density-${sigma}`}
-                  cursorStationId={view.station}
-                  height={frameHeight}
-                  onHover={setHover}
-                  onPickStation={pickStation}
-                  onPickInversion={openCast}
-                  caption={densityCaption}
+              {view.frames !== 'pressure' && (
+                <FrameBox
+                  title={`By density (${sigma})`}
+                  query={byDensity}
+                  exportAs={{
+                    text: {
+                      title: `${cruise.name}: ${densityShowsDepth ? 'pressure of the isopycnals' : propLabel} by density (${sigma})`,
+                      provenance,
+                    },
+                    fileName: `${fileBase}_by-density-${sigma}`,
+                    caption: densityCaption,
+                    frame: 'density',
+                  }}
+                  render={(data) => (
+                    <SectionFrame
+                      section={data}
+                      coord="density"
+                      valueTitle={densityShowsDepth ? 'Pressure (dbar)' : valueTitle}
+                      range={look.densityRange}
+                      look={look.density}
+                      fileName={`${fileBase}_by-density-${sigma}`}
+                      cursorStationId={view.station}
+                      height={frameHeight}
+                      onHover={setHover}
+                      onPickStation={pickStation}
+                      onPickInversion={openCast}
+                      caption={densityCaption}
+                    />
+                  )}
                 />
               )}
-            />}
-          </div>
+            </div>
           </div>
           <aside className="flex flex-col gap-3" aria-label="Section details">
             <LiveReadout
@@ -246,8 +288,12 @@ export default function Section() {
 
       {!noCasts && !panelsReady && (
         <div className="grid gap-4 2xl:grid-cols-2">
-          <Panel title="T–S"><Progress label="The T–S diagram follows the section…" /></Panel>
-          <Panel title="Geostrophy"><Progress label="Geostrophy follows the section…" /></Panel>
+          <Panel title="T–S">
+            <Progress label="The T–S diagram follows the section…" />
+          </Panel>
+          <Panel title="Geostrophy">
+            <Progress label="Geostrophy follows the section…" />
+          </Panel>
         </div>
       )}
       {!noCasts && panelsReady && (
@@ -290,16 +336,30 @@ function FrameBox({
       title={title}
       actions={
         <span className="flex items-center gap-2">
-          {query.isFetching && query.data && <span className="flex items-center gap-1.5 text-xs text-ink-muted"><Spinner label={`Recomputing ${title}`} /> recomputing…</span>}
+          {query.isFetching && query.data && (
+            <span className="flex items-center gap-1.5 text-xs text-ink-muted">
+              <Spinner label={`Recomputing ${title}`} /> recomputing…
+            </span>
+          )}
           {exportAs && query.data && <FrameExportMenu what={`the frame ${title.toLowerCase()}`} {...exportAs} />}
         </span>
       }
       className="min-w-0"
     >
       {query.isPending && <Progress label={`Computing the section ${title.toLowerCase()}…`} />}
-      {query.isError && !query.data && <div className="p-3"><ErrorNotice error={query.error} title={`The section ${title.toLowerCase()} could not be computed`} /></div>}
-      {query.isError && query.data && <div className="p-3"><ErrorNotice error={query.error} title="These choices could not be computed; the last section is shown" /></div>}
-      {query.data && <div className={query.isPlaceholderData ? 'opacity-60 transition-opacity' : ''}>{render(query.data)}</div>}
+      {query.isError && !query.data && (
+        <div className="p-3">
+          <ErrorNotice error={query.error} title={`The section ${title.toLowerCase()} could not be computed`} />
+        </div>
+      )}
+      {query.isError && query.data && (
+        <div className="p-3">
+          <ErrorNotice error={query.error} title="These choices could not be computed; the last section is shown" />
+        </div>
+      )}
+      {query.data && (
+        <div className={query.isPlaceholderData ? 'opacity-60 transition-opacity' : ''}>{render(query.data)}</div>
+      )}
     </Panel>
   );
 }
@@ -328,7 +388,15 @@ function LiveReadout({
 }) {
   const readout = toReadout(useHover(store), byPressure, byDensity, stations);
   const depth = readout?.coord === 'density' && densityShowsDepth;
-  return <Readout readout={readout} unit={depth ? 'dbar' : unit} valueName={depth ? 'Pressure' : property} sigma={sigma} digits={depth ? 0 : digits} />;
+  return (
+    <Readout
+      readout={readout}
+      unit={depth ? 'dbar' : unit}
+      valueName={depth ? 'Pressure' : property}
+      sigma={sigma}
+      digits={depth ? 0 : digits}
+    />
+  );
 }
 
 function toReadout(

@@ -39,19 +39,45 @@ export default function SignIn() {
   return (
     <AuthFrame
       title="Sign in"
-      aside={<p>Sigmaline is where a cruise's science party turns CTD casts into checked sections. Accounts come by invitation from a cruise's chief scientist.</p>}
+      aside={
+        <p>
+          Sigmaline is where a cruise's science party turns CTD casts into checked sections. Accounts come by invitation
+          from a cruise's chief scientist.
+        </p>
+      }
     >
       <form onSubmit={submit} noValidate aria-label="Sign in" className="flex flex-col gap-4">
-        <TextField label="E-mail" type="email" autoComplete="username" value={email} onChange={(e) => setEmail(e.target.value)} error={missing.email} autoFocus />
-        <TextField label="Password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={missing.password} />
+        <TextField
+          label="E-mail"
+          type="email"
+          autoComplete="username"
+          value={email}
+          onChange={(e) => setEmail(e.target.value)}
+          error={missing.email}
+          autoFocus
+        />
+        <TextField
+          label="Password"
+          type="password"
+          autoComplete="current-password"
+          value={password}
+          onChange={(e) => setPassword(e.target.value)}
+          error={missing.password}
+        />
         {known ? (
-          <div role="alert" className="border-l-2 border-warn bg-warn-wash/60 px-3 py-2 text-sm text-ink-strong">{known}</div>
+          <div role="alert" className="border-l-2 border-warn bg-warn-wash/60 px-3 py-2 text-sm text-ink-strong">
+            {known}
+          </div>
         ) : (
           signIn.error && <ErrorNotice error={signIn.error} title="Could not sign in" />
         )}
         <div className="flex items-center justify-between">
-          <Button type="submit" variant="primary" busy={signIn.isPending}>Sign in</Button>
-          <Link to={email ? `/reset?email=${encodeURIComponent(email.trim())}` : '/reset'} className="text-sm">Forgot your password?</Link>
+          <Button type="submit" variant="primary" busy={signIn.isPending}>
+            Sign in
+          </Button>
+          <Link to={email ? `/reset?email=${encodeURIComponent(email.trim())}` : '/reset'} className="text-sm">
+            Forgot your password?
+          </Link>
         </div>
       </form>
     </AuthFrame>

@@ -21,7 +21,17 @@ beforeAll(async () => {
   t = await makeTestApp();
   await startWorkers(t.deps, { concurrency: 2 });
   const c = await createUser('life-chief@example.test');
-  const cr = await Cruise.create({ name: 'Life', ship: 'RV Tessellate', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: c.id });
+  const cr = await Cruise.create({
+    name: 'Life',
+    ship: 'RV Tessellate',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: c.id,
+  });
   cruiseId = cr.id;
   await addMember(c.id, cr.id, 'chief_scientist');
   const u = await createUser('life-tech@example.test');
@@ -29,31 +39,53 @@ beforeAll(async () => {
   tech = await agentFor(t.app, 'life-tech@example.test');
   chief = await agentFor(t.app, 'life-chief@example.test');
 }, 120_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
 /** An invented cast file; `skip` leaves out levels (dbar), `bad` writes text into some lines. */
 function castFile(name: string, station: string, o: { skip?: number[]; warm?: number; bad?: number[] } = {}): string {
-  const lines = [`# station: ${station}`, '# cast: 1', '# latitude: -30.5', '# longitude: -20.25', '# time: 2026-03-04T05:00:00Z', 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]'];
+  const lines = [
+    `# station: ${station}`,
+    '# cast: 1',
+    '# latitude: -30.5',
+    '# longitude: -20.25',
+    '# time: 2026-03-04T05:00:00Z',
+    'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]',
+  ];
   for (let p = 2; p <= 200; p += 2) {
     if (o.skip?.includes(p)) continue;
     const tt = 4 + 16 * Math.exp(-p / 300) + (o.warm ?? 0);
-    lines.push(o.bad?.includes(p) ? `${p},warm,35.1` : `${p},${tt.toFixed(4)},${(34.6 + Math.exp(-p / 250)).toFixed(4)}`);
+    lines.push(
+      o.bad?.includes(p) ? `${p},warm,35.1` : `${p},${tt.toFixed(4)},${(34.6 + Math.exp(-p / 250)).toFixed(4)}`,
+    );
   }
   const f = join(dir, name);
   writeFileSync(f, lines.join('\n') + '\n');
   return f;
 }
 async function upload(file: string, who = tech) {
-  const r = await who.agent.post(`/api/cruises/${cruiseId}/uploads`).set('x-csrf-token', who.csrf).attach('files', file);
+  const r = await who.agent
+    .post(`/api/cruises/${cruiseId}/uploads`)
+    .set('x-csrf-token', who.csrf)
+    .attach('files', file);
   expect(r.status).toBe(202);
   return r.body.uploads[0].id as string;
 }
-const settled = (id: string) => waitFor(async () => {
-  const r = await tech.agent.get(`/api/uploads/${id}`);
-  return ['ready', 'failed', 'awaiting_decision'].includes(r.body.status) ? r.body : null;
-}, 60_000);
-const liveCasts = async () => (await tech.agent.get(`/api/cruises/${cruiseId}/casts`)).body as { id: string; station: string; cast: string; partlyRead: { dropped: unknown[]; decision: string | null } | null }[];
-const post = (who: typeof tech, path: string, body: object = {}) => who.agent.post(path).set('x-csrf-token', who.csrf).send(body);
+const settled = (id: string) =>
+  waitFor(async () => {
+    const r = await tech.agent.get(`/api/uploads/${id}`);
+    return ['ready', 'failed', 'awaiting_decision'].includes(r.body.status) ? r.body : null;
+  }, 60_000);
+const liveCasts = async () =>
+  (await tech.agent.get(`/api/cruises/${cruiseId}/casts`)).body as {
+    id: string;
+    station: string;
+    cast: string;
+    partlyRead: { dropped: unknown[]; decision: string | null } | null;
+  }[];
+const post = (who: typeof tech, path: string, body: object = {}) =>
+  who.agent.post(path).set('x-csrf-token', who.csrf).send(body);
 
 describe('replace', () => {
   let firstId: string;
@@ -62,11 +94,16 @@ describe('replace', () => {
     expect(a.status).toBe('ready');
     firstId = a.castIds[0];
     // the technician flags 10–20 dbar questionable
-    expect((await post(tech, `/api/casts/${firstId}/flags`, { variable: 'temperature', pFrom: 10, pTo: 20, flag: 3 })).status).toBe(200);
+    expect(
+      (await post(tech, `/api/casts/${firstId}/flags`, { variable: 'temperature', pFrom: 10, pTo: 20, flag: 3 }))
+        .status,
+    ).toBe(200);
     const before = await Cast.unscoped().count();
     const b = await settled(await upload(castFile('L1-b.csv', 'L1', { warm: 0.01, skip: [12, 14] })));
     expect(b.status).toBe('awaiting_decision');
-    expect(b.conflicts.items).toEqual([expect.objectContaining({ station: 'L1', cast: '1', existingCastId: firstId, existingFile: 'L1-a.csv' })]);
+    expect(b.conflicts.items).toEqual([
+      expect.objectContaining({ station: 'L1', cast: '1', existingCastId: firstId, existingFile: 'L1-a.csv' }),
+    ]);
     expect(await Cast.unscoped().count()).toBe(before);
     // replace: the new version is live, the earlier one history; flags carried where levels match
     const r = await post(tech, `/api/uploads/${b.id}/replace-decision`, { replace: true });
@@ -83,7 +120,10 @@ describe('replace', () => {
     expect(p).not.toContain(12);
     expect(cast.notes.join(' ')).toMatch(/could not be \(no level at 12, 14 dbar/);
     const h = (await tech.agent.get(`/api/casts/${live[0].id}/history`)).body;
-    expect(h.versions.map((v: { uploadFile: string; live: boolean }) => [v.uploadFile, v.live])).toEqual([['L1-a.csv', false], ['L1-b.csv', true]]);
+    expect(h.versions.map((v: { uploadFile: string; live: boolean }) => [v.uploadFile, v.live])).toEqual([
+      ['L1-a.csv', false],
+      ['L1-b.csv', true],
+    ]);
     expect(h.versions[0].uploadedBy.name).toBe('life-tech');
     expect(h.versions[0].supersededBy).toBe(live[0].id);
     expect((await tech.agent.get(`/api/casts/${firstId}`)).status).toBe(404);
@@ -110,20 +150,31 @@ describe('remove and restore', () => {
     const r = await post(chief, `/api/casts/${id}/remove`, { reason: 'wrong station' });
     expect(r.status).toBe(200);
     expect((await liveCasts()).map((c) => c.id)).not.toContain(id);
-    const sec = (await tech.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'CT', coord: 'pressure', bin: 20 })).body;
+    const sec = (
+      await tech.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'CT', coord: 'pressure', bin: 20 })
+    ).body;
     expect(sec.stations.map((s: { id: string }) => s.id)).not.toContain(id);
-    expect((await tech.agent.get(`/api/cruises/${cruiseId}/removed-casts`)).body.map((c: { id: string }) => c.id)).toContain(id);
+    expect(
+      (await tech.agent.get(`/api/cruises/${cruiseId}/removed-casts`)).body.map((c: { id: string }) => c.id),
+    ).toContain(id);
     expect((await post(chief, `/api/casts/${id}/restore`)).status).toBe(200);
     expect((await liveCasts()).map((c) => c.id)).toContain(id);
-    const trail = (await chief.agent.get(`/api/cruises/${cruiseId}/audit`)).body as { action: string; entityId: string }[];
-    expect(trail.filter((a) => a.entityId === id).map((a) => a.action)).toEqual(expect.arrayContaining(['remove_cast', 'restore_cast']));
+    const trail = (await chief.agent.get(`/api/cruises/${cruiseId}/audit`)).body as {
+      action: string;
+      entityId: string;
+    }[];
+    expect(trail.filter((a) => a.entityId === id).map((a) => a.action)).toEqual(
+      expect.arrayContaining(['remove_cast', 'restore_cast']),
+    );
   });
 
   it('never two live casts with one station and cast: the database refuses, restore refuses, an upload with both fails', async () => {
     const live = (await liveCasts()).find((c) => c.station === 'R2')!;
     const row = (await Cast.findByPk(live.id))!.get({ plain: true }) as Record<string, unknown>;
     delete row.id;
-    await expect(Cast.create({ ...row, sourceFile: 'copy.csv' } as never)).rejects.toMatchObject({ name: 'SequelizeUniqueConstraintError' });
+    await expect(Cast.create({ ...row, sourceFile: 'copy.csv' } as never)).rejects.toMatchObject({
+      name: 'SequelizeUniqueConstraintError',
+    });
     // remove R2, upload a new R2 (no conflict now), then restoring the old one would make two
     await post(chief, `/api/casts/${live.id}/remove`);
     const n = await settled(await upload(castFile('R2-new.csv', 'R2', { warm: 0.05 })));
@@ -138,7 +189,10 @@ describe('remove and restore', () => {
     z.addBuffer(readFileSync(castFile('D-b.csv', 'D9', { warm: 0.1 })), 'D-b.csv');
     z.end();
     const chunks: Buffer[] = [];
-    await new Promise<void>((ok) => { z.outputStream.on('data', (b: Buffer) => chunks.push(b)); z.outputStream.on('end', () => ok()); });
+    await new Promise<void>((ok) => {
+      z.outputStream.on('data', (b: Buffer) => chunks.push(b));
+      z.outputStream.on('end', () => ok());
+    });
     writeFileSync(join(dir, 'dups.zip'), Buffer.concat(chunks));
     const before = await Cast.unscoped().count();
     const d = await settled(await upload(join(dir, 'dups.zip')));
@@ -157,8 +211,18 @@ describe('partly read', () => {
     const full = (await tech.agent.get(`/api/casts/${c.id}`)).body;
     expect(full.levels).toBe(97);
     // lines: 6 header lines, then 2 dbar per line from line 7
-    expect(full.partlyRead.dropped.map((d: { line: number; column: number; code: string; file: string }) => [d.file, d.line, d.column, d.code])).toEqual([
-      ['P1.csv', 16, 2, 'text_in_numeric'], ['P1.csv', 26, 2, 'text_in_numeric'], ['P1.csv', 36, 2, 'text_in_numeric']]);
+    expect(
+      full.partlyRead.dropped.map((d: { line: number; column: number; code: string; file: string }) => [
+        d.file,
+        d.line,
+        d.column,
+        d.code,
+      ]),
+    ).toEqual([
+      ['P1.csv', 16, 2, 'text_in_numeric'],
+      ['P1.csv', 26, 2, 'text_in_numeric'],
+      ['P1.csv', 36, 2, 'text_in_numeric'],
+    ]);
     expect(full.notes.join(' ')).toMatch(/partly read: 3 lines/);
     expect((await post(tech, `/api/casts/${c.id}/partly-read`, { decision: 'accept' })).status).toBe(200);
     expect((await liveCasts()).find((x) => x.id === c.id)!.partlyRead!.decision).toBe('accepted');
@@ -171,7 +235,9 @@ describe('partly read', () => {
 
   it('too many bad lines: the file is refused whole, nothing written', async () => {
     const before = await CastColumn.count();
-    const u = await settled(await upload(castFile('P3.csv', 'P3', { bad: Array.from({ length: 30 }, (_, i) => 2 + 2 * i) })));
+    const u = await settled(
+      await upload(castFile('P3.csv', 'P3', { bad: Array.from({ length: 30 }, (_, i) => 2 + 2 * i) })),
+    );
     expect(u.status).toBe('failed');
     expect(u.errors[0]).toMatchObject({ file: 'P3.csv', line: 7, column: 2, code: 'text_in_numeric' });
     expect(await CastColumn.count()).toBe(before);
@@ -187,14 +253,18 @@ describe('uploads that produced nothing', () => {
     const r = await tech.agent.delete(`/api/uploads/${u.id}`).set('x-csrf-token', tech.csrf);
     expect(r.status).toBe(200);
     expect((await tech.agent.get(`/api/uploads/${u.id}`)).status).toBe(404);
-    const withCasts = (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body.find((x: { castIds: string[] }) => x.castIds.length > 0);
+    const withCasts = (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body.find(
+      (x: { castIds: string[] }) => x.castIds.length > 0,
+    );
     expect((await tech.agent.delete(`/api/uploads/${withCasts.id}`).set('x-csrf-token', tech.csrf)).status).toBe(409);
   });
 });
 
 describe('malformed netCDF and acquisition exports through the API', () => {
   const BAD = join(process.cwd(), 'fixtures/bad');
-  const manifest = JSON.parse(readFileSync(join(BAD, 'manifest.json'), 'utf8')) as { files: { file: string; expect: string }[] };
+  const manifest = JSON.parse(readFileSync(join(BAD, 'manifest.json'), 'utf8')) as {
+    files: { file: string; expect: string }[];
+  };
   // One unreadable line is not a failure at intake: the file is partly read (salvage).
   const LINE_LEVEL = ['field_count', 'text_in_numeric', 'truncated'];
   const ours = manifest.files.filter((e) => /^(netcdf|acquisition)-/.test(e.file));
@@ -205,7 +275,10 @@ describe('malformed netCDF and acquisition exports through the API', () => {
     for (const e of picked) {
       const done = await settled(await upload(join(BAD, e.file)));
       expect(done.status, e.file).toBe('failed');
-      expect(done.errors.map((x: { code: string }) => x.code), e.file).toContain(e.expect);
+      expect(
+        done.errors.map((x: { code: string }) => x.code),
+        e.file,
+      ).toContain(e.expect);
     }
     expect(await Cast.unscoped().count()).toBe(before);
     expect((await tech.agent.get(`/api/cruises/${cruiseId}/casts`)).status).toBe(200);
@@ -213,11 +286,15 @@ describe('malformed netCDF and acquisition exports through the API', () => {
     expect(salvaged.length).toBe(3);
     for (const e of salvaged) {
       const done = await settled(await upload(join(BAD, e.file)));
-      if (done.status === 'awaiting_decision') await post(tech, `/api/uploads/${done.id}/replace-decision`, { replace: true });
+      if (done.status === 'awaiting_decision')
+        await post(tech, `/api/uploads/${done.id}/replace-decision`, { replace: true });
       const end = await settled(done.id);
       expect(end.status, e.file).toBe('ready');
       const cast = (await tech.agent.get(`/api/casts/${end.castIds[0]}`)).body;
-      expect(cast.partlyRead.dropped.map((d: { code: string }) => d.code), e.file).toEqual([e.expect]);
+      expect(
+        cast.partlyRead.dropped.map((d: { code: string }) => d.code),
+        e.file,
+      ).toEqual([e.expect]);
     }
   }, 120_000);
 });

@@ -19,17 +19,24 @@ let analyst: Awaited<ReturnType<typeof agentFor>>;
 let onlyB: Awaited<ReturnType<typeof agentFor>>;
 let tech: Awaited<ReturnType<typeof agentFor>>;
 const ids: Record<string, string> = {};
-const STRETCH = (f: string) => { const n = Number(f.slice(3, 5)); return n >= 18 && n <= 31; };
+const STRETCH = (f: string) => {
+  const n = Number(f.slice(3, 5));
+  return n >= 18 && n <= 31;
+};
 
 async function ingest(cruiseId: string, dir: string) {
   const files = readdirSync(dir).filter(STRETCH).sort();
   let req = tech.agent.post(`/api/cruises/${cruiseId}/uploads`).set('x-csrf-token', tech.csrf);
   for (const f of files) req = req.attach('files', join(dir, f));
   expect((await req).status).toBe(202);
-  await waitFor(async () => {
-    const list = (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as { status: string }[];
-    return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
-  }, 150_000, 500);
+  await waitFor(
+    async () => {
+      const list = (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as { status: string }[];
+      return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
+    },
+    150_000,
+    500,
+  );
 }
 
 beforeAll(async () => {
@@ -38,32 +45,72 @@ beforeAll(async () => {
   const u = await createUser('cmp-analyst@example.test');
   const b = await createUser('cmp-only-b@example.test');
   const te = await createUser('cmp-tech@example.test');
-  const mk = (name: string, start: string) => Cruise.create({ name, ship: 'RV Tessellate', startDate: start, endDate: start, portStart: null, portEnd: null, region: null, description: null, createdBy: u.id });
+  const mk = (name: string, start: string) =>
+    Cruise.create({
+      name,
+      ship: 'RV Tessellate',
+      startDate: start,
+      endDate: start,
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: u.id,
+    });
   const cA = await mk('TS-16-02 check', '2016-03-02');
   const cB = await mk('TS-26-04 check', '2026-03-01');
   ids.cruiseA = cA.id;
   ids.cruiseB = cB.id;
-  for (const c of [cA, cB]) { await addMember(u.id, c.id, 'analyst'); await addMember(te.id, c.id, 'technician'); }
+  for (const c of [cA, cB]) {
+    await addMember(u.id, c.id, 'analyst');
+    await addMember(te.id, c.id, 'technician');
+  }
   await addMember(b.id, cB.id, 'pi');
   analyst = await agentFor(t.app, u.email);
   onlyB = await agentFor(t.app, b.email);
   tech = await agentFor(t.app, te.email);
   await ingest(cA.id, join(process.cwd(), 'fixtures/demo-earlier/casts'));
   await ingest(cB.id, join(process.cwd(), 'fixtures/demo/casts'));
-  const lineOf = async (cruiseId: string) => ((await analyst.agent.get(`/api/cruises/${cruiseId}/lines`)).body as { id: string; isDefault: boolean }[]).find((l) => l.isDefault)!.id;
+  const lineOf = async (cruiseId: string) =>
+    ((await analyst.agent.get(`/api/cruises/${cruiseId}/lines`)).body as { id: string; isDefault: boolean }[]).find(
+      (l) => l.isDefault,
+    )!.id;
   ids.lineA = await lineOf(cA.id);
   ids.lineB = await lineOf(cB.id);
 }, 300_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
-const post = (who: typeof analyst, body: object) => who.agent.post('/api/comparisons').set('x-csrf-token', who.csrf).send(body);
+const post = (who: typeof analyst, body: object) =>
+  who.agent.post('/api/comparisons').set('x-csrf-token', who.csrf).send(body);
 
 describe('POST /api/comparisons', () => {
   it('answers the documented shape, ten years apart, with the planted heave in the north', async () => {
-    const res = await post(analyst, { lineA: ids.lineA, lineB: ids.lineB, property: 'CT', ref: 0, inversions: 'sort', pairDistanceKm: 20 });
+    const res = await post(analyst, {
+      lineA: ids.lineA,
+      lineB: ids.lineB,
+      property: 'CT',
+      ref: 0,
+      inversions: 'sort',
+      pairDistanceKm: 20,
+    });
     expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
     const c = res.body;
-    for (const k of ['choices', 'years', 'x', 'pairs', 'excluded', 'pressure', 'sigma', 'onPressure', 'onDensity', 'decomposition', 'means']) expect(c).toHaveProperty(k);
+    for (const k of [
+      'choices',
+      'years',
+      'x',
+      'pairs',
+      'excluded',
+      'pressure',
+      'sigma',
+      'onPressure',
+      'onDensity',
+      'decomposition',
+      'means',
+    ])
+      expect(c).toHaveProperty(k);
     expect(Object.keys(c.onPressure).sort()).toEqual(['A', 'B', 'diff']);
     expect(Object.keys(c.onDensity).sort()).toEqual(['A', 'B', 'diff', 'heave', 'pA', 'pB']);
     for (const k of ['waterMassTerm', 'heaveTerm', 'residual']) expect(c.decomposition).toHaveProperty(k);
@@ -74,16 +121,36 @@ describe('POST /api/comparisons', () => {
     expect(c.occupations.A.cruise).toBe('TS-16-02 check');
     expect(c.occupations.B.cruise).toBe('TS-26-04 check');
     // A has no CP-07 anyway; this stretch is CP-18…CP-31 without CP-29 in either
-    expect(c.pairs.map((p: { stationA: string }) => p.stationA)).toEqual(['CP-18', 'CP-19', 'CP-20', 'CP-21', 'CP-22', 'CP-23', 'CP-24', 'CP-25', 'CP-26', 'CP-27', 'CP-28', 'CP-30', 'CP-31']);
+    expect(c.pairs.map((p: { stationA: string }) => p.stationA)).toEqual([
+      'CP-18',
+      'CP-19',
+      'CP-20',
+      'CP-21',
+      'CP-22',
+      'CP-23',
+      'CP-24',
+      'CP-25',
+      'CP-26',
+      'CP-27',
+      'CP-28',
+      'CP-30',
+      'CP-31',
+    ]);
     expect(c.onPressure.diff).toHaveLength(c.pressure.length);
     expect(c.onPressure.diff[0]).toHaveLength(c.x.length);
     // the three terms add up to the change on pressure at every cell
     let cells = 0;
-    c.onPressure.diff.forEach((row: (number | null)[], i: number) => row.forEach((d, j) => {
-      if (d === null || c.decomposition.residual[i][j] === null) return;
-      cells++;
-      expect(Math.abs(c.decomposition.waterMassTerm[i][j] + c.decomposition.heaveTerm[i][j] + c.decomposition.residual[i][j] - d)).toBeLessThan(1e-9);
-    }));
+    c.onPressure.diff.forEach((row: (number | null)[], i: number) =>
+      row.forEach((d, j) => {
+        if (d === null || c.decomposition.residual[i][j] === null) return;
+        cells++;
+        expect(
+          Math.abs(
+            c.decomposition.waterMassTerm[i][j] + c.decomposition.heaveTerm[i][j] + c.decomposition.residual[i][j] - d,
+          ),
+        ).toBeLessThan(1e-9);
+      }),
+    );
     expect(cells).toBeGreaterThan(1000);
     // planted: +40 dbar at 450 dbar from CP-24 on (scripts/make-demo-earlier.ts)
     const j = c.pairs.findIndex((p: { stationA: string }) => p.stationA === 'CP-28');
@@ -133,20 +200,35 @@ describe('occupations of a line', () => {
     expect(found.why).toContain('same section identifier');
     expect(found.sectionId).toBe('CORROW');
     // a named line of A is not an occupation of B's default line until linked by hand
-    const made = await analyst.agent.post(`/api/cruises/${ids.cruiseA}/lines`).set('x-csrf-token', analyst.csrf).send({ name: 'Northern stretch', stations: ['CP-24', 'CP-25', 'CP-26'] });
+    const made = await analyst.agent
+      .post(`/api/cruises/${ids.cruiseA}/lines`)
+      .set('x-csrf-token', analyst.csrf)
+      .send({ name: 'Northern stretch', stations: ['CP-24', 'CP-25', 'CP-26'] });
     expect(made.status).toBe(201);
     const named = made.body.id as string;
-    const before = (await analyst.agent.get(`/api/lines/${ids.lineB}/occupations`)).body.occupations.map((o: { lineId: string }) => o.lineId);
+    const before = (await analyst.agent.get(`/api/lines/${ids.lineB}/occupations`)).body.occupations.map(
+      (o: { lineId: string }) => o.lineId,
+    );
     expect(before).not.toContain(named);
-    const link = await analyst.agent.post(`/api/lines/${ids.lineB}/occupations`).set('x-csrf-token', analyst.csrf).send({ line: named });
+    const link = await analyst.agent
+      .post(`/api/lines/${ids.lineB}/occupations`)
+      .set('x-csrf-token', analyst.csrf)
+      .send({ line: named });
     expect(link.status).toBe(201);
     expect(link.body.occupations.find((o: { lineId: string }) => o.lineId === named).why).toEqual(['linked by hand']);
-    const del = await analyst.agent.delete(`/api/lines/${ids.lineB}/occupations/${named}`).set('x-csrf-token', analyst.csrf);
+    const del = await analyst.agent
+      .delete(`/api/lines/${ids.lineB}/occupations/${named}`)
+      .set('x-csrf-token', analyst.csrf);
     expect(del.status).toBe(204);
-    const again = await analyst.agent.delete(`/api/lines/${ids.lineB}/occupations/${named}`).set('x-csrf-token', analyst.csrf);
+    const again = await analyst.agent
+      .delete(`/api/lines/${ids.lineB}/occupations/${named}`)
+      .set('x-csrf-token', analyst.csrf);
     expect(again.status).toBe(404);
     // linking a line of a cruise you do not belong to: 404
-    const outsider = await onlyB.agent.post(`/api/lines/${ids.lineB}/occupations`).set('x-csrf-token', onlyB.csrf).send({ line: named });
+    const outsider = await onlyB.agent
+      .post(`/api/lines/${ids.lineB}/occupations`)
+      .set('x-csrf-token', onlyB.csrf)
+      .send({ line: named });
     expect([403, 404]).toContain(outsider.status);
   });
 });
@@ -162,22 +244,32 @@ describe('exports', () => {
     expect(text).toMatch(/^# occupation_B: later: TS-26-04 check /m);
     expect(text).toMatch(/Bindoff & McDougall \(1994/);
     const header = text.split(/\r\n/).find((l) => !l.startsWith('#'))!;
-    expect(header).toBe('position_km,latitude,longitude,station_A,station_B,sigma0,pressure_A,pressure_B,heave,CT_A,CT_B,CT_diff');
+    expect(header).toBe(
+      'position_km,latitude,longitude,station_A,station_B,sigma0,pressure_A,pressure_B,heave,CT_A,CT_B,CT_diff',
+    );
   });
   it('NetCDF-CF reads back with the reference interpreter, grids and provenance intact', async () => {
-    const res = await analyst.agent.get(`/api/comparisons/export?${q()}&format=nc`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = []; r.on('data', (d: Buffer) => chunks.push(d)); r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await analyst.agent
+      .get(`/api/comparisons/export?${q()}&format=nc`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (d: Buffer) => chunks.push(d));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     const dir = mkdtempSync(join(tmpdir(), 'cmp-'));
     writeFileSync(join(dir, 'c.nc'), res.body as Buffer);
-    const info = runPythonJson<{ conv: string; a: string; b: string; heave: number[]; np: number; nx: number }>(`
+    const info = runPythonJson<{ conv: string; a: string; b: string; heave: number[]; np: number; nx: number }>(
+      `
 import sys, json, netCDF4, numpy as np
 d = netCDF4.Dataset(sys.argv[1])
 h = d.variables['heave'][:]
 print(json.dumps(dict(conv=d.Conventions, a=d.occupation_A, b=d.occupation_B, heave=[float(np.ma.max(h)), int(np.ma.count(h))],
   np=len(d.dimensions['pressure']), nx=len(d.dimensions['position']))))
-`, { args: [join(dir, 'c.nc')] });
+`,
+      { args: [join(dir, 'c.nc')] },
+    );
     expect(info.conv).toMatch(/^CF-/);
     expect(info.a).toContain('TS-16-02 check');
     expect(info.b).toContain('TS-26-04 check');

@@ -18,12 +18,24 @@ beforeAll(async () => {
   t = await makeTestApp();
   await startWorkers(t.deps, { concurrency: 2 });
   const u = await createUser('demo-tech@example.test');
-  const c = await Cruise.create({ name: 'Demo check', ship: 'RV Check', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: u.id });
+  const c = await Cruise.create({
+    name: 'Demo check',
+    ship: 'RV Check',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: u.id,
+  });
   cruiseId = c.id;
   await addMember(u.id, c.id, 'technician');
   tech = await agentFor(t.app, 'demo-tech@example.test');
 }, 120_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
 describe('demo cruise through the intake', () => {
   it('ingests all 40 casts and finds exactly the planted inversions', async () => {
@@ -32,16 +44,37 @@ describe('demo cruise through the intake', () => {
     for (const f of files) req = req.attach('files', join(dir, f));
     const res = await req;
     expect(res.status).toBe(202);
-    await waitFor(async () => {
-      const list = (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as { status: string }[];
-      return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
-    }, 150_000, 500);
-    const failed = ((await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as { status: string; filename: string; errors: unknown[] }[]).filter((u) => u.status === 'failed');
+    await waitFor(
+      async () => {
+        const list = (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as { status: string }[];
+        return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
+      },
+      150_000,
+      500,
+    );
+    const failed = (
+      (await tech.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as {
+        status: string;
+        filename: string;
+        errors: unknown[];
+      }[]
+    ).filter((u) => u.status === 'failed');
     expect(failed, JSON.stringify(failed)).toEqual([]);
-    const casts = (await tech.agent.get(`/api/cruises/${cruiseId}/casts`)).body as { id: string; station: string; inversions: number }[];
+    const casts = (await tech.agent.get(`/api/cruises/${cruiseId}/casts`)).body as {
+      id: string;
+      station: string;
+      inversions: number;
+    }[];
     expect(casts).toHaveLength(files.length);
-    const planted = (JSON.parse(readFileSync(join(process.cwd(), 'fixtures/demo/planted.json'), 'utf8')) as { planted: Planted[] }).planted;
-    expect(casts.filter((c) => c.inversions > 0).map((c) => c.station).sort()).toEqual(planted.map((p) => p.station).sort());
+    const planted = (
+      JSON.parse(readFileSync(join(process.cwd(), 'fixtures/demo/planted.json'), 'utf8')) as { planted: Planted[] }
+    ).planted;
+    expect(
+      casts
+        .filter((c) => c.inversions > 0)
+        .map((c) => c.station)
+        .sort(),
+    ).toEqual(planted.map((p) => p.station).sort());
     for (const pl of planted) {
       const cast = (await tech.agent.get(`/api/casts/${casts.find((c) => c.station === pl.station)!.id}`)).body;
       expect(cast.inversions, pl.station).toHaveLength(1);

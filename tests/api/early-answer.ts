@@ -9,7 +9,13 @@ import type { App } from '../../server/app';
 
 export type EarlyAnswer = { status: number; body: unknown; headers: http.IncomingHttpHeaders };
 
-export async function sendEarly(app: App, method: 'POST' | 'PUT', path: string, headers: Record<string, string>, body: Buffer): Promise<EarlyAnswer> {
+export async function sendEarly(
+  app: App,
+  method: 'POST' | 'PUT',
+  path: string,
+  headers: Record<string, string>,
+  body: Buffer,
+): Promise<EarlyAnswer> {
   const server = app.listen(0, '127.0.0.1');
   await new Promise<void>((r) => server.once('listening', () => r()));
   const { port } = server.address() as AddressInfo;
@@ -17,7 +23,13 @@ export async function sendEarly(app: App, method: 'POST' | 'PUT', path: string, 
     return await new Promise<EarlyAnswer>((resolve, reject) => {
       let answered = false;
       let writeError: Error | null = null;
-      const req = http.request({ host: '127.0.0.1', port, method, path, headers: { ...headers, 'content-length': String(body.length), connection: 'close' } });
+      const req = http.request({
+        host: '127.0.0.1',
+        port,
+        method,
+        path,
+        headers: { ...headers, 'content-length': String(body.length), connection: 'close' },
+      });
       req.on('response', (res) => {
         answered = true;
         const chunks: Buffer[] = [];
@@ -25,7 +37,11 @@ export async function sendEarly(app: App, method: 'POST' | 'PUT', path: string, 
         res.on('end', () => {
           const text = Buffer.concat(chunks).toString('utf8');
           let parsed: unknown = text;
-          try { parsed = JSON.parse(text); } catch { /* not JSON */ }
+          try {
+            parsed = JSON.parse(text);
+          } catch {
+            /* not JSON */
+          }
           resolve({ status: res.statusCode ?? 0, body: parsed, headers: res.headers });
         });
         res.on('error', () => undefined);
@@ -35,7 +51,9 @@ export async function sendEarly(app: App, method: 'POST' | 'PUT', path: string, 
         if (answered) return;
         if (err.code === 'EPIPE' || err.code === 'ECONNRESET') {
           writeError = err;
-          setTimeout(() => { if (!answered) reject(writeError); }, 3000);
+          setTimeout(() => {
+            if (!answered) reject(writeError);
+          }, 3000);
           return;
         }
         reject(err);
@@ -47,7 +65,10 @@ export async function sendEarly(app: App, method: 'POST' | 'PUT', path: string, 
         while (!answered && !writeError && at < body.length) {
           const more = req.write(body.subarray(at, at + slice));
           at += slice;
-          if (!more) { req.once('drain', pump); return; }
+          if (!more) {
+            req.once('drain', pump);
+            return;
+          }
         }
         if (!answered && !writeError) req.end();
       };

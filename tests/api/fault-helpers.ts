@@ -18,7 +18,10 @@ export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const s = createServer();
     s.on('error', reject);
-    s.listen(0, '127.0.0.1', () => { const p = (s.address() as AddressInfo).port; s.close(() => resolve(p)); });
+    s.listen(0, '127.0.0.1', () => {
+      const p = (s.address() as AddressInfo).port;
+      s.close(() => resolve(p));
+    });
   });
 }
 
@@ -28,10 +31,27 @@ export function freePort(): Promise<number> {
 /** A small deterministic pseudo-random generator, so every generated file is distinct but repeatable. */
 function rng(seed: number) {
   let s = (seed * 2654435761) >>> 0 || 1;
-  return () => { s ^= s << 13; s >>>= 0; s ^= s >>> 17; s ^= s << 5; s >>>= 0; return s / 4294967296; };
+  return () => {
+    s ^= s << 13;
+    s >>>= 0;
+    s ^= s >>> 17;
+    s ^= s << 5;
+    s >>>= 0;
+    return s / 4294967296;
+  };
 }
 
-export type CastSpec = { station: string; cast?: string; latitude?: number; longitude?: number; time?: string; bottomDepth?: number; maxP?: number; step?: number; seed?: number };
+export type CastSpec = {
+  station: string;
+  cast?: string;
+  latitude?: number;
+  longitude?: number;
+  time?: string;
+  bottomDepth?: number;
+  maxP?: number;
+  step?: number;
+  seed?: number;
+};
 
 /** A plain cast CSV as api.md describes: warm salty surface (~20 °C, ~35.5) cooling to ~2 °C and
  * freshening to ~34.7 at depth, stably stratified, with tiny station-specific noise. */
@@ -69,17 +89,24 @@ export async function zipBuffer(entries: { name: string; data: Buffer | string; 
       name = randomBytes(e.rawName.length).toString('hex').slice(0, e.rawName.length);
       patches.push([name, e.rawName]);
     }
-    zip.addBuffer(Buffer.isBuffer(e.data) ? e.data : Buffer.from(e.data), name, { mtime: new Date('2026-03-04T00:00:00Z') });
+    zip.addBuffer(Buffer.isBuffer(e.data) ? e.data : Buffer.from(e.data), name, {
+      mtime: new Date('2026-03-04T00:00:00Z'),
+    });
   });
   zip.end();
   const chunks: Buffer[] = [];
   for await (const c of zip.outputStream) chunks.push(c as Buffer);
   const buf = Buffer.concat(chunks);
   for (const [from, to] of patches) {
-    const a = Buffer.from(from), b = Buffer.from(to);
+    const a = Buffer.from(from),
+      b = Buffer.from(to);
     let at = buf.indexOf(a);
     let n = 0;
-    while (at >= 0) { b.copy(buf, at); n++; at = buf.indexOf(a, at + 1); }
+    while (at >= 0) {
+      b.copy(buf, at);
+      n++;
+      at = buf.indexOf(a, at + 1);
+    }
     if (n < 2) throw new Error(`zip name patch of ${from} found ${n} copies`);
   }
   return buf;
@@ -87,10 +114,18 @@ export async function zipBuffer(entries: { name: string; data: Buffer | string; 
 
 /** A multipart/form-data body with the files under one field, byte for byte as given (file names
  * are not touched, so `../` reaches the server as sent). */
-export function multipart(files: { filename: string; data: Buffer | string; contentType?: string }[], field = 'files', boundary = `----sigmaline${randomBytes(8).toString('hex')}`) {
+export function multipart(
+  files: { filename: string; data: Buffer | string; contentType?: string }[],
+  field = 'files',
+  boundary = `----sigmaline${randomBytes(8).toString('hex')}`,
+) {
   const parts: Buffer[] = [];
   for (const f of files) {
-    parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="${field}"; filename="${f.filename.replace(/"/g, '%22')}"\r\nContent-Type: ${f.contentType ?? 'text/csv'}\r\n\r\n`));
+    parts.push(
+      Buffer.from(
+        `--${boundary}\r\nContent-Disposition: form-data; name="${field}"; filename="${f.filename.replace(/"/g, '%22')}"\r\nContent-Type: ${f.contentType ?? 'text/csv'}\r\n\r\n`,
+      ),
+    );
     parts.push(Buffer.isBuffer(f.data) ? f.data : Buffer.from(f.data));
     parts.push(Buffer.from('\r\n'));
   }
@@ -105,25 +140,45 @@ export class Session {
   cookie: string | null = null;
   csrf: string | null = null;
   constructor(public base: string) {}
-  async req(method: string, path: string, opts: { json?: unknown; body?: Buffer; contentType?: string; headers?: Record<string, string>; base?: string } = {}) {
+  async req(
+    method: string,
+    path: string,
+    opts: { json?: unknown; body?: Buffer; contentType?: string; headers?: Record<string, string>; base?: string } = {},
+  ) {
     const headers: Record<string, string> = { ...(opts.headers ?? {}) };
     if (this.cookie) headers.cookie = this.cookie;
     if (this.csrf && method !== 'GET') headers['x-csrf-token'] = this.csrf;
     let body: Buffer | string | undefined;
-    if (opts.json !== undefined) { body = JSON.stringify(opts.json); headers['content-type'] = 'application/json'; }
-    if (opts.body) { body = opts.body; headers['content-type'] = opts.contentType ?? 'application/octet-stream'; }
-    const res = await fetch((opts.base ?? this.base) + path, { method, headers, body: body as BodyInit | undefined, signal: AbortSignal.timeout(30_000) });
+    if (opts.json !== undefined) {
+      body = JSON.stringify(opts.json);
+      headers['content-type'] = 'application/json';
+    }
+    if (opts.body) {
+      body = opts.body;
+      headers['content-type'] = opts.contentType ?? 'application/octet-stream';
+    }
+    const res = await fetch((opts.base ?? this.base) + path, {
+      method,
+      headers,
+      body: body as BodyInit | undefined,
+      signal: AbortSignal.timeout(30_000),
+    });
     const set = res.headers.getSetCookie().find((c) => c.startsWith('sigmaline.sid='));
     if (set) this.cookie = set.split(';')[0];
     const text = await res.text();
     let data: any = text; // eslint-disable-line @typescript-eslint/no-explicit-any
-    try { data = JSON.parse(text); } catch { /* not JSON */ }
+    try {
+      data = JSON.parse(text);
+    } catch {
+      /* not JSON */
+    }
     return { status: res.status, body: data, headers: res.headers };
   }
   async signIn(email: string, password: string) {
     this.csrf = (await this.req('GET', '/api/auth/csrf')).body.token;
     const r = await this.req('POST', '/api/auth/login', { json: { email, password } });
-    if (r.status !== 200) throw new Error(`sign-in of ${email} on ${this.base} failed: ${r.status} ${JSON.stringify(r.body)}`);
+    if (r.status !== 200)
+      throw new Error(`sign-in of ${email} on ${this.base} failed: ${r.status} ${JSON.stringify(r.body)}`);
     this.csrf = (await this.req('GET', '/api/auth/csrf')).body.token;
     return r;
   }
@@ -137,7 +192,15 @@ export class Session {
 // Child web and worker processes
 
 const children = new Set<ChildProcess>();
-process.on('exit', () => { for (const c of children) { try { c.kill('SIGKILL'); } catch { /* gone */ } } });
+process.on('exit', () => {
+  for (const c of children) {
+    try {
+      c.kill('SIGKILL');
+    } catch {
+      /* gone */
+    }
+  }
+});
 
 export type Child = {
   name: string;
@@ -154,7 +217,11 @@ export type Child = {
 
 /** Runs a server script under Node with the tsx loader in ONE process (no wrapper), so a signal
  * sent to `pid` reaches the process that does the work. */
-export function spawnChild(name: string, script: 'server/index.ts' | 'server/jobs/worker.ts', env: Record<string, string>): Child {
+export function spawnChild(
+  name: string,
+  script: 'server/index.ts' | 'server/jobs/worker.ts',
+  env: Record<string, string>,
+): Child {
   const proc = spawn(process.execPath, ['--import', 'tsx', join(ROOT, script)], {
     cwd: ROOT,
     env: { ...process.env, NODE_ENV: 'test', LOG_LEVEL: 'info', RUN_WORKER_IN_PROCESS: 'false', ...env },
@@ -162,13 +229,36 @@ export function spawnChild(name: string, script: 'server/index.ts' | 'server/job
   });
   children.add(proc);
   let out = '';
-  proc.stdout!.on('data', (d: Buffer) => { out += d.toString(); });
-  proc.stderr!.on('data', (d: Buffer) => { out += d.toString(); });
+  proc.stdout!.on('data', (d: Buffer) => {
+    out += d.toString();
+  });
+  proc.stderr!.on('data', (d: Buffer) => {
+    out += d.toString();
+  });
   let done = false;
-  const exited = new Promise<number | null>((resolve) => proc.on('exit', (code) => { done = true; children.delete(proc); resolve(code); }));
-  const logs = () => out.split('\n').filter((l) => l.startsWith('{')).map((l) => { try { return JSON.parse(l) as Record<string, unknown>; } catch { return {}; } });
+  const exited = new Promise<number | null>((resolve) =>
+    proc.on('exit', (code) => {
+      done = true;
+      children.delete(proc);
+      resolve(code);
+    }),
+  );
+  const logs = () =>
+    out
+      .split('\n')
+      .filter((l) => l.startsWith('{'))
+      .map((l) => {
+        try {
+          return JSON.parse(l) as Record<string, unknown>;
+        } catch {
+          return {};
+        }
+      });
   return {
-    name, proc, pid: proc.pid!, exited,
+    name,
+    proc,
+    pid: proc.pid!,
+    exited,
     output: () => out,
     logs,
     alive: () => !done,
@@ -183,7 +273,9 @@ export function spawnChild(name: string, script: 'server/index.ts' | 'server/job
     async stop(signal = 'SIGTERM') {
       if (done) return;
       proc.kill(signal);
-      const t = setTimeout(() => { if (!done) proc.kill('SIGKILL'); }, 8000);
+      const t = setTimeout(() => {
+        if (!done) proc.kill('SIGKILL');
+      }, 8000);
       await exited;
       clearTimeout(t);
     },
@@ -197,19 +289,41 @@ export async function waitHttp(url: string, timeoutMs = 60_000, child?: Child) {
     try {
       const r = await fetch(url, { signal: AbortSignal.timeout(2000) });
       if (r.status < 500) return;
-    } catch { /* not yet */ }
-    if (child && !child.alive()) throw new Error(`${child.name} exited while starting:\n${child.output().slice(-3000)}`);
-    if (Date.now() > end) throw new Error(`${url} did not come up within ${timeoutMs} ms${child ? `:\n${child.output().slice(-3000)}` : ''}`);
+    } catch {
+      /* not yet */
+    }
+    if (child && !child.alive())
+      throw new Error(`${child.name} exited while starting:\n${child.output().slice(-3000)}`);
+    if (Date.now() > end)
+      throw new Error(
+        `${url} did not come up within ${timeoutMs} ms${child ? `:\n${child.output().slice(-3000)}` : ''}`,
+      );
     await sleep(200);
   }
 }
 
 /** The environment a child web or worker process needs, from the test's settings. */
-export function serviceEnv(s: { DATABASE_URL: string; S3_ENDPOINT: string; S3_BUCKET: string; SMTP_URL: string; MAIL_CAPTURE_URL?: string; SESSION_SECRET: string }, extra: Record<string, string> = {}) {
+export function serviceEnv(
+  s: {
+    DATABASE_URL: string;
+    S3_ENDPOINT: string;
+    S3_BUCKET: string;
+    SMTP_URL: string;
+    MAIL_CAPTURE_URL?: string;
+    SESSION_SECRET: string;
+  },
+  extra: Record<string, string> = {},
+) {
   return {
-    DATABASE_URL: s.DATABASE_URL, S3_ENDPOINT: s.S3_ENDPOINT, S3_BUCKET: s.S3_BUCKET, SMTP_URL: s.SMTP_URL,
-    MAIL_CAPTURE_URL: s.MAIL_CAPTURE_URL ?? process.env.MAIL_CAPTURE_URL ?? 'http://127.0.0.1:25269', SESSION_SECRET: s.SESSION_SECRET,
-    JOB_EXPIRE_SECONDS: '10', QUEUE_MAINTENANCE_SECONDS: '1', ...extra,
+    DATABASE_URL: s.DATABASE_URL,
+    S3_ENDPOINT: s.S3_ENDPOINT,
+    S3_BUCKET: s.S3_BUCKET,
+    SMTP_URL: s.SMTP_URL,
+    MAIL_CAPTURE_URL: s.MAIL_CAPTURE_URL ?? process.env.MAIL_CAPTURE_URL ?? 'http://127.0.0.1:25269',
+    SESSION_SECRET: s.SESSION_SECRET,
+    JOB_EXPIRE_SECONDS: '10',
+    QUEUE_MAINTENANCE_SECONDS: '1',
+    ...extra,
   };
 }
 
@@ -221,16 +335,33 @@ export async function startOwnS3(bucket: string) {
   const dir = mkdtempSync(join(tmpdir(), 'sl-own-s3-'));
   let server: { run(): Promise<unknown>; close(): Promise<unknown> } | null = null;
   const start = async () => {
-    const s = new S3rver({ address: '127.0.0.1', port, silent: true, directory: dir, configureBuckets: [{ name: bucket, configs: [] }] });
+    const s = new S3rver({
+      address: '127.0.0.1',
+      port,
+      silent: true,
+      directory: dir,
+      configureBuckets: [{ name: bucket, configs: [] }],
+    });
     await s.run();
     server = s;
   };
   await start();
   return {
-    port, dir, endpoint: `http://127.0.0.1:${port}`,
+    port,
+    dir,
+    endpoint: `http://127.0.0.1:${port}`,
     start,
-    async stop() { if (server) { const s = server; server = null; await s.close(); } },
-    async destroy() { await this.stop(); rmSync(dir, { recursive: true, force: true }); },
+    async stop() {
+      if (server) {
+        const s = server;
+        server = null;
+        await s.close();
+      }
+    },
+    async destroy() {
+      await this.stop();
+      rmSync(dir, { recursive: true, force: true });
+    },
   };
 }
 
@@ -240,7 +371,11 @@ export async function startOwnS3(bucket: string) {
 const PG_BIN = process.env.PG_BIN ?? '/usr/lib/postgresql/15/bin';
 const asPg = (cmd: string, args: string[]) => {
   const root = process.getuid?.() === 0;
-  return execFileSync(root ? 'runuser' : join(PG_BIN, cmd), root ? ['-u', 'postgres', '--', join(PG_BIN, cmd), ...args] : args, { stdio: ['ignore', 'pipe', 'pipe'], timeout: 90_000 }).toString();
+  return execFileSync(
+    root ? 'runuser' : join(PG_BIN, cmd),
+    root ? ['-u', 'postgres', '--', join(PG_BIN, cmd), ...args] : args,
+    { stdio: ['ignore', 'pipe', 'pipe'], timeout: 90_000 },
+  ).toString();
 };
 export const runAsPostgres = asPg;
 
@@ -252,21 +387,39 @@ export async function startOwnPostgres() {
   if (process.getuid?.() === 0) {
     const uid = Number(execFileSync('id', ['-u', 'postgres']).toString().trim());
     const gid = Number(execFileSync('id', ['-g', 'postgres']).toString().trim());
-    chownSync(dir, uid, gid); chownSync(data, uid, gid);
+    chownSync(dir, uid, gid);
+    chownSync(data, uid, gid);
   }
   chmodSync(data, 0o700);
   asPg('initdb', ['-D', data, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8', '--no-sync']);
   const opts = `-p ${port} -c listen_addresses=127.0.0.1 -k ${dir} -c fsync=off -c max_connections=100`;
-  const start = () => { asPg('pg_ctl', ['-D', data, '-w', '-t', '60', '-l', join(dir, 'server.log'), '-o', opts, 'start']); };
-  const stop = (mode: 'fast' | 'immediate' = 'fast') => { asPg('pg_ctl', ['-D', data, '-m', mode, '-w', 'stop']); };
+  const start = () => {
+    asPg('pg_ctl', ['-D', data, '-w', '-t', '60', '-l', join(dir, 'server.log'), '-o', opts, 'start']);
+  };
+  const stop = (mode: 'fast' | 'immediate' = 'fast') => {
+    asPg('pg_ctl', ['-D', data, '-m', mode, '-w', 'stop']);
+  };
   start();
   return {
-    port, dir,
+    port,
+    dir,
     url: (db: string) => `postgres://postgres@127.0.0.1:${port}/${db}`,
-    start, stop,
-    running: () => { try { asPg('pg_ctl', ['-D', data, 'status']); return true; } catch { return false; } },
+    start,
+    stop,
+    running: () => {
+      try {
+        asPg('pg_ctl', ['-D', data, 'status']);
+        return true;
+      } catch {
+        return false;
+      }
+    },
     destroy() {
-      try { stop('immediate'); } catch { /* already down */ }
+      try {
+        stop('immediate');
+      } catch {
+        /* already down */
+      }
       rmSync(dir, { recursive: true, force: true });
     },
   };
@@ -274,8 +427,14 @@ export async function startOwnPostgres() {
 
 /** A raw 24 Hz descent: 1 dbar/s with ship heave (±1.5 dbar, 8 s period), so pressure reverses. */
 export function rawCastCsv(k: number, scans = 100_000): string {
-  const lines = [`# station: RAW${k + 1}`, '# cast: 1', `# latitude: ${(-42 - k * 0.1).toFixed(4)}`, `# longitude: ${(-25 + k * 0.1).toFixed(4)}`,
-    '# time: 2026-04-02T03:00:00Z', 'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]'];
+  const lines = [
+    `# station: RAW${k + 1}`,
+    '# cast: 1',
+    `# latitude: ${(-42 - k * 0.1).toFixed(4)}`,
+    `# longitude: ${(-25 + k * 0.1).toFixed(4)}`,
+    '# time: 2026-04-02T03:00:00Z',
+    'pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]',
+  ];
   for (let i = 0; i < scans; i++) {
     const s = i / 24;
     const p = 3 + s + 1.5 * Math.sin((2 * Math.PI * s) / 8);

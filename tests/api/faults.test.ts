@@ -14,7 +14,20 @@ import { createApp } from '../../server/app';
 import { createStorage } from '../../server/services/storage';
 import { startWorkers } from '../../server/jobs/worker';
 import { hashPassword } from '../../server/auth/passwords';
-import { castCsv, freePort, multipart, serviceEnv, sleep, spawnChild, startOwnPostgres, startOwnS3, waitHttp, zipBuffer, Session, type Child } from './fault-helpers';
+import {
+  castCsv,
+  freePort,
+  multipart,
+  serviceEnv,
+  sleep,
+  spawnChild,
+  startOwnPostgres,
+  startOwnS3,
+  waitHttp,
+  zipBuffer,
+  Session,
+  type Child,
+} from './fault-helpers';
 
 let t: TestApp;
 let db: pg.Client;
@@ -29,7 +42,17 @@ beforeAll(async () => {
   process.env.QUEUE_MAINTENANCE_SECONDS = '1';
   t = await makeTestApp();
   const chief = await createUser('f-chief@example.test');
-  const c = await Cruise.create({ name: 'Faults', ship: 'RV Fault', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
+  const c = await Cruise.create({
+    name: 'Faults',
+    ship: 'RV Fault',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: chief.id,
+  });
   cruiseId = c.id;
   await addMember(chief.id, c.id, 'chief_scientist');
   const tech = await createUser('f-tech@example.test');
@@ -46,9 +69,16 @@ afterAll(async () => {
   await t?.close();
 }, 60_000);
 
-const uploadState = async (id: string) => (await db.query<{ status: string; progress: number }>('SELECT status, progress FROM uploads WHERE id = $1', [id])).rows[0];
-const jobsOf = async (uploadId: string) => (await db.query<{ state: string; retry_count: number }>(
-  "SELECT state, retry_count FROM pgboss.job WHERE name = 'ingest-upload' AND data->>'uploadId' = $1 UNION ALL SELECT state, retry_count FROM pgboss.archive WHERE name = 'ingest-upload' AND data->>'uploadId' = $1", [uploadId])).rows;
+const uploadState = async (id: string) =>
+  (await db.query<{ status: string; progress: number }>('SELECT status, progress FROM uploads WHERE id = $1', [id]))
+    .rows[0];
+const jobsOf = async (uploadId: string) =>
+  (
+    await db.query<{ state: string; retry_count: number }>(
+      "SELECT state, retry_count FROM pgboss.job WHERE name = 'ingest-upload' AND data->>'uploadId' = $1 UNION ALL SELECT state, retry_count FROM pgboss.archive WHERE name = 'ingest-upload' AND data->>'uploadId' = $1",
+      [uploadId],
+    )
+  ).rows;
 
 describe('(a) a worker killed with SIGKILL mid-ingest', () => {
   it('the job is retried by another worker and every cast of the upload is stored exactly once', async () => {
@@ -59,10 +89,25 @@ describe('(a) a worker killed with SIGKILL mid-ingest', () => {
     await a.waitForLog(/ingest.*workers? started/, 90_000);
 
     // a zip of many deep casts, so the ingest takes long enough to be caught in flight
-    const zip = await zipBuffer(Array.from({ length: M }, (_, i) => ({ name: `deep/k${String(i).padStart(2, '0')}.csv`,
-      data: castCsv({ station: `K${i}`, latitude: -30 - i * 0.2, longitude: -10 - i * 0.1, time: new Date(Date.UTC(2026, 2, 6, i)).toISOString(), maxP: 4000, step: 1, seed: 500 + i }) })));
+    const zip = await zipBuffer(
+      Array.from({ length: M }, (_, i) => ({
+        name: `deep/k${String(i).padStart(2, '0')}.csv`,
+        data: castCsv({
+          station: `K${i}`,
+          latitude: -30 - i * 0.2,
+          longitude: -10 - i * 0.1,
+          time: new Date(Date.UTC(2026, 2, 6, i)).toISOString(),
+          maxP: 4000,
+          step: 1,
+          seed: 500 + i,
+        }),
+      })),
+    );
     const tech = await agentFor(t.app, 'f-tech@example.test');
-    const res = await tech.agent.post(`/api/cruises/${cruiseId}/uploads`).set('x-csrf-token', tech.csrf).attach('files', zip, 'deep-section.zip');
+    const res = await tech.agent
+      .post(`/api/cruises/${cruiseId}/uploads`)
+      .set('x-csrf-token', tech.csrf)
+      .attach('files', zip, 'deep-section.zip');
     expect(res.status, JSON.stringify(res.body)).toBe(202);
     const uploadId = res.body.uploads[0].id as string;
 
@@ -70,7 +115,8 @@ describe('(a) a worker killed with SIGKILL mid-ingest', () => {
     const end = Date.now() + 60_000;
     let st = await uploadState(uploadId);
     while (!(st.status === 'processing' && st.progress >= 0.3)) {
-      if (Date.now() > end) throw new Error(`worker A never started the job: ${JSON.stringify(st)}\n${a.output().slice(-2000)}`);
+      if (Date.now() > end)
+        throw new Error(`worker A never started the job: ${JSON.stringify(st)}\n${a.output().slice(-2000)}`);
       await sleep(20);
       st = await uploadState(uploadId);
     }
@@ -78,7 +124,9 @@ describe('(a) a worker killed with SIGKILL mid-ingest', () => {
     await a.exited;
     const atKill = await uploadState(uploadId);
     const castsAtKill = await Cast.count({ where: { uploadId } });
-    console.log(`[faults] worker A (pid ${a.pid}) killed with the upload ${atKill.status} at progress ${atKill.progress}; casts stored at that moment: ${castsAtKill}`);
+    console.log(
+      `[faults] worker A (pid ${a.pid}) killed with the upload ${atKill.status} at progress ${atKill.progress}; casts stored at that moment: ${castsAtKill}`,
+    );
     expect(atKill.status).toBe('processing');
     expect(castsAtKill).toBe(0); // killed in flight: the all-or-nothing transaction had not committed
     expect(a.output()).not.toMatch(/upload ingested/);
@@ -91,18 +139,27 @@ describe('(a) a worker killed with SIGKILL mid-ingest', () => {
     const t0 = Date.now();
     const end2 = Date.now() + 90_000;
     for (st = await uploadState(uploadId); st.status !== 'ready'; st = await uploadState(uploadId)) {
-      if (st.status === 'failed' || Date.now() > end2) throw new Error(`upload ended ${JSON.stringify(st)}\n${b.output().slice(-3000)}`);
+      if (st.status === 'failed' || Date.now() > end2)
+        throw new Error(`upload ended ${JSON.stringify(st)}\n${b.output().slice(-3000)}`);
       await sleep(200);
     }
-    console.log(`[faults] worker B (pid ${b.pid}) finished the retried job ${((Date.now() - t0) / 1000).toFixed(1)} s after it started`);
-    const casts = await db.query<{ station: string; source_file: string }>('SELECT station, source_file FROM casts WHERE upload_id = $1', [uploadId]);
+    console.log(
+      `[faults] worker B (pid ${b.pid}) finished the retried job ${((Date.now() - t0) / 1000).toFixed(1)} s after it started`,
+    );
+    const casts = await db.query<{ station: string; source_file: string }>(
+      'SELECT station, source_file FROM casts WHERE upload_id = $1',
+      [uploadId],
+    );
     expect(casts.rows).toHaveLength(M);
     expect(new Set(casts.rows.map((r) => r.source_file)).size).toBe(M);
     expect(new Set(casts.rows.map((r) => r.station)).size).toBe(M);
     const up = await Upload.findByPk(uploadId);
     expect(up!.castIds).toHaveLength(M);
     expect(new Set(up!.castIds).size).toBe(M);
-    const colsPerCast = await db.query<{ n: string }>('SELECT count(*) AS n FROM cast_columns c JOIN casts k ON k.id = c.cast_id WHERE k.upload_id = $1 GROUP BY c.cast_id', [uploadId]);
+    const colsPerCast = await db.query<{ n: string }>(
+      'SELECT count(*) AS n FROM cast_columns c JOIN casts k ON k.id = c.cast_id WHERE k.upload_id = $1 GROUP BY c.cast_id',
+      [uploadId],
+    );
     expect(colsPerCast.rows).toHaveLength(M);
     expect(new Set(colsPerCast.rows.map((r) => r.n)).size).toBe(1); // every cast has the same full set of columns
     const jobs = await jobsOf(uploadId);
@@ -126,7 +183,11 @@ describe('(b) PostgreSQL stopped and started under a running web process', () =>
     await admin.end();
     const dbUrl = pgc.url('sl_fault_restart');
     const port = await freePort();
-    const web = spawnChild('web-pg', 'server/index.ts', serviceEnv({ ...t.settings, DATABASE_URL: dbUrl }, { PORT: String(port) }));
+    const web = spawnChild(
+      'web-pg',
+      'server/index.ts',
+      serviceEnv({ ...t.settings, DATABASE_URL: dbUrl }, { PORT: String(port) }),
+    );
     children.push(web);
     const base = `http://127.0.0.1:${port}`;
     await waitHttp(`${base}/api/health`, 90_000, web);
@@ -134,9 +195,18 @@ describe('(b) PostgreSQL stopped and started under a running web process', () =>
     // an account, a cruise and a membership, written straight into the private database
     const c = new pg.Client({ connectionString: dbUrl });
     await c.connect();
-    const u = await c.query<{ id: string }>("INSERT INTO users (id, email, name, password_hash, is_admin, created_at, updated_at) VALUES (gen_random_uuid(), 'pg-reader@example.test', 'Reader', $1, false, now(), now()) RETURNING id", [await hashPassword(PASSWORD)]);
-    const cr = await c.query<{ id: string }>("INSERT INTO cruises (id, name, ship, start_date, end_date, locked, settings, created_by, created_at, updated_at) VALUES (gen_random_uuid(), 'Restart', 'RV Restart', '2026-03-01', '2026-03-20', false, '{}', $1, now(), now()) RETURNING id", [u.rows[0].id]);
-    await c.query("INSERT INTO memberships (id, user_id, cruise_id, role, created_at, updated_at) VALUES (gen_random_uuid(), $1, $2, 'analyst', now(), now())", [u.rows[0].id, cr.rows[0].id]);
+    const u = await c.query<{ id: string }>(
+      "INSERT INTO users (id, email, name, password_hash, is_admin, created_at, updated_at) VALUES (gen_random_uuid(), 'pg-reader@example.test', 'Reader', $1, false, now(), now()) RETURNING id",
+      [await hashPassword(PASSWORD)],
+    );
+    const cr = await c.query<{ id: string }>(
+      "INSERT INTO cruises (id, name, ship, start_date, end_date, locked, settings, created_by, created_at, updated_at) VALUES (gen_random_uuid(), 'Restart', 'RV Restart', '2026-03-01', '2026-03-20', false, '{}', $1, now(), now()) RETURNING id",
+      [u.rows[0].id],
+    );
+    await c.query(
+      "INSERT INTO memberships (id, user_id, cruise_id, role, created_at, updated_at) VALUES (gen_random_uuid(), $1, $2, 'analyst', now(), now())",
+      [u.rows[0].id, cr.rows[0].id],
+    );
     await c.end();
     const id = cr.rows[0].id;
 
@@ -149,7 +219,11 @@ describe('(b) PostgreSQL stopped and started under a running web process', () =>
     let reading = true;
     const reader = (async () => {
       while (reading) {
-        try { seen.push({ at: Date.now(), status: (await s.req('GET', `/api/cruises/${id}`)).status }); } catch { seen.push({ at: Date.now(), status: 'no answer' }); }
+        try {
+          seen.push({ at: Date.now(), status: (await s.req('GET', `/api/cruises/${id}`)).status });
+        } catch {
+          seen.push({ at: Date.now(), status: 'no answer' });
+        }
         await sleep(50);
       }
     })();
@@ -158,13 +232,15 @@ describe('(b) PostgreSQL stopped and started under a running web process', () =>
     pgc.stop('fast');
     const downAt = Date.now();
     const health = await fetch(`${base}/api/health`);
-    const hb = await health.json() as { status: string; db: string; error: { code: string; message: string } };
+    const hb = (await health.json()) as { status: string; db: string; error: { code: string; message: string } };
     console.log(`[faults] with PostgreSQL down /api/health answered ${health.status} ${JSON.stringify(hb)}`);
     expect(health.status).toBe(503);
     expect(hb.db).toBe('down');
     expect(hb.error.message).toMatch(/\bdb\b/);
     const read = await s.req('GET', `/api/cruises/${id}`);
-    console.log(`[faults] with PostgreSQL down GET /api/cruises/:id answered ${read.status} ${JSON.stringify(read.body)}`);
+    console.log(
+      `[faults] with PostgreSQL down GET /api/cruises/:id answered ${read.status} ${JSON.stringify(read.body)}`,
+    );
     expect(read.status).toBe(503);
     expect(read.body.error.code).toBe('db_unavailable');
     expect(read.body.error.message).toMatch(/database is not reachable/);
@@ -182,7 +258,8 @@ describe('(b) PostgreSQL stopped and started under a running web process', () =>
     const end = Date.now() + 30_000;
     let back = await s.req('GET', `/api/cruises/${id}`);
     while (back.status !== 200) {
-      if (Date.now() > end) throw new Error(`no recovery 30 s after restart: ${back.status} ${JSON.stringify(back.body)}`);
+      if (Date.now() > end)
+        throw new Error(`no recovery 30 s after restart: ${back.status} ${JSON.stringify(back.body)}`);
       await sleep(200);
       back = await s.req('GET', `/api/cruises/${id}`);
     }
@@ -196,7 +273,9 @@ describe('(b) PostgreSQL stopped and started under a running web process', () =>
     expect(h2).toBe(200);
     const during = seen.filter((x) => x.at > downAt && x.at < upAt);
     const after = seen.filter((x) => x.at > recovered);
-    console.log(`[faults] PostgreSQL down ${((upAt - downAt) / 1000).toFixed(1)} s; reads while down: ${during.length} (statuses ${[...new Set(during.map((x) => x.status))].join(', ')}); back to 200 ${((recovered - upAt) / 1000).toFixed(1)} s after restart`);
+    console.log(
+      `[faults] PostgreSQL down ${((upAt - downAt) / 1000).toFixed(1)} s; reads while down: ${during.length} (statuses ${[...new Set(during.map((x) => x.status))].join(', ')}); back to 200 ${((recovered - upAt) / 1000).toFixed(1)} s after restart`,
+    );
     expect(seen.some((x) => x.status === 'no answer')).toBe(false); // the process always answered
     expect(during.length).toBeGreaterThan(0);
     expect(during.every((x) => x.status === 503)).toBe(true);
@@ -220,12 +299,23 @@ describe('(c) the S3 fake stopped while an upload is on the wire', () => {
     const bucket = 'fault-outage';
     const s3 = await startOwnS3(bucket);
     cleanups.push(() => s3.destroy());
-    const storage = createStorage({ endpoint: s3.endpoint, bucket, region: t.settings.S3_REGION, accessKeyId: t.settings.S3_ACCESS_KEY_ID, secretAccessKey: t.settings.S3_SECRET_ACCESS_KEY });
+    const storage = createStorage({
+      endpoint: s3.endpoint,
+      bucket,
+      region: t.settings.S3_REGION,
+      accessKeyId: t.settings.S3_ACCESS_KEY_ID,
+      secretAccessKey: t.settings.S3_SECRET_ACCESS_KEY,
+    });
     const deps = { ...t.deps, storage };
     const app = createApp(deps, { staticDir: '/nonexistent' });
     const port = await freePort();
-    const server: Server = await new Promise((resolve) => { const sv = app.listen(port, '127.0.0.1', () => resolve(sv)); });
-    cleanups.push(async () => { await new Promise((r) => server.close(r)); await app.close(); });
+    const server: Server = await new Promise((resolve) => {
+      const sv = app.listen(port, '127.0.0.1', () => resolve(sv));
+    });
+    cleanups.push(async () => {
+      await new Promise((r) => server.close(r));
+      await app.close();
+    });
     await startWorkers(deps, { concurrency: 1 });
     const base = `http://127.0.0.1:${port}`;
     const s = new Session(base);
@@ -238,17 +328,37 @@ describe('(c) the S3 fake stopped while an upload is on the wire', () => {
     const csv = castCsv({ station: 'S3-OUT', latitude: -33, longitude: -18, maxP: 3000, step: 1, seed: 77 });
     const m = multipart([{ filename: 'outage.csv', data: csv }]);
     // send half the body, stop S3, then send the rest
-    const res = await new Promise<{ status: number; body: { error: { code: string; message: string } } }>((resolve, reject) => {
-      const req = http.request(`${base}/api/cruises/${cruiseId}/uploads`, { method: 'POST', headers: { 'content-type': m.contentType, 'content-length': String(m.body.length), cookie: s.cookie!, 'x-csrf-token': s.csrf! } }, (r) => {
-        let text = '';
-        r.on('data', (d) => { text += d; });
-        r.on('end', () => resolve({ status: r.statusCode!, body: JSON.parse(text) }));
-      });
-      req.on('error', reject);
-      const half = Math.floor(m.body.length / 2);
-      req.write(m.body.subarray(0, half));
-      sleep(200).then(() => s3.stop()).then(() => { req.end(m.body.subarray(half)); }, reject);
-    });
+    const res = await new Promise<{ status: number; body: { error: { code: string; message: string } } }>(
+      (resolve, reject) => {
+        const req = http.request(
+          `${base}/api/cruises/${cruiseId}/uploads`,
+          {
+            method: 'POST',
+            headers: {
+              'content-type': m.contentType,
+              'content-length': String(m.body.length),
+              cookie: s.cookie!,
+              'x-csrf-token': s.csrf!,
+            },
+          },
+          (r) => {
+            let text = '';
+            r.on('data', (d) => {
+              text += d;
+            });
+            r.on('end', () => resolve({ status: r.statusCode!, body: JSON.parse(text) }));
+          },
+        );
+        req.on('error', reject);
+        const half = Math.floor(m.body.length / 2);
+        req.write(m.body.subarray(0, half));
+        sleep(200)
+          .then(() => s3.stop())
+          .then(() => {
+            req.end(m.body.subarray(half));
+          }, reject);
+      },
+    );
     console.log(`[faults] upload with S3 stopped mid-request answered ${res.status} ${JSON.stringify(res.body)}`);
     expect(res.status).toBe(503);
     expect(res.body.error.code).toBe('storage_unavailable');
@@ -272,7 +382,8 @@ describe('(c) the S3 fake stopped while an upload is on the wire', () => {
     const end = Date.now() + 60_000;
     let st = await uploadState(id);
     while (st.status !== 'ready') {
-      if (st.status === 'failed' || Date.now() > end) throw new Error(`upload after S3 came back ended ${JSON.stringify(st)}`);
+      if (st.status === 'failed' || Date.now() > end)
+        throw new Error(`upload after S3 came back ended ${JSON.stringify(st)}`);
       await sleep(200);
       st = await uploadState(id);
     }

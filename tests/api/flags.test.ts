@@ -16,7 +16,17 @@ beforeAll(async () => {
   t = await makeTestApp();
   await startWorkers(t.deps, { concurrency: 1 });
   const chief = await createUser('f-chief@example.test');
-  const c = await Cruise.create({ name: 'Flags', ship: 'RV Flags', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
+  const c = await Cruise.create({
+    name: 'Flags',
+    ship: 'RV Flags',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: chief.id,
+  });
   cruiseId = c.id;
   await addMember(chief.id, c.id, 'chief_scientist');
   for (const role of ['technician', 'analyst'] as const) {
@@ -25,24 +35,57 @@ beforeAll(async () => {
     who[role] = await agentFor(t.app, u.email);
   }
   // a cast with one planted single-scan spike (invented demo file; a behaviour check)
-  const res = await who.technician.agent.post(`/api/cruises/${cruiseId}/uploads`).set('x-csrf-token', who.technician.csrf).attach('files', join(process.cwd(), 'fixtures/demo/casts/CP-03.csv'));
-  const done = await waitFor(async () => { const r = await who.technician.agent.get(`/api/uploads/${res.body.uploads[0].id}`); return r.body.status === 'ready' ? r.body : null; }, 60_000);
+  const res = await who.technician.agent
+    .post(`/api/cruises/${cruiseId}/uploads`)
+    .set('x-csrf-token', who.technician.csrf)
+    .attach('files', join(process.cwd(), 'fixtures/demo/casts/CP-03.csv'));
+  const done = await waitFor(async () => {
+    const r = await who.technician.agent.get(`/api/uploads/${res.body.uploads[0].id}`);
+    return r.body.status === 'ready' ? r.body : null;
+  }, 60_000);
   castId = done.castIds[0];
 }, 120_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
 describe('quality flags', () => {
   it('an analyst may not set flags (403) and a bad range is refused (400)', async () => {
-    expect((await who.analyst.agent.post(`/api/casts/${castId}/flags`).set('x-csrf-token', who.analyst.csrf).send({ variable: 'salinity', pFrom: 1200, pTo: 1206, flag: 4 })).status).toBe(403);
-    expect((await who.technician.agent.post(`/api/casts/${castId}/flags`).set('x-csrf-token', who.technician.csrf).send({ variable: 'salinity', pFrom: 1206, pTo: 1200, flag: 4 })).status).toBe(400);
-    expect((await who.technician.agent.post(`/api/casts/${castId}/flags`).set('x-csrf-token', who.technician.csrf).send({ variable: 'salinity', pFrom: 1200, pTo: 1206, flag: 7 })).status).toBe(400);
+    expect(
+      (
+        await who.analyst.agent
+          .post(`/api/casts/${castId}/flags`)
+          .set('x-csrf-token', who.analyst.csrf)
+          .send({ variable: 'salinity', pFrom: 1200, pTo: 1206, flag: 4 })
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await who.technician.agent
+          .post(`/api/casts/${castId}/flags`)
+          .set('x-csrf-token', who.technician.csrf)
+          .send({ variable: 'salinity', pFrom: 1206, pTo: 1200, flag: 4 })
+      ).status,
+    ).toBe(400);
+    expect(
+      (
+        await who.technician.agent
+          .post(`/api/casts/${castId}/flags`)
+          .set('x-csrf-token', who.technician.csrf)
+          .send({ variable: 'salinity', pFrom: 1200, pTo: 1206, flag: 7 })
+      ).status,
+    ).toBe(400);
   });
   it('flagging the spike bad removes its warning, is audited, and changes the section', async () => {
     const before = (await who.analyst.agent.get(`/api/casts/${castId}`)).body;
     expect(before.inversions).toHaveLength(1);
     const pSpike = before.inversions[0].pBottom;
-    const sectionBefore = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'SA', bin: 2 })).body;
-    const res = await who.technician.agent.post(`/api/casts/${castId}/flags`).set('x-csrf-token', who.technician.csrf)
+    const sectionBefore = (
+      await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'SA', bin: 2 })
+    ).body;
+    const res = await who.technician.agent
+      .post(`/api/casts/${castId}/flags`)
+      .set('x-csrf-token', who.technician.csrf)
       .send({ variable: 'salinity', pFrom: pSpike, pTo: pSpike, flag: 4, reason: 'conductivity cell spike' });
     expect(res.status).toBe(200);
     expect(res.body.levels).toBe(1);
@@ -53,7 +96,9 @@ describe('quality flags', () => {
     expect(after.flags.salinity[i - 1]).toBe(2);
     const list = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body;
     expect(list[0].inversions).toBe(0);
-    const sectionAfter = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'SA', bin: 2 })).body;
+    const sectionAfter = (
+      await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'SA', bin: 2 })
+    ).body;
     const iy = sectionBefore.grid.y.indexOf(pSpike);
     expect(sectionBefore.grid.z[iy][0]).toBeCloseTo(before.columns.SA[i], 12);
     expect(sectionAfter.grid.z[iy]?.[0] ?? null).not.toBe(sectionBefore.grid.z[iy][0]); // the bad level is no longer used
@@ -64,12 +109,20 @@ describe('quality flags', () => {
   });
   it('re-running processing keeps the cast id and the flags a technician set', async () => {
     const cast = (await who.analyst.agent.get(`/api/casts/${castId}`)).body;
-    const res = await who.technician.agent.post(`/api/uploads/${cast.uploadId}/reprocess`).set('x-csrf-token', who.technician.csrf);
+    const res = await who.technician.agent
+      .post(`/api/uploads/${cast.uploadId}/reprocess`)
+      .set('x-csrf-token', who.technician.csrf);
     expect(res.status).toBe(202);
-    await waitFor(async () => { const r = await who.technician.agent.get(`/api/uploads/${cast.uploadId}`); return r.body.status === 'ready' ? r.body : null; }, 60_000);
+    await waitFor(async () => {
+      const r = await who.technician.agent.get(`/api/uploads/${cast.uploadId}`);
+      return r.body.status === 'ready' ? r.body : null;
+    }, 60_000);
     const again = (await who.analyst.agent.get(`/api/casts/${castId}`)).body;
     expect(again.flags.salinity).toEqual(cast.flags.salinity);
     expect(again.inversions).toEqual([]);
-    expect((await who.analyst.agent.post(`/api/uploads/${cast.uploadId}/reprocess`).set('x-csrf-token', who.analyst.csrf)).status).toBe(403);
+    expect(
+      (await who.analyst.agent.post(`/api/uploads/${cast.uploadId}/reprocess`).set('x-csrf-token', who.analyst.csrf))
+        .status,
+    ).toBe(403);
   });
 });

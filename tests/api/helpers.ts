@@ -35,16 +35,31 @@ export async function dropDatabase(url: string) {
   await client.end();
 }
 
-export type TestApp = { app: App; deps: AppDeps & { close(): Promise<void> }; settings: Settings; databaseUrl: string; close(): Promise<void> };
+export type TestApp = {
+  app: App;
+  deps: AppDeps & { close(): Promise<void> };
+  settings: Settings;
+  databaseUrl: string;
+  close(): Promise<void>;
+};
 
 export async function makeTestApp(env: Record<string, string> = {}): Promise<TestApp> {
   const databaseUrl = await createDatabase();
-  const settings = loadSettings({ ...process.env, NODE_ENV: 'test', DATABASE_URL: databaseUrl, S3_BUCKET: `t-${randomBytes(4).toString('hex')}`, ...env });
+  const settings = loadSettings({
+    ...process.env,
+    NODE_ENV: 'test',
+    DATABASE_URL: databaseUrl,
+    S3_BUCKET: `t-${randomBytes(4).toString('hex')}`,
+    ...env,
+  });
   // small pools: many test files run at once against one PostgreSQL
   const deps = await connectServices(settings, { poolMax: env.DB_POOL_MAX ? Number(env.DB_POOL_MAX) : 5 });
   const app = createApp(deps, { staticDir: '/nonexistent' });
   return {
-    app, deps, settings, databaseUrl,
+    app,
+    deps,
+    settings,
+    databaseUrl,
     async close() {
       await app.close();
       await deps.close();
@@ -56,7 +71,12 @@ export async function makeTestApp(env: Record<string, string> = {}): Promise<Tes
 export const PASSWORD = 'correct-horse-42';
 
 export async function createUser(email: string, opts: { name?: string; isAdmin?: boolean; password?: string } = {}) {
-  return User.create({ email, name: opts.name ?? email.split('@')[0], passwordHash: await hashPassword(opts.password ?? PASSWORD), isAdmin: opts.isAdmin ?? false });
+  return User.create({
+    email,
+    name: opts.name ?? email.split('@')[0],
+    passwordHash: await hashPassword(opts.password ?? PASSWORD),
+    isAdmin: opts.isAdmin ?? false,
+  });
 }
 
 export async function addMember(userId: string, cruiseId: string, role: Role) {
@@ -75,12 +95,18 @@ export async function agentFor(app: App, email?: string, password = PASSWORD) {
   return { agent, csrf };
 }
 
-export async function caughtMail(): Promise<{ id: string; to: string[]; subject: string; text: string; html: string }[]> {
+export async function caughtMail(): Promise<
+  { id: string; to: string[]; subject: string; text: string; html: string }[]
+> {
   const res = await fetch(`${process.env.MAIL_CAPTURE_URL ?? 'http://127.0.0.1:25269'}/messages`);
   return (await res.json()) as { id: string; to: string[]; subject: string; text: string; html: string }[];
 }
 
-export async function waitFor<T>(fn: () => Promise<T | undefined | null | false>, timeoutMs = 20_000, stepMs = 100): Promise<T> {
+export async function waitFor<T>(
+  fn: () => Promise<T | undefined | null | false>,
+  timeoutMs = 20_000,
+  stepMs = 100,
+): Promise<T> {
   const end = Date.now() + timeoutMs;
   for (;;) {
     const v = await fn();

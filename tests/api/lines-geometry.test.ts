@@ -16,11 +16,24 @@ const arc = (d: number) => (R * d * Math.PI) / 180;
 const at = (i: number) => `2026-04-0${1 + Math.floor(i / 4)}T${String((i % 4) * 6).padStart(2, '0')}:00:00Z`;
 // Along the equator from 176°E to 176°W, 2° apart: the line crosses the 180° meridian.
 // D2's file gives no bottom depth but the plan does (3000 m); D4 has neither: its bottom is not known.
-const dateline: InventedCast[] = [176, 178, 180, -178, -176].map((lon, i) => ({ station: `D${i + 1}`, cast: '1', lat: 0, lon, time: at(i), deep: 600,
-  bottom: i === 1 || i === 3 ? null : 4000 }));
+const dateline: InventedCast[] = [176, 178, 180, -178, -176].map((lon, i) => ({
+  station: `D${i + 1}`,
+  cast: '1',
+  lat: 0,
+  lon,
+  time: at(i),
+  deep: 600,
+  bottom: i === 1 || i === 3 ? null : 4000,
+}));
 // Up the 0° meridian to 89.5°N, over the pole, down the 180° meridian: within 1° of the pole.
-const polar: InventedCast[] = [[0, 86], [0, 88], [0, 89.5], [180, 89.5], [180, 88], [180, 86]]
-  .map(([lon, lat], i) => ({ station: `N${i + 1}`, cast: '1', lat, lon, time: at(i), deep: 600, bottom: 4000 }));
+const polar: InventedCast[] = [
+  [0, 86],
+  [0, 88],
+  [0, 89.5],
+  [180, 89.5],
+  [180, 88],
+  [180, 86],
+].map(([lon, lat], i) => ({ station: `N${i + 1}`, cast: '1', lat, lon, time: at(i), deep: 600, bottom: 4000 }));
 // occupied out of plan order: N4 before N3 (the default line follows the plan)
 polar[2].time = at(3);
 polar[3].time = at(2);
@@ -30,27 +43,52 @@ beforeAll(async () => {
   await startWorkers(t.deps, { concurrency: 2 });
   const u = await createUser('g-analyst@example.test');
   who = await agentFor(t.app, 'g-analyst@example.test');
-  for (const [name, casts] of [['dateline', dateline], ['polar', polar]] as const) {
-    const c = await Cruise.create({ name, ship: 'RV Geometry', startDate: '2026-04-01', endDate: '2026-04-09', portStart: null, portEnd: null, region: null, description: null, createdBy: u.id });
+  for (const [name, casts] of [
+    ['dateline', dateline],
+    ['polar', polar],
+  ] as const) {
+    const c = await Cruise.create({
+      name,
+      ship: 'RV Geometry',
+      startDate: '2026-04-01',
+      endDate: '2026-04-09',
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: u.id,
+    });
     await addMember(u.id, c.id, 'chief_scientist');
     cruise[name] = c.id;
     const plan = name === 'polar' ? polar : dateline;
     for (const [i, p] of plan.entries()) {
-      await PlanStation.create({ cruiseId: c.id, name: p.station, latitude: p.lat, longitude: p.lon, plannedDepth: name === 'dateline' && i === 1 ? 3000 : null, order: i + 1 });
+      await PlanStation.create({
+        cruiseId: c.id,
+        name: p.station,
+        latitude: p.lat,
+        longitude: p.lon,
+        plannedDepth: name === 'dateline' && i === 1 ? 3000 : null,
+        order: i + 1,
+      });
     }
     await uploadAndWait(who, c.id, writeCasts(casts));
   }
 }, 240_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
-const section = (c: string, q: Record<string, string | number> = {}) => who.agent.get(`/api/cruises/${cruise[c]}/section`).query({ property: 'CT', coord: 'pressure', bin: 50, ...q });
+const section = (c: string, q: Record<string, string | number> = {}) =>
+  who.agent.get(`/api/cruises/${cruise[c]}/section`).query({ property: 'CT', coord: 'pressure', bin: 50, ...q });
 type Station = { station: string; x: number };
 
 describe('distance along a line', () => {
   it('across the 180° meridian: one column per station, x strictly increasing, 2° equator arcs', async () => {
     const s = (await section('dateline')).body;
     expect(s.stations.map((x: Station) => x.station)).toEqual(['D1', 'D2', 'D3', 'D4', 'D5']);
-    s.stations.forEach((st: Station, i: number) => expect(Math.abs(st.x - arc(2 * i))).toBeLessThan(0.02 * arc(2) + 1e-9));
+    s.stations.forEach((st: Station, i: number) =>
+      expect(Math.abs(st.x - arc(2 * i))).toBeLessThan(0.02 * arc(2) + 1e-9),
+    );
     for (let i = 1; i < s.grid.x.length; i++) expect(s.grid.x[i]).toBeGreaterThan(s.grid.x[i - 1]);
     expect(s.gaps).toEqual([]);
   });
@@ -76,8 +114,18 @@ describe('distance along a line', () => {
 describe('a line from a drawn polyline', () => {
   it('takes the stations within the corridor in order of their projection, and draws x as the projection', async () => {
     // drawn from east to west, across the meridian, stopping short of D1
-    const r = await who.agent.post(`/api/cruises/${cruise.dateline}/lines`).set('x-csrf-token', who.csrf)
-      .send({ name: 'Westward', polyline: [[-175, 0.1], [179, -0.1], [177, 0]], corridorKm: 40 });
+    const r = await who.agent
+      .post(`/api/cruises/${cruise.dateline}/lines`)
+      .set('x-csrf-token', who.csrf)
+      .send({
+        name: 'Westward',
+        polyline: [
+          [-175, 0.1],
+          [179, -0.1],
+          [177, 0],
+        ],
+        corridorKm: 40,
+      });
     expect(r.status).toBe(201);
     expect(r.body.stations.map((x: Station) => x.station)).toEqual(['D5', 'D4', 'D3', 'D2']);
     const s = (await section('dateline', { line: r.body.id })).body;
@@ -85,8 +133,16 @@ describe('a line from a drawn polyline', () => {
     for (let i = 1; i < s.stations.length; i++) expect(s.stations[i].x - s.stations[i - 1].x).toBeCloseTo(arc(2), -1);
   });
   it('refuses a polyline with fewer than two stations near it', async () => {
-    const r = await who.agent.post(`/api/cruises/${cruise.dateline}/lines`).set('x-csrf-token', who.csrf)
-      .send({ name: 'Nowhere', polyline: [[100, 40], [101, 41]] });
+    const r = await who.agent
+      .post(`/api/cruises/${cruise.dateline}/lines`)
+      .set('x-csrf-token', who.csrf)
+      .send({
+        name: 'Nowhere',
+        polyline: [
+          [100, 40],
+          [101, 41],
+        ],
+      });
     expect(r.status).toBe(400);
     expect(r.body.error.details[0].field).toBe('polyline');
   });
@@ -109,10 +165,18 @@ describe('the bottom', () => {
     expect(st('D4').bottom).toBeLessThanOrEqual(600);
     expect(s.bottom.map((b: { known: boolean }) => b.known)).toEqual([true, true, true, false, true]);
     const lines = (await who.agent.get(`/api/cruises/${cruise.dateline}/lines`)).body;
-    expect(lines[0].stations.map((x: { bottomSource: string | null }) => x.bottomSource)).toEqual(['file', 'plan', 'file', null, 'file']);
+    expect(lines[0].stations.map((x: { bottomSource: string | null }) => x.bottomSource)).toEqual([
+      'file',
+      'plan',
+      'file',
+      null,
+      'file',
+    ]);
     // nothing is drawn below where D4 stopped
     const ix = s.grid.x.findIndex((x: number) => Math.abs(x - st('D4').x) < 1e-9);
-    s.grid.y.forEach((p: number, iy: number) => { if (p > st('D4').bottom + 20) expect(s.grid.z[iy][ix]).toBeNull(); });
+    s.grid.y.forEach((p: number, iy: number) => {
+      if (p > st('D4').bottom + 20) expect(s.grid.z[iy][ix]).toBeNull();
+    });
   });
   it('the default line follows the plan order, not the order of occupation', async () => {
     const lines = (await who.agent.get(`/api/cruises/${cruise.polar}/lines`)).body;

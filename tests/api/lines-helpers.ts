@@ -5,10 +5,25 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { waitFor, type agentFor } from './helpers';
 
-export type InventedCast = { station: string; cast: string; lat: number; lon: number; time: string; deep: number; bottom?: number | null; warm?: number };
+export type InventedCast = {
+  station: string;
+  cast: string;
+  lat: number;
+  lon: number;
+  time: string;
+  deep: number;
+  bottom?: number | null;
+  warm?: number;
+};
 
 export function castCsv(c: InventedCast): string {
-  const out = [`# station: ${c.station}`, `# cast: ${c.cast}`, `# latitude: ${c.lat}`, `# longitude: ${c.lon}`, `# time: ${c.time}`];
+  const out = [
+    `# station: ${c.station}`,
+    `# cast: ${c.cast}`,
+    `# latitude: ${c.lat}`,
+    `# longitude: ${c.lon}`,
+    `# time: ${c.time}`,
+  ];
   if (c.bottom) out.push(`# bottom_depth: ${c.bottom}`);
   out.push('pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]');
   const warm = c.warm ?? 0;
@@ -35,10 +50,17 @@ export async function uploadAndWait(who: Awaited<ReturnType<typeof agentFor>>, c
   for (const f of files) req = req.attach('files', f);
   const res = await req;
   if (res.status !== 202) throw new Error(`upload failed: ${res.status} ${JSON.stringify(res.body)}`);
-  await waitFor(async () => {
-    const l = (await who.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as { status: string; errors: unknown[] }[];
-    const failed = l.find((u) => u.status === 'failed');
-    if (failed) throw new Error(`an upload failed: ${JSON.stringify(failed.errors)}`);
-    return l.length >= files.length && l.every((u) => u.status === 'ready');
-  }, 120_000, 300);
+  await waitFor(
+    async () => {
+      const l = (await who.agent.get(`/api/cruises/${cruiseId}/uploads`)).body as {
+        status: string;
+        errors: unknown[];
+      }[];
+      const failed = l.find((u) => u.status === 'failed');
+      if (failed) throw new Error(`an upload failed: ${JSON.stringify(failed.errors)}`);
+      return l.length >= files.length && l.every((u) => u.status === 'ready');
+    },
+    120_000,
+    300,
+  );
 }

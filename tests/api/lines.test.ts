@@ -29,7 +29,8 @@ const casts: InventedCast[] = [
  * written here on its own so the check does not lean on the project's haversine). */
 const gcKm = (lon1: number, lat1: number, lon2: number, lat2: number) => {
   const r = Math.PI / 180;
-  const c = Math.sin(lat1 * r) * Math.sin(lat2 * r) + Math.cos(lat1 * r) * Math.cos(lat2 * r) * Math.cos((lon2 - lon1) * r);
+  const c =
+    Math.sin(lat1 * r) * Math.sin(lat2 * r) + Math.cos(lat1 * r) * Math.cos(lat2 * r) * Math.cos((lon2 - lon1) * r);
   return 6371 * Math.acos(Math.min(1, Math.max(-1, c)));
 };
 
@@ -37,7 +38,17 @@ beforeAll(async () => {
   t = await makeTestApp();
   await startWorkers(t.deps, { concurrency: 2 });
   const tech = await createUser('l-tech@example.test');
-  const c = await Cruise.create({ name: 'Lines', ship: 'RV Lines', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+  const c = await Cruise.create({
+    name: 'Lines',
+    ship: 'RV Lines',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: tech.id,
+  });
   cruiseId = c.id;
   await addMember(tech.id, c.id, 'technician');
   const an = await createUser('l-analyst@example.test');
@@ -46,14 +57,34 @@ beforeAll(async () => {
   who.analyst = await agentFor(t.app, 'l-analyst@example.test');
   await uploadAndWait(who.tech, cruiseId, writeCasts(casts));
 }, 180_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
-type St = { station: string; castId: string; cast: string; x: number; choice: string; composite: unknown; note: string | null };
-type LineJson = { id: string; name: string; isDefault: boolean; stations: St[]; offLine: { station: string; offKm: number }[]; excluded: { station: string; why: string }[] };
+type St = {
+  station: string;
+  castId: string;
+  cast: string;
+  x: number;
+  choice: string;
+  composite: unknown;
+  note: string | null;
+};
+type LineJson = {
+  id: string;
+  name: string;
+  isDefault: boolean;
+  stations: St[];
+  offLine: { station: string; offKm: number }[];
+  excluded: { station: string; why: string }[];
+};
 const lines = async () => (await who.analyst.agent.get(`/api/cruises/${cruiseId}/lines`)).body as LineJson[];
-const section = (q: Record<string, string | number>) => who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'CT', coord: 'pressure', bin: 20, ...q });
-const post = (body: object) => who.analyst.agent.post(`/api/cruises/${cruiseId}/lines`).set('x-csrf-token', who.analyst.csrf).send(body);
-const patch = (id: string, body: object) => who.analyst.agent.patch(`/api/lines/${id}`).set('x-csrf-token', who.analyst.csrf).send(body);
+const section = (q: Record<string, string | number>) =>
+  who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'CT', coord: 'pressure', bin: 20, ...q });
+const post = (body: object) =>
+  who.analyst.agent.post(`/api/cruises/${cruiseId}/lines`).set('x-csrf-token', who.analyst.csrf).send(body);
+const patch = (id: string, body: object) =>
+  who.analyst.agent.patch(`/api/lines/${id}`).set('x-csrf-token', who.analyst.csrf).send(body);
 
 describe('the default line', () => {
   it('is there as soon as there are casts: every station once in first-occupation order, the deepest cast, the side trip off the line', async () => {
@@ -114,16 +145,24 @@ describe('a line from a station list', () => {
   it('picks another cast, and joins a composite (shallow above the join, deep below, noted)', async () => {
     const d = (await lines())[0];
     const s3 = d.stations.find((s) => s.station === 'S3')!;
-    const shallowId = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body.find((c: { station: string; cast: string }) => c.station === 'S3' && c.cast === '2').id;
+    const shallowId = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body.find(
+      (c: { station: string; cast: string }) => c.station === 'S3' && c.cast === '2',
+    ).id;
     const picked = await post({ name: 'Shallow S3', stations: ['S2', 'S3', 'S4'], casts: { S3: shallowId } });
     expect(picked.status).toBe(201);
     expect(picked.body.stations[1]).toMatchObject({ station: 'S3', cast: '2', choice: 'picked' });
     const deep = await post({ name: 'Deep S3', stations: ['S2', 'S3', 'S4'] });
-    const comp = await post({ name: 'Composite S3', stations: ['S2', 'S3', 'S4'], casts: { S3: { shallow: shallowId, deep: s3.castId, joinPressure: 200 } } });
+    const comp = await post({
+      name: 'Composite S3',
+      stations: ['S2', 'S3', 'S4'],
+      casts: { S3: { shallow: shallowId, deep: s3.castId, joinPressure: 200 } },
+    });
     expect(comp.status).toBe(201);
     expect(comp.body.stations[1]).toMatchObject({ station: 'S3', choice: 'composite', cast: '2+1' });
     expect(comp.body.stations[1].note).toMatch(/200 dbar/);
-    const [a, b, c] = await Promise.all([picked, deep, comp].map(async (l) => (await section({ line: l.body.id })).body));
+    const [a, b, c] = await Promise.all(
+      [picked, deep, comp].map(async (l) => (await section({ line: l.body.id })).body),
+    );
     const col = (s: typeof a) => s.grid.x.findIndex((x: number) => Math.abs(x - s.stations[1].x) < 1e-9);
     const at = (s: typeof a, p: number) => s.grid.z[s.grid.y.findIndex((y: number) => Math.abs(y - p) < 1e-9)][col(s)];
     expect(at(c, 100)).toBeCloseTo(at(a, 100), 9); // above the join: the shallow cast
@@ -149,10 +188,21 @@ describe('a line from a station list', () => {
     expect(b.status).toBe(400);
     expect(b.body.error.details[0].message).toMatch(/is at station S1/);
     const s3 = d.stations.find((s) => s.station === 'S3')!;
-    const c = await post({ name: 'Bad', stations: ['S3'], casts: { S3: { shallow: s3.castId, deep: s3.castId, joinPressure: 100 } } });
+    const c = await post({
+      name: 'Bad',
+      stations: ['S3'],
+      casts: { S3: { shallow: s3.castId, deep: s3.castId, joinPressure: 100 } },
+    });
     expect(c.status).toBe(400);
     expect((await post({ name: '' })).status).toBe(400);
-    expect((await who.tech.agent.post(`/api/cruises/${cruiseId}/lines`).set('x-csrf-token', who.tech.csrf).send({ name: 'T', stations: ['S1'] })).status).toBe(403);
+    expect(
+      (
+        await who.tech.agent
+          .post(`/api/cruises/${cruiseId}/lines`)
+          .set('x-csrf-token', who.tech.csrf)
+          .send({ name: 'T', stations: ['S1'] })
+      ).status,
+    ).toBe(403);
   });
 });
 
@@ -162,7 +212,13 @@ describe('the line parameter on every section-shaped route', () => {
     expect(g.skipped).toHaveLength(1);
     expect(g.skipped[0]).toMatchObject({ a: 'S3', b: 'S3b' });
     expect(g.skipped[0].why).toMatch(/closer than 2 km/);
-    expect(g.pairs.map((p: { a: string; b: string }) => `${p.a}-${p.b}`)).toEqual(['S1-S2', 'S2-S3', 'S3b-S4', 'S4-S5', 'S5-S6']);
+    expect(g.pairs.map((p: { a: string; b: string }) => `${p.a}-${p.b}`)).toEqual([
+      'S1-S2',
+      'S2-S3',
+      'S3b-S4',
+      'S4-S5',
+      'S5-S6',
+    ]);
     const line = await post({ name: 'Three', stations: ['S1', 'S4', 'S6'] });
     const g2 = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/geostrophy`).query({ line: line.body.id })).body;
     expect(g2.pairs.map((p: { a: string; b: string }) => `${p.a}-${p.b}`)).toEqual(['S1-S4', 'S4-S6']);
@@ -175,19 +231,38 @@ describe('the line parameter on every section-shaped route', () => {
     const iso = await who.analyst.agent.get(`/api/cruises/${cruiseId}/exports/isopycnal.csv`).query({ line: line.id });
     expect(iso.status).toBe(200);
     expect(iso.text).toMatch(/Line: Three.*S1 \(cast 1\), S4 \(cast 1\), S6 \(cast 1\)/);
-    const rows = iso.text.split('\n').filter((l) => l && !l.startsWith('#')).slice(1);
+    const rows = iso.text
+      .split('\n')
+      .filter((l) => l && !l.startsWith('#'))
+      .slice(1);
     expect(new Set(rows.map((r) => r.split(',')[0]))).toEqual(new Set(['S1', 'S4', 'S6']));
-    const pres = await who.analyst.agent.get(`/api/cruises/${cruiseId}/exports/pressure.csv`).query({ line: line.id, bin: 50 });
-    expect(new Set(pres.text.split('\n').filter((l) => l && !l.startsWith('#')).slice(1).map((r) => r.split(',')[0]))).toEqual(new Set(['S1', 'S4', 'S6']));
+    const pres = await who.analyst.agent
+      .get(`/api/cruises/${cruiseId}/exports/pressure.csv`)
+      .query({ line: line.id, bin: 50 });
+    expect(
+      new Set(
+        pres.text
+          .split('\n')
+          .filter((l) => l && !l.startsWith('#'))
+          .slice(1)
+          .map((r) => r.split(',')[0]),
+      ),
+    ).toEqual(new Set(['S1', 'S4', 'S6']));
     const def = await who.analyst.agent.get(`/api/cruises/${cruiseId}/exports/pressure.csv`).query({ bin: 50 });
     expect(def.text).toMatch(/Line: All stations \(the default line\)/);
   });
   it('deliveries keep the line; a line of another cruise or a bad id is 404', async () => {
     const line = (await lines()).find((l) => l.name === 'Three')!;
-    const d = await who.analyst.agent.post(`/api/cruises/${cruiseId}/deliveries`).set('x-csrf-token', who.analyst.csrf).send({ kind: 'pressure', formats: ['csv'], line: line.id });
+    const d = await who.analyst.agent
+      .post(`/api/cruises/${cruiseId}/deliveries`)
+      .set('x-csrf-token', who.analyst.csrf)
+      .send({ kind: 'pressure', formats: ['csv'], line: line.id });
     expect(d.status).toBe(202);
     expect(d.body.params.line).toBe(line.id);
-    const bad = await who.analyst.agent.post(`/api/cruises/${cruiseId}/deliveries`).set('x-csrf-token', who.analyst.csrf).send({ kind: 'pressure', formats: ['csv'], line: '00000000-0000-4000-8000-000000000000' });
+    const bad = await who.analyst.agent
+      .post(`/api/cruises/${cruiseId}/deliveries`)
+      .set('x-csrf-token', who.analyst.csrf)
+      .send({ kind: 'pressure', formats: ['csv'], line: '00000000-0000-4000-8000-000000000000' });
     expect(bad.status).toBe(404);
     expect((await section({ line: 'not-a-line' })).status).toBe(404);
   });

@@ -36,10 +36,25 @@ afterAll(async () => {
 describe('liveness during a large ingest', () => {
   it(`health answers within 1 s all through the ingest of ${CASTS} raw casts of ${SCANS} scans`, async () => {
     const tech = await createUser('live-tech@example.test');
-    const c = await Cruise.create({ name: 'Liveness', ship: 'RV Probe', startDate: '2026-04-01', endDate: '2026-04-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+    const c = await Cruise.create({
+      name: 'Liveness',
+      ship: 'RV Probe',
+      startDate: '2026-04-01',
+      endDate: '2026-04-20',
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: tech.id,
+    });
     await addMember(tech.id, c.id, 'technician');
     const a = await agentFor(t.app, 'live-tech@example.test');
-    const zip = await zipBuffer(Array.from({ length: CASTS }, (_, k) => ({ name: `raw/cast${String(k + 1).padStart(2, '0')}.csv`, data: rawCastCsv(k, SCANS) })));
+    const zip = await zipBuffer(
+      Array.from({ length: CASTS }, (_, k) => ({
+        name: `raw/cast${String(k + 1).padStart(2, '0')}.csv`,
+        data: rawCastCsv(k, SCANS),
+      })),
+    );
 
     // the probe: one request every 0.2 s, each timed on its own
     const answers: { ms: number; status: number }[] = [];
@@ -47,13 +62,19 @@ describe('liveness during a large ingest', () => {
     const probe = (async () => {
       while (probing) {
         const t0 = performance.now();
-        const status = await fetch(`${base}/api/health`).then((r) => r.status, () => 0);
+        const status = await fetch(`${base}/api/health`).then(
+          (r) => r.status,
+          () => 0,
+        );
         answers.push({ ms: performance.now() - t0, status });
         await sleep(200);
       }
     })();
 
-    const res = await a.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', a.csrf).attach('files', zip, 'raw-casts.zip');
+    const res = await a.agent
+      .post(`/api/cruises/${c.id}/uploads`)
+      .set('x-csrf-token', a.csrf)
+      .attach('files', zip, 'raw-casts.zip');
     expect(res.status, JSON.stringify(res.body)).toBe(202);
     const id = res.body.uploads[0].id as string;
     const end = Date.now() + 240_000;

@@ -30,7 +30,14 @@ async function upload(cruiseId: string, file: string | Buffer, name?: string) {
   const res = await (typeof file === 'string' ? req.attach('files', file) : req.attach('files', file, name));
   expect(res.status, JSON.stringify(res.body)).toBe(202);
   for (const u of res.body.uploads as { id: string }[]) {
-    const done = await waitFor(async () => { const r = await tech.agent.get(`/api/uploads/${u.id}`); return ['ready', 'failed'].includes(r.body.status) ? r.body : null; }, 120_000, 250);
+    const done = await waitFor(
+      async () => {
+        const r = await tech.agent.get(`/api/uploads/${u.id}`);
+        return ['ready', 'failed'].includes(r.body.status) ? r.body : null;
+      },
+      120_000,
+      250,
+    );
     expect(done.status, JSON.stringify(done.errors)).toBe('ready');
   }
 }
@@ -41,7 +48,17 @@ beforeAll(async () => {
   const te = await createUser('sr1bd-tech@example.test');
   const an = await createUser('sr1bd-analyst@example.test');
   for (const name of ['SR1B 2015 (test)', 'SR1B round trip (test)']) {
-    const c = await Cruise.create({ name, ship: 'RV Test', startDate: '2015-01-10', endDate: '2015-01-20', portStart: null, portEnd: null, region: null, description: null, createdBy: te.id });
+    const c = await Cruise.create({
+      name,
+      ship: 'RV Test',
+      startDate: '2015-01-10',
+      endDate: '2015-01-20',
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: te.id,
+    });
     await addMember(te.id, c.id, 'technician');
     await addMember(an.id, c.id, 'analyst');
     cruises.push(c.id);
@@ -50,12 +67,20 @@ beforeAll(async () => {
   analyst = await agentFor(t.app, an.email);
   await upload(cruises[0], ZIP);
 }, 200_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
 async function build(body: object) {
-  const res = await analyst.agent.post(`/api/cruises/${cruises[0]}/deliveries`).set('x-csrf-token', analyst.csrf).send(body);
+  const res = await analyst.agent
+    .post(`/api/cruises/${cruises[0]}/deliveries`)
+    .set('x-csrf-token', analyst.csrf)
+    .send(body);
   expect(res.status, JSON.stringify(res.body)).toBe(202);
-  return waitFor(async () => { const r = await analyst.agent.get(`/api/deliveries/${res.body.id}`); return ['ready', 'failed'].includes(r.body.status) ? r.body : null; }, 90_000);
+  return waitFor(async () => {
+    const r = await analyst.agent.get(`/api/deliveries/${res.body.id}`);
+    return ['ready', 'failed'].includes(r.body.status) ? r.body : null;
+  }, 90_000);
 }
 async function download(id: string, format: string): Promise<Buffer> {
   const res = await analyst.agent.get(`/api/deliveries/${id}/download?format=${format}`).redirects(0);
@@ -81,7 +106,8 @@ with zipfile.ZipFile(sys.argv[1]) as z:
 print(json.dumps(out))
 `;
 type Files = Record<string, { time: string; expocode: string; p: number[]; t: number[]; SP: number[] }>;
-const files = (): Files => JSON.parse(execFileSync(PY, ['-c', FILES, ZIP], { encoding: 'utf8', maxBuffer: 64 << 20 })) as Files;
+const files = (): Files =>
+  JSON.parse(execFileSync(PY, ['-c', FILES, ZIP], { encoding: 'utf8', maxBuffer: 64 << 20 })) as Files;
 
 describe('SR1B real section delivered (GO-SHIP, CCHDO distribution; acknowledgement in the file header)', () => {
   it('as an isopycnal table, a NetCDF and exchange files, each read back and checked against the files', async () => {
@@ -95,7 +121,11 @@ describe('SR1B real section delivered (GO-SHIP, CCHDO distribution; acknowledgem
     for (const f of d.files as { filename: string }[]) expect(f.filename.startsWith(`${expo}_`), f.filename).toBe(true);
 
     // CSV: the cruise is the expocode, times and positions are the files' own
-    const rows = parse((await download(d.id, 'csv')).toString('utf8'), { comment: '#', columns: true, skip_empty_lines: true }) as Record<string, string>[];
+    const rows = parse((await download(d.id, 'csv')).toString('utf8'), {
+      comment: '#',
+      columns: true,
+      skip_empty_lines: true,
+    }) as Record<string, string>[];
     expect(new Set(rows.map((r) => r.cruise))).toEqual(new Set([expo]));
     const byStation = new Map(rows.map((r) => [String(Number(r.station)), r]));
     let timed = 0;
@@ -111,8 +141,17 @@ describe('SR1B real section delivered (GO-SHIP, CCHDO distribution; acknowledgem
     // NetCDF: read back with python3-netcdf4 (time decoded to the same instants)
     const dir = mkdtempSync(join(tmpdir(), 'sl-sr1b-'));
     writeFileSync(join(dir, 'd.nc'), await download(d.id, 'nc'));
-    const py = JSON.parse(execFileSync(PY, [join(process.cwd(), 'tests/support/cf_readback.py'), join(dir, 'd.nc')], { encoding: 'utf8', maxBuffer: 64 << 20 })) as
-      { time: string[]; profile_id: string[]; globals: Record<string, unknown>; checks: Record<string, { value_where_flag9: number }> };
+    const py = JSON.parse(
+      execFileSync(PY, [join(process.cwd(), 'tests/support/cf_readback.py'), join(dir, 'd.nc')], {
+        encoding: 'utf8',
+        maxBuffer: 64 << 20,
+      }),
+    ) as {
+      time: string[];
+      profile_id: string[];
+      globals: Record<string, unknown>;
+      checks: Record<string, { value_where_flag9: number }>;
+    };
     expect(py.globals.expocode).toBe(expo);
     py.profile_id.forEach((id, i) => {
       const st = stations.find((s) => `${Number(s)}` === String(Number(id.split('_')[0])))!;
@@ -126,12 +165,17 @@ describe('SR1B real section delivered (GO-SHIP, CCHDO distribution; acknowledgem
     const entries = await unzip(zip);
     expect(entries.size).toBe(timed);
     await upload(cruises[1], zip, 'sr1b-exchange.zip');
-    const back = (await analyst.agent.get(`/api/cruises/${cruises[1]}/casts`)).body as { id: string; station: string }[];
+    const back = (await analyst.agent.get(`/api/cruises/${cruises[1]}/casts`)).body as {
+      id: string;
+      station: string;
+    }[];
     expect(back.length).toBe(timed);
     let compared = 0;
     for (const c of back) {
       const st = stations.find((s) => Number(s) === Number(c.station))!;
-      const cast = (await analyst.agent.get(`/api/casts/${c.id}`)).body as { columns: Record<string, (number | null)[]> };
+      const cast = (await analyst.agent.get(`/api/casts/${c.id}`)).body as {
+        columns: Record<string, (number | null)[]>;
+      };
       const want = src[st];
       const p = cast.columns.pressure;
       for (let i = 0; i < p.length; i++) {

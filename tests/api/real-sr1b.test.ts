@@ -27,7 +27,17 @@ beforeAll(async () => {
   t = await makeTestApp();
   await startWorkers(t.deps, { concurrency: 2 });
   const chief = await createUser('sr1b-chief@example.test');
-  const c = await Cruise.create({ name: 'SR1B 2015 (test)', ship: 'RV Test', startDate: '2015-01-10', endDate: '2015-01-20', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
+  const c = await Cruise.create({
+    name: 'SR1B 2015 (test)',
+    ship: 'RV Test',
+    startDate: '2015-01-10',
+    endDate: '2015-01-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: chief.id,
+  });
   cruiseId = c.id;
   await addMember(chief.id, c.id, 'chief_scientist');
   const u = await createUser('sr1b-tech@example.test');
@@ -36,15 +46,24 @@ beforeAll(async () => {
   await addMember(a.id, c.id, 'analyst');
   tech = await agentFor(t.app, 'sr1b-tech@example.test');
   analyst = await agentFor(t.app, 'sr1b-analyst@example.test');
-  const res = await tech.agent.post(`/api/cruises/${cruiseId}/uploads`).set('x-csrf-token', tech.csrf).attach('files', ZIP);
+  const res = await tech.agent
+    .post(`/api/cruises/${cruiseId}/uploads`)
+    .set('x-csrf-token', tech.csrf)
+    .attach('files', ZIP);
   expect(res.status).toBe(202);
   const id = res.body.uploads[0].id as string;
-  uploadDone = await waitFor(async () => {
-    const r = await tech.agent.get(`/api/uploads/${id}`);
-    return r.body.status === 'ready' || r.body.status === 'failed' ? r.body : null;
-  }, 120_000, 250);
+  uploadDone = await waitFor(
+    async () => {
+      const r = await tech.agent.get(`/api/uploads/${id}`);
+      return r.body.status === 'ready' || r.body.status === 'failed' ? r.body : null;
+    },
+    120_000,
+    250,
+  );
 }, 180_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
 // Independent reading: python3-netcdf4 opens each member of the zip, python3-gsw derives σ0 from
 // the file's SP, t, p and position, and each target σ0 takes its first crossing from the surface
@@ -88,7 +107,15 @@ describe('the SR1B zip (real WOCE netCDF CTD files)', () => {
   it('uploads in one go and gives 30 casts with stations, positions, times, bottom depths and oxygen', async () => {
     expect(uploadDone.status, JSON.stringify(uploadDone.errors).slice(0, 500)).toBe('ready');
     expect(uploadDone.castIds).toHaveLength(30);
-    const casts = (await analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body as { id: string; station: string; cast: string; latitude: number; longitude: number; time: string; bottomDepth: number | null }[];
+    const casts = (await analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body as {
+      id: string;
+      station: string;
+      cast: string;
+      latitude: number;
+      longitude: number;
+      time: string;
+      bottomDepth: number | null;
+    }[];
     expect(casts).toHaveLength(30);
     // SOURCE.md: 30 stations, one cast each, occupied 13–18 January 2015 across Drake Passage.
     expect(new Set(casts.map((c) => c.station))).toEqual(new Set(Array.from({ length: 30 }, (_, i) => String(i + 1))));
@@ -112,13 +139,19 @@ describe('the SR1B zip (real WOCE netCDF CTD files)', () => {
   });
 
   it('gives isopycnal pressures equal to an independent python3-gsw reading to 1e-6 dbar', async () => {
-    const res = await analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({ property: 'CT', coord: 'pressure', inversions: 'raw', levels: '26.9:0.05:27.8', bin: 10 });
+    const res = await analyst.agent
+      .get(`/api/cruises/${cruiseId}/section`)
+      .query({ property: 'CT', coord: 'pressure', inversions: 'raw', levels: '26.9:0.05:27.8', bin: 10 });
     expect(res.status).toBe(200);
     const s = res.body as { stations: { station: string }[]; isopycnals: { sigma: number; p: (number | null)[] }[] };
     expect(s.stations).toHaveLength(30);
     const targets = s.isopycnals.map((l) => l.sigma);
     expect(targets.length).toBeGreaterThan(10);
-    const py = spawnSync(PY, ['-c', SCRIPT, ZIP], { input: JSON.stringify(targets), encoding: 'utf8', maxBuffer: 1 << 26 });
+    const py = spawnSync(PY, ['-c', SCRIPT, ZIP], {
+      input: JSON.stringify(targets),
+      encoding: 'utf8',
+      maxBuffer: 1 << 26,
+    });
     expect(py.status, py.stderr).toBe(0);
     const ref = JSON.parse(py.stdout) as Record<string, { p: (number | null)[] }>;
     let compared = 0;
@@ -129,7 +162,9 @@ describe('the SR1B zip (real WOCE netCDF CTD files)', () => {
       targets.forEach((_, j) => {
         const ours = s.isopycnals[j].p[i];
         const theirs = r.p[j];
-        expect(ours === null, `station ${st.station}, σ0 ${targets[j]}: one side has no crossing`).toBe(theirs === null);
+        expect(ours === null, `station ${st.station}, σ0 ${targets[j]}: one side has no crossing`).toBe(
+          theirs === null,
+        );
         if (ours !== null && theirs !== null) {
           worst = Math.max(worst, Math.abs(ours - theirs));
           compared++;

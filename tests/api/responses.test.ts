@@ -12,22 +12,49 @@ let chief: Awaited<ReturnType<typeof agentFor>>;
 beforeAll(async () => {
   t = await makeTestApp();
   const u = await createUser('responses-chief@example.test');
-  const cruise = await Cruise.create({ name: 'Answers', ship: 'RV Tessellate', startDate: '2026-01-01', endDate: '2026-01-10', portStart: null,
-    portEnd: null, region: null, description: null, createdBy: u.id });
+  const cruise = await Cruise.create({
+    name: 'Answers',
+    ship: 'RV Tessellate',
+    startDate: '2026-01-01',
+    endDate: '2026-01-10',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: u.id,
+  });
   cruiseId = cruise.id;
   await addMember(u.id, cruiseId, 'chief_scientist');
-  await LayerSet.create({ cruiseId, name: 'thermocline', referencePressure: 0, levels: '26.0:0.1:27.0', createdBy: u.id } as never);
-  await DerivedVariable.create({ cruiseId, name: 'CT_minus_pt0', formula: 'CT - pt0', unit: '°C', description: null, createdBy: u.id } as never);
+  await LayerSet.create({
+    cruiseId,
+    name: 'thermocline',
+    referencePressure: 0,
+    levels: '26.0:0.1:27.0',
+    createdBy: u.id,
+  } as never);
+  await DerivedVariable.create({
+    cruiseId,
+    name: 'CT_minus_pt0',
+    formula: 'CT - pt0',
+    unit: '°C',
+    description: null,
+    createdBy: u.id,
+  } as never);
   chief = await agentFor(t.app, u.email);
 }, 120_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
-const declared = (): RouteSpec[] => t.app.routes.filter((r: RouteSpec) => r.response && r.method === 'get' && !/:(?!id\b)\w+/.test(r.path));
+const declared = (): RouteSpec[] =>
+  t.app.routes.filter((r: RouteSpec) => r.response && r.method === 'get' && !/:(?!id\b)\w+/.test(r.path));
 
 describe('declared response schemas', () => {
   it('at least the settings, layer-set and derived-variable lists declare one', () => {
     const paths = declared().map((r) => r.path);
-    expect(paths).toEqual(expect.arrayContaining(['/settings', '/cruises/:id/layer-sets', '/cruises/:id/derived-variables']));
+    expect(paths).toEqual(
+      expect.arrayContaining(['/settings', '/cruises/:id/layer-sets', '/cruises/:id/derived-variables']),
+    );
   });
 
   it('every declared GET answers in its schema, with the seeded rows', async () => {

@@ -16,7 +16,17 @@ const agents: Record<string, { agent: ReturnType<typeof request.agent>; csrf: st
 beforeAll(async () => {
   t = await makeTestApp();
   const chief = await createUser('m-chief@example.test');
-  const cruise = await Cruise.create({ name: 'Matrix', ship: 'RV Matrix', startDate: '2026-01-01', endDate: '2026-01-10', portStart: null, portEnd: null, region: null, description: null, createdBy: chief.id });
+  const cruise = await Cruise.create({
+    name: 'Matrix',
+    ship: 'RV Matrix',
+    startDate: '2026-01-01',
+    endDate: '2026-01-10',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: chief.id,
+  });
   ids.cruise = cruise.id;
   for (const role of ROLES) {
     const u = role === 'chief_scientist' ? chief : await createUser(`m-${role}@example.test`);
@@ -28,30 +38,85 @@ beforeAll(async () => {
   await createUser('m-admin@example.test', { isAdmin: true });
   agents.admin = await agentFor(t.app, 'm-admin@example.test');
   agents.anonymous = await agentFor(t.app);
-  const up = await Upload.create({ cruiseId: cruise.id, filename: 'x.csv', storageKey: 'k', sha256: 'f'.repeat(64), size: 1, createdBy: chief.id, status: 'ready' });
+  const up = await Upload.create({
+    cruiseId: cruise.id,
+    filename: 'x.csv',
+    storageKey: 'k',
+    sha256: 'f'.repeat(64),
+    size: 1,
+    createdBy: chief.id,
+    status: 'ready',
+  });
   ids.upload = up.id;
-  const cast = await Cast.create({ cruiseId: cruise.id, uploadId: up.id, station: 'M1', cast: '1', latitude: 0, longitude: 0, time: null, bottomDepth: null, levels: 0,
-    inversionCount: 0, inversions: [], sourceFile: 'x.csv', sourceSha256: 'f'.repeat(64) });
+  const cast = await Cast.create({
+    cruiseId: cruise.id,
+    uploadId: up.id,
+    station: 'M1',
+    cast: '1',
+    latitude: 0,
+    longitude: 0,
+    time: null,
+    bottomDepth: null,
+    levels: 0,
+    inversionCount: 0,
+    inversions: [],
+    sourceFile: 'x.csv',
+    sourceSha256: 'f'.repeat(64),
+  });
   ids.cast = cast.id;
-  const d = await Delivery.create({ cruiseId: cruise.id, kind: 'pressure', params: {}, formats: ['csv'], error: null, releasedAt: null, releasedBy: null, createdBy: chief.id, status: 'queued' });
+  const d = await Delivery.create({
+    cruiseId: cruise.id,
+    kind: 'pressure',
+    params: {},
+    formats: ['csv'],
+    error: null,
+    releasedAt: null,
+    releasedBy: null,
+    createdBy: chief.id,
+    status: 'queued',
+  });
   ids.delivery = d.id;
   // the default line: it answers every role's DELETE with 409, so each role is tried on the same line
   ids.line = (await ensureDefaultLine(cruise.id)).id;
 }, 120_000);
-afterAll(async () => { await t?.close(); });
+afterAll(async () => {
+  await t?.close();
+});
 
 function urlFor(r: RouteSpec) {
-  const entity = r.path.startsWith('/uploads/') ? ids.upload : r.path.startsWith('/casts/') ? ids.cast : r.path.startsWith('/deliveries/') ? ids.delivery
-    : r.path.startsWith('/lines/') ? ids.line : ids.cruise;
+  const entity = r.path.startsWith('/uploads/')
+    ? ids.upload
+    : r.path.startsWith('/casts/')
+      ? ids.cast
+      : r.path.startsWith('/deliveries/')
+        ? ids.delivery
+        : r.path.startsWith('/lines/')
+          ? ids.line
+          : ids.cruise;
   // the comparison's export finds its cruise by the first line in the query
   if (r.path === '/comparisons/export') return `/api/comparisons/export?lineA=${ids.line}&lineB=${ids.line}`;
-  return '/api' + r.path.replace(':id', entity).replace(/:(userId|setId|varId|viewId|deliveryId|otherId)/, '00000000-0000-4000-8000-000000000000').replace(':token', 'no-such-token');
+  return (
+    '/api' +
+    r.path
+      .replace(':id', entity)
+      .replace(/:(userId|setId|varId|viewId|deliveryId|otherId)/, '00000000-0000-4000-8000-000000000000')
+      .replace(':token', 'no-such-token')
+  );
 }
 async function call(who: string, r: RouteSpec) {
   const a = agents[who];
   if (r.method === 'delete' && r.path === '/deliveries/:id') {
     // each caller gets its own delivery, since an allowed call removes it
-    const d = await Delivery.create({ cruiseId: ids.cruise, kind: 'pressure', params: {}, formats: ['csv'], error: null, releasedAt: null, releasedBy: null, createdBy: null });
+    const d = await Delivery.create({
+      cruiseId: ids.cruise,
+      kind: 'pressure',
+      params: {},
+      formats: ['csv'],
+      error: null,
+      releasedAt: null,
+      releasedBy: null,
+      createdBy: null,
+    });
     ids.delivery = d.id;
   }
   const req = a.agent[r.method](urlFor(r)).set('x-csrf-token', a.csrf);
@@ -61,7 +126,8 @@ async function call(who: string, r: RouteSpec) {
 }
 /** The guard's own answers carry these codes; a handler's 404 for a missing sub-resource says more. */
 const guarded = (res: request.Response) =>
-  (res.status === 401 && res.body?.error?.code === 'unauthenticated') || (res.status === 403 && res.body?.error?.code === 'forbidden') ||
+  (res.status === 401 && res.body?.error?.code === 'unauthenticated') ||
+  (res.status === 403 && res.body?.error?.code === 'forbidden') ||
   (res.status === 404 && res.body?.error?.message === 'Not found');
 
 describe('role × route matrix', () => {
@@ -74,7 +140,8 @@ describe('role × route matrix', () => {
       const label = `${r.method.toUpperCase()} ${r.path}`;
       const anon = await call('anonymous', r);
       if (r.rule.kind === 'public') {
-        if (anon.status === 401 || anon.status === 403) failures.push(`${label}: public route refused anonymous (${anon.status})`);
+        if (anon.status === 401 || anon.status === 403)
+          failures.push(`${label}: public route refused anonymous (${anon.status})`);
         continue;
       }
       if (anon.status !== 401) failures.push(`${label}: anonymous got ${anon.status}, expected 401`);
@@ -90,7 +157,10 @@ describe('role × route matrix', () => {
         continue;
       }
       if (r.rule.kind === 'admin') {
-        for (const role of ROLES) { const res = await call(role, r); if (res.status !== 403) failures.push(`${label}: ${role} got ${res.status}, expected 403`); }
+        for (const role of ROLES) {
+          const res = await call(role, r);
+          if (res.status !== 403) failures.push(`${label}: ${role} got ${res.status}, expected 403`);
+        }
         const adm = await call('admin', r);
         if (guarded(adm)) failures.push(`${label}: admin refused (${adm.status})`);
         continue;
@@ -100,11 +170,13 @@ describe('role × route matrix', () => {
       const adm = await call('admin', r);
       if (adm.status !== 404) failures.push(`${label}: site admin who is not a member got ${adm.status}, expected 404`);
       // Roles without the right first: an allowed DELETE would remove the entity the others are tried on.
-      const isAllowed = (role: Role) => r.rule.kind === 'member' && (r.rule.roles === 'any' || (r.rule.roles as Role[]).includes(role));
+      const isAllowed = (role: Role) =>
+        r.rule.kind === 'member' && (r.rule.roles === 'any' || (r.rule.roles as Role[]).includes(role));
       for (const role of [...ROLES].sort((a, b) => Number(isAllowed(a)) - Number(isAllowed(b)))) {
         const allowed = isAllowed(role);
         const res = await call(role, r);
-        if (allowed && guarded(res)) failures.push(`${label}: ${role} refused (${res.status} ${res.body?.error?.code})`);
+        if (allowed && guarded(res))
+          failures.push(`${label}: ${role} refused (${res.status} ${res.body?.error?.code})`);
         if (!allowed && res.status !== 403) failures.push(`${label}: ${role} got ${res.status}, expected 403`);
       }
     }

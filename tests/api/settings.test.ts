@@ -6,7 +6,9 @@ import { makeTestApp, createUser, agentFor, type TestApp } from './helpers';
 import { clientSettingsSchema } from '../../shared/api/settings';
 
 const apps: TestApp[] = [];
-afterAll(async () => { for (const a of apps) await a.close(); });
+afterAll(async () => {
+  for (const a of apps) await a.close();
+});
 
 describe('GET /api/settings', () => {
   it('answers 401 without a session', async () => {

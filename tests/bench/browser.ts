@@ -24,7 +24,17 @@ export async function bench(): Promise<BenchResult[]> {
     await startWorkers(srv.t.deps, { concurrency: 2 });
     const tech = await createUser('bench-browser-tech@example.test');
     const analyst = await createUser('bench-browser-analyst@example.test');
-    const c = await Cruise.create({ name: 'Bench browser', ship: 'RV Bench', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+    const c = await Cruise.create({
+      name: 'Bench browser',
+      ship: 'RV Bench',
+      startDate: '2026-03-01',
+      endDate: '2026-03-20',
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: tech.id,
+    });
     await addMember(tech.id, c.id, 'technician');
     await addMember(analyst.id, c.id, 'analyst');
     const a = await agentFor(srv.t.app, tech.email);
@@ -34,23 +44,36 @@ export async function bench(): Promise<BenchResult[]> {
     for (const f of files) req = req.attach('files', join(dir, f));
     const up = await req;
     if (up.status !== 202) throw new Error(`upload ${up.status}`);
-    await waitFor(async () => {
-      const l = (await a.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-      return l.length === files.length && l.every((x) => x.status === 'ready');
-    }, 300_000, 500);
+    await waitFor(
+      async () => {
+        const l = (await a.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+        return l.length === files.length && l.every((x) => x.status === 'ready');
+      },
+      300_000,
+      500,
+    );
 
     // JavaScript before the first screen: a fresh context opening the sign-in page.
     const first = await chromium.newPage();
     const scripts = new Map<string, Promise<number>>();
     first.on('response', (r) => {
       if (r.request().resourceType() !== 'script' || scripts.has(r.url())) return;
-      scripts.set(r.url(), r.body().then((b) => gzipSync(b, { level: 9 }).length, () => 0));
+      scripts.set(
+        r.url(),
+        r.body().then(
+          (b) => gzipSync(b, { level: 9 }).length,
+          () => 0,
+        ),
+      );
     });
     await first.goto(`${srv.url}/signin`, { waitUntil: 'networkidle' });
     await first.getByLabel('E-mail').waitFor();
     const sizes = await Promise.all(scripts.values());
     const jsGzip = sizes.reduce((s, n) => s + n, 0);
-    if (process.env.BENCH_TRACE) [...scripts.keys()].forEach((u, i) => console.log(`  script ${u.replace(srv.url, '')} ${(sizes[i] / 1024).toFixed(1)} kB gz`));
+    if (process.env.BENCH_TRACE)
+      [...scripts.keys()].forEach((u, i) =>
+        console.log(`  script ${u.replace(srv.url, '')} ${(sizes[i] / 1024).toFixed(1)} kB gz`),
+      );
     await first.context().close();
 
     const sectionUrl = `${srv.url}/cruises/${c.id}/section`;
@@ -74,16 +97,32 @@ export async function bench(): Promise<BenchResult[]> {
       times.push(drawnAt - (performance.timeOrigin + t0));
       if (profile) await profile();
       if (trace) await trace(t0);
-      if (process.env.BENCH_SHOT && i === RUNS - 1) await page.screenshot({ path: process.env.BENCH_SHOT, fullPage: true });
+      if (process.env.BENCH_SHOT && i === RUNS - 1)
+        await page.screenshot({ path: process.env.BENCH_SHOT, fullPage: true });
       await page.context().close();
     }
     if (chromium.offLoopback.length) throw new Error(`requests left loopback: ${chromium.offLoopback.join(', ')}`);
     const sorted = [...times].sort((x, y) => x - y);
     if (process.env.BENCH_TRACE) console.log(`  navigations: ${times.map((t) => t.toFixed(0)).join(', ')} ms`);
     return [
-      { name: `section first drawn frame, first navigation (server cache cold)`, value: times[0], unit: 'ms', target: '< 2500 ms' },
-      { name: `section first drawn frame, median of ${RUNS} navigations`, value: sorted[Math.floor(RUNS / 2)], unit: 'ms', target: '< 2500 ms' },
-      { name: 'JavaScript before the first screen (sign-in page)', value: jsGzip / 1024, unit: 'kB gzip', target: '< 400 kB gzip' },
+      {
+        name: `section first drawn frame, first navigation (server cache cold)`,
+        value: times[0],
+        unit: 'ms',
+        target: '< 2500 ms',
+      },
+      {
+        name: `section first drawn frame, median of ${RUNS} navigations`,
+        value: sorted[Math.floor(RUNS / 2)],
+        unit: 'ms',
+        target: '< 2500 ms',
+      },
+      {
+        name: 'JavaScript before the first screen (sign-in page)',
+        value: jsGzip / 1024,
+        unit: 'kB gzip',
+        target: '< 400 kB gzip',
+      },
     ];
   } finally {
     await chromium.browser.close();
@@ -99,14 +138,20 @@ function startTrace(page: Page, origin: string): (t0: number) => Promise<void> {
   page.on('requestfinished', async (r) => {
     const end = performance.now();
     const size = (await r.sizes().catch(() => null))?.responseBodySize ?? 0;
-    events.push({ at: started.get(r) ?? end, text: `${r.method()} ${r.url().replace(origin, '').slice(0, 110)} → ${(end - (started.get(r) ?? end)).toFixed(0)} ms, ${(size / 1024).toFixed(0)} kB` });
+    events.push({
+      at: started.get(r) ?? end,
+      text: `${r.method()} ${r.url().replace(origin, '').slice(0, 110)} → ${(end - (started.get(r) ?? end)).toFixed(0)} ms, ${(size / 1024).toFixed(0)} kB`,
+    });
   });
   return async (t0: number) => {
     await page.waitForTimeout(3000);
-    const marks = await page.evaluate(() => performance.getEntriesByType('mark').map((m) => ({ name: m.name, at: m.startTime })));
+    const marks = await page.evaluate(() =>
+      performance.getEntriesByType('mark').map((m) => ({ name: m.name, at: m.startTime })),
+    );
     // Marks are timed from the document's own origin (the navigation's start), printed as they are.
     for (const m of marks) console.log(`  ${m.at.toFixed(0).padStart(6)} ms  (page clock) mark ${m.name}`);
-    for (const e of events.sort((x, y) => x.at - y.at)) console.log(`  ${(e.at - t0).toFixed(0).padStart(6)} ms  ${e.text}`);
+    for (const e of events.sort((x, y) => x.at - y.at))
+      console.log(`  ${(e.at - t0).toFixed(0).padStart(6)} ms  ${e.text}`);
   };
 }
 

@@ -30,7 +30,11 @@ export async function bench(): Promise<BenchResult[]> {
   const iso = syntheticIsopycnalTable({ seed: 60, casts: 60, levels: 200, extras: true });
   const pres = syntheticPressureTable({ seed: 61, casts: 60, bins: 2500 });
   const tBuild = performance.now();
-  results.push({ name: 'deliveries: build tables (12k + 150k rows, validated)', value: Math.round(tBuild - t0), unit: 'ms' });
+  results.push({
+    name: 'deliveries: build tables (12k + 150k rows, validated)',
+    value: Math.round(tBuild - t0),
+    unit: 'ms',
+  });
 
   const time = async (name: string, f: () => Promise<number> | number): Promise<number> => {
     const s = performance.now();
@@ -63,7 +67,12 @@ export async function bench(): Promise<BenchResult[]> {
       }),
     ),
   );
-  results.push({ name: 'deliveries: 60-cast delivery in every format (data package)', value: Math.round(pkg), unit: 'ms', target: '< 5000 ms' });
+  results.push({
+    name: 'deliveries: 60-cast delivery in every format (data package)',
+    value: Math.round(pkg),
+    unit: 'ms',
+    target: '< 5000 ms',
+  });
   return results;
 }
 

@@ -4,7 +4,8 @@ import { parseUpload } from '../../server/parsers/index';
 
 export async function bench(): Promise<BenchResult[]> {
   const lines = ['pressure [dbar],temperature [ITS-90 degC],salinity [PSS-78],oxygen [umol/kg],fluorescence'];
-  for (let i = 1; i <= 6000; i++) lines.push(`${i}.0,${(20 - i / 400).toFixed(4)},${(35 - i / 20000).toFixed(4)},210.5,0.05`);
+  for (let i = 1; i <= 6000; i++)
+    lines.push(`${i}.0,${(20 - i / 400).toFixed(4)},${(35 - i / 20000).toFixed(4)},210.5,0.05`);
   const buf = Buffer.from(lines.join('\n'));
   await parseUpload('big.csv', buf);
   let best = Infinity;

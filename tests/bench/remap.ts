@@ -34,7 +34,16 @@ function makeCasts(spikes: boolean): SectionCast[] {
       SA[i] = 34.9 + 0.5 * Math.exp(-p[i] / (H * 1.5));
     }
     if (spikes) sigma[400 + c] -= 0.02; // a lag spike per cast, so the sort path has work to do
-    casts.push({ id: `c${c}`, station: `${c}`, lon: -30 + 0.25 * c, lat: -20, bottomDepth: null, p, sigma, props: { CT, SA } });
+    casts.push({
+      id: `c${c}`,
+      station: `${c}`,
+      lon: -30 + 0.25 * c,
+      lat: -20,
+      bottomDepth: null,
+      p,
+      sigma,
+      props: { CT, SA },
+    });
   }
   return casts;
 }
@@ -42,9 +51,14 @@ function makeCasts(spikes: boolean): SectionCast[] {
 const median = (a: number[]) => [...a].sort((x, y) => x - y)[a.length >> 1];
 
 function time(fn: () => void, runs: number): number {
-  fn(); fn(); // warm the JIT
+  fn();
+  fn(); // warm the JIT
   const t: number[] = [];
-  for (let r = 0; r < runs; r++) { const t0 = performance.now(); fn(); t.push(performance.now() - t0); }
+  for (let r = 0; r < runs; r++) {
+    const t0 = performance.now();
+    fn();
+    t.push(performance.now() - t0);
+  }
   return median(t);
 }
 
@@ -113,10 +127,18 @@ function remapAll(casts: SectionCast[], targets: Float64Array): void {
 
 function numpyMs(casts: SectionCast[], targets: Float64Array, runs: number, script = PY): number {
   const input = JSON.stringify({
-    targets: Array.from(targets), runs,
-    casts: casts.map((c) => ({ p: Array.from(c.p), sigma: Array.from(c.sigma), CT: Array.from(c.props.CT), SA: Array.from(c.props.SA) })),
+    targets: Array.from(targets),
+    runs,
+    casts: casts.map((c) => ({
+      p: Array.from(c.p),
+      sigma: Array.from(c.sigma),
+      CT: Array.from(c.props.CT),
+      SA: Array.from(c.props.SA),
+    })),
   });
-  return (JSON.parse(execFileSync(GSW_PYTHON, ['-c', script], { input, maxBuffer: 1 << 26 }).toString()) as { ms: number }).ms;
+  return (
+    JSON.parse(execFileSync(GSW_PYTHON, ['-c', script], { input, maxBuffer: 1 << 26 }).toString()) as { ms: number }
+  ).ms;
 }
 
 export async function bench(): Promise<BenchResult[]> {
@@ -132,15 +154,49 @@ export async function bench(): Promise<BenchResult[]> {
   const stableMs = time(() => remapAll(stable, targets), runs);
   const spikyMs = time(() => remapAll(spiky, targets), runs);
   return [
-    { name: `remap ${N_CASTS} casts × ${N_LEVELS} levels onto ${N_TARGETS} isopycnals (one spike per cast) + pressure (2 dbar) and density grids`, value: totalMs, unit: 'ms', target: '< 150 ms' },
-    { name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, stable casts (sort, linear) vs numpy (sort check, Thorpe argsort, interp, thickness)`, value: stableMs, unit: 'ms', reference: numpyMs(stable, targets, runs), target: 'ratio ≤ 1.0' },
-    { name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, one spike per cast (sort, linear) vs numpy (sort check, Thorpe argsort, interp, thickness)`, value: spikyMs, unit: 'ms', reference: numpyMs(spiky, targets, runs), target: 'ratio ≤ 1.0' },
-    { name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, stable casts, vs numpy with the same outputs (inversions, crossings, flags)`, value: stableMs, unit: 'ms', reference: numpyMs(stable, targets, runs, PY_FULL), target: 'ratio ≤ 1.0' },
-    { name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, one spike per cast, vs numpy with the same outputs (inversions, crossings, flags)`, value: spikyMs, unit: 'ms', reference: numpyMs(spiky, targets, runs, PY_FULL), target: 'ratio ≤ 1.0' },
+    {
+      name: `remap ${N_CASTS} casts × ${N_LEVELS} levels onto ${N_TARGETS} isopycnals (one spike per cast) + pressure (2 dbar) and density grids`,
+      value: totalMs,
+      unit: 'ms',
+      target: '< 150 ms',
+    },
+    {
+      name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, stable casts (sort, linear) vs numpy (sort check, Thorpe argsort, interp, thickness)`,
+      value: stableMs,
+      unit: 'ms',
+      reference: numpyMs(stable, targets, runs),
+      target: 'ratio ≤ 1.0',
+    },
+    {
+      name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, one spike per cast (sort, linear) vs numpy (sort check, Thorpe argsort, interp, thickness)`,
+      value: spikyMs,
+      unit: 'ms',
+      reference: numpyMs(spiky, targets, runs),
+      target: 'ratio ≤ 1.0',
+    },
+    {
+      name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, stable casts, vs numpy with the same outputs (inversions, crossings, flags)`,
+      value: stableMs,
+      unit: 'ms',
+      reference: numpyMs(stable, targets, runs, PY_FULL),
+      target: 'ratio ≤ 1.0',
+    },
+    {
+      name: `remap ${N_CASTS} × ${N_LEVELS} onto ${N_TARGETS}, one spike per cast, vs numpy with the same outputs (inversions, crossings, flags)`,
+      value: spikyMs,
+      unit: 'ms',
+      reference: numpyMs(spiky, targets, runs, PY_FULL),
+      target: 'ratio ≤ 1.0',
+    },
   ];
 }
 
 // Run directly: npx tsx tests/bench/remap.ts
 if (import.meta.url === `file://${process.argv[1]}`) {
-  bench().then((rs) => { for (const r of rs) console.log(`${r.name}: ${r.value.toFixed(2)} ${r.unit}${r.reference !== undefined ? `  reference ${r.reference.toFixed(2)} ms  ratio ${(r.value / r.reference).toFixed(2)}` : ''}  target ${r.target}`); });
+  bench().then((rs) => {
+    for (const r of rs)
+      console.log(
+        `${r.name}: ${r.value.toFixed(2)} ${r.unit}${r.reference !== undefined ? `  reference ${r.reference.toFixed(2)} ms  ratio ${(r.value / r.reference).toFixed(2)}` : ''}  target ${r.target}`,
+      );
+  });
 }

@@ -4,7 +4,10 @@ import { BENCH_MODULES, type BenchResult } from './modules';
 
 function line(module: string, r: BenchResult): string {
   const value = `${r.value.toFixed(r.value < 10 ? 2 : 1)} ${r.unit}`;
-  const ref = r.reference === undefined ? '' : `  reference ${r.reference.toFixed(r.reference < 10 ? 2 : 1)} ${r.unit}  ratio ${(r.value / r.reference).toFixed(2)}`;
+  const ref =
+    r.reference === undefined
+      ? ''
+      : `  reference ${r.reference.toFixed(r.reference < 10 ? 2 : 1)} ${r.unit}  ratio ${(r.value / r.reference).toFixed(2)}`;
   const target = r.target ? `  target ${r.target}` : '';
   return `[${module}] ${r.name}: ${value}${ref}${target}`;
 }

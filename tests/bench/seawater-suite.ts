@@ -6,7 +6,11 @@ import { benchSeawater } from './seawater';
 const N = 1_000_000;
 const TARGET = '≤ 1.5× reference (aim ≤ 1.0×)';
 
-interface TimedRow { name: string; oursMs: number; refMs: number }
+interface TimedRow {
+  name: string;
+  oursMs: number;
+  refMs: number;
+}
 
 export async function bench(): Promise<BenchResult[]> {
   const rows: TimedRow[] = [];
@@ -17,5 +21,11 @@ export async function bench(): Promise<BenchResult[]> {
     console.warn(`seawater-thermo bench skipped: ${(err as Error).message}`);
   }
   rows.push(...benchSeawater(N));
-  return rows.map((r) => ({ name: `${r.name} batch, ${N.toLocaleString('en')} points`, value: r.oursMs, unit: 'ms', reference: r.refMs, target: TARGET }));
+  return rows.map((r) => ({
+    name: `${r.name} batch, ${N.toLocaleString('en')} points`,
+    value: r.oursMs,
+    unit: 'ms',
+    reference: r.refMs,
+    target: TARGET,
+  }));
 }

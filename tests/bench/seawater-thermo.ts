@@ -40,7 +40,10 @@ print(json.dumps({
 `;
 
 /** The benchmark's points: the open North Atlantic and South Pacific, from a fixed seed. */
-const BENCH_BOXES: OceanBox[] = [[-50, -25, 20, 45], [-150, -100, -50, -10]];
+const BENCH_BOXES: OceanBox[] = [
+  [-50, -25, 20, 45],
+  [-150, -100, -50, -10],
+];
 export const benchOceanPoints = (n: number, seed = 20261201) => randomOceanPoints(n, seed, BENCH_BOXES);
 
 function bestOf3(fn: () => void): number {
@@ -67,9 +70,18 @@ export function benchThermo(n: number, rounds = 3): BenchRow[] {
     }
     const best = { oursSA: Infinity, oursCT: Infinity, refSA: Infinity, refCT: Infinity };
     for (let r = 0; r < rounds; r++) {
-      best.oursSA = Math.min(best.oursSA, bestOf3(() => SA_from_SP_batch(SP, p, lon, lat, outSA)));
-      best.oursCT = Math.min(best.oursCT, bestOf3(() => CT_from_t_batch(SA, t, p, outCT)));
-      const ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON, dir], { encoding: 'utf8' })) as Record<string, number>;
+      best.oursSA = Math.min(
+        best.oursSA,
+        bestOf3(() => SA_from_SP_batch(SP, p, lon, lat, outSA)),
+      );
+      best.oursCT = Math.min(
+        best.oursCT,
+        bestOf3(() => CT_from_t_batch(SA, t, p, outCT)),
+      );
+      const ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON, dir], { encoding: 'utf8' })) as Record<
+        string,
+        number
+      >;
       best.refSA = Math.min(best.refSA, ref.SA_from_SP);
       best.refCT = Math.min(best.refCT, ref.CT_from_t);
     }
@@ -86,6 +98,8 @@ export function benchThermo(n: number, rounds = 3): BenchRow[] {
 if (import.meta.url === `file://${process.argv[1]}`) {
   const n = Number(process.argv[2] ?? 1_000_000);
   for (const row of benchThermo(n)) {
-    console.log(`${row.name.padEnd(12)} ours ${row.oursMs.toFixed(1)} ms  gsw ${row.refMs.toFixed(1)} ms  ratio ${(row.oursMs / row.refMs).toFixed(2)}`);
+    console.log(
+      `${row.name.padEnd(12)} ours ${row.oursMs.toFixed(1)} ms  gsw ${row.refMs.toFixed(1)} ms  ratio ${(row.oursMs / row.refMs).toFixed(2)}`,
+    );
   }
 }

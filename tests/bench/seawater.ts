@@ -38,7 +38,8 @@ export function randomSACT(n: number, seed = 424242): { SA: Float64Array; CT: Fl
     s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
     return s / 4294967296;
   };
-  const SA = new Float64Array(n), CT = new Float64Array(n);
+  const SA = new Float64Array(n),
+    CT = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     SA[i] = (2 + 40 * next()) * (35.16504 / 35);
     CT[i] = -2 + 37 * next();
@@ -68,7 +69,10 @@ export function benchSeawater(n: number): SeawaterBenchRow[] {
   try {
     writeFileSync(join(dir, 'SA.f64'), new Uint8Array(SA.buffer));
     writeFileSync(join(dir, 'CT.f64'), new Uint8Array(CT.buffer));
-    const ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON, dir], { encoding: 'utf8' })) as { sigma0: number; sigma2: number };
+    const ref = JSON.parse(execFileSync(GSW_PYTHON, ['-c', PYTHON, dir], { encoding: 'utf8' })) as {
+      sigma0: number;
+      sigma2: number;
+    };
     return [
       { name: 'sigma0', oursMs: ours0, refMs: ref.sigma0 },
       { name: 'sigma2', oursMs: ours2, refMs: ref.sigma2 },

@@ -12,7 +12,17 @@ export async function bench(): Promise<BenchResult[]> {
   try {
     await startWorkers(t.deps, { concurrency: 2 });
     const u = await createUser('bench-section@example.test');
-    const c = await Cruise.create({ name: 'Bench', ship: 'RV Bench', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: u.id });
+    const c = await Cruise.create({
+      name: 'Bench',
+      ship: 'RV Bench',
+      startDate: '2026-03-01',
+      endDate: '2026-03-20',
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: u.id,
+    });
     await addMember(u.id, c.id, 'technician');
     const a = await agentFor(t.app, u.email);
     const dir = join(process.cwd(), 'fixtures/demo/casts');
@@ -20,10 +30,21 @@ export async function bench(): Promise<BenchResult[]> {
     let req = a.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', a.csrf);
     for (const f of files) req = req.attach('files', join(dir, f));
     await req;
-    await waitFor(async () => { const l = (await a.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[]; return l.length === files.length && l.every((x) => x.status === 'ready'); }, 300_000, 500);
+    await waitFor(
+      async () => {
+        const l = (await a.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+        return l.length === files.length && l.every((x) => x.status === 'ready');
+      },
+      300_000,
+      500,
+    );
     const views: Record<string, string | number>[] = [
-      { property: 'CT', coord: 'pressure' }, { property: 'SA', coord: 'pressure' }, { property: 'CT', coord: 'density' },
-      { property: 'SA', coord: 'density', ref: 2000 }, { property: 'oxygen', coord: 'pressure' }, { property: 'CT', coord: 'density', inversions: 'raw' },
+      { property: 'CT', coord: 'pressure' },
+      { property: 'SA', coord: 'pressure' },
+      { property: 'CT', coord: 'density' },
+      { property: 'SA', coord: 'density', ref: 2000 },
+      { property: 'oxygen', coord: 'pressure' },
+      { property: 'CT', coord: 'density', inversions: 'raw' },
     ];
     // Timed over one listening server and plain HTTP with the session cookie, as a browser would.
     const server = t.app.listen(0, '127.0.0.1');
@@ -33,11 +54,18 @@ export async function bench(): Promise<BenchResult[]> {
     const csrfRes = await fetch(`${base}/api/auth/csrf`);
     cookie = (csrfRes.headers.get('set-cookie') ?? '').split(';')[0];
     const token = ((await csrfRes.json()) as { token: string }).token;
-    const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { cookie, 'content-type': 'application/json', 'x-csrf-token': token }, body: JSON.stringify({ email: u.email, password: 'correct-horse-42' }) });
+    const login = await fetch(`${base}/api/auth/login`, {
+      method: 'POST',
+      headers: { cookie, 'content-type': 'application/json', 'x-csrf-token': token },
+      body: JSON.stringify({ email: u.email, password: 'correct-horse-42' }),
+    });
     cookie = (login.headers.get('set-cookie') ?? cookie).split(';')[0];
     const time = async (q: Record<string, string | number>) => {
       const t0 = performance.now();
-      const r = await fetch(`${base}/api/cruises/${c.id}/section?${new URLSearchParams(Object.entries(q).map(([k, v]) => [k, String(v)]))}`, { headers: { cookie, 'accept-encoding': 'gzip' } });
+      const r = await fetch(
+        `${base}/api/cruises/${c.id}/section?${new URLSearchParams(Object.entries(q).map(([k, v]) => [k, String(v)]))}`,
+        { headers: { cookie, 'accept-encoding': 'gzip' } },
+      );
       const body = await r.arrayBuffer();
       if (r.status !== 200) throw new Error(`section ${r.status} ${Buffer.from(body).toString().slice(0, 200)}`);
       return performance.now() - t0;
@@ -49,7 +77,14 @@ export async function bench(): Promise<BenchResult[]> {
     for (let i = 0; i < 300; i++) warm.push(await time(views[i % views.length]));
     // The same views drawn from a named line of every other station (docs/lines.md).
     const names = [...new Set(files.map((f) => f.replace(/(_ct1)?\.csv$/, '')))].filter((_, i) => i % 2 === 0);
-    const line = await Line.create({ cruiseId: c.id, name: 'Every other station', stations: names, polyline: null, corridorKm: null, createdBy: null });
+    const line = await Line.create({
+      cruiseId: c.id,
+      name: 'Every other station',
+      stations: names,
+      polyline: null,
+      corridorKm: null,
+      createdBy: null,
+    });
     const lineViews = views.map((v) => ({ ...v, line: line.id }));
     const coldLine: number[] = [];
     for (const v of lineViews) coldLine.push(await time(v));
@@ -60,7 +95,12 @@ export async function bench(): Promise<BenchResult[]> {
     return [
       { name: `section cold (6 views, ${files.length} casts), p95`, value: p95(cold), unit: 'ms', target: '< 500 ms' },
       { name: 'section warm (300 reads), p95', value: p95(warm), unit: 'ms', target: '< 50 ms' },
-      { name: `section with line= cold (6 views, ${names.length} stations), p95`, value: p95(coldLine), unit: 'ms', target: '< 500 ms' },
+      {
+        name: `section with line= cold (6 views, ${names.length} stations), p95`,
+        value: p95(coldLine),
+        unit: 'ms',
+        target: '< 500 ms',
+      },
       { name: 'section with line= warm (300 reads), p95', value: p95(warmLine), unit: 'ms', target: '< 50 ms' },
     ];
   } finally {

@@ -9,32 +9,65 @@ import { makeTestApp, type TestApp } from '../api/helpers';
 
 export const SHOTS = join(process.cwd(), 'screenshots');
 
-export async function startServer(env: Record<string, string> = {}): Promise<{ t: TestApp; url: string; close(): Promise<void> }> {
-  const probe = await import('node:net').then((net) => new Promise<number>((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => { const p = (s.address() as AddressInfo).port; s.close(() => resolve(p)); });
-  }));
+export async function startServer(
+  env: Record<string, string> = {},
+): Promise<{ t: TestApp; url: string; close(): Promise<void> }> {
+  const probe = await import('node:net').then(
+    (net) =>
+      new Promise<number>((resolve) => {
+        const s = net.createServer().listen(0, '127.0.0.1', () => {
+          const p = (s.address() as AddressInfo).port;
+          s.close(() => resolve(p));
+        });
+      }),
+  );
   const url = `http://127.0.0.1:${probe}`;
   const t = await makeTestApp({ PUBLIC_URL: url, ...env });
   const { createApp } = await import('../../server/app');
   const app = createApp(t.deps, { staticDir: join(process.cwd(), 'dist') });
-  const server: Server = await new Promise((resolve) => { const s = app.listen(probe, '127.0.0.1', () => resolve(s)); });
-  return { t, url, async close() { await new Promise((r) => server.close(r)); await app.close(); await t.close(); } };
+  const server: Server = await new Promise((resolve) => {
+    const s = app.listen(probe, '127.0.0.1', () => resolve(s));
+  });
+  return {
+    t,
+    url,
+    async close() {
+      await new Promise((r) => server.close(r));
+      await app.close();
+      await t.close();
+    },
+  };
 }
 
 export async function launch(): Promise<{ browser: Browser; newPage(): Promise<Page>; offLoopback: string[] }> {
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      '--disable-quic',
+    ],
   });
   const offLoopback: string[] = [];
   mkdirSync(SHOTS, { recursive: true });
   return {
-    browser, offLoopback,
+    browser,
+    offLoopback,
     async newPage() {
       const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
       await context.route('**/*', (route) => {
         const u = new URL(route.request().url());
-        if (u.protocol === 'data:' || u.protocol === 'blob:' || ['127.0.0.1', 'localhost', '[::1]'].includes(u.hostname)) return route.continue();
+        if (
+          u.protocol === 'data:' ||
+          u.protocol === 'blob:' ||
+          ['127.0.0.1', 'localhost', '[::1]'].includes(u.hostname)
+        )
+          return route.continue();
         offLoopback.push(route.request().url());
         return route.abort();
       });

@@ -17,16 +17,35 @@ beforeAll(async () => {
   await startWorkers(srv.t.deps, { concurrency: 2 });
   chromium = await launch();
   const u = await createUser('e2e-life@example.test', { name: 'Ines Farrow' });
-  const c = await Cruise.create({ name: 'Life line', ship: 'RV Tessellate', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: u.id });
+  const c = await Cruise.create({
+    name: 'Life line',
+    ship: 'RV Tessellate',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: u.id,
+  });
   cruiseId = c.id;
   await addMember(u.id, c.id, 'chief_scientist');
 }, 120_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 function castFile(dir: string, name: string, warm: number): string {
-  const rows = Array.from({ length: 60 }, (_, i) => { const p = 2 + 2 * i; return `${p},${(4 + 16 * Math.exp(-p / 300) + warm).toFixed(4)},${(34.6 + Math.exp(-p / 250)).toFixed(4)}`; });
+  const rows = Array.from({ length: 60 }, (_, i) => {
+    const p = 2 + 2 * i;
+    return `${p},${(4 + 16 * Math.exp(-p / 300) + warm).toFixed(4)},${(34.6 + Math.exp(-p / 250)).toFixed(4)}`;
+  });
   const f = join(dir, name);
-  writeFileSync(f, `# station: L7\n# cast: 1\n# latitude: -30.5\n# longitude: -20.25\n# time: 2026-03-04T05:00:00Z\npressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]\n${rows.join('\n')}\n`);
+  writeFileSync(
+    f,
+    `# station: L7\n# cast: 1\n# latitude: -30.5\n# longitude: -20.25\n# time: 2026-03-04T05:00:00Z\npressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]\n${rows.join('\n')}\n`,
+  );
   return f;
 }
 
@@ -49,7 +68,9 @@ describe('Cast life in Chromium', () => {
     await page.setViewportSize({ width: 1280, height: 800 });
     expect(await Cast.unscoped().count({ where: { cruiseId } })).toBe(1);
     await replace.click();
-    await expect.poll(async () => (await Cast.findOne({ where: { cruiseId } }))?.id ?? first, { timeout: 60_000 }).not.toBe(first);
+    await expect
+      .poll(async () => (await Cast.findOne({ where: { cruiseId } }))?.id ?? first, { timeout: 60_000 })
+      .not.toBe(first);
     expect(await Cast.unscoped().count({ where: { cruiseId } })).toBe(2);
     expect(await Cast.count({ where: { cruiseId } })).toBe(1);
 

@@ -23,37 +23,77 @@ beforeAll(async () => {
   const analyst = await createUser(ANALYST, { name: 'Priya Castellane' });
   const t = await agentFor(srv.t.app, tech.email);
   const mk = async (name: string, start: string, dir: string) => {
-    const c = await Cruise.create({ name, ship: 'RV Tessellate', startDate: start, endDate: start, portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+    const c = await Cruise.create({
+      name,
+      ship: 'RV Tessellate',
+      startDate: start,
+      endDate: start,
+      portStart: null,
+      portEnd: null,
+      region: null,
+      description: null,
+      createdBy: tech.id,
+    });
     await addMember(tech.id, c.id, 'technician');
     await addMember(analyst.id, c.id, 'analyst');
-    const files = readdirSync(dir).filter((f) => { const n = Number(f.slice(3, 5)); return n >= 10 && n <= 36; }).sort();
+    const files = readdirSync(dir)
+      .filter((f) => {
+        const n = Number(f.slice(3, 5));
+        return n >= 10 && n <= 36;
+      })
+      .sort();
     let req = t.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', t.csrf);
     for (const f of files) req = req.attach('files', join(dir, f));
     expect((await req).status).toBe(202);
-    await waitFor(async () => {
-      const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-      return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
-    }, 90_000, 500);
+    await waitFor(
+      async () => {
+        const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+        return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
+      },
+      90_000,
+      500,
+    );
     return c.id;
   };
-  await mk('TS-16-02 Corrow Passage (first occupation)', '2016-03-02', join(process.cwd(), 'fixtures/demo-earlier/casts'));
+  await mk(
+    'TS-16-02 Corrow Passage (first occupation)',
+    '2016-03-02',
+    join(process.cwd(), 'fixtures/demo-earlier/casts'),
+  );
   cruiseB = await mk('TS-26-04 Corrow Passage section', '2026-03-01', join(process.cwd(), 'fixtures/demo/casts'));
   chromium = await launch();
 }, 200_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 describe('Then and now', () => {
   it('shows both occupations, the changes and the split, with the view in the URL', async () => {
-    for (const [w, h] of [[1280, 800], [1920, 1080]] as const) {
+    for (const [w, h] of [
+      [1280, 800],
+      [1920, 1080],
+    ] as const) {
       const page = await chromium.newPage();
       await page.setViewportSize({ width: w, height: h });
       await signIn(page, srv.url, ANALYST, PASSWORD);
       await page.waitForURL((u) => !u.pathname.startsWith('/signin'), { timeout: 30_000 });
       await page.goto(`${srv.url}/cruises/${cruiseB}/then-and-now`);
       // the earlier cruise is found by its section identifier and put first, as A
-      await page.waitForFunction(() => /[?&]a=[0-9a-f-]{36}.*&b=/.test(location.search), undefined, { timeout: 30_000 });
-      for (const label of ['Conservative Temperature of A on pressure', 'Conservative Temperature of B on pressure', 'Change on pressure surfaces', 'Change on isopycnals', 'Heave of the isopycnals',
-        'Water-mass term on pressure', 'Heave term on pressure', 'Along-line mean of each term', 'T–S diagram of both']) {
+      await page.waitForFunction(() => /[?&]a=[0-9a-f-]{36}.*&b=/.test(location.search), undefined, {
+        timeout: 30_000,
+      });
+      for (const label of [
+        'Conservative Temperature of A on pressure',
+        'Conservative Temperature of B on pressure',
+        'Change on pressure surfaces',
+        'Change on isopycnals',
+        'Heave of the isopycnals',
+        'Water-mass term on pressure',
+        'Heave term on pressure',
+        'Along-line mean of each term',
+        'T–S diagram of both',
+      ]) {
         await page.locator(`figure[aria-label^="${label}"][data-plot-drawn]`).waitFor({ timeout: 60_000 });
       }
       await page.getByText(/10\.0 years apart/).waitFor({ timeout: 30_000 });
@@ -68,7 +108,9 @@ describe('Then and now', () => {
         await signIn(again, srv.url, ANALYST, PASSWORD);
         await again.waitForURL((u) => !u.pathname.startsWith('/signin'), { timeout: 30_000 });
         await again.goto(url);
-        await again.locator('figure[aria-label^="Absolute Salinity of A on pressure"][data-plot-drawn]').waitFor({ timeout: 60_000 });
+        await again
+          .locator('figure[aria-label^="Absolute Salinity of A on pressure"][data-plot-drawn]')
+          .waitFor({ timeout: 60_000 });
         expect(await again.getByLabel('Property').inputValue()).toBe('SA');
         await again.close();
       }

@@ -21,7 +21,17 @@ beforeAll(async () => {
   await startWorkers(srv.t.deps, { concurrency: 2 });
   const tech = await createUser('e2e-delivery-tech@example.test', { name: 'Ilse Varga' });
   const pi = await createUser(PI, { name: 'Noor Halvard' });
-  const c = await Cruise.create({ name: 'Cinder Plateau line', ship: 'RV Fathom Wren', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+  const c = await Cruise.create({
+    name: 'Cinder Plateau line',
+    ship: 'RV Fathom Wren',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: tech.id,
+  });
   cruiseId = c.id;
   await addMember(tech.id, c.id, 'technician');
   await addMember(pi.id, c.id, 'pi');
@@ -31,31 +41,43 @@ beforeAll(async () => {
   let req = t.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', t.csrf);
   for (const f of files) req = req.attach('files', join(dir, f));
   expect((await req).status).toBe(202);
-  await waitFor(async () => {
-    const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-    return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
-  }, 90_000, 500);
+  await waitFor(
+    async () => {
+      const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+      return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
+    },
+    90_000,
+    500,
+  );
   chromium = await launch();
 }, 120_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 describe('Deliveries screen (Chromium)', () => {
   it('the PI builds in every format, downloads each file and reads its header, then releases', async () => {
     const page = await chromium.newPage();
     const requests: { url: string; at: number }[] = [];
-    page.on('request', (r) => { if (r.url().includes('/api/')) requests.push({ url: r.url().replace(/^https?:\/\/[^/]+/, ''), at: Date.now() }); });
+    page.on('request', (r) => {
+      if (r.url().includes('/api/')) requests.push({ url: r.url().replace(/^https?:\/\/[^/]+/, ''), at: Date.now() });
+    });
     await signIn(page, srv.url, PI, PASSWORD);
     await page.waitForURL((u) => !u.pathname.startsWith('/signin'));
     await page.goto(`${srv.url}/cruises/${cruiseId}/deliveries`);
     const form = page.getByRole('form', { name: 'Build a delivery' });
     await form.waitFor();
-    for (const label of ['Spreadsheet (.xlsx)', 'NetCDF (CF-1.10)', 'CTD exchange files (zip, one per cast)']) await form.getByLabel(label).check();
+    for (const label of ['Spreadsheet (.xlsx)', 'NetCDF (CF-1.10)', 'CTD exchange files (zip, one per cast)'])
+      await form.getByLabel(label).check();
     const t0 = Date.now();
     await form.getByRole('button', { name: 'Build delivery' }).click();
     const item = page.getByRole('listitem').filter({ hasText: 'Isopycnal table' }).first();
     await item.getByText('ready', { exact: true }).waitFor({ timeout: 60_000 });
     const seconds = (Date.now() - t0) / 1000;
-    console.log(`build from the screen: ${seconds.toFixed(1)} s; API requests during it: ${requests.filter((r) => r.at >= t0).length}`);
+    console.log(
+      `build from the screen: ${seconds.toFixed(1)} s; API requests during it: ${requests.filter((r) => r.at >= t0).length}`,
+    );
     // the timing is reported, not asserted tightly (a shared machine); the bench owns the speed target
     expect(seconds).toBeLessThan(45);
     await page.screenshot({ path: join(SHOTS, 'deliveries-built-1280.png'), fullPage: true });

@@ -25,7 +25,17 @@ beforeAll(async () => {
   await startWorkers(srv.t.deps, { concurrency: 2 });
   const tech = await createUser('e2e-figures-tech@example.test', { name: 'Ilse Varga' });
   const analyst = await createUser(ANALYST, { name: 'Piet Orrin' });
-  const c = await Cruise.create({ name: CRUISE, ship: 'RV Fathom Wren', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+  const c = await Cruise.create({
+    name: CRUISE,
+    ship: 'RV Fathom Wren',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: tech.id,
+  });
   cruiseId = c.id;
   await addMember(tech.id, c.id, 'technician');
   await addMember(analyst.id, c.id, 'analyst');
@@ -35,13 +45,20 @@ beforeAll(async () => {
   let req = t.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', t.csrf);
   for (const f of files) req = req.attach('files', join(dir, f));
   expect((await req).status).toBe(202);
-  await waitFor(async () => {
-    const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-    return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
-  }, 90_000, 500);
+  await waitFor(
+    async () => {
+      const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+      return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
+    },
+    90_000,
+    500,
+  );
   chromium = await launch();
 }, 120_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 async function open(query = '', viewport = { width: 1280, height: 800 }): Promise<Page> {
   const page = await chromium.newPage();
@@ -53,7 +70,8 @@ async function open(query = '', viewport = { width: 1280, height: 800 }): Promis
   return page;
 }
 
-const interactive = (page: Page, frame: 'pressure' | 'density') => page.locator(`figure[data-frame="${frame}"][data-plot-interactive]`).waitFor({ timeout: 45_000 });
+const interactive = (page: Page, frame: 'pressure' | 'density') =>
+  page.locator(`figure[data-frame="${frame}"][data-plot-interactive]`).waitFor({ timeout: 45_000 });
 const captionOf = async (page: Page, frame: 'pressure' | 'density') =>
   ((await page.locator(`figure[data-frame="${frame}"] figcaption`).textContent()) ?? '').replace(/\s+/g, ' ').trim();
 const flat = (s: string) => s.replace(/\s+/g, ' ').trim();
@@ -87,7 +105,8 @@ describe('the section as a figure', () => {
         // the "download as png" button writes a file: take it
         const download = /download|save/i.test(title) ? page.waitForEvent('download', { timeout: 15_000 }) : null;
         await b.click();
-        if (download) expect((await download).suggestedFilename()).toMatch(/^Cinder-Plateau-figures_default-line_CT_by-/);
+        if (download)
+          expect((await download).suggestedFilename()).toMatch(/^Cinder-Plateau-figures_default-line_CT_by-/);
       }
       expect(titles.join(' ')).toMatch(/zoom/i);
       // no logo, no link out of the page, no on-graph "edit" link
@@ -122,11 +141,23 @@ describe('the section as a figure', () => {
     const svg = await take('SVG');
     expect(svg.name).toBe('Cinder-Plateau-figures_default-line_SA_section.svg');
     const svgText = readFileSync(svg.path, 'utf8');
-    const textOf = (cls: string) => flat([...svgText.matchAll(new RegExp(`<text [^>]*class="${cls}"[^>]*>([^<]*)</text>`, 'g'))].map((m) => m[1]).join(' '))
-      .replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"');
+    const textOf = (cls: string) =>
+      flat(
+        [...svgText.matchAll(new RegExp(`<text [^>]*class="${cls}"[^>]*>([^<]*)</text>`, 'g'))]
+          .map((m) => m[1])
+          .join(' '),
+      )
+        .replace(/&amp;/g, '&')
+        .replace(/&lt;/g, '<')
+        .replace(/&gt;/g, '>')
+        .replace(/&quot;/g, '"');
     expect(textOf('caption')).toContain(pressureCaption);
     expect(textOf('caption')).toContain(densityCaption);
-    expect(textOf('provenance')).toMatch(new RegExp(`Cruise ${CRUISE} \\(RV Fathom Wren\\) · default line .* · Sigmaline \\d+\\.\\d+\\.\\d+ · drawn \\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d UTC`));
+    expect(textOf('provenance')).toMatch(
+      new RegExp(
+        `Cruise ${CRUISE} \\(RV Fathom Wren\\) · default line .* · Sigmaline \\d+\\.\\d+\\.\\d+ · drawn \\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d UTC`,
+      ),
+    );
     expect(svgText).toContain(`${CRUISE}: Absolute Salinity section`);
 
     // Look at the SVG as a browser draws it.
@@ -154,7 +185,7 @@ describe('the section as a figure', () => {
     const bytes = readFileSync(png.path);
     expect(bytes.subarray(1, 4).toString('latin1')).toBe('PNG');
     // 200 dpi by default: 1100 css px wide → 1100 × 200 / 96 ≈ 2292 pixels
-    expect(bytes.readUInt32BE(16)).toBe(Math.round(1100 * 200 / 96));
+    expect(bytes.readUInt32BE(16)).toBe(Math.round((1100 * 200) / 96));
     expect(chromium.offLoopback).toEqual([]);
     await page.context().close();
   }, 180_000);
@@ -181,18 +212,30 @@ describe('the section as a figure', () => {
     // The fixed range leaves values out at both ends: both triangles are on the bar, the caption says so.
     await page.goto(`${srv.url}/cruises/${cruiseId}/section?cmin=4&cmax=10`);
     await interactive(page, 'pressure');
-    const shapes = await page.locator('figure[data-frame="pressure"] .js-plotly-plot').evaluate((gd) =>
-      ((gd as unknown as { layout: { shapes?: { name?: string }[] } }).layout.shapes ?? []).map((s) => s.name).filter(Boolean));
+    const shapes = await page
+      .locator('figure[data-frame="pressure"] .js-plotly-plot')
+      .evaluate((gd) =>
+        ((gd as unknown as { layout: { shapes?: { name?: string }[] } }).layout.shapes ?? [])
+          .map((s) => s.name)
+          .filter(Boolean),
+      );
     expect(shapes).toEqual(expect.arrayContaining(['extension above', 'extension below']));
-    expect(await captionOf(page, 'pressure')).toMatch(/colour range fixed at 4 to 10, values beyond it drawn in the end colours \(\d+ cells below, \d+ above/);
+    expect(await captionOf(page, 'pressure')).toMatch(
+      /colour range fixed at 4 to 10, values beyond it drawn in the end colours \(\d+ cells below, \d+ above/,
+    );
     // Depth ticks are depths: the axis title says metres.
     await page.goto(`${srv.url}/cruises/${cruiseId}/section?yax=depth`);
     await interactive(page, 'pressure');
-    const yTitle = await page.locator('figure[data-frame="pressure"] .js-plotly-plot').evaluate((gd) =>
-      (gd as unknown as { layout: { yaxis: { title: { text: string } } } }).layout.yaxis.title.text);
+    const yTitle = await page
+      .locator('figure[data-frame="pressure"] .js-plotly-plot')
+      .evaluate((gd) => (gd as unknown as { layout: { yaxis: { title: { text: string } } } }).layout.yaxis.title.text);
     expect(yTitle).toBe('Depth (m)');
     // Both frames are visible without scrolling at 1280 × 800.
-    const boxes = await Promise.all((['pressure', 'density'] as const).map((f) => page.locator(`figure[data-frame="${f}"] .js-plotly-plot`).boundingBox()));
+    const boxes = await Promise.all(
+      (['pressure', 'density'] as const).map((f) =>
+        page.locator(`figure[data-frame="${f}"] .js-plotly-plot`).boundingBox(),
+      ),
+    );
     for (const b of boxes) expect(b && b.y + b.height).toBeLessThanOrEqual(800);
     await shot(page, 'figure-1280x800.png');
     await page.setViewportSize({ width: 1920, height: 1080 });

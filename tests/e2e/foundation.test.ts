@@ -7,8 +7,14 @@ import { createUser, caughtMail, waitFor, PASSWORD } from '../api/helpers';
 
 let srv: Awaited<ReturnType<typeof startServer>>;
 let chromium: Awaited<ReturnType<typeof launch>>;
-beforeAll(async () => { srv = await startServer(); chromium = await launch(); }, 120_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+beforeAll(async () => {
+  srv = await startServer();
+  chromium = await launch();
+}, 120_000);
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 describe('foundation in Chromium', () => {
   it('chief creates a cruise and invites a technician who joins through the e-mailed link', async () => {
@@ -21,7 +27,8 @@ describe('foundation in Chromium', () => {
     await page.getByRole('heading', { name: 'Cruises', exact: true }).waitFor();
     await page.waitForLoadState('networkidle');
     // with no cruise yet the create form is open; otherwise it opens from its button
-    if (await page.getByRole('button', { name: 'New cruise' }).isVisible()) await page.getByRole('button', { name: 'New cruise' }).click();
+    if (await page.getByRole('button', { name: 'New cruise' }).isVisible())
+      await page.getByRole('button', { name: 'New cruise' }).click();
     await page.getByRole('button', { name: 'Create cruise' }).click();
     await page.getByText('Give the cruise a name.').waitFor(); // client-side validation, before any request
     await page.getByLabel('Cruise name').fill('Brindle Rise repeat line');
@@ -43,7 +50,9 @@ describe('foundation in Chromium', () => {
     await page.screenshot({ path: join(SHOTS, 'team.png') });
 
     // the SMTP fake keeps earlier runs' mail: take this server's invitation
-    const mail = await waitFor(async () => (await caughtMail()).filter((m) => m.to.includes('e2e-tech@example.test') && m.text.includes(srv.url)).at(-1));
+    const mail = await waitFor(async () =>
+      (await caughtMail()).filter((m) => m.to.includes('e2e-tech@example.test') && m.text.includes(srv.url)).at(-1),
+    );
     const link = /(http:\/\/127\.0\.0\.1:\d+\/invite\/[\w-]+)/.exec(mail.text)![1];
     expect(link.startsWith(srv.url)).toBe(true);
     const techPage = await chromium.newPage();
@@ -52,10 +61,12 @@ describe('foundation in Chromium', () => {
     await techPage.getByLabel('Choose a password').fill('marram-lark-2026');
     await techPage.screenshot({ path: join(SHOTS, 'invite-accept.png') });
     await techPage.getByRole('button', { name: 'Create account and join' }).click();
-    await techPage.waitForURL((u) => !u.pathname.startsWith('/invite'), { timeout: 15_000 }).catch(async (err) => {
-      await techPage.screenshot({ path: join(SHOTS, 'invite-accept-failed.png') });
-      throw err;
-    });
+    await techPage
+      .waitForURL((u) => !u.pathname.startsWith('/invite'), { timeout: 15_000 })
+      .catch(async (err) => {
+        await techPage.screenshot({ path: join(SHOTS, 'invite-accept-failed.png') });
+        throw err;
+      });
     await techPage.goto(`${srv.url}/`);
     await techPage.getByRole('table', { name: 'Your cruises' }).getByText('Brindle Rise repeat line').waitFor();
     await techPage.screenshot({ path: join(SHOTS, 'technician-cruises.png') });

@@ -22,7 +22,17 @@ beforeAll(async () => {
   await startWorkers(srv.t.deps, { concurrency: 2 });
   const tech = await createUser('e2e-lines-tech@example.test', { name: 'Ilse Varga' });
   const analyst = await createUser(ANALYST, { name: 'Piet Orrin' });
-  const c = await Cruise.create({ name: 'Cinder Plateau lines', ship: 'RV Fathom Wren', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+  const c = await Cruise.create({
+    name: 'Cinder Plateau lines',
+    ship: 'RV Fathom Wren',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: tech.id,
+  });
   cruiseId = c.id;
   await addMember(tech.id, c.id, 'technician');
   await addMember(analyst.id, c.id, 'analyst');
@@ -30,21 +40,30 @@ beforeAll(async () => {
   let req = t.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', t.csrf);
   for (const f of files) req = req.attach('files', join(process.cwd(), 'fixtures/demo/casts', f));
   expect((await req).status).toBe(202);
-  await waitFor(async () => {
-    const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-    return list.length === files.length && list.every((u) => u.status === 'ready');
-  }, 90_000, 500);
+  await waitFor(
+    async () => {
+      const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+      return list.length === files.length && list.every((u) => u.status === 'ready');
+    },
+    90_000,
+    500,
+  );
   chromium = await launch();
 }, 150_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 /** Click the map at a station's point, offset a little so the click lands on the map, not the station. */
 async function clickNear(page: Page, station: string, dx = 0, dy = 14) {
   const box = (await page.locator(`[data-station="${station}"]`).boundingBox())!;
-  await page.locator('[data-testid="lines-map"]').click({ position: await (async () => {
-    const map = (await page.locator('[data-testid="lines-map"]').boundingBox())!;
-    return { x: box.x + box.width / 2 - map.x + dx, y: box.y + box.height / 2 - map.y + dy };
-  })() });
+  await page.locator('[data-testid="lines-map"]').click({
+    position: await (async () => {
+      const map = (await page.locator('[data-testid="lines-map"]').boundingBox())!;
+      return { x: box.x + box.width / 2 - map.x + dx, y: box.y + box.height / 2 - map.y + dy };
+    })(),
+  });
 }
 
 describe('lines in Chromium', () => {
@@ -65,7 +84,10 @@ describe('lines in Chromium', () => {
     expect(await page.locator('[data-testid="drawn-polyline"]').count()).toBe(1);
     await page.getByRole('button', { name: /Take the stations near it/ }).click();
     const editor = page.locator('[data-testid="line-editor"]');
-    await editor.getByRole('textbox', { name: 'Rename the line' }).and(page.locator('[value="Drawn west stretch"]')).waitFor({ timeout: 20_000 });
+    await editor
+      .getByRole('textbox', { name: 'Rename the line' })
+      .and(page.locator('[value="Drawn west stretch"]'))
+      .waitFor({ timeout: 20_000 });
     const rows = await editor.locator('tbody tr td:nth-child(2)').allTextContents();
     expect(rows).toEqual(['CP-03', 'CP-04', 'CP-05', 'CP-06', 'CP-07', 'CP-08']);
     await page.screenshot({ path: join(SHOTS, 'lines-drawn-1280.png'), fullPage: true });

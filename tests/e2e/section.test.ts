@@ -11,7 +11,9 @@ import { startServer, launch, signIn, SHOTS } from './browser';
 import { createUser, addMember, agentFor, waitFor, PASSWORD } from '../api/helpers';
 
 type Planted = { kind: 'spike' | 'overturn'; station: string; pressure?: number; pTop?: number; pBottom?: number };
-const planted = (JSON.parse(readFileSync(join(process.cwd(), 'fixtures/demo/planted.json'), 'utf8')) as { planted: Planted[] }).planted;
+const planted = (
+  JSON.parse(readFileSync(join(process.cwd(), 'fixtures/demo/planted.json'), 'utf8')) as { planted: Planted[] }
+).planted;
 const ANALYST = 'e2e-section-analyst@example.test';
 
 let srv: Awaited<ReturnType<typeof startServer>>;
@@ -25,7 +27,17 @@ beforeAll(async () => {
   await startWorkers(srv.t.deps, { concurrency: 2 });
   const tech = await createUser('e2e-section-tech@example.test', { name: 'Ilse Varga' });
   const analyst = await createUser(ANALYST, { name: 'Piet Orrin' });
-  const c = await Cruise.create({ name: 'Cinder Plateau line', ship: 'RV Fathom Wren', startDate: '2026-03-01', endDate: '2026-03-20', portStart: null, portEnd: null, region: null, description: null, createdBy: tech.id });
+  const c = await Cruise.create({
+    name: 'Cinder Plateau line',
+    ship: 'RV Fathom Wren',
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: tech.id,
+  });
   cruiseId = c.id;
   await addMember(tech.id, c.id, 'technician');
   await addMember(analyst.id, c.id, 'analyst');
@@ -36,15 +48,24 @@ beforeAll(async () => {
   let req = t.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', t.csrf);
   for (const f of files) req = req.attach('files', join(dir, f));
   expect((await req).status).toBe(202);
-  await waitFor(async () => {
-    const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
-    return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
-  }, 75_000, 500);
-  const failed = ((await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string; filename: string }[]).filter((u) => u.status !== 'ready');
+  await waitFor(
+    async () => {
+      const list = (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string }[];
+      return list.length === files.length && list.every((u) => u.status === 'ready' || u.status === 'failed');
+    },
+    75_000,
+    500,
+  );
+  const failed = (
+    (await t.agent.get(`/api/cruises/${c.id}/uploads`)).body as { status: string; filename: string }[]
+  ).filter((u) => u.status !== 'ready');
   expect(failed.map((u) => u.filename)).toEqual([]);
   chromium = await launch();
 }, 100_000);
-afterAll(async () => { await chromium?.browser.close(); await srv?.close(); });
+afterAll(async () => {
+  await chromium?.browser.close();
+  await srv?.close();
+});
 
 /** Waits until the frame whose figure label starts with `label` has been drawn by Plotly with the data asked for. */
 async function drawnFrame(page: Page, label: string) {
@@ -77,7 +98,10 @@ async function warnings(page: Page) {
   const list = page.getByRole('region', { name: /Inversions of/ });
   const spans = list.getByRole('heading').locator('span');
   const count = `${await spans.nth(0).textContent()}: ${await spans.nth(1).textContent()}`.replace(/\s+/g, ' ').trim();
-  const rows = await list.getByRole('row').filter({ has: page.getByRole('link') }).allTextContents();
+  const rows = await list
+    .getByRole('row')
+    .filter({ has: page.getByRole('link') })
+    .allTextContents();
   return { count, rows: rows.map((r) => r.replace(/\s+/g, ' ').trim()) };
 }
 
@@ -114,7 +138,9 @@ describe('Section screen in Chromium', () => {
     await page.getByRole('heading', { name: 'By density (σ2)' }).waitFor();
     await drawnFrame(page, 'Section by density (σ₂)');
     await page.getByRole('region', { name: 'Inversions of σ2' }).waitFor();
-    await expect.poll(async () => (await warnings(page)).count, { timeout: 20_000 }).toBe(`Inversions of σ2: ${planted.length} in ${planted.length} casts`);
+    await expect
+      .poll(async () => (await warnings(page)).count, { timeout: 20_000 })
+      .toBe(`Inversions of σ2: ${planted.length} in ${planted.length} casts`);
     const atSigma2 = await warnings(page);
     // Every planted inversion is a warning of its class at its station, and there is no other.
     expect(atSigma2.rows).toHaveLength(planted.length);
@@ -153,10 +179,18 @@ describe('Section screen in Chromium', () => {
 
     // Open the warned cast of the overturn from the list: its cast sheet loads.
     const overturn = planted.find((p) => p.kind === 'overturn')!;
-    await page.getByRole('link', { name: `Open cast of station ${overturn.station}: inversion ${overturn.pTop} to ${overturn.pBottom} dbar` }).click();
+    await page
+      .getByRole('link', {
+        name: `Open cast of station ${overturn.station}: inversion ${overturn.pTop} to ${overturn.pBottom} dbar`,
+      })
+      .click();
     await page.waitForURL(/\/casts\/[\w-]+/);
     await page.getByRole('heading', { name: new RegExp(`Station ${overturn.station}`) }).waitFor();
-    await page.getByRole('region', { name: 'Density inversions' }).or(page.getByText('Density inversions')).first().waitFor();
+    await page
+      .getByRole('region', { name: 'Density inversions' })
+      .or(page.getByText('Density inversions'))
+      .first()
+      .waitFor();
     await page.locator('figure[data-plot-drawn]').first().waitFor({ timeout: 30_000 });
     await page.waitForLoadState('networkidle');
     await page.screenshot({ path: join(SHOTS, 'cast-from-warning.png'), fullPage: true });

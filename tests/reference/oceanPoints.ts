@@ -22,8 +22,11 @@ export function randomOceanPoints(n: number, seed: number, boxes: OceanBox[] = O
     s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
     return s / 4294967296;
   };
-  const SP = new Float64Array(n), t = new Float64Array(n), p = new Float64Array(n);
-  const lon = new Float64Array(n), lat = new Float64Array(n);
+  const SP = new Float64Array(n),
+    t = new Float64Array(n),
+    p = new Float64Array(n);
+  const lon = new Float64Array(n),
+    lat = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     SP[i] = 2 + 40 * next();
     t[i] = -2 + 37 * next();
@@ -52,7 +55,10 @@ export function randomWholeOceanPoints(n: number, seed: number, cells: AtlasCell
     return s / 4294967296;
   };
   const withGaps = cells.filter((c) => c.gaps);
-  const SP = new Float64Array(n), p = new Float64Array(n), lon = new Float64Array(n), lat = new Float64Array(n);
+  const SP = new Float64Array(n),
+    p = new Float64Array(n),
+    lon = new Float64Array(n),
+    lat = new Float64Array(n);
   const depthAt = (x: number, y: number) => {
     const ix = Math.min(89, Math.floor((((x % 360) + 360) % 360) / 4));
     const iy = Math.min(43, Math.max(0, Math.floor((y + 86) / 4)));
@@ -61,21 +67,26 @@ export function randomWholeOceanPoints(n: number, seed: number, cells: AtlasCell
   for (let i = 0; i < n; i++) {
     SP[i] = 2 + 40 * next();
     const kind = i % 10;
-    if (kind < 4) { // anywhere, in any of three turns of longitude
+    if (kind < 4) {
+      // anywhere, in any of three turns of longitude
       lon[i] = -360 + 1080 * next();
       lat[i] = -86 + 176 * next();
-    } else if (kind < 6) { // a cell with missing corners
+    } else if (kind < 6) {
+      // a cell with missing corners
       const c = withGaps[Math.floor(next() * withGaps.length)];
       lon[i] = c.lon + 4 * next();
       lat[i] = c.lat + 4 * next();
-    } else if (kind === 6) { // across the seam, written either way
+    } else if (kind === 6) {
+      // across the seam, written either way
       const x = -4 + 8 * next();
       lon[i] = next() < 0.5 ? x : x < 0 ? x + 360 : x;
       lat[i] = -86 + 176 * next();
-    } else if (kind === 7) { // the Panama box and its edges
+    } else if (kind === 7) {
+      // the Panama box and its edges
       lon[i] = 255 + 45 * next();
       lat[i] = -2 + 26 * next();
-    } else { // the Southern Ocean ridge region near 0° E, 1500–2300 dbar
+    } else {
+      // the Southern Ocean ridge region near 0° E, 1500–2300 dbar
       lon[i] = -3 + 3 * next();
       lat[i] = -55 + 5 * next();
       p[i] = 1500 + 800 * next();

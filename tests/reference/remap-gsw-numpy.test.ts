@@ -42,12 +42,21 @@ while len(casts) < req['n']:
 print(json.dumps(casts).replace('NaN', 'null'))
 `;
 
-const range = (a: number, step: number, n: number) => Array.from({ length: n }, (_, i) => Number((a + i * step).toFixed(4)));
+const range = (a: number, step: number, n: number) =>
+  Array.from({ length: n }, (_, i) => Number((a + i * step).toFixed(4)));
 const targets: Record<string, number[]> = { '0': range(23.0, 0.05, 100), '2000': range(33.0, 0.05, 86) };
 
-interface PyCast { p: number[]; SA: number[]; CT: number[]; [k: string]: (number | null)[] }
+interface PyCast {
+  p: number[];
+  SA: number[];
+  CT: number[];
+  [k: string]: (number | null)[];
+}
 const casts = JSON.parse(
-  execFileSync(GSW_PYTHON, ['-c', PY], { input: JSON.stringify({ seed: 20260305, n: 24, targets }), maxBuffer: 1 << 28 }).toString(),
+  execFileSync(GSW_PYTHON, ['-c', PY], {
+    input: JSON.stringify({ seed: 20260305, n: 24, targets }),
+    maxBuffer: 1 << 28,
+  }).toString(),
 ) as PyCast[];
 
 /** Python's σ column linearly interpolated at pressure q (the test's own evaluation step). */
@@ -95,7 +104,9 @@ describe('isopycnal table vs python3-gsw + numpy.interp (source: python3-gsw 3.6
       }
       expect(checked).toBeGreaterThan(500);
       // Recorded for the report: the worst σ misfit and pressure difference seen.
-      console.log(`σ${ref}: ${checked} levels, worst |Δσ| ${worstSigma.toExponential(2)} kg/m³, worst |Δp| ${worstP.toExponential(2)} dbar`);
+      console.log(
+        `σ${ref}: ${checked} levels, worst |Δσ| ${worstSigma.toExponential(2)} kg/m³, worst |Δp| ${worstP.toExponential(2)} dbar`,
+      );
     });
   }
 });

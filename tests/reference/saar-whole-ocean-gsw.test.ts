@@ -22,7 +22,11 @@ type Points = { SP: Float64Array; p: Float64Array; lon: Float64Array; lat: Float
 
 /** The atlas grid's cells: where each reads its deepest level, and which have corners without data. */
 function atlasCells(): AtlasCell[] {
-  const f = atlasFile as unknown as { pressures: number[]; cell_deepest_level: { values: number[] }; saar_base64: string };
+  const f = atlasFile as unknown as {
+    pressures: number[];
+    cell_deepest_level: { values: number[] };
+    saar_base64: string;
+  };
   const b = Buffer.from(f.saar_base64, 'base64');
   const v = new Float64Array(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength));
   const cells: AtlasCell[] = [];
@@ -47,13 +51,18 @@ function reference(pts: Points): { version: string; SA: (number | null)[] } {
 
 function worst(pts: Points, ref: (number | null)[]) {
   const ours = SA_from_SP_batch(pts.SP, pts.p, pts.lon, pts.lat);
-  let max = 0, at = -1, compared = 0;
+  let max = 0,
+    at = -1,
+    compared = 0;
   for (let i = 0; i < ref.length; i++) {
     const r = ref[i];
     if (r === null) continue;
     compared++;
     const d = Math.abs(ours[i] - r);
-    if (!(d <= max)) { max = Number.isNaN(d) ? Infinity : d; at = i; }
+    if (!(d <= max)) {
+      max = Number.isNaN(d) ? Infinity : d;
+      at = i;
+    }
   }
   const where = at < 0 ? '' : `${pts.p[at].toFixed(1)} dbar ${pts.lon[at].toFixed(3)}°E ${pts.lat[at].toFixed(3)}°N`;
   return { max, where, compared };
@@ -81,9 +90,16 @@ describe(`SA_from_SP against python3-gsw over the whole ocean (${N} points)`, ()
     // Here cells have corners without data at some levels, beside the 0°/360° seam; a difference
     // of up to 1.1e-3 g/kg was found before the reference's handling of such corners was matched.
     const n = 3000;
-    const pts: Points = { SP: new Float64Array(n), p: new Float64Array(n), lon: new Float64Array(n), lat: new Float64Array(n) };
+    const pts: Points = {
+      SP: new Float64Array(n),
+      p: new Float64Array(n),
+      lon: new Float64Array(n),
+      lat: new Float64Array(n),
+    };
     for (let i = 0; i < n; i++) {
-      const u = (i * 0.6180339887498949) % 1, v = (i * 0.7548776662466927) % 1, w = (i * 0.5698402909980532) % 1;
+      const u = (i * 0.6180339887498949) % 1,
+        v = (i * 0.7548776662466927) % 1,
+        w = (i * 0.5698402909980532) % 1;
       pts.SP[i] = 34.7;
       pts.lon[i] = i % 2 ? -3 * u : 360 - 3 * u; // both ways of writing the same longitudes
       pts.lat[i] = -55 + 5 * v;

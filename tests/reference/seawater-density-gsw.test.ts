@@ -14,7 +14,19 @@
 import { execFileSync } from 'node:child_process';
 import { GSW_PYTHON } from './python';
 import { afterAll, describe, expect, it } from 'vitest';
-import { alpha, beta, enthalpy, rho, sigma_batch, sigma0, sigma1, sigma2, sigma3, sigma4, specvol } from '../../shared/seawater/density';
+import {
+  alpha,
+  beta,
+  enthalpy,
+  rho,
+  sigma_batch,
+  sigma0,
+  sigma1,
+  sigma2,
+  sigma3,
+  sigma4,
+  specvol,
+} from '../../shared/seawater/density';
 import { grav, p_from_z, z_from_p } from '../../shared/seawater/depth';
 import { Nsquared } from '../../shared/seawater/stability';
 import { geo_strf_dyn_height, geo_strf_velocity } from '../../shared/seawater/geostrophy';
@@ -39,7 +51,13 @@ for (let k = 0; k < N_POINTS; k++) {
 }
 
 // ---- casts --------------------------------------------------------------------------------
-interface Cast { SA: number[]; CT: number[]; p: number[]; lat: number; p_ref: number }
+interface Cast {
+  SA: number[];
+  CT: number[];
+  p: number[];
+  lat: number;
+  p_ref: number;
+}
 const casts: Cast[] = [];
 for (let c = 0; c < 160; c++) {
   const lat = uniform(-70, 70);
@@ -50,7 +68,10 @@ for (let c = 0; c < 160; c++) {
     p.push(q);
     q += fine ? (c % 2 ? 1 : 0.5) : uniform(2, 250);
   }
-  const sTop = uniform(30, 37), sDeep = uniform(34.6, 35), tTop = uniform(5, 30), tDeep = uniform(-0.5, 3);
+  const sTop = uniform(30, 37),
+    sDeep = uniform(34.6, 35),
+    tTop = uniform(5, 30),
+    tDeep = uniform(-0.5, 3);
   const scale = uniform(200, 1000);
   const SA = p.map((x) => (sDeep + (sTop - sDeep) * Math.exp(-x / scale) + uniform(-0.01, 0.01)) * uPS);
   const CT = p.map((x) => tDeep + (tTop - tDeep) * Math.exp(-x / (0.7 * scale)) + uniform(-0.02, 0.02));
@@ -60,10 +81,18 @@ for (let c = 0; c < 160; c++) {
   casts.push({ SA, CT, p, lat, p_ref });
 }
 // pairs on a shared grid for geostrophic velocity (the second cast is the first, perturbed)
-const pairs = casts.filter((c) => c.p[0] === 0).slice(0, 20).map((a, k) => ({
-  a, b: { ...a, SA: a.SA.map((s) => s + uniform(-0.05, 0.05)), CT: a.CT.map((t) => t + uniform(-0.3, 0.3)) },
-  lonA: uniform(-180, 180), latA: a.lat, dLon: uniform(0.05, 1), dLat: uniform(-0.5, 0.5), p_ref: k % 2 ? a.p[a.p.length - 1] : 1000,
-}));
+const pairs = casts
+  .filter((c) => c.p[0] === 0)
+  .slice(0, 20)
+  .map((a, k) => ({
+    a,
+    b: { ...a, SA: a.SA.map((s) => s + uniform(-0.05, 0.05)), CT: a.CT.map((t) => t + uniform(-0.3, 0.3)) },
+    lonA: uniform(-180, 180),
+    latA: a.lat,
+    dLon: uniform(0.05, 1),
+    dLat: uniform(-0.5, 0.5),
+    p_ref: k % 2 ? a.p[a.p.length - 1] : 1000,
+  }));
 
 const PY = String.raw`
 import json, sys
@@ -108,7 +137,16 @@ const ref = JSON.parse(
     input: JSON.stringify({
       points: pts,
       casts,
-      pairs: pairs.map((q) => ({ p: q.a.p, SAa: q.a.SA, CTa: q.a.CT, SAb: q.b.SA, CTb: q.b.CT, p_ref: q.p_ref, lon: [q.lonA, q.lonA + q.dLon], lat: [q.latA, q.latA + q.dLat] })),
+      pairs: pairs.map((q) => ({
+        p: q.a.p,
+        SAa: q.a.SA,
+        CTa: q.a.CT,
+        SAb: q.b.SA,
+        CTb: q.b.CT,
+        p_ref: q.p_ref,
+        lon: [q.lonA, q.lonA + q.dLon],
+        lat: [q.latA, q.latA + q.dLat],
+      })),
     }),
     maxBuffer: 256 * 1024 * 1024,
   }).toString(),
@@ -134,46 +172,85 @@ describe('density half vs python3-gsw live reference (12 000 random ocean points
   it('sigma0 … sigma4 within 1e-8 kg/m³ (docs/science.md §5), scalar and batch', () => {
     const fns = [sigma0, sigma1, sigma2, sigma3, sigma4];
     fns.forEach((fn, r) => {
-      expect(note('sigma', worstPointwise((k) => fn(SA[k], CT[k]), refCol(`sigma${r}`))), `sigma${r}`).toBeLessThanOrEqual(1e-8);
+      expect(
+        note(
+          'sigma',
+          worstPointwise((k) => fn(SA[k], CT[k]), refCol(`sigma${r}`)),
+        ),
+        `sigma${r}`,
+      ).toBeLessThanOrEqual(1e-8);
       const batch = sigma_batch(Float64Array.from(SA), Float64Array.from(CT), r * 1000);
-      expect(worstPointwise((k) => batch[k], refCol(`sigma${r}`)), `sigma${r} batch`).toBeLessThanOrEqual(1e-8);
+      expect(
+        worstPointwise((k) => batch[k], refCol(`sigma${r}`)),
+        `sigma${r} batch`,
+      ).toBeLessThanOrEqual(1e-8);
     });
   });
   it('rho within 1e-8 kg/m³ and specvol within 1e-14 m³/kg', () => {
-    expect(note('rho', worstPointwise((k) => rho(SA[k], CT[k], p[k]), refCol('rho')))).toBeLessThanOrEqual(1e-8);
+    expect(
+      note(
+        'rho',
+        worstPointwise((k) => rho(SA[k], CT[k], p[k]), refCol('rho')),
+      ),
+    ).toBeLessThanOrEqual(1e-8);
     expect(worstPointwise((k) => specvol(SA[k], CT[k], p[k]), refCol('specvol'))).toBeLessThanOrEqual(1e-14);
   });
   it('alpha and beta within 1e-13 (≈ 1e-9 relative)', () => {
-    expect(note('alpha', worstPointwise((k) => alpha(SA[k], CT[k], p[k]), refCol('alpha')))).toBeLessThanOrEqual(1e-13);
-    expect(note('beta', worstPointwise((k) => beta(SA[k], CT[k], p[k]), refCol('beta')))).toBeLessThanOrEqual(1e-13);
+    expect(
+      note(
+        'alpha',
+        worstPointwise((k) => alpha(SA[k], CT[k], p[k]), refCol('alpha')),
+      ),
+    ).toBeLessThanOrEqual(1e-13);
+    expect(
+      note(
+        'beta',
+        worstPointwise((k) => beta(SA[k], CT[k], p[k]), refCol('beta')),
+      ),
+    ).toBeLessThanOrEqual(1e-13);
   });
   it('enthalpy within 1e-6 J/kg and spiciness0 within 1e-8 kg/m³', () => {
     expect(worstPointwise((k) => enthalpy(SA[k], CT[k], p[k]), refCol('enthalpy'))).toBeLessThanOrEqual(1e-6);
     expect(worstPointwise((k) => spiciness0(SA[k], CT[k]), refCol('spiciness0'))).toBeLessThanOrEqual(1e-8);
   });
   it('z_from_p within 1e-7 m, grav within 1e-12 m/s², and p_from_z inverts to 1e-8 dbar', () => {
-    expect(note('z_from_p', worstPointwise((k) => z_from_p(p[k], lat[k]), refCol('z')))).toBeLessThanOrEqual(1e-7);
+    expect(
+      note(
+        'z_from_p',
+        worstPointwise((k) => z_from_p(p[k], lat[k]), refCol('z')),
+      ),
+    ).toBeLessThanOrEqual(1e-7);
     expect(worstPointwise((k) => grav(lat[k], p[k]), refCol('grav'))).toBeLessThanOrEqual(1e-12);
     expect(worstPointwise((k) => p_from_z(refCol('z')[k], lat[k]), p)).toBeLessThanOrEqual(1e-8);
   });
   it('Nsquared within 1e-12 s⁻² at every mid-point, p_mid exact', () => {
-    let worst = 0, worstP = 0, n = 0;
+    let worst = 0,
+      worstP = 0,
+      n = 0;
     casts.forEach((c, i) => {
       const r = Nsquared(c.SA, c.CT, c.p, c.lat);
       const e = ref.casts[i];
       expect(r.N2.length).toBe(e.N2.length);
-      r.N2.forEach((v, k) => { worst = Math.max(worst, Math.abs(v - e.N2[k])); worstP = Math.max(worstP, Math.abs(r.p_mid[k] - e.p_mid[k])); n++; });
+      r.N2.forEach((v, k) => {
+        worst = Math.max(worst, Math.abs(v - e.N2[k]));
+        worstP = Math.max(worstP, Math.abs(r.p_mid[k] - e.p_mid[k]));
+        n++;
+      });
     });
     expect(n).toBeGreaterThan(10_000);
     expect(note('N2', worst)).toBeLessThanOrEqual(1e-12);
     expect(worstP).toBeLessThanOrEqual(1e-9);
   });
   it('geo_strf_dyn_height within 1e-6 m²/s² on every level of every cast', () => {
-    let worst = 0, n = 0;
+    let worst = 0,
+      n = 0;
     casts.forEach((c, i) => {
       const D = geo_strf_dyn_height(c.SA, c.CT, c.p, c.p_ref);
       ref.casts[i].D.forEach((e, k) => {
-        if (e === null) { expect(D[k]).toBeNaN(); return; }
+        if (e === null) {
+          expect(D[k]).toBeNaN();
+          return;
+        }
         worst = Math.max(worst, Math.abs(D[k] - e));
         n++;
       });
@@ -182,11 +259,21 @@ describe('density half vs python3-gsw live reference (12 000 random ocean points
     expect(note('D', worst)).toBeLessThanOrEqual(1e-6);
   });
   it('geostrophic velocity between cast pairs matches gsw.geostrophic_velocity (6371 km radius as the library) within 1e-9 m/s', () => {
-    let worst = 0, compared = 0;
+    let worst = 0,
+      compared = 0;
     pairs.forEach((q, i) => {
-      const r = geo_strf_velocity({ SA: q.a.SA, CT: q.a.CT, lon: q.lonA, lat: q.latA }, { SA: q.b.SA, CT: q.b.CT, lon: q.lonA + q.dLon, lat: q.latA + q.dLat }, q.a.p, q.p_ref, { radius: 6371e3 });
+      const r = geo_strf_velocity(
+        { SA: q.a.SA, CT: q.a.CT, lon: q.lonA, lat: q.latA },
+        { SA: q.b.SA, CT: q.b.CT, lon: q.lonA + q.dLon, lat: q.latA + q.dLat },
+        q.a.p,
+        q.p_ref,
+        { radius: 6371e3 },
+      );
       ref.pairs[i].forEach((e, k) => {
-        if (e === null) { expect(r.v[k]).toBeNaN(); return; }
+        if (e === null) {
+          expect(r.v[k]).toBeNaN();
+          return;
+        }
         worst = Math.max(worst, Math.abs(r.v[k] - e));
         compared++;
       });

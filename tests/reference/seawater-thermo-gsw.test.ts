@@ -7,7 +7,12 @@ import { execFileSync } from 'node:child_process';
 import { GSW_PYTHON } from './python';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
-  CT_from_pt, CT_from_t_batch, pt0_from_t_batch, pt_from_CT_batch, pt_from_t_batch, t_from_CT_batch,
+  CT_from_pt,
+  CT_from_t_batch,
+  pt0_from_t_batch,
+  pt_from_CT_batch,
+  pt_from_t_batch,
+  t_from_CT_batch,
 } from '../../shared/seawater/conversions';
 import { C_from_SP, SP_from_C } from '../../shared/seawater/pss78';
 import { SA_from_SP_batch } from '../../shared/seawater/saar';
@@ -39,7 +44,10 @@ out = {
 json.dump({k: (v.tolist() if hasattr(v, "tolist") else v) for k, v in out.items()}, sys.stdout)
 `;
 
-type Ref = Record<'SA' | 'CT' | 'pt0' | 'pt1000' | 'CT_from_pt' | 'pt_from_CT' | 't_from_CT' | 'C' | 'Clow', number[]> & { version: string };
+type Ref = Record<
+  'SA' | 'CT' | 'pt0' | 'pt1000' | 'CT_from_pt' | 'pt_from_CT' | 't_from_CT' | 'C' | 'Clow',
+  number[]
+> & { version: string };
 
 const { SP, t, p, lon, lat } = points(N);
 // Fresh and brackish water for the Hill et al. (1986) extension below SP = 2.
@@ -78,13 +86,33 @@ describe(`python3-gsw live reference, ${N} random ocean points`, () => {
   });
   it('CT_from_pt, pt_from_CT and t_from_CT within 1e-8 °C', () => {
     const SA = Float64Array.from(ref.SA);
-    expect(maxAbsDiff(SA.map((s, i) => CT_from_pt(s, t[i])), ref.CT_from_pt)).toBeLessThanOrEqual(1e-8);
+    expect(
+      maxAbsDiff(
+        SA.map((s, i) => CT_from_pt(s, t[i])),
+        ref.CT_from_pt,
+      ),
+    ).toBeLessThanOrEqual(1e-8);
     expect(maxAbsDiff(pt_from_CT_batch(SA, t), ref.pt_from_CT)).toBeLessThanOrEqual(1e-8);
     expect(maxAbsDiff(t_from_CT_batch(SA, t, p), ref.t_from_CT)).toBeLessThanOrEqual(1e-8);
   });
   it('SP_from_C and C_from_SP (PSS-78) within 1e-8, Hill extension included', () => {
-    expect(maxAbsDiff(SP.map((_, i) => SP_from_C(ref.C[i], t[i], p[i])), [...SP])).toBeLessThanOrEqual(1e-8);
-    expect(maxAbsDiff(SP.map((v, i) => C_from_SP(v, t[i], p[i])), ref.C)).toBeLessThanOrEqual(1e-8);
-    expect(maxAbsDiff(SPlow.map((_, i) => SP_from_C(ref.Clow[i], t[i], p[i])), [...SPlow])).toBeLessThanOrEqual(1e-8);
+    expect(
+      maxAbsDiff(
+        SP.map((_, i) => SP_from_C(ref.C[i], t[i], p[i])),
+        [...SP],
+      ),
+    ).toBeLessThanOrEqual(1e-8);
+    expect(
+      maxAbsDiff(
+        SP.map((v, i) => C_from_SP(v, t[i], p[i])),
+        ref.C,
+      ),
+    ).toBeLessThanOrEqual(1e-8);
+    expect(
+      maxAbsDiff(
+        SPlow.map((_, i) => SP_from_C(ref.Clow[i], t[i], p[i])),
+        [...SPlow],
+      ),
+    ).toBeLessThanOrEqual(1e-8);
   });
 });

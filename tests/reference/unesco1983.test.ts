@@ -10,11 +10,14 @@ import { GSW_PYTHON } from './python';
 import { describe, expect, it } from 'vitest';
 import { C3515, SP_from_C, t90_from_t68 } from '../../shared/seawater/pss78';
 import {
-  adiabatic_lapse_rate_eos80, pt_eos80_t68, rho_eos80_t68, secant_bulk_modulus_eos80,
+  adiabatic_lapse_rate_eos80,
+  pt_eos80_t68,
+  rho_eos80_t68,
+  secant_bulk_modulus_eos80,
 } from '../../shared/seawater/eos80';
 
 /** Digits of a printed check value: agree to half a unit in its last place. */
-const halfUlp = (printed: string) => 0.5 * 10 ** -((printed.split('.')[1] ?? '').length);
+const halfUlp = (printed: string) => 0.5 * 10 ** -(printed.split('.')[1] ?? '').length;
 
 describe('PSS-78 (source: UNESCO 1983 Tech. Pap. Mar. Sci. 44, from memory, confirmed against python3-gsw)', () => {
   // [conductivity ratio R = C/C(35,15,0), t68 °C, p dbar, SP as printed]
@@ -23,19 +26,29 @@ describe('PSS-78 (source: UNESCO 1983 Tech. Pap. Mar. Sci. 44, from memory, conf
     [1.888091, 40, 10000, '40.0000'], // UNESCO 1983 check value (from memory)
   ];
   const gsw = JSON.parse(
-    execFileSync(GSW_PYTHON, ['-c', `
+    execFileSync(
+      GSW_PYTHON,
+      [
+        '-c',
+        `
 import json, sys, gsw
 cases = json.load(sys.stdin)
 print(json.dumps([float(gsw.SP_from_C(R * ${C3515}, t68 / 1.00024, p)) for R, t68, p in cases]))
-`], { input: JSON.stringify(cases.map(([R, t68, p]) => [R, t68, p])), encoding: 'utf8' }),
+`,
+      ],
+      { input: JSON.stringify(cases.map(([R, t68, p]) => [R, t68, p])), encoding: 'utf8' },
+    ),
   ) as number[];
 
-  it.each(cases.map((c, i) => [...c, i] as const))('R = %s, t68 = %s °C, p = %s dbar gives SP = %s', (R, t68, p, printed, i) => {
-    const sp = SP_from_C(R * C3515, t90_from_t68(t68), p);
-    expect(Math.abs(sp - Number(printed))).toBeLessThanOrEqual(halfUlp(printed));
-    // Confirmation by the reference library (python3-gsw 3.6.16).
-    expect(Math.abs(sp - gsw[i])).toBeLessThan(1e-9);
-  });
+  it.each(cases.map((c, i) => [...c, i] as const))(
+    'R = %s, t68 = %s °C, p = %s dbar gives SP = %s',
+    (R, t68, p, printed, i) => {
+      const sp = SP_from_C(R * C3515, t90_from_t68(t68), p);
+      expect(Math.abs(sp - Number(printed))).toBeLessThanOrEqual(halfUlp(printed));
+      // Confirmation by the reference library (python3-gsw 3.6.16).
+      expect(Math.abs(sp - gsw[i])).toBeLessThan(1e-9);
+    },
+  );
 });
 
 describe('EOS-80 (source: UNESCO 1983 Tech. Pap. Mar. Sci. 44, from memory; no library to confirm)', () => {

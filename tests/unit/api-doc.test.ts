@@ -36,7 +36,15 @@ const CONTRACT: [string, string, string][] = [
 ];
 
 const ruleText = (r: (typeof routes)[number]['rule']) =>
-  r.kind === 'member' ? (r.roles === 'any' ? 'member' : [...r.roles].sort().join(',')) : r.kind === 'signed_in' ? 'signed in' : r.kind === 'public' ? 'anyone' : r.kind;
+  r.kind === 'member'
+    ? r.roles === 'any'
+      ? 'member'
+      : [...r.roles].sort().join(',')
+    : r.kind === 'signed_in'
+      ? 'signed in'
+      : r.kind === 'public'
+        ? 'anyone'
+        : r.kind;
 
 describe('the API documents', () => {
   it('docs/api.md is current (regenerate with `npx tsx scripts/make-api-doc.ts`)', () => {

@@ -12,8 +12,22 @@ const DIR = join(import.meta.dirname, '..', '..', 'fixtures', 'demo');
 const Planted = z.object({
   planted: z.array(
     z.discriminatedUnion('kind', [
-      z.object({ kind: z.literal('spike'), station: z.string(), file: z.string(), pressure: z.number(), dSP: z.number(), sigma0Drop: z.number() }),
-      z.object({ kind: z.literal('overturn'), station: z.string(), file: z.string(), pTop: z.number(), pBottom: z.number(), sigma0Deficit: z.number() }),
+      z.object({
+        kind: z.literal('spike'),
+        station: z.string(),
+        file: z.string(),
+        pressure: z.number(),
+        dSP: z.number(),
+        sigma0Drop: z.number(),
+      }),
+      z.object({
+        kind: z.literal('overturn'),
+        station: z.string(),
+        file: z.string(),
+        pTop: z.number(),
+        pBottom: z.number(),
+        sigma0Deficit: z.number(),
+      }),
     ]),
   ),
 });
@@ -22,8 +36,18 @@ const Cruise = z.object({
   ship: z.string(),
   startDate: z.string(),
   endDate: z.string(),
-  team: z.array(z.object({ name: z.string(), role: z.enum(['chief_scientist', 'technician', 'analyst', 'pi']), email: z.string() })),
-  plannedStations: z.array(z.object({ station: z.string(), latitude: z.number(), longitude: z.number(), occupied: z.boolean(), castFile: z.string().nullable() })),
+  team: z.array(
+    z.object({ name: z.string(), role: z.enum(['chief_scientist', 'technician', 'analyst', 'pi']), email: z.string() }),
+  ),
+  plannedStations: z.array(
+    z.object({
+      station: z.string(),
+      latitude: z.number(),
+      longitude: z.number(),
+      occupied: z.boolean(),
+      castFile: z.string().nullable(),
+    }),
+  ),
 });
 const planted = Planted.parse(JSON.parse(readFileSync(join(DIR, 'planted.json'), 'utf8'))).planted;
 const cruise = Cruise.parse(JSON.parse(readFileSync(join(DIR, 'cruise.json'), 'utf8')));
@@ -66,7 +90,9 @@ describe('demo cruise', () => {
     const files = cruise.plannedStations.filter((s) => s.occupied).map((s) => s.castFile);
     expect(files.length).toBe(castFiles.length);
     for (const f of files) expect(existsSync(join(DIR, f as string)), String(f)).toBe(true);
-    expect(new Set(cruise.team.map((t) => t.role))).toEqual(new Set(['chief_scientist', 'technician', 'analyst', 'pi']));
+    expect(new Set(cruise.team.map((t) => t.role))).toEqual(
+      new Set(['chief_scientist', 'technician', 'analyst', 'pi']),
+    );
   });
 
   it('the station table parses and agrees with the casts', async () => {
@@ -85,14 +111,18 @@ describe('demo cruise', () => {
     for (const [f, c] of casts) {
       const p = c.columns.pressure as Float64Array;
       const s = c.columns.salinity as Float64Array;
-      const spikeAt = new Set(planted.filter((x) => x.kind === 'spike' && x.file === f).map((x) => (x.kind === 'spike' ? x.pressure : NaN)));
+      const spikeAt = new Set(
+        planted.filter((x) => x.kind === 'spike' && x.file === f).map((x) => (x.kind === 'spike' ? x.pressure : NaN)),
+      );
       let kMin = 0;
-      for (let k = 0; k < p.length; k++) if (p[k] > 300 && p[k] < 1500 && !spikeAt.has(p[k]) && s[k] < s[kMin]) kMin = k;
+      for (let k = 0; k < p.length; k++)
+        if (p[k] > 300 && p[k] < 1500 && !spikeAt.has(p[k]) && s[k] < s[kMin]) kMin = k;
       expect(p[kMin]).toBeGreaterThan(750);
       expect(p[kMin]).toBeLessThan(1100);
       expect(s[kMin]).toBeGreaterThan(34.2);
       expect(s[kMin]).toBeLessThan(34.45);
-      if (p[p.length - 1] > 4500) expect(c.columns.temperature[at(c, 4400)]).toBeLessThan(c.columns.temperature[at(c, 3400)] - 0.8);
+      if (p[p.length - 1] > 4500)
+        expect(c.columns.temperature[at(c, 4400)]).toBeLessThan(c.columns.temperature[at(c, 3400)] - 0.8);
     }
   });
 
@@ -105,19 +135,22 @@ describe('demo cruise', () => {
     for (const p of planted) expect(p.kind === 'spike' ? p.sigma0Drop : p.sigma0Deficit).toBeGreaterThanOrEqual(0.02);
   });
 
-  it.each(spikes.map((s) => [s.station, s] as const))('spike in %s is one level of low salinity where listed', (_n, sp) => {
-    if (sp.kind !== 'spike') return;
-    const c = casts.get(sp.file) as ParsedCast;
-    const s = c.columns.salinity as Float64Array;
-    const k = at(c, sp.pressure);
-    expect(k).toBeGreaterThan(0);
-    expect(s[k - 1] - s[k]).toBeGreaterThan(0.8 * sp.dSP);
-    expect(s[k + 1] - s[k]).toBeGreaterThan(0.8 * sp.dSP);
-    // and no other level of the cast jumps like that
-    let others = 0;
-    for (let j = 1; j < s.length - 1; j++) if (j !== k && s[j - 1] - s[j] > 0.02 && s[j + 1] - s[j] > 0.02) others++;
-    expect(others).toBe(0);
-  });
+  it.each(spikes.map((s) => [s.station, s] as const))(
+    'spike in %s is one level of low salinity where listed',
+    (_n, sp) => {
+      if (sp.kind !== 'spike') return;
+      const c = casts.get(sp.file) as ParsedCast;
+      const s = c.columns.salinity as Float64Array;
+      const k = at(c, sp.pressure);
+      expect(k).toBeGreaterThan(0);
+      expect(s[k - 1] - s[k]).toBeGreaterThan(0.8 * sp.dSP);
+      expect(s[k + 1] - s[k]).toBeGreaterThan(0.8 * sp.dSP);
+      // and no other level of the cast jumps like that
+      let others = 0;
+      for (let j = 1; j < s.length - 1; j++) if (j !== k && s[j - 1] - s[j] > 0.02 && s[j + 1] - s[j] > 0.02) others++;
+      expect(others).toBe(0);
+    },
+  );
 
   it('the overturn: temperature rises with pressure through the slab, unlike the neighbours', () => {
     const ov = planted.find((p) => p.kind === 'overturn');

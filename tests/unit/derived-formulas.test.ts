@@ -45,7 +45,7 @@ describe('derived formulas: evaluation', () => {
     const r = compileFormula('sigma2 - sigma0 + 0*sigma2', names);
     expect(r.ok && r.variables).toEqual(['sigma2', 'sigma0']);
   });
-  it('a bare column returns a copy, not the caller\'s array', () => {
+  it("a bare column returns a copy, not the caller's array", () => {
     const r = compileFormula('CT', names);
     if (!r.ok) throw new Error('rejected');
     const out = r.evaluate(cols);

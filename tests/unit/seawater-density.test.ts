@@ -4,18 +4,43 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
-  alpha, beta, dynamic_enthalpy, rho, rho_batch, sigma0, sigma0_batch, sigma2, sigma_batch, sigma_pr, specvol,
-  specvol_alpha_beta, SSO,
+  alpha,
+  beta,
+  dynamic_enthalpy,
+  rho,
+  rho_batch,
+  sigma0,
+  sigma0_batch,
+  sigma2,
+  sigma_batch,
+  sigma_pr,
+  specvol,
+  specvol_alpha_beta,
+  SSO,
 } from '../../shared/seawater/density';
 import { z_from_p } from '../../shared/seawater/depth';
 import { Nsquared } from '../../shared/seawater/stability';
-import { distance, f, geo_strf_dyn_height, geostrophic_velocity, pchipSlopes, geo_strf_velocity } from '../../shared/seawater/geostrophy';
+import {
+  distance,
+  f,
+  geo_strf_dyn_height,
+  geostrophic_velocity,
+  pchipSlopes,
+  geo_strf_velocity,
+} from '../../shared/seawater/geostrophy';
 import { mixed_layer_depth } from '../../shared/seawater/mld';
 
 describe('density: common practice', () => {
   it('open-ocean surface σ0 lies between 20 and 27 kg/m³ (common practice)', () => {
     // typical open-ocean surface waters: tropical warm/fresh to subpolar cold/salty
-    for (const [SA, CT] of [[34.2, 29], [35.2, 26], [36.8, 24], [35.0, 12], [34.2, 4], [33.5, 1]]) {
+    for (const [SA, CT] of [
+      [34.2, 29],
+      [35.2, 26],
+      [36.8, 24],
+      [35.0, 12],
+      [34.2, 4],
+      [33.5, 1],
+    ]) {
       const s = sigma0(SA, CT);
       expect(s).toBeGreaterThan(20);
       expect(s).toBeLessThan(27.9);
@@ -26,7 +51,8 @@ describe('density: common practice', () => {
     const p = [0, 100, 500, 1000, 2000, 4000];
     const SA = [35.0, 35.1, 35.0, 34.9, 34.9, 34.9];
     const CT = [20, 15, 8, 4, 2.5, 1.5];
-    for (let i = 1; i < p.length; i++) expect(rho(SA[i], CT[i], p[i])).toBeGreaterThan(rho(SA[i - 1], CT[i - 1], p[i - 1]));
+    for (let i = 1; i < p.length; i++)
+      expect(rho(SA[i], CT[i], p[i])).toBeGreaterThan(rho(SA[i - 1], CT[i - 1], p[i - 1]));
     for (const v of Nsquared(SA, CT, p, 30).N2) expect(v).toBeGreaterThan(0);
   });
   it('α > 0 for warm water, β ≈ 7.4e-4 kg/g, and σ rises with the reference pressure (common practice)', () => {
@@ -56,7 +82,11 @@ describe('density: internal consistency of the polynomial', () => {
     });
   });
   it('alpha and beta equal centred finite differences of specvol (to 1e-7 relative)', () => {
-    for (const [SA, CT, p] of [[35, 10, 1000], [34, 2, 4000], [36.5, 25, 10]]) {
+    for (const [SA, CT, p] of [
+      [35, 10, 1000],
+      [34, 2, 4000],
+      [36.5, 25, 10],
+    ]) {
       const h = 1e-4;
       const v = specvol(SA, CT, p);
       const dvdT = (specvol(SA, CT + h, p) - specvol(SA, CT - h, p)) / (2 * h);
@@ -69,7 +99,10 @@ describe('density: internal consistency of the polynomial', () => {
     }
   });
   it('dynamic enthalpy is the pressure integral of specvol (Simpson rule, 1e-8 relative)', () => {
-    const SA = 35, CT = 5, P = 3000, m = 600;
+    const SA = 35,
+      CT = 5,
+      P = 3000,
+      m = 600;
     let s = 0;
     for (let k = 0; k <= m; k++) {
       const w = k === 0 || k === m ? 1 : k % 2 ? 4 : 2;
@@ -92,13 +125,23 @@ describe('density: internal consistency of the polynomial', () => {
 describe('geostrophy: analytic cases', () => {
   it('a standard-ocean column (SSO, 0 °C) has zero dynamic height anomaly at every level', () => {
     const p = [0, 3, 50, 51, 400, 2000];
-    const D = geo_strf_dyn_height(p.map(() => SSO), p.map(() => 0), p, 0);
+    const D = geo_strf_dyn_height(
+      p.map(() => SSO),
+      p.map(() => 0),
+      p,
+      0,
+    );
     for (const v of D) expect(Math.abs(v)).toBeLessThan(1e-12);
   });
   it('uniform water: D(p) matches a fine Simpson integral of −δ dP, whatever the level spacing', () => {
     // For SA, CT uniform, D(p) = −∫ δ(p') dP'; compare with a fine Simpson integral of δ.
     const p = [0, 10, 250, 700, 1500];
-    const D = geo_strf_dyn_height(p.map(() => 34.0), p.map(() => 10), p, 0);
+    const D = geo_strf_dyn_height(
+      p.map(() => 34.0),
+      p.map(() => 10),
+      p,
+      0,
+    );
     const delta = (q: number) => specvol(34, 10, q) - specvol(SSO, 0, q);
     p.forEach((P, i) => {
       const m = 2000;
@@ -110,7 +153,8 @@ describe('geostrophy: analytic cases', () => {
   });
   it('D is zero at p_ref and changes sign across it; NaN levels are skipped and stay NaN', () => {
     const p = [0, 100, 200, 300, Number.NaN, 500];
-    const SA = [35, 35, 34.9, 34.8, 34.8, 34.8], CT = [20, 15, 10, 6, 5, 4];
+    const SA = [35, 35, 34.9, 34.8, 34.8, 34.8],
+      CT = [20, 15, 10, 6, 5, 4];
     const D = geo_strf_dyn_height(SA, CT, p, 200);
     expect(D[2]).toBe(0);
     expect(D[0]).toBeGreaterThan(0);
@@ -119,7 +163,8 @@ describe('geostrophy: analytic cases', () => {
     expect(geo_strf_dyn_height(SA, CT, p, 900).every(Number.isNaN)).toBe(true); // p_ref below the cast
   });
   it('pchip slopes keep monotone data monotone and are zero at extrema (Fritsch & Carlson 1980)', () => {
-    const x = [0, 1, 2, 3, 4], y = [0, 1, 1.5, 1, 3];
+    const x = [0, 1, 2, 3, 4],
+      y = [0, 1, 1.5, 1, 3];
     const d = pchipSlopes(x, y);
     expect(d[2]).toBe(0); // local maximum
     expect(d[1]).toBeGreaterThan(0);
@@ -163,7 +208,12 @@ describe('depth and mixed layer', () => {
     expect(r.status).toBe('ok');
     expect(r.p_mld).toBeCloseTo(63, 10);
     expect(mixed_layer_depth(s, p, { threshold: 0.125 }).p_mld).toBeCloseTo(72.5, 10);
-    expect(mixed_layer_depth(s.map(() => 25), p).status).toBe('mixed_to_bottom');
+    expect(
+      mixed_layer_depth(
+        s.map(() => 25),
+        p,
+      ).status,
+    ).toBe('mixed_to_bottom');
     expect(mixed_layer_depth(s.slice(20), p.slice(20)).status).toBe('no_reference');
   });
 });

@@ -4,10 +4,23 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { collapse, collapseFromTables } from '../../shared/seawater/gibbs';
 import {
-  CT_from_pt, CT_from_t, CT_from_t_batch, pt0_from_t, pt_from_CT, pt_from_t, t_from_CT,
+  CT_from_pt,
+  CT_from_t,
+  CT_from_t_batch,
+  pt0_from_t,
+  pt_from_CT,
+  pt_from_t,
+  t_from_CT,
 } from '../../shared/seawater/conversions';
 import { C_from_SP, SP_from_C, SP_from_C_reason, t90_from_t68 } from '../../shared/seawater/pss78';
-import { SA_from_SP, SA_from_SP_batch, SA_from_SP_detail, SAAR, SR_from_SP, inBaltic } from '../../shared/seawater/saar';
+import {
+  SA_from_SP,
+  SA_from_SP_batch,
+  SA_from_SP_detail,
+  SAAR,
+  SR_from_SP,
+  inBaltic,
+} from '../../shared/seawater/saar';
 import { sigma_theta_eos80 } from '../../shared/seawater/eos80';
 import { checkRange, rangeNotes } from '../../shared/seawater/ranges';
 import { sigma0 } from '../../shared/seawater/density';
@@ -15,7 +28,8 @@ import { sigma0 } from '../../shared/seawater/density';
 // Source: TEOS-10 GSW check values v3.0, gsw_cv_v3_0.npz in Debian python3-gsw 3.6.16, turned
 // into fixtures/reference/gsw_cv_v3_0.json by scripts/gsw/make_check_values.py.
 type Grid = (number | null)[][];
-const cv = JSON.parse(readFileSync(new URL('../../fixtures/reference/gsw_cv_v3_0.json', import.meta.url), 'utf8')).values as Record<string, unknown>;
+const cv = JSON.parse(readFileSync(new URL('../../fixtures/reference/gsw_cv_v3_0.json', import.meta.url), 'utf8'))
+  .values as Record<string, unknown>;
 const grid = (key: string) => cv[key] as Grid;
 const num = (key: string) => {
   const v = cv[key];
@@ -78,12 +92,14 @@ describe('TEOS-10 check values v3.0 (source: gsw_cv_v3_0.npz, Debian python3-gsw
 
 describe('the Gibbs function in Horner form equals the coefficient tables', () => {
   it('agrees term for term over the oceanographic range', () => {
-    const a = new Float64Array(8), b = new Float64Array(8);
+    const a = new Float64Array(8),
+      b = new Float64Array(8);
     for (const SAv of [0, 0.1, 20, 35.16504, 42]) {
       for (const pv of [0, 1000, 6000, 10000]) {
         collapse(SAv, pv, a);
         collapseFromTables(SAv, pv, b);
-        for (let j = 0; j < 8; j++) expect(Math.abs(a[j] - b[j])).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(b[j])));
+        for (let j = 0; j < 8; j++)
+          expect(Math.abs(a[j] - b[j])).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(b[j])));
       }
     }
   });
@@ -108,7 +124,7 @@ describe('ranges: NaN with a reason, never a silent number', () => {
     expect(SP_from_C_reason(C * 1.05, 30, 0)).toMatch(/SP = 42/);
     expect(SP_from_C_reason(C, 30, 0)).toBeNull();
   });
-  it('groups a cast\'s unusable levels by input for its notes', () => {
+  it("groups a cast's unusable levels by input for its notes", () => {
     const notes = rangeNotes({ SA: [35, 35, NaN, 35, 35], t: [10, 50, 10, 55, 10], p: [0, 10, 20, 30, 40] });
     expect(notes).toHaveLength(2);
     const tNote = notes.find((n) => n.input === 't')!;
@@ -148,7 +164,8 @@ describe('Absolute Salinity: atlas, Baltic branch, fallback', () => {
     expect(dSA).toBeLessThan(0.03);
   });
   it('batch SA_from_SP equals the scalar one, at one position or per level', () => {
-    const SPc = Float64Array.of(34, 35, 36), pc = Float64Array.of(0, 1000, 3000);
+    const SPc = Float64Array.of(34, 35, 36),
+      pc = Float64Array.of(0, 1000, 3000);
     const one = SA_from_SP_batch(SPc, pc, -30, 40);
     const many = SA_from_SP_batch(SPc, pc, Float64Array.of(-30, -30, -30), Float64Array.of(40, 40, 40));
     for (let i = 0; i < 3; i++) {
@@ -160,7 +177,12 @@ describe('Absolute Salinity: atlas, Baltic branch, fallback', () => {
 
 describe('EOS-80 σθ against TEOS-10 σ0 (common practice: they differ by a few hundredths of kg/m³)', () => {
   it('stays within 0.05 kg/m³ of TEOS-10 σ0 over open-ocean water', () => {
-    for (const [SPv, tv, pv] of [[35, 15, 0], [34.7, 2, 4000], [36.5, 25, 100], [33, 0, 500]]) {
+    for (const [SPv, tv, pv] of [
+      [35, 15, 0],
+      [34.7, 2, 4000],
+      [36.5, 25, 100],
+      [33, 0, 500],
+    ]) {
       const SAv = SA_from_SP(SPv, pv, -30, 30);
       const s80 = sigma_theta_eos80(SPv, tv, pv);
       const s10 = sigma0(SAv, CT_from_t(SAv, tv, pv));

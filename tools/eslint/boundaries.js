@@ -11,10 +11,13 @@ const ROOT = path.resolve(path.dirname(new URL(import.meta.url).pathname), '../.
 function layerOf(rel) {
   const parts = rel.split('/');
   if (parts[0] === 'shared') return { layer: 'shared' };
-  if (parts[0] === 'server') return { layer: parts[1] === 'services' ? 'server/services' : parts[1] === 'routes' ? 'server/routes' : 'server' };
+  if (parts[0] === 'server')
+    return { layer: parts[1] === 'services' ? 'server/services' : parts[1] === 'routes' ? 'server/routes' : 'server' };
   if (parts[0] === 'src') {
-    if (parts[1] === 'features' && parts.length > 3) return { layer: 'src', feature: parts[2], rest: parts.slice(3).join('/') };
-    if (parts[1] === 'features' && parts.length === 3) return { layer: 'src', feature: parts[2].replace(/\.(ts|tsx)$/, ''), rest: '' };
+    if (parts[1] === 'features' && parts.length > 3)
+      return { layer: 'src', feature: parts[2], rest: parts.slice(3).join('/') };
+    if (parts[1] === 'features' && parts.length === 3)
+      return { layer: 'src', feature: parts[2].replace(/\.(ts|tsx)$/, ''), rest: '' };
     return { layer: 'src' };
   }
   return null;
@@ -28,17 +31,21 @@ export function boundaryViolation(fromFile, target) {
   const a = layerOf(relFrom);
   const b = layerOf(relTo);
   if (!a || !b) return null;
-  if (a.layer === 'shared' && b.layer !== 'shared') return `shared/ must not import from ${relTo.split('/')[0]}/ (${relTo})`;
+  if (a.layer === 'shared' && b.layer !== 'shared')
+    return `shared/ must not import from ${relTo.split('/')[0]}/ (${relTo})`;
   if (a.layer === 'src' && b.layer.startsWith('server')) return `the client must not import server code (${relTo})`;
   if (a.layer.startsWith('server') && b.layer === 'src') return `the server must not import client code (${relTo})`;
-  if (a.layer === 'server/services' && b.layer === 'server/routes') return `a service must not import a route module (${relTo})`;
+  if (a.layer === 'server/services' && b.layer === 'server/routes')
+    return `a service must not import a route module (${relTo})`;
   if (a.feature && b.feature && a.feature !== b.feature) {
     const rest = b.rest.replace(/\.(ts|tsx)$/, '');
-    if (rest !== '' && rest !== 'index') return `feature "${a.feature}" reaches into "${b.feature}": import from src/features/${b.feature} (its index.ts)`;
+    if (rest !== '' && rest !== 'index')
+      return `feature "${a.feature}" reaches into "${b.feature}": import from src/features/${b.feature} (its index.ts)`;
   }
   if (!a.feature && a.layer === 'src' && b.feature && relFrom.startsWith('src/routes/')) {
     const rest = b.rest.replace(/\.(ts|tsx)$/, '');
-    if (rest !== '' && rest !== 'index') return `a screen reaches into feature "${b.feature}": import from src/features/${b.feature} (its index.ts)`;
+    if (rest !== '' && rest !== 'index')
+      return `a screen reaches into feature "${b.feature}": import from src/features/${b.feature} (its index.ts)`;
   }
   return null;
 }
@@ -46,7 +53,11 @@ export function boundaryViolation(fromFile, target) {
 export const boundariesPlugin = {
   rules: {
     boundaries: {
-      meta: { type: 'problem', docs: { description: 'import boundaries between shared/, server/ and the client features' }, schema: [] },
+      meta: {
+        type: 'problem',
+        docs: { description: 'import boundaries between shared/, server/ and the client features' },
+        schema: [],
+      },
       create(context) {
         const file = context.filename;
         const check = (node, source) => {

@@ -17,7 +17,15 @@
 // _FillValue for levels without a value. `flags` becomes a byte bit field with flag_masks /
 // flag_meanings. Sea pressure (absolute pressure minus one standard atmosphere, the TEOS-10 `p`)
 // is `sea_water_pressure_due_to_sea_water`: CF's `sea_water_pressure` includes the atmosphere.
-import { NC_FILL, maxStringBytes, writeNetcdf, type NcAttributes, type NcDataset, type NcDimension, type NcVariable } from './netcdf';
+import {
+  NC_FILL,
+  maxStringBytes,
+  writeNetcdf,
+  type NcAttributes,
+  type NcDataset,
+  type NcDimension,
+  type NcVariable,
+} from './netcdf';
 import { ISOPYCNAL_FLAGS, columnIndex, parseFlags, type DeliveryColumn, type DeliveryTable } from './table';
 import { DATA_CAUTION, provenanceAttributes } from './provenance';
 import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../../shared/api/flags';
@@ -117,7 +125,8 @@ function variableAttributes(col: DeliveryColumn): NcAttributes {
   if (sn) attrs.standard_name = sn;
   const u = cfUnits(col.unit);
   if (u) attrs.units = u;
-  else if (col.type === 'number' && (sn === 'sea_water_practical_salinity' || INTEGER_COLUMNS.has(col.name))) attrs.units = '1';
+  else if (col.type === 'number' && (sn === 'sea_water_practical_salinity' || INTEGER_COLUMNS.has(col.name)))
+    attrs.units = '1';
   return attrs;
 }
 
@@ -135,7 +144,14 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
   // --- profiles in order of first appearance
   const profileIndex = new Map<string, number>();
   const iBottom = columnIndex(table, 'bottom_depth');
-  const profiles: { station: string; cast: string; lat: number; lon: number; time: number | null; bottom: number | null }[] = [];
+  const profiles: {
+    station: string;
+    cast: string;
+    lat: number;
+    lon: number;
+    time: number | null;
+    bottom: number | null;
+  }[] = [];
   const rowProfile = new Int32Array(table.rows.length);
   table.rows.forEach((row, r) => {
     const station = String(row[iStation] ?? '');
@@ -144,7 +160,8 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
     let p = profileIndex.get(key);
     const lat = num(row[iLat]);
     const lon = num(row[iLon]);
-    if (lat === null || lon === null) throw new Error(`tableToNetcdf: row ${r} (station ${station}, cast ${cast}) has no position`);
+    if (lat === null || lon === null)
+      throw new Error(`tableToNetcdf: row ${r} (station ${station}, cast ${cast}) has no position`);
     const time = iTime >= 0 ? parseTime(row[iTime], table.columns[iTime].unit) : null;
     if (p === undefined) {
       p = profiles.length;
@@ -152,9 +169,11 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
       profiles.push({ station, cast, lat, lon, time, bottom: iBottom >= 0 ? num(row[iBottom]) : null });
     } else {
       const q = profiles[p];
-      if (q.lat !== lat || q.lon !== lon) throw new Error(`tableToNetcdf: station ${station} cast ${cast} has more than one position`);
+      if (q.lat !== lat || q.lon !== lon)
+        throw new Error(`tableToNetcdf: station ${station} cast ${cast} has more than one position`);
       if (q.time === null) q.time = time;
-      else if (time !== null && time !== q.time) throw new Error(`tableToNetcdf: station ${station} cast ${cast} has more than one time`);
+      else if (time !== null && time !== q.time)
+        throw new Error(`tableToNetcdf: station ${station} cast ${cast} has more than one time`);
     }
     rowProfile[r] = p;
   });
@@ -264,8 +283,13 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
       name: 'bottom_depth',
       type: 'double',
       dimensions: ['profile'],
-      attributes: { standard_name: 'sea_floor_depth_below_sea_surface', long_name: 'Depth of the sea floor at the cast', units: 'm', positive: 'down',
-        _FillValue: NC_FILL.double },
+      attributes: {
+        standard_name: 'sea_floor_depth_below_sea_surface',
+        long_name: 'Depth of the sea floor at the cast',
+        units: 'm',
+        positive: 'down',
+        _FillValue: NC_FILL.double,
+      },
       data: profiles.map((p) => p.bottom),
     });
   }
@@ -319,7 +343,8 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
   if (iRef >= 0) skip.add(iRef);
   const scalarRefs = new Map<number, string>();
   const names = new Set(table.columns.map((c) => c.name));
-  const flagOf = (name: string): string | null => (name.endsWith('_flag') && names.has(name.slice(0, -5)) ? name.slice(0, -5) : null);
+  const flagOf = (name: string): string | null =>
+    name.endsWith('_flag') && names.has(name.slice(0, -5)) ? name.slice(0, -5) : null;
   table.columns.forEach((col, c) => {
     if (skip.has(c) || PROFILE_COLUMNS.has(col.name)) return;
     const of = flagOf(col.name);
@@ -398,7 +423,11 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
           name: refName,
           type: 'double',
           dimensions: [],
-          attributes: { standard_name: 'reference_pressure', long_name: `Reference pressure of ${col.name}`, units: 'dbar' },
+          attributes: {
+            standard_name: 'reference_pressure',
+            long_name: `Reference pressure of ${col.name}`,
+            units: 'dbar',
+          },
           data: [pr],
         });
       }
@@ -417,8 +446,12 @@ export function tableToNetcdfDataset(table: DeliveryTable, options: CfOptions = 
       name: col.name,
       type: allInt ? 'int' : 'double',
       dimensions: ['profile', levelDim],
-      attributes: { ...attrs, _FillValue: allInt ? NC_FILL.int : NC_FILL.double, coordinates: coordinates.join(' '),
-        ...(names.has(`${col.name}_flag`) ? { ancillary_variables: `${col.name}_flag` } : {}) },
+      attributes: {
+        ...attrs,
+        _FillValue: allInt ? NC_FILL.int : NC_FILL.double,
+        coordinates: coordinates.join(' '),
+        ...(names.has(`${col.name}_flag`) ? { ancillary_variables: `${col.name}_flag` } : {}),
+      },
       data: values,
     });
   });

@@ -9,7 +9,13 @@
 //   payload stays inside one field whatever the locale's separator. Numbers are never touched.
 // - Lines end with CRLF (RFC 4180).
 import { Readable } from 'node:stream';
-import { ISOPYCNAL_COLUMNS, type DeliveryCell, type DeliveryColumn, type DeliveryRow, type DeliveryTable } from './table';
+import {
+  ISOPYCNAL_COLUMNS,
+  type DeliveryCell,
+  type DeliveryColumn,
+  type DeliveryRow,
+  type DeliveryTable,
+} from './table';
 import { DATA_CAUTION, oneLine, provenanceEntries, type Provenance } from './provenance';
 
 export const CSV_EOL = '\r\n';
@@ -75,7 +81,8 @@ export function headerLine(columns: readonly DeliveryColumn[]): string {
 
 /** The whole table as CSV text. */
 export function writeCsv(table: DeliveryTable): string {
-  let out = [...provenanceCommentLines(table.provenance, table.columns), headerLine(table.columns)].join(CSV_EOL) + CSV_EOL;
+  let out =
+    [...provenanceCommentLines(table.provenance, table.columns), headerLine(table.columns)].join(CSV_EOL) + CSV_EOL;
   for (const row of table.rows) out += formatRow(row) + CSV_EOL;
   return out;
 }
@@ -98,7 +105,11 @@ export interface CsvStreamOptions {
  * provenance (and columns, by default ISOPYCNAL_COLUMNS) given beside it. The bytes are the same
  * as writeCsv's for the same table.
  */
-export function csvStream(source: DeliveryTable | RowSource, provenance?: Provenance, options: CsvStreamOptions = {}): Readable {
+export function csvStream(
+  source: DeliveryTable | RowSource,
+  provenance?: Provenance,
+  options: CsvStreamOptions = {},
+): Readable {
   let columns: readonly DeliveryColumn[];
   let rows: RowSource;
   let prov: Provenance;

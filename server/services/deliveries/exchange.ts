@@ -69,20 +69,36 @@ function params(c: ExchangeCast): Param[] {
   const out: Param[] = [{ name: 'CTDPRS', unit: 'DBAR', decimals: 1, values: c.columns.pressure, flags: null }];
   for (const v of KNOWN_VARIABLES) {
     if (!v.exchange || !c.columns[v.key]) continue;
-    out.push({ name: v.exchange.name, unit: v.exchange.unit, decimals: v.exchange.decimals, values: c.columns[v.key],
-      flags: flagsOf(c, v.flagsFrom, n) });
+    out.push({
+      name: v.exchange.name,
+      unit: v.exchange.unit,
+      decimals: v.exchange.decimals,
+      values: c.columns[v.key],
+      flags: flagsOf(c, v.flagsFrom, n),
+    });
   }
-  for (const key of Object.keys(c.columns).filter((k) => k.startsWith('x:')).sort()) {
+  for (const key of Object.keys(c.columns)
+    .filter((k) => k.startsWith('x:'))
+    .sort()) {
     const bare = key.slice(2);
-    out.push({ name: columnName(key).toUpperCase(), unit: headerValue(c.units[key] ?? '').toUpperCase(), decimals: null,
-      values: c.columns[key], flags: flagsOf(c, [bare], n) });
+    out.push({
+      name: columnName(key).toUpperCase(),
+      unit: headerValue(c.units[key] ?? '').toUpperCase(),
+      decimals: null,
+      values: c.columns[key],
+      flags: flagsOf(c, [bare], n),
+    });
   }
   return out;
 }
 
 /** The exchange file name of a cast: `<expocode>_<station>_<cast>_ct1.csv` in safe characters. */
 export function exchangeFileName(expocode: string, station: string, cast: string): string {
-  const safe = (s: string) => s.replace(/[^A-Za-z0-9-]/g, '_').replace(/_+/g, '_').replace(/^_|_$/g, '') || 'x';
+  const safe = (s: string) =>
+    s
+      .replace(/[^A-Za-z0-9-]/g, '_')
+      .replace(/_+/g, '_')
+      .replace(/^_|_$/g, '') || 'x';
   return `${safe(expocode)}_${safe(station)}_${safe(cast)}_ct1.csv`;
 }
 
@@ -94,11 +110,15 @@ export function writeExchangeCast(c: ExchangeCast, o: ExchangeOptions): string {
   for (const e of provenanceEntries(o.provenance)) lines.push(`# ${e.key}: ${oneLine(e.value)}`);
   lines.push(`# caution: ${DATA_CAUTION}`);
   const header: [string, string][] = [
-    ['EXPOCODE', headerValue(o.expocode)], ['SECT_ID', headerValue(o.line)], ['STNNBR', headerValue(c.station)], ['CASTNO', headerValue(c.cast)],
+    ['EXPOCODE', headerValue(o.expocode)],
+    ['SECT_ID', headerValue(o.line)],
+    ['STNNBR', headerValue(c.station)],
+    ['CASTNO', headerValue(c.cast)],
   ];
   if (c.time) header.push(['DATE', day(c.time)], ['TIME', c.time.toISOString().slice(11, 16).replace(':', '')]);
   header.push(['LATITUDE', c.latitude.toFixed(4)], ['LONGITUDE', c.longitude.toFixed(4)]);
-  if (c.bottomDepth !== null && Number.isFinite(c.bottomDepth)) header.push(['DEPTH', String(Math.round(c.bottomDepth))]);
+  if (c.bottomDepth !== null && Number.isFinite(c.bottomDepth))
+    header.push(['DEPTH', String(Math.round(c.bottomDepth))]);
   lines.push(`NUMBER_HEADERS = ${header.length + 1}`);
   for (const [k, v] of header) lines.push(`${k} = ${v}`);
   const ps = params(c);
@@ -128,7 +148,11 @@ export function writeExchangeCast(c: ExchangeCast, o: ExchangeOptions): string {
 }
 
 /** The line's casts as exchange files in one zip; entry names `<expocode>_<station>_<cast>_ct1.csv`. */
-export async function writeExchangeZip(casts: readonly ExchangeCast[], o: ExchangeOptions, folder?: string): Promise<Buffer> {
+export async function writeExchangeZip(
+  casts: readonly ExchangeCast[],
+  o: ExchangeOptions,
+  folder?: string,
+): Promise<Buffer> {
   const zip = new yazl.ZipFile();
   const seen = new Set<string>();
   const mtime = new Date(Date.parse(o.provenance.exportedAt) || Date.now());

@@ -120,7 +120,8 @@ function encodeNumbers(type: Exclude<NcType, 'char'>, values: readonly number[],
   const buf = Buffer.alloc(values.length * TYPE_SIZE[type]);
   const range = INT_RANGE[type];
   values.forEach((v, i) => {
-    if (typeof v !== 'number' || (range !== undefined && Number.isNaN(v))) throw new NetcdfWriteError(`${what}: ${String(v)} is not a ${type}`);
+    if (typeof v !== 'number' || (range !== undefined && Number.isNaN(v)))
+      throw new NetcdfWriteError(`${what}: ${String(v)} is not a ${type}`);
     if (range && (!Number.isInteger(v) || v < range[0] || v > range[1])) {
       throw new NetcdfWriteError(`${what}: ${v} does not fit a ${type}`);
     }
@@ -156,7 +157,12 @@ function encodeAttribute(name: string, value: NcAttributeValue, owner: NcVariabl
     v = typed.value;
   } else {
     v = value as string | number | readonly number[];
-    type = typeof v === 'string' ? 'char' : owner && owner.type !== 'char' && SAME_TYPE_ATTRIBUTES.has(name) ? owner.type : 'double';
+    type =
+      typeof v === 'string'
+        ? 'char'
+        : owner && owner.type !== 'char' && SAME_TYPE_ATTRIBUTES.has(name)
+          ? owner.type
+          : 'double';
   }
   if (owner && name === '_FillValue' && type !== owner.type) {
     throw new NetcdfWriteError(`${what}: _FillValue must have the variable's type ${owner.type}, not ${type}`);
@@ -205,7 +211,8 @@ function fillValueOf(v: NcVariable): number {
   if (a === undefined) return NC_FILL[v.type];
   const val = typeof a === 'object' && !Array.isArray(a) && 'type' in a ? (a as NcTypedAttribute).value : a;
   const n = typeof val === 'number' ? val : typeof val === 'string' ? NaN : (val as readonly number[])[0];
-  if (typeof n !== 'number' || Number.isNaN(n)) throw new NetcdfWriteError(`variable ${v.name}: _FillValue must be a number`);
+  if (typeof n !== 'number' || Number.isNaN(n))
+    throw new NetcdfWriteError(`variable ${v.name}: _FillValue must be a number`);
   return n;
 }
 
@@ -229,7 +236,10 @@ export function writeNetcdf(ds: NcDataset): Buffer {
 
   const gatts = encodeAttributes(ds.globalAttributes, null);
   checkUnique('global attribute', Object.keys(ds.globalAttributes ?? {}));
-  checkUnique('variable', ds.variables.map((v) => v.name));
+  checkUnique(
+    'variable',
+    ds.variables.map((v) => v.name),
+  );
 
   // --- variables
   const planned: PlannedVariable[] = ds.variables.map((v) => {
@@ -238,13 +248,17 @@ export function writeNetcdf(ds: NcDataset): Buffer {
     const dimIds = v.dimensions.map((name, k) => {
       const id = dimIndex.get(name);
       if (id === undefined) throw new NetcdfWriteError(`variable ${v.name}: unknown dimension ${name}`);
-      if (id === recordDim && k !== 0) throw new NetcdfWriteError(`variable ${v.name}: the unlimited dimension must come first`);
+      if (id === recordDim && k !== 0)
+        throw new NetcdfWriteError(`variable ${v.name}: the unlimited dimension must come first`);
       return id;
     });
     const isRecord = dimIds.length > 0 && dimIds[0] === recordDim;
     let elems = 1;
     for (const id of isRecord ? dimIds.slice(1) : dimIds) elems *= ds.dimensions[id].size as number;
-    const strlen = v.type === 'char' && dimIds.length > 0 && dimIds[dimIds.length - 1] !== recordDim ? (ds.dimensions[dimIds[dimIds.length - 1]].size as number) : 1;
+    const strlen =
+      v.type === 'char' && dimIds.length > 0 && dimIds[dimIds.length - 1] !== recordDim
+        ? (ds.dimensions[dimIds[dimIds.length - 1]].size as number)
+        : 1;
     const bytes = elems * TYPE_SIZE[v.type];
     const attrs = encodeAttributes(v.attributes, v);
     const fill = fillValueOf(v);
@@ -262,20 +276,36 @@ export function writeNetcdf(ds: NcDataset): Buffer {
         units = (v.data as readonly (string | null)[]).length;
         perRecord = elems / strlen;
       } else {
-        if (typeof v.data === 'string') throw new NetcdfWriteError(`variable ${v.name}: numeric variables take numbers, not a string`);
+        if (typeof v.data === 'string')
+          throw new NetcdfWriteError(`variable ${v.name}: numeric variables take numbers, not a string`);
         units = (v.data as NcNumericData).length;
         perRecord = elems;
       }
       if (isRecord) {
         if (exact && units % perRecord !== 0) {
-          throw new NetcdfWriteError(`variable ${v.name}: ${units} values are not a whole number of records of ${perRecord}`);
+          throw new NetcdfWriteError(
+            `variable ${v.name}: ${units} values are not a whole number of records of ${perRecord}`,
+          );
         }
         nrecs = Math.ceil(units / perRecord);
       } else if (units > perRecord) {
         throw new NetcdfWriteError(`variable ${v.name}: ${units} values for ${perRecord} elements`);
       }
     }
-    return { v, name: Buffer.from(v.name, 'utf8'), dimIds, attrs, isRecord, elems, bytes, vsize: pad4(bytes), begin: 0, fill, nrecs, strlen };
+    return {
+      v,
+      name: Buffer.from(v.name, 'utf8'),
+      dimIds,
+      attrs,
+      isRecord,
+      elems,
+      bytes,
+      vsize: pad4(bytes),
+      begin: 0,
+      fill,
+      nrecs,
+      strlen,
+    };
   });
 
   const recordVars = planned.filter((p) => p.isRecord);
@@ -290,7 +320,11 @@ export function writeNetcdf(ds: NcDataset): Buffer {
     size +=
       planned.length === 0
         ? 8
-        : 8 + planned.reduce((s, p) => s + nameSize(p.name) + 4 + 4 * p.dimIds.length + attListSize(p.attrs) + 8 + offsetBytes, 0);
+        : 8 +
+          planned.reduce(
+            (s, p) => s + nameSize(p.name) + 4 + 4 * p.dimIds.length + attListSize(p.attrs) + 8 + offsetBytes,
+            0,
+          );
     const headerSize = size;
     let offset = headerSize;
     const begins: number[] = new Array(planned.length).fill(0);
@@ -317,7 +351,8 @@ export function writeNetcdf(ds: NcDataset): Buffer {
   let lay = layout(4);
   if (ds.format === '64bit-offset') version = 2;
   else if (lay.maxBegin <= 0x7fffffff) version = 1;
-  else if (ds.format === 'classic') throw new NetcdfWriteError('data too large for the classic format; use 64bit-offset');
+  else if (ds.format === 'classic')
+    throw new NetcdfWriteError('data too large for the classic format; use 64bit-offset');
   else version = 2;
   if (version === 2) lay = layout(8);
   planned.forEach((p, i) => (p.begin = lay.begins[i]));

@@ -105,7 +105,9 @@ class HashingPassThrough extends Transform {
 
 function xlsxReadable(table: DeliveryTable): Readable {
   const out = new PassThrough();
-  writeXlsxToStream(table, out).catch((err: unknown) => out.destroy(err instanceof Error ? err : new Error(String(err))));
+  writeXlsxToStream(table, out).catch((err: unknown) =>
+    out.destroy(err instanceof Error ? err : new Error(String(err))),
+  );
   return out;
 }
 
@@ -117,12 +119,20 @@ function readmeText(input: DataPackageInput, entries: { path: string; describe: 
   const w = Math.max(MANIFEST_NAME.length, ...entries.map((e) => e.path.length));
   lines.push(`  ${README_NAME.padEnd(w)}  this file`);
   for (const e of entries) lines.push(`  ${e.path.padEnd(w)}  ${e.describe}`);
-  lines.push(`  ${MANIFEST_NAME.padEnd(w)}  SHA-256 of every other file; check with: sha256sum -c ${MANIFEST_NAME}`, '');
+  lines.push(
+    `  ${MANIFEST_NAME.padEnd(w)}  SHA-256 of every other file; check with: sha256sum -c ${MANIFEST_NAME}`,
+    '',
+  );
   for (const t of input.tables) {
     lines.push(`PROVENANCE: ${t.name} (${t.table.kind} table, ${t.table.rows.length} rows)`);
-    lines.push(...formatProvenanceText(t.table.provenance).split('\n').map((l) => `  ${l}`));
+    lines.push(
+      ...formatProvenanceText(t.table.provenance)
+        .split('\n')
+        .map((l) => `  ${l}`),
+    );
     lines.push('  Columns:');
-    for (const c of t.table.columns) lines.push(`    ${c.name}${c.unit ? ` [${c.unit}]` : ''}${c.long_name ? `: ${c.long_name}` : ''}`);
+    for (const c of t.table.columns)
+      lines.push(`    ${c.name}${c.unit ? ` [${c.unit}]` : ''}${c.long_name ? `: ${c.long_name}` : ''}`);
     if (t.table.kind === 'isopycnal') {
       lines.push('  Empty fields: the level does not exist in the cast. flags: ;-separated outcrop, below_bottom,');
       lines.push('  multi_crossing, in_inversion. In NetCDF, flags is a bit field (see flag_masks, flag_meanings).');
@@ -157,7 +167,13 @@ export function buildDataPackage(input: DataPackageInput): Readable {
     }
   }
   for (const x of input.extraFiles ?? []) {
-    const path = unique(x.path.split('/').map((seg) => safeName(seg)).join('/'), taken);
+    const path = unique(
+      x.path
+        .split('/')
+        .map((seg) => safeName(seg))
+        .join('/'),
+      taken,
+    );
     planned.push({ path, compress: true, produce: async () => Readable.from([await x.read()]) });
     described.push({ path, describe: x.describe });
   }
@@ -187,18 +203,22 @@ export function buildDataPackage(input: DataPackageInput): Readable {
   planned.forEach((entry, index) => {
     // fast deflate (level 1): tens of MB of tables and raw casts, where level 6 costs seconds for a
     // few per cent of size
-    zip.addReadStreamLazy(entry.path, { mtime, ...(entry.compress ? { compressionLevel: 1 } : { compress: false }) }, (cb) => {
-      input.onProgress?.({ entry: entry.path, index, total });
-      entry
-        .produce()
-        .then((source) => {
-          const hasher = new HashingPassThrough();
-          digests.push({ path: entry.path, hasher });
-          source.on('error', fail);
-          cb(null, source.pipe(hasher));
-        })
-        .catch((err: unknown) => cb(err instanceof Error ? err : new Error(String(err)), new PassThrough()));
-    });
+    zip.addReadStreamLazy(
+      entry.path,
+      { mtime, ...(entry.compress ? { compressionLevel: 1 } : { compress: false }) },
+      (cb) => {
+        input.onProgress?.({ entry: entry.path, index, total });
+        entry
+          .produce()
+          .then((source) => {
+            const hasher = new HashingPassThrough();
+            digests.push({ path: entry.path, hasher });
+            source.on('error', fail);
+            cb(null, source.pipe(hasher));
+          })
+          .catch((err: unknown) => cb(err instanceof Error ? err : new Error(String(err)), new PassThrough()));
+      },
+    );
   });
   zip.addReadStreamLazy(MANIFEST_NAME, { mtime, compress: true }, (cb) => {
     input.onProgress?.({ entry: MANIFEST_NAME, index: total - 1, total });

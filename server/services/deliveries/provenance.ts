@@ -117,9 +117,13 @@ export function provenanceAttributes(p: Provenance): Record<string, string | num
   if (p.flagHistory?.length) attrs.flag_history = p.flagHistory.join('\n');
   attrs.processing_choices = [
     p.referencePressure === null ? null : `reference pressure ${p.referencePressure} dbar`,
-    p.layerSet ? `levels ${p.layerSet}` : null, p.inversionHandling ? `inversions ${p.inversionHandling}` : null,
-    p.interpolation ? `interpolation ${p.interpolation}` : null, `flags included ${p.flagsIncluded.join(' ') || 'none'}`,
-  ].filter(Boolean).join('; ');
+    p.layerSet ? `levels ${p.layerSet}` : null,
+    p.inversionHandling ? `inversions ${p.inversionHandling}` : null,
+    p.interpolation ? `interpolation ${p.interpolation}` : null,
+    `flags included ${p.flagsIncluded.join(' ') || 'none'}`,
+  ]
+    .filter(Boolean)
+    .join('; ');
   attrs.quality_flags_included = p.flagsIncluded.length ? p.flagsIncluded.join(' ') : 'none';
   if (p.notes && p.notes.length) attrs.processing_notes = p.notes.join('\n');
   return attrs;

@@ -24,7 +24,10 @@ export type DeliveryRow = DeliveryCell[];
 
 // Rows are checked cell by cell in the refinement below (a finite number or null in a number
 // column, a string or null in a string column): one pass, fast enough for 10^6 cells.
-const RowsSchema = z.custom<DeliveryRow[]>((v) => Array.isArray(v) && v.every((r) => Array.isArray(r)), 'rows must be an array of arrays');
+const RowsSchema = z.custom<DeliveryRow[]>(
+  (v) => Array.isArray(v) && v.every((r) => Array.isArray(r)),
+  'rows must be an array of arrays',
+);
 
 export const DeliveryTableSchema = z
   .object({
@@ -36,14 +39,19 @@ export const DeliveryTableSchema = z
   .superRefine((t, ctx) => {
     const names = new Set<string>();
     t.columns.forEach((c, i) => {
-      if (names.has(c.name)) ctx.addIssue({ code: 'custom', path: ['columns', i, 'name'], message: `duplicate column ${c.name}` });
+      if (names.has(c.name))
+        ctx.addIssue({ code: 'custom', path: ['columns', i, 'name'], message: `duplicate column ${c.name}` });
       names.add(c.name);
     });
     const types = t.columns.map((c) => c.type);
     for (let r = 0; r < t.rows.length; r++) {
       const row = t.rows[r];
       if (row.length !== t.columns.length) {
-        ctx.addIssue({ code: 'custom', path: ['rows', r], message: `row has ${row.length} cells, expected ${t.columns.length}` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['rows', r],
+          message: `row has ${row.length} cells, expected ${t.columns.length}`,
+        });
         return;
       }
       for (let c = 0; c < row.length; c++) {
@@ -94,7 +102,12 @@ export const ISOPYCNAL_COLUMNS: readonly DeliveryColumn[] = Object.freeze([
   { name: 'SA', unit: 'g/kg', type: 'number', long_name: 'Absolute Salinity on the isopycnal' },
   { name: 'thickness', unit: 'm', type: 'number', long_name: 'Thickness of the layer between adjacent target levels' },
   { name: 'crossings', unit: null, type: 'number', long_name: 'Number of times the cast crosses the target level' },
-  { name: 'flags', unit: null, type: 'string', long_name: 'Level flags (outcrop; below_bottom; multi_crossing; in_inversion)' },
+  {
+    name: 'flags',
+    unit: null,
+    type: 'string',
+    long_name: 'Level flags (outcrop; below_bottom; multi_crossing; in_inversion)',
+  },
 ] satisfies DeliveryColumn[]);
 
 /**
@@ -112,7 +125,12 @@ export const PRESSURE_COLUMNS: readonly DeliveryColumn[] = Object.freeze([
   { name: 'count', unit: null, type: 'number', long_name: 'Number of samples in the bin' },
   { name: 'CT', unit: 'degC', type: 'number', long_name: 'Conservative Temperature, bin mean' },
   { name: 'SA', unit: 'g/kg', type: 'number', long_name: 'Absolute Salinity, bin mean' },
-  { name: 'sigma0', unit: 'kg/m3', type: 'number', long_name: 'Potential density anomaly referenced to 0 dbar, bin mean' },
+  {
+    name: 'sigma0',
+    unit: 'kg/m3',
+    type: 'number',
+    long_name: 'Potential density anomaly referenced to 0 dbar, bin mean',
+  },
   { name: 'depth', unit: 'm', type: 'number', long_name: 'Depth of the bin centre' },
   { name: 't', unit: 'degC', type: 'number', long_name: 'In-situ temperature (ITS-90), bin mean' },
   { name: 'SP', unit: null, type: 'number', long_name: 'Practical Salinity (PSS-78), bin mean' },
@@ -183,7 +201,10 @@ function finiteOrNull(v: number | null | undefined): number | null {
   return typeof v === 'number' && Number.isFinite(v) ? v : null;
 }
 
-function inferExtraColumns(rows: readonly { extras?: ExtraValues }[], reserved: readonly DeliveryColumn[]): DeliveryColumn[] {
+function inferExtraColumns(
+  rows: readonly { extras?: ExtraValues }[],
+  reserved: readonly DeliveryColumn[],
+): DeliveryColumn[] {
   const seen = new Map<string, 'number' | 'string' | null>();
   for (const r of rows) {
     if (!r.extras) continue;
@@ -221,7 +242,11 @@ function checkTable(t: DeliveryTable): DeliveryTable {
 }
 
 /** Build an isopycnal DeliveryTable (api.md column order, then extras) from row objects. */
-export function buildIsopycnalTable(rows: readonly IsopycnalRow[], provenance: Provenance, options: BuildOptions = {}): DeliveryTable {
+export function buildIsopycnalTable(
+  rows: readonly IsopycnalRow[],
+  provenance: Provenance,
+  options: BuildOptions = {},
+): DeliveryTable {
   const extras = options.extraColumns ?? inferExtraColumns(rows, ISOPYCNAL_COLUMNS);
   const columns = [...ISOPYCNAL_COLUMNS.map((c) => ({ ...c })), ...extras];
   const out: DeliveryRow[] = rows.map((r) => [
@@ -244,7 +269,11 @@ export function buildIsopycnalTable(rows: readonly IsopycnalRow[], provenance: P
 }
 
 /** Build a pressure-binned DeliveryTable (PRESSURE_COLUMNS, then extras) from row objects. */
-export function buildPressureTable(rows: readonly PressureRow[], provenance: Provenance, options: BuildOptions = {}): DeliveryTable {
+export function buildPressureTable(
+  rows: readonly PressureRow[],
+  provenance: Provenance,
+  options: BuildOptions = {},
+): DeliveryTable {
   const extras = options.extraColumns ?? inferExtraColumns(rows, PRESSURE_COLUMNS);
   const columns = [...PRESSURE_COLUMNS.map((c) => ({ ...c })), ...extras];
   const out: DeliveryRow[] = rows.map((r) => [

@@ -37,7 +37,8 @@ const decimalsOf = (name: string): number | null => catalogue(name)?.decimals ??
 export const PRECISION_RULE =
   'values rounded to fixed decimals per variable: latitude, longitude 1e-6 degree; ' +
   ['pressure', 'depth', 'CT', 'SA', 'sigma0', 'temperature', 'SP', 'conductivity', 'oxygen', 'pt0', 'spiciness0']
-    .map((n) => `${n} ${decimalsOf(n)} decimals`).join(', ') +
+    .map((n) => `${n} ${decimalsOf(n)} decimals`)
+    .join(', ') +
   '; thickness and bottom_depth 3 decimals; other variables 7 significant digits';
 
 export const FLAG_RULE =
@@ -50,10 +51,23 @@ const TS = ['temperature', 'salinity', 'conductivity'];
 const S = ['salinity', 'conductivity'];
 
 /** A variable of the catalogue as a table column. */
-function fromCatalogue(key: string, column: string, flagsFrom: string[], exchange?: VariableInfo['exchange']): VariableInfo {
+function fromCatalogue(
+  key: string,
+  column: string,
+  flagsFrom: string[],
+  exchange?: VariableInfo['exchange'],
+): VariableInfo {
   const c = catalogue(key)!;
-  return { key, column, unit: c.storedUnit === null ? null : c.cfUnit === '1' ? null : c.storedUnit.replace(/ \(.*\)$/, ''),
-    longName: c.label, ...(c.standardName ? { standardName: c.standardName } : {}), decimals: c.decimals, flagsFrom, ...(exchange ? { exchange } : {}) };
+  return {
+    key,
+    column,
+    unit: c.storedUnit === null ? null : c.cfUnit === '1' ? null : c.storedUnit.replace(/ \(.*\)$/, ''),
+    longName: c.label,
+    ...(c.standardName ? { standardName: c.standardName } : {}),
+    decimals: c.decimals,
+    flagsFrom,
+    ...(exchange ? { exchange } : {}),
+  };
 }
 
 /** Known measured variables of a cast, in the order the tables write them after the contract columns. */
@@ -65,9 +79,9 @@ export const KNOWN_VARIABLES: readonly VariableInfo[] = [
 ];
 
 /** Derived variables a request may add by name (stored with every cast): the catalogue's sectionable derived ones. */
-export const DERIVED_VARIABLES: readonly VariableInfo[] = VARIABLES
-  .filter((v) => v.kind === 'derived' && v.sectionable && !['SA', 'CT'].includes(v.name))
-  .map((v) => fromCatalogue(v.name, v.name, TS));
+export const DERIVED_VARIABLES: readonly VariableInfo[] = VARIABLES.filter(
+  (v) => v.kind === 'derived' && v.sectionable && !['SA', 'CT'].includes(v.name),
+).map((v) => fromCatalogue(v.name, v.name, TS));
 
 /** Flag keys behind CT and SA. */
 export const CT_FLAGS_FROM = TS;
@@ -84,7 +98,13 @@ export function roundTo(v: number, decimals: number | null): number {
 
 /** A column name from a store key: `x:fluor-ECO` → `fluor_ECO`. */
 export function columnName(key: string): string {
-  return key.replace(/^x:/, '').replace(/[^A-Za-z0-9_]/g, '_').replace(/^(\d)/, '_$1').slice(0, 58) || 'extra';
+  return (
+    key
+      .replace(/^x:/, '')
+      .replace(/[^A-Za-z0-9_]/g, '_')
+      .replace(/^(\d)/, '_$1')
+      .slice(0, 58) || 'extra'
+  );
 }
 
 /** The catalogue entry for a store key; unknown extras get 7 significant digits and their own flag. */
@@ -92,5 +112,12 @@ export function variableInfo(key: string, unit: string | null): VariableInfo {
   const known = [...KNOWN_VARIABLES, ...DERIVED_VARIABLES].find((v) => v.key === key);
   if (known) return known;
   const bare = key.replace(/^x:/, '');
-  return { key, column: columnName(key), unit: unit || null, longName: bare, decimals: null, flagsFrom: key.startsWith('x:') ? [bare] : TS };
+  return {
+    key,
+    column: columnName(key),
+    unit: unit || null,
+    longName: bare,
+    decimals: null,
+    flagsFrom: key.startsWith('x:') ? [bare] : TS,
+  };
 }

@@ -19,7 +19,12 @@ export function tableSheetName(table: DeliveryTable): string {
 /** Write the workbook of one table into a writable stream; resolves when it is all written. */
 export async function writeXlsxToStream(table: DeliveryTable, stream: Writable): Promise<void> {
   // zlib level 1: the sheets are large and repetitive, so fast deflate loses little size
-  const wb = new ExcelJS.stream.xlsx.WorkbookWriter({ stream, useStyles: false, useSharedStrings: false, zip: { zlib: { level: 1 } } });
+  const wb = new ExcelJS.stream.xlsx.WorkbookWriter({
+    stream,
+    useStyles: false,
+    useSharedStrings: false,
+    zip: { zlib: { level: 1 } },
+  });
   const p = table.provenance;
   wb.creator = `${p.software} ${p.version}`;
   wb.created = new Date(Number.isNaN(Date.parse(p.exportedAt)) ? Date.now() : Date.parse(p.exportedAt));

@@ -1,4 +1,15 @@
-import { Component, lazy, Suspense, useCallback, useMemo, useRef, type ComponentType, type CSSProperties, type ErrorInfo, type ReactNode } from 'react';
+import {
+  Component,
+  lazy,
+  Suspense,
+  useCallback,
+  useMemo,
+  useRef,
+  type ComponentType,
+  type CSSProperties,
+  type ErrorInfo,
+  type ReactNode,
+} from 'react';
 import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent, PlotSelectionEvent } from 'plotly.js';
 import { Progress } from '../Notice';
 import { withoutCloud } from './theme';
@@ -37,7 +48,10 @@ let library: PlotlyLibrary | null = null;
 
 /** The parts of the plotting library's API our exports use. */
 export interface PlotlyLibrary {
-  toImage(gd: HTMLElement, options: { format: 'svg' | 'png'; width: number; height: number; scale?: number }): Promise<string>;
+  toImage(
+    gd: HTMLElement,
+    options: { format: 'svg' | 'png'; width: number; height: number; scale?: number },
+  ): Promise<string>;
 }
 
 /** The plotting library itself (loading it if need be), for exports. */
@@ -50,13 +64,15 @@ export async function plotlyLibrary(): Promise<PlotlyLibrary> {
 /** Start fetching Plotly (e.g. on hover of a link to a plotting screen); safe to call repeatedly. */
 export function preloadPlotly(): Promise<{ default: ComponentType<PlotProps> }> {
   if (!loading) {
-    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(([factory, plotly]) => {
-      const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
-      const Plotly = (plotly as { default?: object }).default ?? plotly;
-      library = Plotly as unknown as PlotlyLibrary;
-      performance.mark?.('plotly loaded');
-      return { default: createPlotlyComponent(Plotly) as ComponentType<PlotProps> };
-    });
+    loading = Promise.all([import('react-plotly.js/factory'), import('plotly.js-dist-min')]).then(
+      ([factory, plotly]) => {
+        const createPlotlyComponent = (factory as { default: (p: object) => ComponentType<unknown> }).default;
+        const Plotly = (plotly as { default?: object }).default ?? plotly;
+        library = Plotly as unknown as PlotlyLibrary;
+        performance.mark?.('plotly loaded');
+        return { default: createPlotlyComponent(Plotly) as ComponentType<PlotProps> };
+      },
+    );
     // A failed fetch (offline, redeploy) must not stick: the next mount tries again.
     loading.catch(() => {
       loading = null;
@@ -84,7 +100,18 @@ export interface LazyPlotProps extends PlotProps {
 }
 
 /** A Plotly figure in a labelled box, loading Plotly on first use. */
-export function LazyPlot({ label, height = 360, caption, style, className = '', useResizeHandler = true, config, preview, figureProps, ...plot }: LazyPlotProps) {
+export function LazyPlot({
+  label,
+  height = 360,
+  caption,
+  style,
+  className = '',
+  useResizeHandler = true,
+  config,
+  preview,
+  figureProps,
+  ...plot
+}: LazyPlotProps) {
   const figure = useRef<HTMLElement>(null);
   // A new object only when the caller's config changes (react-plotly redraws on a new config).
   const safeConfig = useMemo(() => withoutCloud(config), [config]);
@@ -93,7 +120,8 @@ export function LazyPlot({ label, height = 360, caption, style, className = '', 
   // started) when it first happened: `data-plot-drawn` the first picture of the figure (the quick
   // preview or the library's), `data-plot-interactive` the library's first draw.
   const mark = useCallback((name: string) => {
-    if (figure.current && !figure.current.hasAttribute(name)) figure.current.setAttribute(name, performance.now().toFixed(1));
+    if (figure.current && !figure.current.hasAttribute(name))
+      figure.current.setAttribute(name, performance.now().toFixed(1));
   }, []);
   const previewDrawn = useCallback(() => {
     mark('data-plot-drawn');
@@ -111,7 +139,13 @@ export function LazyPlot({ label, height = 360, caption, style, className = '', 
       <div style={{ height }} className="relative w-full">
         <PlotErrorBoundary>
           <Suspense fallback={preview ? preview(previewDrawn) : <PlotLoading label={label} />}>
-            <Plot {...plot} config={safeConfig} onAfterPlot={afterPlot} useResizeHandler={useResizeHandler} style={{ width: '100%', height: '100%', ...style }} />
+            <Plot
+              {...plot}
+              config={safeConfig}
+              onAfterPlot={afterPlot}
+              useResizeHandler={useResizeHandler}
+              style={{ width: '100%', height: '100%', ...style }}
+            />
           </Suspense>
         </PlotErrorBoundary>
       </div>
@@ -142,7 +176,10 @@ class PlotErrorBoundary extends Component<{ children: ReactNode }, { error: Erro
   override render() {
     if (this.state.error) {
       return (
-        <div role="alert" className="absolute inset-0 flex flex-col items-start justify-center gap-2 border border-warn/40 bg-warn-wash/40 px-4 text-sm">
+        <div
+          role="alert"
+          className="absolute inset-0 flex flex-col items-start justify-center gap-2 border border-warn/40 bg-warn-wash/40 px-4 text-sm"
+        >
           <p className="font-semibold text-warn-strong">The plot could not be drawn.</p>
           <p className="text-ink-strong">{this.state.error.message}</p>
           <button type="button" className="text-ink underline" onClick={() => this.setState({ error: null })}>

@@ -52,7 +52,8 @@ const inGamut = (c: Rgb) => c.every((v) => v >= -1e-6 && v <= 1 + 1e-6);
  */
 export function oklchToSrgb(L: number, C: number, hDeg: number): Rgb {
   const h = (hDeg * Math.PI) / 180;
-  let lo = 0, hi = C;
+  let lo = 0,
+    hi = C;
   let best = oklabToLinear([L, 0, 0]);
   const at = (c: number) => oklabToLinear([L, c * Math.cos(h), c * Math.sin(h)]);
   if (inGamut(at(C))) best = at(C);
@@ -60,7 +61,10 @@ export function oklchToSrgb(L: number, C: number, hDeg: number): Rgb {
     for (let i = 0; i < 30; i++) {
       const mid = (lo + hi) / 2;
       const lin = at(mid);
-      if (inGamut(lin)) { lo = mid; best = lin; } else hi = mid;
+      if (inGamut(lin)) {
+        lo = mid;
+        best = lin;
+      } else hi = mid;
     }
   }
   return best.map((v) => Math.min(1, Math.max(0, linearToSrgb(Math.min(1, Math.max(0, v)))))) as unknown as Rgb;
@@ -72,7 +76,13 @@ export function hexToRgb01(hex: string): Rgb {
 }
 
 export function rgb01ToHex(c: Rgb): string {
-  return `#${c.map((v) => Math.round(Math.min(1, Math.max(0, v)) * 255).toString(16).padStart(2, '0')).join('')}`;
+  return `#${c
+    .map((v) =>
+      Math.round(Math.min(1, Math.max(0, v)) * 255)
+        .toString(16)
+        .padStart(2, '0'),
+    )
+    .join('')}`;
 }
 
 /**
@@ -84,8 +94,10 @@ export function srgbToCielab(c: Rgb): Rgb {
   const x = (0.4124564 * r + 0.3575761 * g + 0.1804375 * b) / 0.95047;
   const y = 0.2126729 * r + 0.7151522 * g + 0.072175 * b;
   const z = (0.0193339 * r + 0.119192 * g + 0.9503041 * b) / 1.08883;
-  const f = (t: number) => (t > 216 / 24389 ? Math.cbrt(t) : (24389 / 27 * t + 16) / 116);
-  const fx = f(x), fy = f(y), fz = f(z);
+  const f = (t: number) => (t > 216 / 24389 ? Math.cbrt(t) : ((24389 / 27) * t + 16) / 116);
+  const fx = f(x),
+    fy = f(y),
+    fz = f(z);
   return [116 * fy - 16, 500 * (fx - fy), 200 * (fy - fz)];
 }
 
@@ -123,7 +135,9 @@ export type Deficiency = keyof typeof MACHADO_2009;
 export function simulateDeficiency(c: Rgb, kind: Deficiency): Rgb {
   const lin = c.map(srgbToLinear);
   const m = MACHADO_2009[kind];
-  return m.map((row) => linearToSrgb(Math.min(1, Math.max(0, row[0] * lin[0] + row[1] * lin[1] + row[2] * lin[2])))) as unknown as Rgb;
+  return m.map((row) =>
+    linearToSrgb(Math.min(1, Math.max(0, row[0] * lin[0] + row[1] * lin[1] + row[2] * lin[2]))),
+  ) as unknown as Rgb;
 }
 
 /** Relative luminance Y (0–1) of an sRGB colour: what a grey print keeps of it. */

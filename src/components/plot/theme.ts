@@ -119,7 +119,13 @@ export function plotConfig(extra: Partial<Config> = {}): Partial<Config> {
   return withoutCloud({
     responsive: true,
     scrollZoom: false,
-    modeBarButtonsToRemove: ['lasso2d', 'autoScale2d', 'toggleSpikelines', 'hoverClosestCartesian', 'hoverCompareCartesian'],
+    modeBarButtonsToRemove: [
+      'lasso2d',
+      'autoScale2d',
+      'toggleSpikelines',
+      'hoverClosestCartesian',
+      'hoverCompareCartesian',
+    ],
     toImageButtonOptions: { format: 'png', scale: 2 },
     ...extra,
   });

@@ -1,4 +1,12 @@
-export { authKeys, meQuery, useMe, useSignIn, useSignOut, useRequestPasswordReset, useConfirmPasswordReset } from './api';
+export {
+  authKeys,
+  meQuery,
+  useMe,
+  useSignIn,
+  useSignOut,
+  useRequestPasswordReset,
+  useConfirmPasswordReset,
+} from './api';
 export type { Credentials } from './api';
 export { requireSession, SessionGate, safeReturnPath, signInPath } from './guard';
 export { ROLE_LABELS, ROLE_ORDER, roleLabel, can } from './roles';

@@ -20,7 +20,8 @@ const removedKey = (cruiseId: string) => [...cruiseKeys.casts(cruiseId), 'remove
 export function useRemovedCasts(cruiseId: string) {
   return useQuery({
     queryKey: removedKey(cruiseId),
-    queryFn: ({ signal }) => http(`/api/cruises/${encodeURIComponent(cruiseId)}/removed-casts`, { schema: removedCastListSchema, signal }),
+    queryFn: ({ signal }) =>
+      http(`/api/cruises/${encodeURIComponent(cruiseId)}/removed-casts`, { schema: removedCastListSchema, signal }),
   });
 }
 

@@ -18,12 +18,21 @@ export const castSummarySchema = z.object({
   sourceFile: z.string().nullish(),
   /** Lines of the file left out because they could not be read; decision null: awaiting the technician. */
   partlyRead: z
-    .object({ dropped: z.array(z.object({ line: z.number().nullable(), column: z.number().nullable(), message: z.string() })), decision: z.string().nullable() })
+    .object({
+      dropped: z.array(z.object({ line: z.number().nullable(), column: z.number().nullable(), message: z.string() })),
+      decision: z.string().nullable(),
+    })
     .nullish(),
 });
 export type CastSummary = z.infer<typeof castSummarySchema>;
 export const castListSchema = z.array(castSummarySchema);
 
-export const removedCastSchema = z.object({ id, station: label, cast: label, sourceFile: z.string(), removedAt: z.string().nullable() });
+export const removedCastSchema = z.object({
+  id,
+  station: label,
+  cast: label,
+  sourceFile: z.string(),
+  removedAt: z.string().nullable(),
+});
 export const removedCastListSchema = z.array(removedCastSchema);
 export type RemovedCast = z.infer<typeof removedCastSchema>;

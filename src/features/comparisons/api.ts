@@ -26,20 +26,26 @@ export function useComparison(view: ComparisonView) {
 export function useLines(cruiseId: string | null) {
   return useQuery({
     queryKey: comparisonKeys.lines(cruiseId ?? ''),
-    queryFn: ({ signal }) => http(`/api/cruises/${encodeURIComponent(cruiseId!)}/lines`, { schema: lineListSchema, signal }),
+    queryFn: ({ signal }) =>
+      http(`/api/cruises/${encodeURIComponent(cruiseId!)}/lines`, { schema: lineListSchema, signal }),
     enabled: Boolean(cruiseId),
     staleTime: 60_000,
   });
 }
 
 export function useMyCruises() {
-  return useQuery({ queryKey: comparisonKeys.cruises(), queryFn: ({ signal }) => http('/api/cruises', { schema: cruiseListSchema, signal }), staleTime: 60_000 });
+  return useQuery({
+    queryKey: comparisonKeys.cruises(),
+    queryFn: ({ signal }) => http('/api/cruises', { schema: cruiseListSchema, signal }),
+    staleTime: 60_000,
+  });
 }
 
 export function useOccupations(lineId: string | null) {
   return useQuery({
     queryKey: comparisonKeys.occupations(lineId ?? ''),
-    queryFn: ({ signal }) => http(`/api/lines/${encodeURIComponent(lineId!)}/occupations`, { schema: occupationsSchema, signal }),
+    queryFn: ({ signal }) =>
+      http(`/api/lines/${encodeURIComponent(lineId!)}/occupations`, { schema: occupationsSchema, signal }),
     enabled: Boolean(lineId),
     staleTime: 60_000,
   });
@@ -48,7 +54,12 @@ export function useOccupations(lineId: string | null) {
 export function useLinkLine(lineId: string | null) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (other: string) => http(`/api/lines/${encodeURIComponent(lineId!)}/occupations`, { method: 'POST', body: { line: other }, schema: occupationsSchema }),
+    mutationFn: (other: string) =>
+      http(`/api/lines/${encodeURIComponent(lineId!)}/occupations`, {
+        method: 'POST',
+        body: { line: other },
+        schema: occupationsSchema,
+      }),
     onSuccess: () => qc.invalidateQueries({ queryKey: ['comparisons', 'occupations'] }),
   });
 }

@@ -15,13 +15,25 @@ export interface ComparisonView {
 }
 
 export const DEFAULT_VIEW: ComparisonView = {
-  a: null, b: null, property: 'CT', ref: 0, inversions: 'sort', pair: 20, positions: 'stations', bin: 10, levels: null, perDecade: false,
+  a: null,
+  b: null,
+  property: 'CT',
+  ref: 0,
+  inversions: 'sort',
+  pair: 20,
+  positions: 'stations',
+  bin: 10,
+  levels: null,
+  perDecade: false,
 };
 const REFS = [0, 1000, 2000, 3000, 4000];
 const uuid = /^[0-9a-f-]{36}$/i;
 
 export function parseView(sp: URLSearchParams): ComparisonView {
-  const n = (k: string, d: number, ok: (v: number) => boolean) => { const v = Number(sp.get(k)); return sp.has(k) && Number.isFinite(v) && ok(v) ? v : d; };
+  const n = (k: string, d: number, ok: (v: number) => boolean) => {
+    const v = Number(sp.get(k));
+    return sp.has(k) && Number.isFinite(v) && ok(v) ? v : d;
+  };
   const inv = sp.get('inversions');
   return {
     a: uuid.test(sp.get('a') ?? '') ? sp.get('a') : null,
@@ -55,15 +67,37 @@ export function serialiseView(v: ComparisonView): URLSearchParams {
 /** The POST body of the comparison a view asks for. */
 export function comparisonBody(v: ComparisonView) {
   return {
-    lineA: v.a, lineB: v.b, property: v.property, ref: v.ref, inversions: v.inversions, pairDistanceKm: v.pair, positions: v.positions, bin: v.bin,
-    ...(v.levels ? { levels: v.levels } : {}), digits: 6,
+    lineA: v.a,
+    lineB: v.b,
+    property: v.property,
+    ref: v.ref,
+    inversions: v.inversions,
+    pairDistanceKm: v.pair,
+    positions: v.positions,
+    bin: v.bin,
+    ...(v.levels ? { levels: v.levels } : {}),
+    digits: 6,
   };
 }
 
 /** The export link of a view. */
-export function exportHref(v: ComparisonView, format: 'csv' | 'nc', frame: 'pressure' | 'density' = 'pressure'): string {
-  const sp = new URLSearchParams({ lineA: v.a ?? '', lineB: v.b ?? '', property: v.property, ref: String(v.ref), inversions: v.inversions,
-    pairDistanceKm: String(v.pair), positions: v.positions, bin: String(v.bin), format, frame });
+export function exportHref(
+  v: ComparisonView,
+  format: 'csv' | 'nc',
+  frame: 'pressure' | 'density' = 'pressure',
+): string {
+  const sp = new URLSearchParams({
+    lineA: v.a ?? '',
+    lineB: v.b ?? '',
+    property: v.property,
+    ref: String(v.ref),
+    inversions: v.inversions,
+    pairDistanceKm: String(v.pair),
+    positions: v.positions,
+    bin: String(v.bin),
+    format,
+    frame,
+  });
   if (v.levels) sp.set('levels', v.levels);
   return `/api/comparisons/export?${sp.toString()}`;
 }

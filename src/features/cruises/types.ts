@@ -93,7 +93,10 @@ export const newStationSchema = z.object({
     .string()
     .trim()
     .transform((s) => (s === '' ? undefined : Number(s)))
-    .refine((n) => n === undefined || (Number.isFinite(n) && n > 0 && n < 12000), 'Depth in metres, between 0 and 12 000.')
+    .refine(
+      (n) => n === undefined || (Number.isFinite(n) && n > 0 && n < 12000),
+      'Depth in metres, between 0 and 12 000.',
+    )
     .optional(),
 });
 export type NewStation = z.output<typeof newStationSchema>;

@@ -9,7 +9,8 @@ const inProgress = (d: Delivery) => d.status === 'queued' || d.status === 'build
 export function useDeliveries(cruiseId: string) {
   return useQuery({
     queryKey: deliveryKeys.list(cruiseId),
-    queryFn: ({ signal }) => http(`/api/cruises/${encodeURIComponent(cruiseId)}/deliveries`, { schema: deliveryListSchema, signal }),
+    queryFn: ({ signal }) =>
+      http(`/api/cruises/${encodeURIComponent(cruiseId)}/deliveries`, { schema: deliveryListSchema, signal }),
     refetchInterval: (query) => (query.state.data?.some(inProgress) ? 1500 : false),
   });
 }
@@ -26,7 +27,8 @@ export function useBuildDelivery(cruiseId: string) {
 export function useReleaseDelivery(cruiseId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (id: string) => http(`/api/deliveries/${encodeURIComponent(id)}/release`, { method: 'POST', schema: deliverySchema }),
+    mutationFn: (id: string) =>
+      http(`/api/deliveries/${encodeURIComponent(id)}/release`, { method: 'POST', schema: deliverySchema }),
     onSuccess: (delivery) => {
       queryClient.setQueryData(deliveryKeys.detail(delivery.id), delivery);
       void queryClient.invalidateQueries({ queryKey: deliveryKeys.list(cruiseId) });
@@ -45,4 +47,5 @@ export function useDeleteDelivery(cruiseId: string) {
   });
 }
 
-export const downloadUrl = (id: string, format: string) => `/api/deliveries/${encodeURIComponent(id)}/download?format=${encodeURIComponent(format)}`;
+export const downloadUrl = (id: string, format: string) =>
+  `/api/deliveries/${encodeURIComponent(id)}/download?format=${encodeURIComponent(format)}`;

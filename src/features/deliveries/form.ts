@@ -39,7 +39,8 @@ export function validateDeliveryForm(
   if (values.kind === 'isopycnal' || values.kind === 'package') {
     const set = layerSets.find((s) => s.id === values.layerSetId);
     const ref = set ? set.referencePressure : Number(values.ref);
-    if (![0, 1000, 2000, 3000, 4000].includes(ref)) errors.ref = 'The reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar.';
+    if (![0, 1000, 2000, 3000, 4000].includes(ref))
+      errors.ref = 'The reference pressure is one of 0, 1000, 2000, 3000, 4000 dbar.';
     body.ref = ref;
     if (set) body.levels = set.levels;
     body.inversions = values.inversions;

@@ -9,8 +9,14 @@ export type DeliveryFormat = (typeof DELIVERY_FORMATS)[number];
 
 export const KIND_TEXT: Record<DeliveryKind, { label: string; explain: string }> = {
   isopycnal: { label: 'Isopycnal table', explain: 'Every cast remapped to the target σ levels of a layer set.' },
-  pressure: { label: 'Pressure-binned table', explain: 'Every cast averaged in pressure bins of a chosen size, with the count per bin.' },
-  package: { label: 'Full data package', explain: 'A zip of the raw files, both tables, a provenance README and a checksum manifest.' },
+  pressure: {
+    label: 'Pressure-binned table',
+    explain: 'Every cast averaged in pressure bins of a chosen size, with the count per bin.',
+  },
+  package: {
+    label: 'Full data package',
+    explain: 'A zip of the raw files, both tables, a provenance README and a checksum manifest.',
+  },
 };
 
 export const FORMAT_TEXT: Record<DeliveryFormat, string> = {

@@ -2,7 +2,12 @@ import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient }
 import { http } from '../../lib/http';
 import { sectionKeys } from '../sections';
 import { derivedKeys } from './keys';
-import { derivedVariableListSchema, derivedVariableSchema, formulaPreviewSchema, type NewDerivedVariable } from './types';
+import {
+  derivedVariableListSchema,
+  derivedVariableSchema,
+  formulaPreviewSchema,
+  type NewDerivedVariable,
+} from './types';
 
 const path = (cruiseId: string) => `/api/cruises/${encodeURIComponent(cruiseId)}/derived-variables`;
 
@@ -23,7 +28,12 @@ export function useFormulaPreview(castId: string | null, formula: string) {
   return useQuery({
     queryKey: derivedKeys.preview(castId ?? '', text),
     queryFn: ({ signal }) =>
-      http(`/api/casts/${encodeURIComponent(castId ?? '')}/formula-preview`, { method: 'POST', body: { formula: text }, schema: formulaPreviewSchema, signal }),
+      http(`/api/casts/${encodeURIComponent(castId ?? '')}/formula-preview`, {
+        method: 'POST',
+        body: { formula: text },
+        schema: formulaPreviewSchema,
+        signal,
+      }),
     enabled: castId !== null && text.length > 0,
     placeholderData: keepPreviousData,
     staleTime: Infinity,
@@ -34,7 +44,8 @@ export function useFormulaPreview(castId: string | null, formula: string) {
 export function useCreateDerivedVariable(cruiseId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: NewDerivedVariable) => http(path(cruiseId), { method: 'POST', body: input, schema: derivedVariableSchema }),
+    mutationFn: (input: NewDerivedVariable) =>
+      http(path(cruiseId), { method: 'POST', body: input, schema: derivedVariableSchema }),
     onSuccess: () => {
       void queryClient.invalidateQueries({ queryKey: derivedKeys.list(cruiseId) });
     },

@@ -48,11 +48,16 @@ export function formulaProblemOf(error: unknown): FormulaProblem | null {
 /** Identifiers the formulas can use: a letter or underscore, then letters, digits, underscores. */
 export const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
 
-export function validateDerived(input: NewDerivedVariable, taken: readonly string[]): Partial<Record<keyof NewDerivedVariable, string>> {
+export function validateDerived(
+  input: NewDerivedVariable,
+  taken: readonly string[],
+): Partial<Record<keyof NewDerivedVariable, string>> {
   const errors: Partial<Record<keyof NewDerivedVariable, string>> = {};
   const name = input.name.trim();
   if (!name) errors.name = 'Name the variable.';
-  else if (!IDENTIFIER.test(name)) errors.name = 'A name is a letter or _ followed by letters, digits or _ (it is used in formulas and column headers).';
+  else if (!IDENTIFIER.test(name))
+    errors.name =
+      'A name is a letter or _ followed by letters, digits or _ (it is used in formulas and column headers).';
   else if (name.length > 64) errors.name = 'At most 64 characters.';
   else if (taken.includes(name)) errors.name = `“${name}” is already a column or a derived variable.`;
   if (!input.formula.trim()) errors.formula = 'Write the formula.';

@@ -5,7 +5,14 @@ import { cruiseKeys } from '../cruises';
 import { sectionKeys } from '../sections';
 import { intakeKeys } from './keys';
 import { sendFile } from './send';
-import { columnMappingSchema, isActive, uploadListSchema, uploadSchema, type ColumnMapping, type Upload } from './types';
+import {
+  columnMappingSchema,
+  isActive,
+  uploadListSchema,
+  uploadSchema,
+  type ColumnMapping,
+  type Upload,
+} from './types';
 
 /** How often a queued or processing upload is asked about, ms. */
 export const POLL_MS = 1000;
@@ -38,7 +45,8 @@ export function useUpload(cruiseId: string, uploadId: string | null, initial?: U
   const queryClient = useQueryClient();
   const query = useQuery({
     queryKey: intakeKeys.upload(uploadId ?? ''),
-    queryFn: ({ signal }) => http(`/api/uploads/${encodeURIComponent(uploadId ?? '')}`, { schema: uploadSchema, signal }),
+    queryFn: ({ signal }) =>
+      http(`/api/uploads/${encodeURIComponent(uploadId ?? '')}`, { schema: uploadSchema, signal }),
     enabled: uploadId !== null,
     initialData: initial,
     initialDataUpdatedAt: initial ? 0 : undefined,
@@ -47,7 +55,8 @@ export function useUpload(cruiseId: string, uploadId: string | null, initial?: U
   const status = query.data?.status;
   const seen = useRef(status);
   useEffect(() => {
-    if (seen.current && isActive(seen.current) && status && !isActive(status)) invalidateAfterProcessing(queryClient, cruiseId);
+    if (seen.current && isActive(seen.current) && status && !isActive(status))
+      invalidateAfterProcessing(queryClient, cruiseId);
     seen.current = status;
   }, [status, cruiseId, queryClient]);
   return query;
@@ -186,7 +195,11 @@ export function useReplaceDecision(cruiseId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ uploadId, replace }: { uploadId: string; replace: boolean }) =>
-      http(`/api/uploads/${encodeURIComponent(uploadId)}/replace-decision`, { method: 'POST', body: { replace }, schema: uploadSchema }),
+      http(`/api/uploads/${encodeURIComponent(uploadId)}/replace-decision`, {
+        method: 'POST',
+        body: { replace },
+        schema: uploadSchema,
+      }),
     onSuccess: (upload) => {
       queryClient.setQueryData(intakeKeys.upload(upload.id), upload);
       void queryClient.invalidateQueries({ queryKey: intakeKeys.uploads(cruiseId) });

@@ -1,6 +1,16 @@
 export { intakeKeys } from './keys';
 export {
-  uploadsQuery, useUploads, useUpload, useColumnMapping, useSaveColumnMapping, useRetryUpload, useReplaceDecision, useRemoveUpload, useSendFiles, POLL_MS, PARALLEL_SENDS,
+  uploadsQuery,
+  useUploads,
+  useUpload,
+  useColumnMapping,
+  useSaveColumnMapping,
+  useRetryUpload,
+  useReplaceDecision,
+  useRemoveUpload,
+  useSendFiles,
+  POLL_MS,
+  PARALLEL_SENDS,
 } from './api';
 export type { Outgoing } from './api';
 export { sendFile, resetUploadToken } from './send';
@@ -10,5 +20,13 @@ export { UploadHistory } from './components/UploadHistory';
 export { UploadFollow } from './components/UploadFollow';
 export { ColumnMappingStep } from './components/ColumnMappingStep';
 export { FileProblems, problemPlace } from './components/FileProblems';
-export { uploadSchema, uploadListSchema, fileProblemSchema, columnMappingSchema, COLUMN_ROLES, COLUMN_ROLE_LABELS, isActive } from './types';
+export {
+  uploadSchema,
+  uploadListSchema,
+  fileProblemSchema,
+  columnMappingSchema,
+  COLUMN_ROLES,
+  COLUMN_ROLE_LABELS,
+  isActive,
+} from './types';
 export type { Upload, UploadStatus, FileProblem, ColumnRole, ColumnMapping } from './types';

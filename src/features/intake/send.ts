@@ -46,10 +46,20 @@ function errorFrom(xhr: XMLHttpRequest, filename: string): ApiError {
     body = null;
   }
   const parsed = apiErrorBodySchema.safeParse(body);
-  if (parsed.success) return new ApiError(xhr.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details);
+  if (parsed.success)
+    return new ApiError(xhr.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details);
   if (xhr.status === 413) return new ApiError(413, 'too_large', `${filename} is larger than the server accepts.`);
-  if (xhr.status === 503) return new ApiError(503, 'storage_unavailable', `Storage is not reachable; ${filename} was not stored. Try again later.`);
-  return new ApiError(xhr.status, `http_${xhr.status}`, xhr.statusText || `The server answered ${xhr.status} for ${filename}.`);
+  if (xhr.status === 503)
+    return new ApiError(
+      503,
+      'storage_unavailable',
+      `Storage is not reachable; ${filename} was not stored. Try again later.`,
+    );
+  return new ApiError(
+    xhr.status,
+    `http_${xhr.status}`,
+    xhr.statusText || `The server answered ${xhr.status} for ${filename}.`,
+  );
 }
 
 function sendOnce(cruiseId: string, file: File, csrf: string, options: SendOptions): Promise<Upload[]> {
@@ -67,12 +77,21 @@ function sendOnce(cruiseId: string, file: File, csrf: string, options: SendOptio
         try {
           body = JSON.parse(xhr.responseText);
         } catch {
-          reject(new ApiError(xhr.status, 'bad_response', `The server sent something other than JSON for ${file.name}.`));
+          reject(
+            new ApiError(xhr.status, 'bad_response', `The server sent something other than JSON for ${file.name}.`),
+          );
           return;
         }
         const parsed = uploadBatchSchema.safeParse(body);
         if (!parsed.success) {
-          reject(new ApiError(xhr.status, 'bad_response', `The server's answer for ${file.name} did not have the expected shape.`, parsed.error.issues));
+          reject(
+            new ApiError(
+              xhr.status,
+              'bad_response',
+              `The server's answer for ${file.name} did not have the expected shape.`,
+              parsed.error.issues,
+            ),
+          );
           return;
         }
         resolve(parsed.data.uploads);

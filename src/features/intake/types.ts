@@ -4,17 +4,35 @@ const id = z.union([z.string(), z.number()]).transform(String);
 
 /** A problem in a file, where it is: line and column are 1-based, absent when the whole file is at fault. */
 export const fileProblemSchema = z.object({
-  file: z.string().nullish().transform((v) => v ?? null),
-  line: z.number().int().nullish().transform((v) => v ?? null),
-  column: z.union([z.number().int(), z.string()]).nullish().transform((v) => (v == null ? null : v)),
+  file: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
+  line: z
+    .number()
+    .int()
+    .nullish()
+    .transform((v) => v ?? null),
+  column: z
+    .union([z.number().int(), z.string()])
+    .nullish()
+    .transform((v) => (v == null ? null : v)),
   message: z.string(),
-  code: z.string().nullish().transform((v) => v ?? null),
+  code: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
 });
 export type FileProblem = z.infer<typeof fileProblemSchema>;
 
 /** Errors and warnings arrive as file problems; a bare message is accepted as one without a place. */
 const problemList = z
-  .array(z.union([fileProblemSchema, z.string().transform((message): FileProblem => ({ file: null, line: null, column: null, message, code: null }))]))
+  .array(
+    z.union([
+      fileProblemSchema,
+      z.string().transform((message): FileProblem => ({ file: null, line: null, column: null, message, code: null })),
+    ]),
+  )
   .nullish()
   .transform((v) => v ?? []);
 
@@ -27,25 +45,54 @@ export const uploadSchema = z.object({
   filename: z.string(),
   status: uploadStatusSchema,
   /** Processing progress of the background job, 0–1. */
-  progress: z.number().nullish().transform((v) => (v == null ? 0 : Math.max(0, Math.min(1, v)))),
-  size: z.number().nullish().transform((v) => v ?? null),
-  sha256: z.string().nullish().transform((v) => v ?? null),
+  progress: z
+    .number()
+    .nullish()
+    .transform((v) => (v == null ? 0 : Math.max(0, Math.min(1, v)))),
+  size: z
+    .number()
+    .nullish()
+    .transform((v) => v ?? null),
+  sha256: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
   errors: problemList,
   warnings: problemList,
-  castIds: z.array(id).nullish().transform((v) => v ?? []),
+  castIds: z
+    .array(id)
+    .nullish()
+    .transform((v) => v ?? []),
   /** Headers the parser did not recognise; the mapping step asks what they are. */
-  unmappedHeaders: z.array(z.string()).nullish().transform((v) => v ?? null),
+  unmappedHeaders: z
+    .array(z.string())
+    .nullish()
+    .transform((v) => v ?? null),
   duplicate: z.boolean().optional(),
   /** Casts of this upload whose station and cast are already live: replace them, or keep the earlier ones? */
   conflicts: z
     .object({
-      items: z.array(z.object({ file: z.string(), station: z.string(), cast: z.string(), existingCastId: z.string(), existingFile: z.string() })),
+      items: z.array(
+        z.object({
+          file: z.string(),
+          station: z.string(),
+          cast: z.string(),
+          existingCastId: z.string(),
+          existingFile: z.string(),
+        }),
+      ),
       decision: z.enum(['replace', 'keep']).nullable(),
     })
     .nullish()
     .transform((v) => v ?? null),
-  createdAt: z.string().nullish().transform((v) => v ?? null),
-  updatedAt: z.string().nullish().transform((v) => v ?? null),
+  createdAt: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
+  updatedAt: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
 });
 export type Upload = z.infer<typeof uploadSchema>;
 export const uploadListSchema = z.array(uploadSchema);
@@ -54,7 +101,16 @@ export const uploadBatchSchema = z.object({ uploads: z.array(uploadSchema) });
 export const isActive = (status: UploadStatus) => status === 'queued' || status === 'processing';
 
 /** What a header can be told to be. */
-export const COLUMN_ROLES = ['pressure', 'depth', 'temperature', 'salinity', 'conductivity', 'oxygen', 'extra', 'ignore'] as const;
+export const COLUMN_ROLES = [
+  'pressure',
+  'depth',
+  'temperature',
+  'salinity',
+  'conductivity',
+  'oxygen',
+  'extra',
+  'ignore',
+] as const;
 export const columnRoleSchema = z.enum(COLUMN_ROLES);
 export type ColumnRole = z.infer<typeof columnRoleSchema>;
 

@@ -3,5 +3,12 @@ export { layerSetsQuery, useLayerSets, useCreateLayerSet, useUpdateLayerSet } fr
 export { LevelsField } from './components/LevelsField';
 export { LayerSetForm } from './components/LayerSetForm';
 export { LayerSetList } from './components/LayerSetList';
-export { layerSetSchema, layerSetListSchema, levelsFeedback, levelDigits, validateLayerSet, REFERENCE_PRESSURES } from './types';
+export {
+  layerSetSchema,
+  layerSetListSchema,
+  levelsFeedback,
+  levelDigits,
+  validateLayerSet,
+  REFERENCE_PRESSURES,
+} from './types';
 export type { LayerSet, LayerSetInput, LevelsFeedback } from './types';

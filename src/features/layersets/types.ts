@@ -46,7 +46,8 @@ export function validateLayerSet(input: LayerSetInput): Partial<Record<keyof Lay
   const name = input.name.trim();
   if (!name) errors.name = 'Name the layer set.';
   else if (name.length > 100) errors.name = 'At most 100 characters.';
-  if (!(REFERENCE_PRESSURES as readonly number[]).includes(input.referencePressure)) errors.referencePressure = 'Choose a reference pressure.';
+  if (!(REFERENCE_PRESSURES as readonly number[]).includes(input.referencePressure))
+    errors.referencePressure = 'Choose a reference pressure.';
   const fb = levelsFeedback(input.levels);
   if (fb.state === 'empty') errors.levels = 'Enter the levels, as start:step:end or a comma list.';
   else if (fb.state === 'error') errors.levels = fb.messages.join('; ');

@@ -26,7 +26,8 @@ function useInvalidate(cruiseId: string) {
 export function useCreateLine(cruiseId: string) {
   const invalidate = useInvalidate(cruiseId);
   return useMutation({
-    mutationFn: (body: LineInput & { name: string }) => http(`${cruisePath(cruiseId)}/lines`, { method: 'POST', body, schema: lineSchema }),
+    mutationFn: (body: LineInput & { name: string }) =>
+      http(`${cruisePath(cruiseId)}/lines`, { method: 'POST', body, schema: lineSchema }),
     onSuccess: invalidate,
   });
 }

@@ -18,7 +18,10 @@ export interface PlacedLabel extends LabelPoint {
 type Box = { x0: number; y0: number; x1: number; y1: number };
 const hit = (a: Box, b: Box) => a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1;
 
-export function placeLabels(points: LabelPoint[], opts: { charWidth?: number; height?: number; pointRadius?: number; width?: number; heightLimit?: number } = {}): PlacedLabel[] {
+export function placeLabels(
+  points: LabelPoint[],
+  opts: { charWidth?: number; height?: number; pointRadius?: number; width?: number; heightLimit?: number } = {},
+): PlacedLabel[] {
   const cw = opts.charWidth ?? 6.4;
   const h = opts.height ?? 11;
   const r = opts.pointRadius ?? 4.5;
@@ -26,7 +29,12 @@ export function placeLabels(points: LabelPoint[], opts: { charWidth?: number; he
   const out: PlacedLabel[] = [];
   for (const p of points) {
     const w = p.text.length * cw + 2;
-    const tries: [number, number, 'start' | 'end'][] = [[7, -6, 'start'], [7, 13, 'start'], [-7, -6, 'end'], [-7, 13, 'end']];
+    const tries: [number, number, 'start' | 'end'][] = [
+      [7, -6, 'start'],
+      [7, 13, 'start'],
+      [-7, -6, 'end'],
+      [-7, 13, 'end'],
+    ];
     for (const [dx, dy, anchor] of tries) {
       const x0 = anchor === 'start' ? p.x + dx : p.x + dx - w;
       const box = { x0, y0: p.y + dy - h + 2, x1: x0 + w, y1: p.y + dy + 2 };

@@ -9,10 +9,19 @@ export const lineStationSchema = z.object({
   longitude: z.number(),
   choice: z.enum(['deepest', 'picked', 'composite']),
   composite: z
-    .object({ shallowCastId: z.string(), shallowCast: z.string(), deepCastId: z.string(), deepCast: z.string(), joinPressure: z.number() })
+    .object({
+      shallowCastId: z.string(),
+      shallowCast: z.string(),
+      deepCastId: z.string(),
+      deepCast: z.string(),
+      joinPressure: z.number(),
+    })
     .nullable(),
   deepest: z.number(),
-  candidates: z.array(z.object({ castId: z.string(), cast: z.string(), deepest: z.number() })).optional().default([]),
+  candidates: z
+    .array(z.object({ castId: z.string(), cast: z.string(), deepest: z.number() }))
+    .optional()
+    .default([]),
   note: z.string().nullable(),
   x: z.number(),
   bottomDepth: z.number().nullable().optional(),
@@ -27,7 +36,16 @@ export const lineSchema = z.object({
   polyline: z.array(z.tuple([z.number(), z.number()])).nullable(),
   corridorKm: z.number().nullable(),
   stations: z.array(lineStationSchema),
-  offLine: z.array(z.object({ station: z.string(), offKm: z.number(), spacingKm: z.number(), castId: z.string(), latitude: z.number(), longitude: z.number() })),
+  offLine: z.array(
+    z.object({
+      station: z.string(),
+      offKm: z.number(),
+      spacingKm: z.number(),
+      castId: z.string(),
+      latitude: z.number(),
+      longitude: z.number(),
+    }),
+  ),
   excluded: z.array(z.object({ station: z.string(), why: z.string() })),
   include: z.array(z.string()).optional().default([]),
 });
@@ -47,5 +65,8 @@ export type LineInput = {
 
 /** Station names from pasted text: commas, semicolons, tabs, spaces or new lines between them. */
 export function parseStationList(text: string): string[] {
-  return text.split(/[\s,;]+/).map((s) => s.trim()).filter(Boolean);
+  return text
+    .split(/[\s,;]+/)
+    .map((s) => s.trim())
+    .filter(Boolean);
 }

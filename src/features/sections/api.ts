@@ -1,13 +1,7 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
 import { sectionKeys } from './keys';
-import {
-  geostrophySchema,
-  savedViewListSchema,
-  savedViewSchema,
-  sectionSchema,
-  tsSchema,
-} from './types';
+import { geostrophySchema, savedViewListSchema, savedViewSchema, sectionSchema, tsSchema } from './types';
 
 const cruisePath = (cruiseId: string) => `/api/cruises/${encodeURIComponent(cruiseId)}`;
 
@@ -16,7 +10,10 @@ export const sectionQuery = (cruiseId: string, query: string) =>
     queryKey: sectionKeys.grid(cruiseId, query),
     queryFn: async ({ signal }) => {
       // six significant digits are far below what a colour map can show, and halve the answer
-      const section = await http(`${cruisePath(cruiseId)}/section?${query}&digits=6`, { schema: sectionSchema, signal });
+      const section = await http(`${cruisePath(cruiseId)}/section?${query}&digits=6`, {
+        schema: sectionSchema,
+        signal,
+      });
       performance.mark?.(`section ${section.choices.coord} parsed`);
       return section;
     },
@@ -34,7 +31,8 @@ export function useTsPoints(cruiseId: string, every = 4, line: string | null = n
   const lineQuery = line ? `&line=${encodeURIComponent(line)}` : '';
   return useQuery({
     queryKey: [...sectionKeys.ts(cruiseId, every), line],
-    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/ts?every=${every}${lineQuery}`, { schema: tsSchema, signal }),
+    queryFn: ({ signal }) =>
+      http(`${cruisePath(cruiseId)}/ts?every=${every}${lineQuery}`, { schema: tsSchema, signal }),
     staleTime: 5 * 60_000,
   });
 }

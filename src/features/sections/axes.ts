@@ -11,7 +11,6 @@ export type { XAxisKind, YAxisKind } from './types';
  * passes round values.
  */
 
-
 /** The upper ocean's share of the height and its depth, in the stretched axis. */
 export const STRETCH = { topDbar: 1000, share: 0.5 } as const;
 
@@ -62,25 +61,50 @@ export function stretchMap(pMax: number, topDbar: number = STRETCH.topDbar, shar
 export function yScale(kind: YAxisKind, stretched: boolean, pMax: number, meanLatitude: number | null): YScale {
   const map = stretched ? stretchMap(pMax) : { to: (p: number) => p, from: (v: number) => v };
   const lat = meanLatitude ?? 0;
-  const stretchText = stretched && pMax > STRETCH.topDbar ? `; upper ${STRETCH.topDbar} dbar stretched over ${STRETCH.share * 100} % of the height` : '';
+  const stretchText =
+    stretched && pMax > STRETCH.topDbar
+      ? `; upper ${STRETCH.topDbar} dbar stretched over ${STRETCH.share * 100} % of the height`
+      : '';
   if (kind === 'depth') {
     // Depth ticks: the sea pressure of each round depth at the section's mean latitude (TEOS-10 p_from_z).
     const dMax = pMax; // depth is within 1 % of pressure; the tick list is trimmed by pressure below
-    const vals: number[] = [], text: string[] = [];
-    const marks = stretched ? [...roundValues(0, Math.min(1000, dMax), 200), ...roundValues(1000, dMax * 1.02, niceStep(dMax - 1000, 5)).slice(1)] : roundValues(0, dMax * 1.02, niceStep(dMax, 8));
+    const vals: number[] = [],
+      text: string[] = [];
+    const marks = stretched
+      ? [
+          ...roundValues(0, Math.min(1000, dMax), 200),
+          ...roundValues(1000, dMax * 1.02, niceStep(dMax - 1000, 5)).slice(1),
+        ]
+      : roundValues(0, dMax * 1.02, niceStep(dMax, 8));
     for (const d of marks) {
       const p = p_from_z(-d, lat);
-      if (Number.isFinite(p) && p <= pMax * 1.02) { vals.push(map.to(p)); text.push(String(d)); }
+      if (Number.isFinite(p) && p <= pMax * 1.02) {
+        vals.push(map.to(p));
+        text.push(String(d));
+      }
     }
     return {
-      toAxis: map.to, fromAxis: map.from, ticks: { vals, text }, title: 'Depth (m)',
+      toAxis: map.to,
+      fromAxis: map.from,
+      ticks: { vals, text },
+      title: 'Depth (m)',
       caption: `depth from pressure by TEOS-10 (p_from_z) at the mean latitude ${Math.abs(lat).toFixed(1)}°${lat < 0 ? 'S' : 'N'}${stretchText}`,
     };
   }
-  if (!stretched || pMax <= STRETCH.topDbar) return { toAxis: map.to, fromAxis: map.from, ticks: null, title: 'Pressure (dbar)', caption: `pressure axis${stretchText}` };
+  if (!stretched || pMax <= STRETCH.topDbar)
+    return {
+      toAxis: map.to,
+      fromAxis: map.from,
+      ticks: null,
+      title: 'Pressure (dbar)',
+      caption: `pressure axis${stretchText}`,
+    };
   const marks = [...roundValues(0, 1000, 200), ...roundValues(1000, pMax, niceStep(pMax - 1000, 5)).slice(1)];
   return {
-    toAxis: map.to, fromAxis: map.from, ticks: { vals: marks.map(map.to), text: marks.map(String) }, title: 'Pressure (dbar)',
+    toAxis: map.to,
+    fromAxis: map.from,
+    ticks: { vals: marks.map(map.to), text: marks.map(String) },
+    title: 'Pressure (dbar)',
     caption: `pressure axis${stretchText}`,
   };
 }
@@ -101,27 +125,36 @@ const hemi = (v: number, kind: 'latitude' | 'longitude', digits: number) =>
  * the coordinate runs back on itself along the track, each station is labelled instead.
  */
 export function xScale(kind: XAxisKind, stations: readonly SectionStation[]): XScale {
-  if (kind === 'distance') return { title: 'Distance along the track (km)', ticks: null, caption: 'x: distance along the track' };
+  if (kind === 'distance')
+    return { title: 'Distance along the track (km)', ticks: null, caption: 'x: distance along the track' };
   const pts = stations
     .map((s) => ({ x: s.x, v: kind === 'latitude' ? s.latitude : s.longitude }))
     .filter((q): q is { x: number; v: number } => q.v !== null && Number.isFinite(q.v))
     .sort((a, b) => a.x - b.x);
   const title = kind === 'latitude' ? 'Latitude' : 'Longitude';
-  if (pts.length < 2) return { title, ticks: null, caption: `x: ${kind} (too few positioned stations; distance shown)` };
+  if (pts.length < 2)
+    return { title, ticks: null, caption: `x: ${kind} (too few positioned stations; distance shown)` };
   const d = pts.slice(1).map((q, i) => q.v - pts[i].v);
   const monotone = d.every((v) => v >= 0) || d.every((v) => v <= 0);
-  const lo = Math.min(...pts.map((q) => q.v)), hi = Math.max(...pts.map((q) => q.v));
+  const lo = Math.min(...pts.map((q) => q.v)),
+    hi = Math.max(...pts.map((q) => q.v));
   if (!monotone || hi - lo < 1e-6) {
     const every = Math.max(1, Math.ceil(pts.length / 10));
     const picked = pts.filter((_, i) => i % every === 0);
-    return { title, ticks: { vals: picked.map((q) => q.x), text: picked.map((q) => hemi(q.v, kind, 2)) }, caption: `x: ${kind} of the stations (the track turns back in ${kind})` };
+    return {
+      title,
+      ticks: { vals: picked.map((q) => q.x), text: picked.map((q) => hemi(q.v, kind, 2)) },
+      caption: `x: ${kind} of the stations (the track turns back in ${kind})`,
+    };
   }
   const step = niceStep(hi - lo, 7);
   const digits = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
-  const vals: number[] = [], text: string[] = [];
+  const vals: number[] = [],
+    text: string[] = [];
   for (const v of roundValues(lo, hi, step)) {
     for (let i = 1; i < pts.length; i++) {
-      const a = pts[i - 1], b = pts[i];
+      const a = pts[i - 1],
+        b = pts[i];
       if ((v - a.v) * (v - b.v) <= 0 && a.v !== b.v) {
         vals.push(a.x + ((v - a.v) / (b.v - a.v)) * (b.x - a.x));
         text.push(hemi(v, kind, digits));

@@ -3,7 +3,8 @@ import type { Section, SectionStation } from './types';
 /** Index of the value in a sorted axis nearest to v (−1 for an empty axis). */
 export function nearestIndex(axis: readonly number[], v: number): number {
   if (!axis.length || !Number.isFinite(v)) return -1;
-  let lo = 0, hi = axis.length - 1;
+  let lo = 0,
+    hi = axis.length - 1;
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1;
     if (axis[mid] <= v) lo = mid;
@@ -28,7 +29,11 @@ export function nearestStation(stations: readonly SectionStation[], x: number): 
 }
 
 /** The station `step` places along the track from the current one (clamped at the ends). */
-export function stepStation(stations: readonly SectionStation[], currentId: string | null, step: number): SectionStation | null {
+export function stepStation(
+  stations: readonly SectionStation[],
+  currentId: string | null,
+  step: number,
+): SectionStation | null {
   if (!stations.length) return null;
   const ordered = [...stations].sort((a, b) => a.x - b.x);
   const at = ordered.findIndex((s) => s.id === currentId);
@@ -38,10 +43,16 @@ export function stepStation(stations: readonly SectionStation[], currentId: stri
 
 /** min and max of the finite values of some grids, or null when there are none. */
 export function gridRange(...grids: (Section['grid'] | undefined)[]): { min: number; max: number } | null {
-  let min = Infinity, max = -Infinity;
+  let min = Infinity,
+    max = -Infinity;
   for (const g of grids) {
     if (!g) continue;
-    for (const row of g.z) for (const v of row) if (v !== null && Number.isFinite(v)) { if (v < min) min = v; if (v > max) max = v; }
+    for (const row of g.z)
+      for (const v of row)
+        if (v !== null && Number.isFinite(v)) {
+          if (v < min) min = v;
+          if (v > max) max = v;
+        }
   }
   if (!Number.isFinite(min)) return null;
   return min === max ? { min: min - 0.5, max: max + 0.5 } : { min, max };
@@ -58,18 +69,26 @@ export function formatValue(v: number | null | undefined, digits: number): strin
 }
 
 /** Which ends of a fixed colour range the grid's values pass: those ends get an extension mark. */
-export function rangeExtensions(grid: Section['grid'] | undefined, range: { min: number; max: number } | null): { below: number; above: number } {
+export function rangeExtensions(
+  grid: Section['grid'] | undefined,
+  range: { min: number; max: number } | null,
+): { below: number; above: number } {
   const out = { below: 0, above: 0 };
   if (!grid || !range) return out;
-  for (const row of grid.z) for (const v of row) {
-    if (v === null || !Number.isFinite(v)) continue;
-    if (v < range.min) out.below++;
-    else if (v > range.max) out.above++;
-  }
+  for (const row of grid.z)
+    for (const v of row) {
+      if (v === null || !Number.isFinite(v)) continue;
+      if (v < range.min) out.below++;
+      else if (v > range.max) out.above++;
+    }
   return out;
 }
 
-export interface LineLabel { x: number; y: number; text: string }
+export interface LineLabel {
+  x: number;
+  y: number;
+  text: string;
+}
 
 /**
  * Labels along lines (isopycnals), not piled at one edge: each line is offered places along its
@@ -94,7 +113,8 @@ export function placeLineLabels(
     const order = fractions.map((_, j) => fractions[(j + k) % fractions.length]);
     for (const f of order) {
       const pos = f * (wet.length - 1);
-      const i0 = wet[Math.floor(pos)], i1 = wet[Math.min(wet.length - 1, Math.floor(pos) + 1)];
+      const i0 = wet[Math.floor(pos)],
+        i1 = wet[Math.min(wet.length - 1, Math.floor(pos) + 1)];
       const w = pos - Math.floor(pos);
       const x = line.xs[i0] + (line.xs[i1] - line.xs[i0]) * w;
       const y = (line.ys[i0] as number) + ((line.ys[i1] as number) - (line.ys[i0] as number)) * w;

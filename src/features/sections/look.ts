@@ -27,7 +27,12 @@ export interface FramesLook {
   /** The horizontal axis in words (the density frame has no vertical choice). */
   xAxisWords: string;
   /** The choices in words, for the captions (each ends without a full stop). */
-  words: { palette: string; contours: (frame: 'pressure' | 'density') => string; axes: string; range: (frame: 'pressure' | 'density') => string };
+  words: {
+    palette: string;
+    contours: (frame: 'pressure' | 'density') => string;
+    axes: string;
+    range: (frame: 'pressure' | 'density') => string;
+  };
 }
 
 /**
@@ -35,7 +40,11 @@ export interface FramesLook {
  * palette, each frame's own colour range (a fixed range where the view has one), the contour
  * interval, the axes, and the colour-range extensions.
  */
-export function useFramesLook(view: SectionViewState, pressure: Section | undefined, density: Section | undefined): FramesLook {
+export function useFramesLook(
+  view: SectionViewState,
+  pressure: Section | undefined,
+  density: Section | undefined,
+): FramesLook {
   const densityShowsDepth = view.densityShows === 'depth';
   const autoPressure = useMemo(() => gridRange(pressure?.grid), [pressure?.grid]);
   const autoDensity = useMemo(() => gridRange(density?.grid), [density?.grid]);
@@ -48,28 +57,52 @@ export function useFramesLook(view: SectionViewState, pressure: Section | undefi
     const m = Math.max(Math.abs(r.min), Math.abs(r.max)) || 1;
     return { min: -m, max: m };
   };
-  const pressureRange = useMemo(() => fixedP ?? centred(autoPressure), [fixedP?.min, fixedP?.max, autoPressure, diverging]); // eslint-disable-line react-hooks/exhaustive-deps
-  const densityRange = useMemo(() => fixedD ?? (view.densityShows === 'depth' ? autoDensity : centred(autoDensity)), [fixedD?.min, fixedD?.max, autoDensity, diverging, view.densityShows]); // eslint-disable-line react-hooks/exhaustive-deps
+  const pressureRange = useMemo(
+    () => fixedP ?? centred(autoPressure),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [fixedP?.min, fixedP?.max, autoPressure, diverging],
+  );
+  const densityRange = useMemo(
+    () => fixedD ?? (view.densityShows === 'depth' ? autoDensity : centred(autoDensity)),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [fixedD?.min, fixedD?.max, autoDensity, diverging, view.densityShows],
+  );
   const stations = pressure?.stations ?? density?.stations;
 
   return useMemo(() => {
     const palette: ColorScale = PALETTES[paletteName].scale;
     const depthPalette: ColorScale = view.palette === 'auto' ? PALETTES.brine.scale : palette;
     const step = (r: { min: number; max: number } | null) =>
-      view.contours === 'off' ? null : view.contours === 'auto' ? (r ? niceStep(r.max - r.min, 10) : null) : view.contours;
+      view.contours === 'off'
+        ? null
+        : view.contours === 'auto'
+          ? r
+            ? niceStep(r.max - r.min, 10)
+            : null
+          : view.contours;
     let pMax = pressure?.grid.y[pressure.grid.y.length - 1] ?? 0;
     for (const b of pressure?.bottom ?? []) if (b.p > pMax) pMax = b.p;
     const ys = pressure ? yScale(view.yAxis, view.stretch, pMax * 1.02, meanLatitude(pressure.stations)) : null;
     const xs = stations ? xScale(view.xAxis, stations) : null;
     const pStep = step(pressureRange);
     // The density frame showing the pressure of the isopycnals gets pressure contours too.
-    const dStep = densityShowsDepth ? (view.contours === 'off' ? null : niceStep((densityRange?.max ?? 1) - (densityRange?.min ?? 0), 10)) : step(densityRange);
+    const dStep = densityShowsDepth
+      ? view.contours === 'off'
+        ? null
+        : niceStep((densityRange?.max ?? 1) - (densityRange?.min ?? 0), 10)
+      : step(densityRange);
     const pLook: FrameLook = {
-      palette, contourStep: pStep, yScale: ys, xScale: xs,
+      palette,
+      contourStep: pStep,
+      yScale: ys,
+      xScale: xs,
       extensions: view.range ? rangeExtensions(pressure?.grid, view.range) : { below: 0, above: 0 },
     };
     const dLook: FrameLook = {
-      palette: densityShowsDepth ? depthPalette : palette, contourStep: dStep, yScale: null, xScale: xs,
+      palette: densityShowsDepth ? depthPalette : palette,
+      contourStep: dStep,
+      yScale: null,
+      xScale: xs,
       extensions: view.densityRange ? rangeExtensions(density?.grid, view.densityRange) : { below: 0, above: 0 },
     };
     const fmt = (v: number) => String(Number(v.toPrecision(4)));
@@ -98,15 +131,41 @@ export function useFramesLook(view: SectionViewState, pressure: Section | undefi
           const fixed = frame === 'pressure' ? view.range : view.densityRange;
           const r = frame === 'pressure' ? pressureRange : densityRange;
           if (!r) return 'colour range automatic';
-          return fixed ? `colour range fixed at ${fmt(r.min)} to ${fmt(r.max)}${ext(frame === 'pressure' ? pLook : dLook)}` : `colour range ${fmt(r.min)} to ${fmt(r.max)} (this frame's own${diverging ? ', centred on 0' : ''})`;
+          return fixed
+            ? `colour range fixed at ${fmt(r.min)} to ${fmt(r.max)}${ext(frame === 'pressure' ? pLook : dLook)}`
+            : `colour range ${fmt(r.min)} to ${fmt(r.max)} (this frame's own${diverging ? ', centred on 0' : ''})`;
         },
       },
     };
-  }, [diverging, paletteName, view.property, view.palette, view.contours, view.yAxis, view.stretch, view.xAxis, view.range, view.densityRange, pressure, density, stations, pressureRange, densityRange, autoPressure, autoDensity, densityShowsDepth]);
+  }, [
+    diverging,
+    paletteName,
+    view.property,
+    view.palette,
+    view.contours,
+    view.yAxis,
+    view.stretch,
+    view.xAxis,
+    view.range,
+    view.densityRange,
+    pressure,
+    density,
+    stations,
+    pressureRange,
+    densityRange,
+    autoPressure,
+    autoDensity,
+    densityShowsDepth,
+  ]);
 }
 
 /** Caption text: the parts joined, ending with exactly one full stop. */
 export function sentence(...parts: (string | null | undefined | false)[]): string {
-  const text = parts.filter(Boolean).join('; ').replace(/\s+/g, ' ').trim().replace(/[.;,\s]+$/, '');
+  const text = parts
+    .filter(Boolean)
+    .join('; ')
+    .replace(/\s+/g, ' ')
+    .trim()
+    .replace(/[.;,\s]+$/, '');
   return text ? `${text.charAt(0).toUpperCase()}${text.slice(1)}.` : '';
 }

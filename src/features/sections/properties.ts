@@ -14,7 +14,10 @@ export const SECTION_PROPERTIES: readonly { name: string; label: string; unit: s
   { name: 'oxygen', label: 'Dissolved oxygen', unit: 'µmol/kg' },
 ];
 
-export function propertyLabel(name: string, derived: readonly { name: string; unit: string | null }[] = []): { label: string; unit: string } {
+export function propertyLabel(
+  name: string,
+  derived: readonly { name: string; unit: string | null }[] = [],
+): { label: string; unit: string } {
   const known = SECTION_PROPERTIES.find((p) => p.name === name);
   if (known) return { label: known.label, unit: known.unit };
   const d = derived.find((v) => v.name === name);

@@ -13,11 +13,15 @@ export interface TsExtent {
  * so a single point or a well-mixed cast still gets contours around it). null when no point is finite.
  */
 export function tsExtent(casts: readonly TsCast[], pad = 0.06): TsExtent | null {
-  let saMin = Infinity, saMax = -Infinity, ctMin = Infinity, ctMax = -Infinity;
+  let saMin = Infinity,
+    saMax = -Infinity,
+    ctMin = Infinity,
+    ctMax = -Infinity;
   for (const c of casts) {
     const n = Math.min(c.SA.length, c.CT.length);
     for (let i = 0; i < n; i++) {
-      const sa = c.SA[i], ct = c.CT[i];
+      const sa = c.SA[i],
+        ct = c.CT[i];
       if (sa == null || ct == null || !Number.isFinite(sa) || !Number.isFinite(ct)) continue;
       if (sa < saMin) saMin = sa;
       if (sa > saMax) saMax = sa;
@@ -46,7 +50,10 @@ export interface SigmaGrid {
  * density (`sigma_pr`, Roquet et al. 2015), for drawing isopycnals behind the T–S points.
  */
 export function sigmaGrid(extent: TsExtent, ref: number, columns = 60, rows = 60): SigmaGrid {
-  const SA = Array.from({ length: columns }, (_, i) => extent.saMin + ((extent.saMax - extent.saMin) * i) / (columns - 1));
+  const SA = Array.from(
+    { length: columns },
+    (_, i) => extent.saMin + ((extent.saMax - extent.saMin) * i) / (columns - 1),
+  );
   const CT = Array.from({ length: rows }, (_, j) => extent.ctMin + ((extent.ctMax - extent.ctMin) * j) / (rows - 1));
   const sigma = CT.map((ct) =>
     SA.map((sa) => {
@@ -59,8 +66,14 @@ export function sigmaGrid(extent: TsExtent, ref: number, columns = 60, rows = 60
 
 /** A round contour spacing giving about `target` lines over the grid's σ span. */
 export function contourStep(grid: SigmaGrid, target = 10): { start: number; end: number; size: number } | null {
-  let lo = Infinity, hi = -Infinity;
-  for (const row of grid.sigma) for (const v of row) if (v !== null) { if (v < lo) lo = v; if (v > hi) hi = v; }
+  let lo = Infinity,
+    hi = -Infinity;
+  for (const row of grid.sigma)
+    for (const v of row)
+      if (v !== null) {
+        if (v < lo) lo = v;
+        if (v > hi) hi = v;
+      }
   if (!Number.isFinite(lo) || hi <= lo) return null;
   const raw = (hi - lo) / target;
   const magnitude = 10 ** Math.floor(Math.log10(raw));

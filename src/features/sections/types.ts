@@ -58,11 +58,24 @@ export const sectionSchema = z.object({
   grid: z.object({ x: z.array(z.number()), y: z.array(z.number()), z: z.array(z.array(cell)) }),
   stations: z.array(sectionStationSchema),
   /** The line drawn (docs/lines.md). */
-  line: z.object({ id: z.string(), name: z.string(), isDefault: z.boolean(), offLine: z.array(z.object({ station: z.string() })) }).optional(),
+  line: z
+    .object({
+      id: z.string(),
+      name: z.string(),
+      isDefault: z.boolean(),
+      offLine: z.array(z.object({ station: z.string() })),
+    })
+    .optional(),
   // known: a bottom depth was known there; where not, the cast only stopped (no data below, never land)
-  bottom: z.array(z.object({ x: z.number(), p: z.number(), known: z.boolean().optional().default(true) })).optional().default([]),
+  bottom: z
+    .array(z.object({ x: z.number(), p: z.number(), known: z.boolean().optional().default(true) }))
+    .optional()
+    .default([]),
   inversions: z.array(sectionInversionSchema),
-  isopycnals: z.array(z.object({ sigma: z.number(), p: z.array(cell) })).optional().default([]),
+  isopycnals: z
+    .array(z.object({ sigma: z.number(), p: z.array(cell) }))
+    .optional()
+    .default([]),
 });
 export type Section = z.infer<typeof sectionSchema>;
 
@@ -94,4 +107,7 @@ export const savedViewSchema = z.object({ id, name: z.string(), query: z.string(
 export type SavedView = z.infer<typeof savedViewSchema>;
 export const savedViewListSchema = z.array(savedViewSchema);
 
-export type { LayerSetResponse as LayerSet, DerivedVariableResponse as DerivedVariable } from '../../../shared/api/resources';
+export type {
+  LayerSetResponse as LayerSet,
+  DerivedVariableResponse as DerivedVariable,
+} from '../../../shared/api/resources';

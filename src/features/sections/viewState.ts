@@ -217,7 +217,8 @@ export function sigmaName(ref: number): string {
 export const INVERSION_HANDLING_TEXT: Record<InversionHandling, { label: string; explain: string }> = {
   sort: {
     label: 'Sort (reorder parcels)',
-    explain: 'Reorder the water parcels so σ increases downward while the pressure grid stays put; each level’s properties move with it (Thorpe reordering).',
+    explain:
+      'Reorder the water parcels so σ increases downward while the pressure grid stays put; each level’s properties move with it (Thorpe reordering).',
   },
   drop: {
     label: 'Drop inverted levels',

@@ -3,7 +3,13 @@
 import { describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import {
-  defaultLayerBoundaries, defaultLevels, FALLBACK_LEVELS, MAX_LEVELS, parseLevels, REFERENCE_PRESSURES, safeParseLevels,
+  defaultLayerBoundaries,
+  defaultLevels,
+  FALLBACK_LEVELS,
+  MAX_LEVELS,
+  parseLevels,
+  REFERENCE_PRESSURES,
+  safeParseLevels,
 } from '../../../shared/api/levels';
 
 describe('levels policy', () => {
@@ -36,7 +42,11 @@ describe('levels policy', () => {
     const b = Array.from(parseLevels(defaultLayerBoundaries(0, range)));
     expect(b.length).toBeGreaterThanOrEqual(5);
     expect(b.length).toBeLessThanOrEqual(10);
-    for (const v of b) expect(all.some((a) => Math.abs(a - v) < 1e-9), String(v)).toBe(true);
+    for (const v of b)
+      expect(
+        all.some((a) => Math.abs(a - v) < 1e-9),
+        String(v),
+      ).toBe(true);
     expect(b[0]).toBe(all[0]);
     expect(b[b.length - 1]).toBe(all[all.length - 1]);
   });
@@ -45,7 +55,11 @@ describe('levels policy', () => {
     // Literal level specs outside the policy module, the suggested layer sets' seed and tests are defaults in disguise.
     let out: string;
     try {
-      out = execFileSync('grep', ['-rnE', "['\"`][0-9]{2}\\.[0-9]+:[0-9.]+:[0-9]{2}\\.[0-9]+['\"`]", 'server', 'src', 'shared'], { encoding: 'utf8' });
+      out = execFileSync(
+        'grep',
+        ['-rnE', '[\'"`][0-9]{2}\\.[0-9]+:[0-9.]+:[0-9]{2}\\.[0-9]+[\'"`]', 'server', 'src', 'shared'],
+        { encoding: 'utf8' },
+      );
     } catch (e) {
       out = (e as { stdout?: string }).stdout ?? ''; // grep exits 1 when nothing matches
     }

@@ -6,18 +6,39 @@ import { AuditTrail } from '../../../src/features/cruises';
 import { createQueryClient } from '../../../src/lib/queryClient';
 
 const entry = (i: number, action: string, before: unknown, after: unknown) => ({
-  id: String(i), at: `2026-03-0${1 + (i % 9)}T10:0${i % 10}:00.000Z`, actor: { id: 'u1', name: 'Juno Abernethy' }, action, entity: 'cast', entityId: 'c1', before, after,
+  id: String(i),
+  at: `2026-03-0${1 + (i % 9)}T10:0${i % 10}:00.000Z`,
+  actor: { id: 'u1', name: 'Juno Abernethy' },
+  action,
+  entity: 'cast',
+  entityId: 'c1',
+  before,
+  after,
 });
 
 describe('audit trail panel', () => {
-  afterEach(() => { cleanup(); vi.unstubAllGlobals(); });
+  afterEach(() => {
+    cleanup();
+    vi.unstubAllGlobals();
+  });
   it('lists who did what with before and after, the latest first, and opens the rest on request', async () => {
-    const rows = [entry(1, 'set_flag', { flagsInRange: { salinity: [2] } }, { flag: 4, levels: 1 }), ...Array.from({ length: 14 }, (_, i) => entry(i + 2, 'upload', null, { filename: `f${i}.csv` }))];
-    vi.stubGlobal('fetch', vi.fn(async (input: RequestInfo | URL) => {
-      if (String(input) === '/api/cruises/c1/audit') return new Response(JSON.stringify(rows), { status: 200, headers: { 'content-type': 'application/json' } });
-      return new Response('{}', { status: 404 });
-    }));
-    render(<QueryClientProvider client={createQueryClient()}><AuditTrail cruiseId="c1" /></QueryClientProvider>);
+    const rows = [
+      entry(1, 'set_flag', { flagsInRange: { salinity: [2] } }, { flag: 4, levels: 1 }),
+      ...Array.from({ length: 14 }, (_, i) => entry(i + 2, 'upload', null, { filename: `f${i}.csv` })),
+    ];
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (input: RequestInfo | URL) => {
+        if (String(input) === '/api/cruises/c1/audit')
+          return new Response(JSON.stringify(rows), { status: 200, headers: { 'content-type': 'application/json' } });
+        return new Response('{}', { status: 404 });
+      }),
+    );
+    render(
+      <QueryClientProvider client={createQueryClient()}>
+        <AuditTrail cruiseId="c1" />
+      </QueryClientProvider>,
+    );
     const table = await screen.findByRole('table', { name: 'Audit trail' });
     const body = within(table).getAllByRole('row').slice(1);
     expect(body).toHaveLength(12);

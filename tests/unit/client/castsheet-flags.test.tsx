@@ -22,7 +22,8 @@ function setup(props: Partial<Parameters<typeof FlagForm>[0]> = {}) {
   );
 }
 
-const field = (label: string) => screen.getByLabelText(label === 'Reason' ? /^Reason/ : label) as HTMLInputElement | HTMLSelectElement;
+const field = (label: string) =>
+  screen.getByLabelText(label === 'Reason' ? /^Reason/ : label) as HTMLInputElement | HTMLSelectElement;
 const fill = (label: string, value: string) => fireEvent.change(field(label), { target: { value } });
 const submit = () => fireEvent.click(screen.getByRole('button', { name: 'Set flag' }));
 
@@ -100,7 +101,13 @@ describe('cast sheet: the flag-range form', () => {
     fill('Reason', 'cell fouled by a jellyfish');
     submit();
     await waitFor(() => expect(posts).toHaveLength(1));
-    expect(posts[0]).toEqual({ variable: 'conductivity', pFrom: 10, pTo: 20, flag: 4, reason: 'cell fouled by a jellyfish' });
+    expect(posts[0]).toEqual({
+      variable: 'conductivity',
+      pFrom: 10,
+      pTo: 20,
+      flag: 4,
+      reason: 'cell fouled by a jellyfish',
+    });
     expect(await screen.findByText(/Flag 4 set on 6 levels of conductivity, 10–20 dbar/)).toBeTruthy();
   });
 

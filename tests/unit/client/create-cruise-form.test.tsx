@@ -101,14 +101,26 @@ describe('create-cruise form', () => {
     submit();
     await waitFor(() => expect(onCreated).toHaveBeenCalledTimes(1));
     expect(posts).toEqual([
-      { name: 'Meridian Drift 2026', ship: 'RV Halcyon Tern', startDate: '2026-03-01', endDate: '2026-03-01', region: 'Subtropical front' },
+      {
+        name: 'Meridian Drift 2026',
+        ship: 'RV Halcyon Tern',
+        startDate: '2026-03-01',
+        endDate: '2026-03-01',
+        region: 'Subtropical front',
+      },
     ]);
     expect(onCreated.mock.calls[0][0]).toMatchObject({ id: '42', role: 'chief_scientist' });
   });
 
   it("shows the server's field errors inline", async () => {
     answer = () =>
-      json(400, { error: { code: 'validation', message: 'Invalid', details: [{ field: 'ship', message: 'No ship by that name is registered.' }] } });
+      json(400, {
+        error: {
+          code: 'validation',
+          message: 'Invalid',
+          details: [{ field: 'ship', message: 'No ship by that name is registered.' }],
+        },
+      });
     const onCreated = setup();
     fill('Cruise name', 'Meridian Drift 2026');
     fill('Ship', 'RV Nobody');

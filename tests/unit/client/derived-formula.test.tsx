@@ -17,12 +17,43 @@ function json(status: number, body: unknown): Response {
 }
 
 const casts = [
-  { id: 'k1', station: 'K-01', cast: '1', latitude: 0, longitude: 0, time: null, bottomDepth: 4000, levels: 3, inversions: 0 },
+  {
+    id: 'k1',
+    station: 'K-01',
+    cast: '1',
+    latitude: 0,
+    longitude: 0,
+    time: null,
+    bottomDepth: 4000,
+    levels: 3,
+    inversions: 0,
+  },
 ];
 const cast = {
-  id: 'k1', station: 'K-01', cast: '1', latitude: 10, longitude: -30, time: null, bottomDepth: 4000, levels: 3, uploadId: null, sourceFile: 'k01.csv',
-  inversions: [], metadata: {}, notes: [], fitness: {}, units: {}, extras: { fluor: { unit: 'mg/m³', values: [0.1, 0.2, 0.1] } }, flags: {},
-  columns: { pressure: [2, 4, 6], CT: [20, 19, 18], SA: [35, 35.1, 35.2], sigma0: [24, 24.2, 24.4], sigma2: [32, 32.2, 32.4] },
+  id: 'k1',
+  station: 'K-01',
+  cast: '1',
+  latitude: 10,
+  longitude: -30,
+  time: null,
+  bottomDepth: 4000,
+  levels: 3,
+  uploadId: null,
+  sourceFile: 'k01.csv',
+  inversions: [],
+  metadata: {},
+  notes: [],
+  fitness: {},
+  units: {},
+  extras: { fluor: { unit: 'mg/m³', values: [0.1, 0.2, 0.1] } },
+  flags: {},
+  columns: {
+    pressure: [2, 4, 6],
+    CT: [20, 19, 18],
+    SA: [35, 35.1, 35.2],
+    sigma0: [24, 24.2, 24.4],
+    sigma2: [32, 32.2, 32.4],
+  },
 };
 
 let previews: string[] = [];
@@ -32,9 +63,27 @@ let createAnswer: () => Response;
 function previewAnswer(formula: string): Response {
   // The server's parser reports where it stopped, 0-based.
   const bad = formula.indexOf('**');
-  if (bad >= 0) return json(400, { error: { code: 'formula', message: 'Unexpected operator *', details: [{ field: 'formula', message: 'Unexpected operator *', position: bad + 1 }] } });
-  if (formula.includes('sigma9')) return json(400, { error: { code: 'formula', message: 'Unknown column sigma9', details: [{ field: 'formula', message: 'Unknown column “sigma9”', position: formula.indexOf('sigma9') }] } });
-  return json(200, { pressure: [2, 4, 6], values: [8, 8, 8], variables: ['CT', 'SA', 'fluor', 'pressure', 'sigma0', 'sigma2'] });
+  if (bad >= 0)
+    return json(400, {
+      error: {
+        code: 'formula',
+        message: 'Unexpected operator *',
+        details: [{ field: 'formula', message: 'Unexpected operator *', position: bad + 1 }],
+      },
+    });
+  if (formula.includes('sigma9'))
+    return json(400, {
+      error: {
+        code: 'formula',
+        message: 'Unknown column sigma9',
+        details: [{ field: 'formula', message: 'Unknown column “sigma9”', position: formula.indexOf('sigma9') }],
+      },
+    });
+  return json(200, {
+    pressure: [2, 4, 6],
+    values: [8, 8, 8],
+    variables: ['CT', 'SA', 'fluor', 'pressure', 'sigma0', 'sigma2'],
+  });
 }
 
 function setup() {
@@ -127,7 +176,14 @@ describe('derived variables: formula errors and preview', () => {
   });
 
   it('shows a save-time formula error from the server at its position', async () => {
-    createAnswer = () => json(400, { error: { code: 'validation', message: 'bad formula', details: [{ field: 'formula', message: 'Division by a column that is zero somewhere', position: 5 }] } });
+    createAnswer = () =>
+      json(400, {
+        error: {
+          code: 'validation',
+          message: 'bad formula',
+          details: [{ field: 'formula', message: 'Division by a column that is zero somewhere', position: 5 }],
+        },
+      });
     setup();
     await screen.findByRole('button', { name: 'Insert fluor' });
     fireEvent.change(screen.getByLabelText('Name'), { target: { value: 'ratio' } });

@@ -116,7 +116,9 @@ describe('http helper: CSRF', () => {
 
   it('turns the error shape into an ApiError with code, message and details', async () => {
     server.routes['POST /api/cruises'] = () =>
-      json(400, { error: { code: 'validation', message: 'Invalid cruise', details: [{ field: 'ship', message: 'Required' }] } });
+      json(400, {
+        error: { code: 'validation', message: 'Invalid cruise', details: [{ field: 'ship', message: 'Required' }] },
+      });
     const error = (await http('/api/cruises', { method: 'POST', body: {} }).catch((e: unknown) => e)) as ApiError;
     expect(error).toBeInstanceOf(ApiError);
     expect(error.status).toBe(400);
@@ -126,7 +128,9 @@ describe('http helper: CSRF', () => {
 
   it('rejects a response that does not match the schema', async () => {
     server.routes['GET /api/cruises'] = () => json(200, [{ id: 'x' }]);
-    const error = (await http('/api/cruises', { schema: z.array(z.object({ name: z.string() })) }).catch((e: unknown) => e)) as ApiError;
+    const error = (await http('/api/cruises', { schema: z.array(z.object({ name: z.string() })) }).catch(
+      (e: unknown) => e,
+    )) as ApiError;
     expect(error).toBeInstanceOf(ApiError);
     expect(error.code).toBe('bad_response');
   });

@@ -12,9 +12,24 @@ function json(status: number, body: unknown): Response {
 }
 
 const failed = {
-  id: 'u-9', filename: 'odd-headers.csv', status: 'failed', progress: 1, size: 1200, sha256: 'cd',
-  errors: [{ file: 'odd-headers.csv', line: 1, column: 2, message: 'Header “TMP_A” is not a column Sigmaline knows.', code: 'unmapped_header' }],
-  warnings: [], castIds: [], unmappedHeaders: ['TMP_A', 'SAL_X', 'FLUOR'],
+  id: 'u-9',
+  filename: 'odd-headers.csv',
+  status: 'failed',
+  progress: 1,
+  size: 1200,
+  sha256: 'cd',
+  errors: [
+    {
+      file: 'odd-headers.csv',
+      line: 1,
+      column: 2,
+      message: 'Header “TMP_A” is not a column Sigmaline knows.',
+      code: 'unmapped_header',
+    },
+  ],
+  warnings: [],
+  castIds: [],
+  unmappedHeaders: ['TMP_A', 'SAL_X', 'FLUOR'],
 };
 
 let calls: { url: string; method: string; body: unknown }[] = [];
@@ -45,9 +60,12 @@ describe('intake: the column-mapping step', () => {
         if (url === '/api/auth/csrf') return json(200, { token: 't' });
         calls.push({ url, method, body: init?.body ? JSON.parse(String(init.body)) : undefined });
         if (url === '/api/cruises/c1/column-mapping' && method === 'GET') return json(200, remembered);
-        if (url === '/api/cruises/c1/column-mapping' && method === 'PUT') return json(200, (JSON.parse(String(init!.body)) as { mapping: unknown }).mapping);
-        if (url === '/api/uploads/u-9/retry') return (retried = true), json(202, { ...failed, status: 'queued', errors: [], progress: 0 });
-        if (url === '/api/uploads/u-9') return json(200, retried ? { ...failed, status: 'processing', errors: [], progress: 0.3 } : failed);
+        if (url === '/api/cruises/c1/column-mapping' && method === 'PUT')
+          return json(200, (JSON.parse(String(init!.body)) as { mapping: unknown }).mapping);
+        if (url === '/api/uploads/u-9/retry')
+          return ((retried = true), json(202, { ...failed, status: 'queued', errors: [], progress: 0 }));
+        if (url === '/api/uploads/u-9')
+          return json(200, retried ? { ...failed, status: 'processing', errors: [], progress: 0.3 } : failed);
         return json(404, { error: { code: 'not_found', message: 'no' } });
       }),
     );
@@ -69,7 +87,9 @@ describe('intake: the column-mapping step', () => {
 
   it('refuses to save until every header has a role, and names the ones left', async () => {
     setup();
-    await waitFor(() => expect((screen.getByLabelText('Role of column FLUOR') as HTMLSelectElement).value).toBe('extra'));
+    await waitFor(() =>
+      expect((screen.getByLabelText('Role of column FLUOR') as HTMLSelectElement).value).toBe('extra'),
+    );
     fireEvent.change(screen.getByLabelText('Role of column TMP_A'), { target: { value: 'temperature' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save mapping and process again' }));
     const alert = await screen.findByText(/Choose a role for every column/);
@@ -81,13 +101,19 @@ describe('intake: the column-mapping step', () => {
 
   it('saves the whole mapping for the cruise, then retries the file, which starts processing again', async () => {
     setup();
-    await waitFor(() => expect((screen.getByLabelText('Role of column FLUOR') as HTMLSelectElement).value).toBe('extra'));
+    await waitFor(() =>
+      expect((screen.getByLabelText('Role of column FLUOR') as HTMLSelectElement).value).toBe('extra'),
+    );
     fireEvent.change(screen.getByLabelText('Role of column TMP_A'), { target: { value: 'temperature' } });
     fireEvent.change(screen.getByLabelText('Role of column SAL_X'), { target: { value: 'salinity' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save mapping and process again' }));
     await waitFor(() => expect(calls.some((c) => c.url === '/api/uploads/u-9/retry')).toBe(true));
     const writes = calls.filter((c) => c.method !== 'GET');
-    expect(writes[0]).toEqual({ url: '/api/cruises/c1/column-mapping', method: 'PUT', body: { mapping: { TMP_A: 'temperature', SAL_X: 'salinity', FLUOR: 'extra' } } });
+    expect(writes[0]).toEqual({
+      url: '/api/cruises/c1/column-mapping',
+      method: 'PUT',
+      body: { mapping: { TMP_A: 'temperature', SAL_X: 'salinity', FLUOR: 'extra' } },
+    });
     expect(writes[1]).toMatchObject({ url: '/api/uploads/u-9/retry', method: 'POST' });
     expect(await screen.findByText(/Queued|Processing/)).toBeTruthy();
     expect(screen.queryByRole('form', { name: 'Column mapping for odd-headers.csv' })).toBeNull();

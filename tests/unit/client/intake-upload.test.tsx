@@ -52,8 +52,17 @@ class FakeXHR {
 }
 
 const upload = (over: Record<string, unknown> = {}) => ({
-  id: 'u-1', filename: 'stn07.csv', status: 'queued', progress: 0, size: 4000, sha256: 'ab', errors: [], warnings: [],
-  castIds: [], unmappedHeaders: null, ...over,
+  id: 'u-1',
+  filename: 'stn07.csv',
+  status: 'queued',
+  progress: 0,
+  size: 4000,
+  sha256: 'ab',
+  errors: [],
+  warnings: [],
+  castIds: [],
+  unmappedHeaders: null,
+  ...over,
 });
 
 let uploadAnswers: Record<string, unknown>[] = [];
@@ -85,7 +94,11 @@ function choose(...files: File[]) {
 }
 
 /** Let the CSRF fetch resolve and the XHR start. */
-const flush = () => act(async () => { for (let i = 0; i < 5; i++) await Promise.resolve(); await new Promise((r) => setTimeout(r, 0)); });
+const flush = () =>
+  act(async () => {
+    for (let i = 0; i < 5; i++) await Promise.resolve();
+    await new Promise((r) => setTimeout(r, 0));
+  });
 
 describe('intake: per-file upload progress', () => {
   beforeEach(() => {
@@ -99,7 +112,8 @@ describe('intake: per-file upload progress', () => {
       vi.fn(async (input: RequestInfo | URL) => {
         const url = String(input);
         if (url === '/api/auth/csrf') return json(200, { token: 'tok-1' });
-        if (url.startsWith('/api/uploads/')) return json(200, uploadAnswers.shift() ?? upload({ status: 'processing', progress: 0.5 }));
+        if (url.startsWith('/api/uploads/'))
+          return json(200, uploadAnswers.shift() ?? upload({ status: 'processing', progress: 0.5 }));
         return json(200, []);
       }),
     );
@@ -143,7 +157,15 @@ describe('intake: per-file upload progress', () => {
     uploadAnswers = [
       upload({
         status: 'failed',
-        errors: [{ file: 'stn07.csv', line: 14, column: 3, message: 'Text “n/a” where a temperature was expected.', code: 'not_a_number' }],
+        errors: [
+          {
+            file: 'stn07.csv',
+            line: 14,
+            column: 3,
+            message: 'Text “n/a” where a temperature was expected.',
+            code: 'not_a_number',
+          },
+        ],
       }),
     ];
     act(() => FakeXHR.all[0].answer(202, { uploads: [upload()] }));
@@ -162,7 +184,11 @@ describe('intake: per-file upload progress', () => {
     setup();
     choose(file('huge.zip', 9000), file('ok.csv', 100));
     await flush();
-    act(() => FakeXHR.all[0].answer(413, { error: { code: 'too_large', message: 'huge.zip is over the 50 MB limit.', details: [] } }));
+    act(() =>
+      FakeXHR.all[0].answer(413, {
+        error: { code: 'too_large', message: 'huge.zip is over the 50 MB limit.', details: [] },
+      }),
+    );
     await flush();
     expect(screen.getByRole('alert').textContent).toContain('huge.zip is over the 50 MB limit.');
     expect(screen.getByRole('progressbar', { name: 'Sending ok.csv' })).toBeTruthy();

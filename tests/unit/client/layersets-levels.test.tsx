@@ -91,7 +91,10 @@ describe('layer sets: the levels field', () => {
   });
 
   it('shows the server’s levels error inline under the field', async () => {
-    answer = () => json(400, { error: { code: 'validation', message: 'bad', details: [{ field: 'levels', message: 'more than 2000 levels' }] } });
+    answer = () =>
+      json(400, {
+        error: { code: 'validation', message: 'bad', details: [{ field: 'levels', message: 'more than 2000 levels' }] },
+      });
     setup();
     fireEvent.change(screen.getByLabelText('Name'), { target: { value: 'fine' } });
     type('20:0.01:39');

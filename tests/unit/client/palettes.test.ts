@@ -13,7 +13,15 @@
 import { describe, it, expect } from 'vitest';
 import { PALETTES, PALETTE_NAMES, colorAt, type ColorScale } from '../../../src/components/plot/colormaps';
 import {
-  deltaE76, hexToRgb01, linearToOklab, luminance, oklabToLinear, simulateDeficiency, srgbToCielab, srgbToLinear, type Rgb,
+  deltaE76,
+  hexToRgb01,
+  linearToOklab,
+  luminance,
+  oklabToLinear,
+  simulateDeficiency,
+  srgbToCielab,
+  srgbToLinear,
+  type Rgb,
 } from '../../../src/components/plot/colour';
 
 const N = 33;
@@ -67,11 +75,14 @@ describe.each(PALETTE_NAMES)('palette %s', (name) => {
       for (const d of steps) expect(Math.abs(d - mean) / mean).toBeLessThan(0.45);
       expect(Math.abs(L[N - 1] - L[0])).toBeGreaterThan(55);
     });
-    it.each(['protanopia', 'deuteranopia', 'tritanopia'] as const)('under simulated %s the order and every step stay visible', (kind2) => {
-      const seen = colours.map((c) => srgbToCielab(simulateDeficiency(c, kind2)));
-      expect(monotone(seen.map((c) => c[0]))).toBe(true);
-      for (let i = 1; i < N; i++) expect(deltaE76(seen[i], seen[i - 1])).toBeGreaterThanOrEqual(2);
-    });
+    it.each(['protanopia', 'deuteranopia', 'tritanopia'] as const)(
+      'under simulated %s the order and every step stay visible',
+      (kind2) => {
+        const seen = colours.map((c) => srgbToCielab(simulateDeficiency(c, kind2)));
+        expect(monotone(seen.map((c) => c[0]))).toBe(true);
+        for (let i = 1; i < N; i++) expect(deltaE76(seen[i], seen[i - 1])).toBeGreaterThanOrEqual(2);
+      },
+    );
   } else {
     const mid = (N - 1) / 2;
     it('each arm is monotone in lightness towards a light centre, and the arms mirror each other', () => {
@@ -80,13 +91,16 @@ describe.each(PALETTE_NAMES)('palette %s', (name) => {
       expect(L[mid]).toBeGreaterThan(90);
       for (let i = 0; i <= mid; i++) expect(Math.abs(L[i] - L[N - 1 - i])).toBeLessThan(4);
     });
-    it.each(['protanopia', 'deuteranopia', 'tritanopia'] as const)('under simulated %s both signs stay apart and every step visible', (kind2) => {
-      const seen = colours.map((c) => srgbToCielab(simulateDeficiency(c, kind2)));
-      // The two ends (and the two quarter points) of opposite sign remain clearly different colours.
-      expect(deltaE76(seen[0], seen[N - 1])).toBeGreaterThan(25);
-      expect(deltaE76(seen[8], seen[N - 1 - 8])).toBeGreaterThan(12);
-      for (let i = 1; i < N; i++) expect(deltaE76(seen[i], seen[i - 1])).toBeGreaterThanOrEqual(2);
-    });
+    it.each(['protanopia', 'deuteranopia', 'tritanopia'] as const)(
+      'under simulated %s both signs stay apart and every step visible',
+      (kind2) => {
+        const seen = colours.map((c) => srgbToCielab(simulateDeficiency(c, kind2)));
+        // The two ends (and the two quarter points) of opposite sign remain clearly different colours.
+        expect(deltaE76(seen[0], seen[N - 1])).toBeGreaterThan(25);
+        expect(deltaE76(seen[8], seen[N - 1 - 8])).toBeGreaterThan(12);
+        for (let i = 1; i < N; i++) expect(deltaE76(seen[i], seen[i - 1])).toBeGreaterThanOrEqual(2);
+      },
+    );
   }
 
   if (name === 'graphite') {

@@ -41,7 +41,9 @@ describe('route guard', () => {
         const method = init?.method ?? 'GET';
         if (url === '/api/auth/csrf') return json(200, { token: 't' });
         if (url === '/api/auth/me') {
-          return signedIn ? json(200, chief) : json(401, { error: { code: 'unauthenticated', message: 'Sign in', details: [] } });
+          return signedIn
+            ? json(200, chief)
+            : json(401, { error: { code: 'unauthenticated', message: 'Sign in', details: [] } });
         }
         if (url === '/api/auth/login' && method === 'POST') {
           signedIn = true;

@@ -13,7 +13,9 @@ vi.mock('../../../src/components/plot', async (importOriginal) => {
     ...actual,
     LazyPlot: ({ label, caption, onHover }: { label: string; caption?: ReactNode; onHover?: (e: unknown) => void }) => (
       <figure aria-label={label}>
-        <button type="button" onClick={() => onHover?.({ points: [{ x: 41, y: 95 }] })}>hover {label}</button>
+        <button type="button" onClick={() => onHover?.({ points: [{ x: 41, y: 95 }] })}>
+          hover {label}
+        </button>
         <figcaption>{caption}</figcaption>
       </figure>
     ),
@@ -32,7 +34,14 @@ const analyst = {
   user: { id: 3, email: 'analyst@sigmaline.test', name: 'Tomas Ekwall', isAdmin: false },
   memberships: [{ cruiseId: 5, role: 'analyst' }],
 };
-const cruise = { id: 5, name: 'Meridian Drift 2026', ship: 'RV Halcyon Tern', startDate: '2026-03-01', endDate: '2026-03-28', role: 'analyst' };
+const cruise = {
+  id: 5,
+  name: 'Meridian Drift 2026',
+  ship: 'RV Halcyon Tern',
+  startDate: '2026-03-01',
+  endDate: '2026-03-28',
+  role: 'analyst',
+};
 const stations = [
   { id: 'c1', station: 'MD-01', cast: '1', x: 0, latitude: -30, longitude: 10, bottom: 300, deepest: 290 },
   { id: 'c2', station: 'MD-02', cast: '1', x: 40, latitude: -30.3, longitude: 10.1, bottom: 300, deepest: 290 },
@@ -42,12 +51,46 @@ const stations = [
 function section(q: URLSearchParams) {
   const density = q.get('coord') === 'density';
   return {
-    choices: { property: q.get('property'), coord: q.get('coord'), ref: Number(q.get('ref')), sigma: `sigma${Number(q.get('ref')) / 1000}`, levels: q.get('levels') ?? '23.0:0.05:27.9', inversions: q.get('inversions'), interpolation: q.get('interpolation'), bin: 10, gapFactor: 1.5, threshold: 0.01 },
+    choices: {
+      property: q.get('property'),
+      coord: q.get('coord'),
+      ref: Number(q.get('ref')),
+      sigma: `sigma${Number(q.get('ref')) / 1000}`,
+      levels: q.get('levels') ?? '23.0:0.05:27.9',
+      inversions: q.get('inversions'),
+      interpolation: q.get('interpolation'),
+      bin: 10,
+      gapFactor: 1.5,
+      threshold: 0.01,
+    },
     unit: '°C',
-    grid: { x: [0, 40, 80], y: density ? [26, 26.5, 27] : [0, 100, 200], z: [[20, 19, 18], [12.5, 11.25, 10], [5, 4.5, 4]] },
+    grid: {
+      x: [0, 40, 80],
+      y: density ? [26, 26.5, 27] : [0, 100, 200],
+      z: [
+        [20, 19, 18],
+        [12.5, 11.25, 10],
+        [5, 4.5, 4],
+      ],
+    },
     stations,
-    bottom: [{ x: 0, p: 300 }, { x: 80, p: 300 }],
-    inversions: [{ castId: 'c2', station: 'MD-02', x: 40, pTop: 120, pBottom: 128, deficit: 0.021, class: 'spike', sigmaTop: 26.61, sigmaBottom: 26.59 }],
+    bottom: [
+      { x: 0, p: 300 },
+      { x: 80, p: 300 },
+    ],
+    inversions: [
+      {
+        castId: 'c2',
+        station: 'MD-02',
+        x: 40,
+        pTop: 120,
+        pBottom: 128,
+        deficit: 0.021,
+        class: 'spike',
+        sigmaTop: 26.61,
+        sigmaBottom: 26.59,
+      },
+    ],
     isopycnals: density ? [] : [{ sigma: 26.5, p: [80, 100, 120] }],
   };
 }
@@ -67,15 +110,28 @@ beforeEach(() => {
       if (url.pathname === '/api/auth/csrf') return json(200, { token: 't' });
       if (url.pathname === '/api/auth/me') return json(200, analyst);
       if (url.pathname === '/api/cruises/5') return json(200, cruise);
-      if (url.pathname === '/api/cruises/5/layer-sets') return json(200, [{ id: 'ls1', name: 'Deep water', referencePressure: 2000, levels: '36.9:0.02:37.1', count: 11 }]);
-      if (url.pathname === '/api/cruises/5/derived-variables') return json(200, [{ id: 'd1', name: 'spice_anom', formula: 'spiciness0 - 1', unit: 'kg/m³', description: null }]);
+      if (url.pathname === '/api/cruises/5/layer-sets')
+        return json(200, [
+          { id: 'ls1', name: 'Deep water', referencePressure: 2000, levels: '36.9:0.02:37.1', count: 11 },
+        ]);
+      if (url.pathname === '/api/cruises/5/derived-variables')
+        return json(200, [
+          { id: 'd1', name: 'spice_anom', formula: 'spiciness0 - 1', unit: 'kg/m³', description: null },
+        ]);
       if (url.pathname === '/api/cruises/5/section') {
         sectionRequests.push(url.searchParams);
         return json(200, section(url.searchParams));
       }
       if (url.pathname === '/api/cruises/5/ts') return json(200, []);
       if (url.pathname === '/api/cruises/5/geostrophy') {
-        return json(200, { choices: { pRef: 'deepest_common', ref: 0, levels: '' }, convention: 'Positive is northward', pressure: [0, 100], pairs: [{ a: 'MD-01', b: 'MD-02', x: 20, widthKm: 40 }], velocity: [[0.1], [0]], layers: [{ sigmaTop: 26, sigmaBottom: 26.5, transport: [0.4], total: 0.4 }] });
+        return json(200, {
+          choices: { pRef: 'deepest_common', ref: 0, levels: '' },
+          convention: 'Positive is northward',
+          pressure: [0, 100],
+          pairs: [{ a: 'MD-01', b: 'MD-02', x: 20, widthKm: 40 }],
+          velocity: [[0.1], [0]],
+          layers: [{ sigmaTop: 26, sigmaBottom: 26.5, transport: [0.4], total: 0.4 }],
+        });
       }
       if (url.pathname === '/api/cruises/5/views' && method === 'POST') {
         viewPosts.push(JSON.parse(String(init?.body)));
@@ -148,7 +204,9 @@ describe('Section controls and the URL', () => {
     await waitFor(() => expect(lastSection('density').get('interpolation')).toBe('pchip'));
     expect(lastSection('density').get('inversions')).toBe('raw');
     const density = await screen.findByRole('figure', { name: /Section by density/ });
-    await waitFor(() => expect(density.textContent).toMatch(/inversions raw \(first crossing\); interpolation monotone cubic/));
+    await waitFor(() =>
+      expect(density.textContent).toMatch(/inversions raw \(first crossing\); interpolation monotone cubic/),
+    );
 
     fireEvent.change(screen.getByLabelText('Density frame shows'), { target: { value: 'depth' } });
     await waitFor(() => expect(q().get('dframe')).toBe('depth'));

@@ -5,7 +5,9 @@ import { sigma_pr } from '../../../shared/seawater/density';
 
 // Source of the expected values: TEOS-10 GSW check values v3.0 (gsw/tests/gsw_cv_v3_0.npz of Debian's
 // python3-gsw 3.6.16), as turned into fixtures/reference/gsw_cv_v3_0.json; arrays are [level][cast].
-const cv = JSON.parse(readFileSync(new URL('../../../fixtures/reference/gsw_cv_v3_0.json', import.meta.url), 'utf8')).values;
+const cv = JSON.parse(
+  readFileSync(new URL('../../../fixtures/reference/gsw_cv_v3_0.json', import.meta.url), 'utf8'),
+).values;
 const SA = cv.SA_chck_cast as number[][];
 const CT = cv.CT_chck_cast as number[][];
 
@@ -31,7 +33,12 @@ describe('T–S σ-contour grid', () => {
 
   it('is laid out z[CT row][SA column], each node the seawater core at that SA and CT', () => {
     const grid = sigmaGrid({ saMin: 34, saMax: 36, ctMin: 2, ctMax: 20 }, 1000, 11, 10);
-    for (const [j, i] of [[0, 0], [3, 7], [9, 10], [5, 2]]) {
+    for (const [j, i] of [
+      [0, 0],
+      [3, 7],
+      [9, 10],
+      [5, 2],
+    ]) {
       expect(grid.sigma[j][i]).toBe(sigma_pr(grid.SA[i], grid.CT[j], 1000));
     }
     // Saltier is denser along a row; warmer is lighter down a column.
@@ -63,8 +70,14 @@ describe('T–S σ-contour grid', () => {
     const grid = sigmaGrid({ saMin: 34, saMax: 36, ctMin: 2, ctMax: 20 }, 0, 20, 20);
     const step = contourStep(grid, 10)!;
     expect([0.1, 0.2, 0.25, 0.5, 1]).toContain(Number(step.size.toPrecision(3)));
-    let lo = Infinity, hi = -Infinity;
-    for (const row of grid.sigma) for (const v of row) if (v !== null) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
+    let lo = Infinity,
+      hi = -Infinity;
+    for (const row of grid.sigma)
+      for (const v of row)
+        if (v !== null) {
+          lo = Math.min(lo, v);
+          hi = Math.max(hi, v);
+        }
     expect(step.start).toBeGreaterThanOrEqual(lo);
     expect(step.end).toBeLessThanOrEqual(hi);
     expect((step.end - step.start) / step.size).toBeGreaterThanOrEqual(5);

@@ -59,8 +59,10 @@ describe('section view state in the URL', () => {
   });
 
   it('falls back to the default for each unreadable value, keeping the readable ones', () => {
-    const s = parseViewState('property=CT;drop&ref=1500&inv=shuffle&interp=cubic&dframe=x&ts=rainbow&pref=-4&set=%3Cscript%3E&stn=ok-3'
-      + '&pal=jet&cint=-1&yax=feet&stretch=yes&xax=time&show=all&dmin=5&dmax=1');
+    const s = parseViewState(
+      'property=CT;drop&ref=1500&inv=shuffle&interp=cubic&dframe=x&ts=rainbow&pref=-4&set=%3Cscript%3E&stn=ok-3' +
+        '&pal=jet&cint=-1&yax=feet&stretch=yes&xax=time&show=all&dmin=5&dmax=1',
+    );
     expect(s).toEqual({ ...DEFAULT_VIEW, station: 'ok-3' });
   });
 
@@ -81,7 +83,14 @@ describe('section view state in the URL', () => {
   it('builds the section route query for each frame', () => {
     const pressure = new URLSearchParams(sectionQueryString(full, 'pressure', '36.8:0.02:37.1'));
     expect(Object.fromEntries(pressure)).toEqual({
-      property: 'sigma2', coord: 'pressure', ref: '2000', levels: '36.8:0.02:37.1', inversions: 'drop', interpolation: 'pchip', bin: '10', line: full.line,
+      property: 'sigma2',
+      coord: 'pressure',
+      ref: '2000',
+      levels: '36.8:0.02:37.1',
+      inversions: 'drop',
+      interpolation: 'pchip',
+      bin: '10',
+      line: full.line,
     });
     // "Depth of isopycnals" is the pressure column shown on the σ grid.
     const density = new URLSearchParams(sectionQueryString(full, 'density', null));
@@ -107,7 +116,14 @@ describe('station cursor and readout helpers', () => {
     expect(stepStation(stations, 'b', -5)?.id).toBe('a');
   });
   it('samples the nearest grid cell and names the nearest station', () => {
-    const grid = { x: [0, 10, 20], y: [0, 10], z: [[1, 2, 3], [4, null, 6]] };
+    const grid = {
+      x: [0, 10, 20],
+      y: [0, 10],
+      z: [
+        [1, 2, 3],
+        [4, null, 6],
+      ],
+    };
     expect(sampleGrid(grid, 11, 1)).toBe(2);
     expect(sampleGrid(grid, 19, 9)).toBe(6);
     expect(sampleGrid(grid, 9, 8)).toBeNull();

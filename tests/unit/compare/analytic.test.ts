@@ -17,19 +17,38 @@ function occupationA(): OccupationCast[] {
     const f = i / (N - 1);
     const p = Float64Array.from({ length: LEVELS }, (_, k) => k);
     const CT = Float64Array.from(p, (q) => ct(q, f));
-    return { station: `A${i + 1}`, cast: '1', lon: 10 + 0.2 * i, lat: -40, time: Date.UTC(2016, 0, 10), p, CT,
-      SA: Float64Array.from(p, (q) => sa(q, f)), C: CT };
+    return {
+      station: `A${i + 1}`,
+      cast: '1',
+      lon: 10 + 0.2 * i,
+      lat: -40,
+      time: Date.UTC(2016, 0, 10),
+      p,
+      CT,
+      SA: Float64Array.from(p, (q) => sa(q, f)),
+      C: CT,
+    };
   });
 }
 
 /** B = A with every parcel moved down by δ(p): same values, pressures p + δ(p). */
 function heaved(a: OccupationCast[], delta: (p: number) => number): OccupationCast[] {
-  return a.map((c) => ({ ...c, station: c.station.replace('A', 'B'), time: Date.UTC(2026, 0, 10), p: Float64Array.from(c.p, (q) => q + delta(q)) }));
+  return a.map((c) => ({
+    ...c,
+    station: c.station.replace('A', 'B'),
+    time: Date.UTC(2026, 0, 10),
+    p: Float64Array.from(c.p, (q) => q + delta(q)),
+  }));
 }
 
 const opts = (over: Partial<CompareOptions> = {}): CompareOptions => ({
-  ref: 0, targets: Float64Array.from({ length: 60 }, (_, i) => 25.3 + 0.03 * i), pressure: Float64Array.from({ length: 1401 }, (_, i) => i),
-  handling: 'sort', pairDistanceKm: 20, positions: 'stations', ...over,
+  ref: 0,
+  targets: Float64Array.from({ length: 60 }, (_, i) => 25.3 + 0.03 * i),
+  pressure: Float64Array.from({ length: 1401 }, (_, i) => i),
+  handling: 'sort',
+  pairDistanceKm: 20,
+  positions: 'stations',
+  ...over,
 });
 
 const finite = (g: Float64Array) => Array.from(g).filter((v) => Number.isFinite(v));
@@ -68,7 +87,7 @@ describe('pure heave (Bindoff & McDougall 1994)', () => {
         const diff = r.onPressure.diff[o];
         if (!Number.isFinite(diff)) continue;
         const f = j / (N - 1);
-        const dCdp = (ct(i + 0.5, f) - ct(i - 0.5, f)); // analytic ∂C/∂p of A
+        const dCdp = ct(i + 0.5, f) - ct(i - 0.5, f); // analytic ∂C/∂p of A
         worst = Math.max(worst, Math.abs(diff + dCdp * d(i)));
         big = Math.max(big, Math.abs(diff));
         const sum = r.decomposition.waterMassTerm[o] + r.decomposition.heaveTerm[o] + r.decomposition.residual[o];
@@ -88,7 +107,14 @@ describe('pure heave (Bindoff & McDougall 1994)', () => {
       let s = 0;
       let n = 0;
       // the same interior cells for both amplitudes
-      for (let i = 60; i < 1200; i++) for (let j = 0; j < nx; j++) { const v = r.decomposition.residual[i * nx + j]; if (Number.isFinite(v)) { s += v * v; n++; } }
+      for (let i = 60; i < 1200; i++)
+        for (let j = 0; j < nx; j++) {
+          const v = r.decomposition.residual[i * nx + j];
+          if (Number.isFinite(v)) {
+            s += v * v;
+            n++;
+          }
+        }
       return Math.sqrt(s / n);
     };
     const ratio = rms(24) / rms(12);
@@ -114,7 +140,11 @@ describe('pure water-mass change (Bindoff & McDougall 1994)', () => {
       }
       return { ...c, station: c.station.replace('A', 'B'), time: Date.UTC(2026, 0, 10), CT, SA, C: CT };
     });
-    const r = compareOccupations(a, b, opts({ targets: Float64Array.from({ length: 100 }, (_, i) => 25.3 + 0.025 * i) }));
+    const r = compareOccupations(
+      a,
+      b,
+      opts({ targets: Float64Array.from({ length: 100 }, (_, i) => 25.3 + 0.025 * i) }),
+    );
     expect(finite(r.onDensity.heave).length).toBeGreaterThan(200);
     expect(maxAbs(r.onDensity.heave)).toBeLessThan(1e-6);
     expect(maxAbs(r.decomposition.heave)).toBeLessThan(1e-6);
@@ -133,10 +163,16 @@ describe('common positions, exclusions and flags', () => {
   it('unpaired stations are left out and listed; B is interpolated between its casts', () => {
     const a = occupationA();
     // B misses station 4, adds a cast 60 km off the line, and sits 3 km east of A elsewhere
-    const b = a.filter((_, i) => i !== 3).map((c) => ({ ...c, station: c.station.replace('A', 'B'), lon: c.lon + 0.035 }));
+    const b = a
+      .filter((_, i) => i !== 3)
+      .map((c) => ({ ...c, station: c.station.replace('A', 'B'), lon: c.lon + 0.035 }));
     b.push({ ...a[0], station: 'B-off', lon: 10.7, lat: -39.45 });
     const r = compareOccupations(a, b, opts({ pairDistanceKm: 10 }));
-    expect(r.excluded).toContainEqual({ station: 'B-off', line: 'B', why: expect.stringContaining('farther than 10 km') });
+    expect(r.excluded).toContainEqual({
+      station: 'B-off',
+      line: 'B',
+      why: expect.stringContaining('farther than 10 km'),
+    });
     // A4 is 14 km from B3 and 20 km from B5: no partner within 10 km
     expect(r.excluded.find((e) => e.station === 'A4')?.line).toBe('A');
     expect(r.pairs.map((p) => p.stationA)).not.toContain('A4');

@@ -24,8 +24,17 @@ async function occupation(dir: string, prop: 'SA' | 'CT'): Promise<OccupationCas
       const pc = processCast(c, { inversionThreshold: 0.01 });
       if (!pc.ok) throw new Error(f);
       const col = (n: string) => pc.cast.columns.find((k) => k.name === n)!.values as Float64Array;
-      out.push({ station: c.metadata.station!, cast: '1', lon: c.metadata.longitude!, lat: c.metadata.latitude!, time: Date.parse(c.metadata.time!),
-        p: col('pressure'), SA: col('SA'), CT: col('CT'), C: col(prop) });
+      out.push({
+        station: c.metadata.station!,
+        cast: '1',
+        lon: c.metadata.longitude!,
+        lat: c.metadata.latitude!,
+        time: Date.parse(c.metadata.time!),
+        p: col('pressure'),
+        SA: col('SA'),
+        CT: col('CT'),
+        C: col(prop),
+      });
     }
   }
   return out.sort((a, b) => num(a.station) - num(b.station));
@@ -38,8 +47,12 @@ beforeAll(async () => {
   const a = await occupation('demo-earlier', 'SA');
   const b = await occupation('demo', 'SA');
   r = compareOccupations(a, b, {
-    ref: 0, targets: Float64Array.from({ length: 141 }, (_, i) => 25.0 + 0.02 * i), pressure: Float64Array.from({ length: 1001 }, (_, i) => 2 * i),
-    handling: 'sort', pairDistanceKm: 20, positions: 'stations',
+    ref: 0,
+    targets: Float64Array.from({ length: 141 }, (_, i) => 25.0 + 0.02 * i),
+    pressure: Float64Array.from({ length: 1001 }, (_, i) => 2 * i),
+    handling: 'sort',
+    pairDistanceKm: 20,
+    positions: 'stations',
   });
 }, 60_000);
 
@@ -60,10 +73,19 @@ describe('demo: two occupations of the Corrow Passage line', () => {
       let best = -1;
       for (let i = 0; i < ns; i++) {
         const pA = r.onDensity.pA[i * nx + j];
-        if (Number.isFinite(pA) && (best < 0 || Math.abs(pA - PLANTS.heave.pCentre) < Math.abs(r.onDensity.pA[best * nx + j] - PLANTS.heave.pCentre))) best = i;
+        if (
+          Number.isFinite(pA) &&
+          (best < 0 ||
+            Math.abs(pA - PLANTS.heave.pCentre) < Math.abs(r.onDensity.pA[best * nx + j] - PLANTS.heave.pCentre))
+        )
+          best = i;
       }
       const st = r.pairs[j].stationA;
-      atCore.push({ station: st, heave: r.onDensity.heave[best * nx + j], planted: plantedHeave(frac(st), r.onDensity.pA[best * nx + j]) });
+      atCore.push({
+        station: st,
+        heave: r.onDensity.heave[best * nx + j],
+        planted: plantedHeave(frac(st), r.onDensity.pA[best * nx + j]),
+      });
     }
     for (const s of atCore) {
       if (s.planted > 0.9 * PLANTS.heave.dbar) expect(Math.abs(s.heave - s.planted)).toBeLessThan(0.1 * s.planted);

@@ -14,12 +14,23 @@ import { compareOccupations, type OccupationCast, type CompareOptions } from '..
 import { SA_from_SP_batch } from '../../../shared/seawater/saar';
 import { CT_from_t_batch } from '../../../shared/seawater/conversions';
 
-type Raw = { station: string; cast: string; lat: number; lon: number; minutes: number; p: number[]; t: number[]; S: number[]; qc: number[] };
+type Raw = {
+  station: string;
+  cast: string;
+  lat: number;
+  lon: number;
+  minutes: number;
+  p: number[];
+  t: number[];
+  S: number[];
+  qc: number[];
+};
 const ZIP = join(import.meta.dirname, '..', '..', '..', 'fixtures', 'real', 'sr1b-2015', '74JC20150110_nc_ctd.zip');
 let casts: OccupationCast[];
 
 beforeAll(() => {
-  const raw = runPythonJson<Raw[]>(`
+  const raw = runPythonJson<Raw[]>(
+    `
 import sys, json, zipfile, netCDF4, numpy as np
 z = zipfile.ZipFile(sys.argv[1])
 out = []
@@ -31,19 +42,46 @@ for n in sorted(z.namelist()):
         minutes=float(v('time')), p=v('pressure').tolist(), t=v('temperature').tolist(), S=v('salinity').tolist(), qc=qc.tolist()))
     d.close()
 print(json.dumps(out).replace('NaN', 'null'))
-`, { args: [ZIP] });
-  casts = raw.map((c) => {
-    const p = Float64Array.from(c.p, (v) => v ?? NaN);
-    const SA = SA_from_SP_batch(Float64Array.from(c.S, (v) => v ?? NaN), p, c.lon, c.lat);
-    const CT = CT_from_t_batch(SA, Float64Array.from(c.t, (v) => v ?? NaN), p);
-    return { station: c.station, cast: c.cast, lat: c.lat, lon: c.lon, time: Date.UTC(1980, 0, 1) + c.minutes * 60e3, p, SA, CT, C: CT,
-      bad: Uint8Array.from(c.qc, (q) => (q === 2 || q === 1 ? 0 : 1)) };
-  }).sort((a, b) => Number(a.station) - Number(b.station));
+`,
+    { args: [ZIP] },
+  );
+  casts = raw
+    .map((c) => {
+      const p = Float64Array.from(c.p, (v) => v ?? NaN);
+      const SA = SA_from_SP_batch(
+        Float64Array.from(c.S, (v) => v ?? NaN),
+        p,
+        c.lon,
+        c.lat,
+      );
+      const CT = CT_from_t_batch(
+        SA,
+        Float64Array.from(c.t, (v) => v ?? NaN),
+        p,
+      );
+      return {
+        station: c.station,
+        cast: c.cast,
+        lat: c.lat,
+        lon: c.lon,
+        time: Date.UTC(1980, 0, 1) + c.minutes * 60e3,
+        p,
+        SA,
+        CT,
+        C: CT,
+        bad: Uint8Array.from(c.qc, (q) => (q === 2 || q === 1 ? 0 : 1)),
+      };
+    })
+    .sort((a, b) => Number(a.station) - Number(b.station));
 }, 120_000);
 
 const opts: CompareOptions = {
-  ref: 0, targets: Float64Array.from({ length: 121 }, (_, i) => 26.0 + 0.02 * i), pressure: Float64Array.from({ length: 1201 }, (_, i) => 4 * i),
-  handling: 'sort', pairDistanceKm: 15, positions: 'stations',
+  ref: 0,
+  targets: Float64Array.from({ length: 121 }, (_, i) => 26.0 + 0.02 * i),
+  pressure: Float64Array.from({ length: 1201 }, (_, i) => 4 * i),
+  handling: 'sort',
+  pairDistanceKm: 15,
+  positions: 'stations',
 };
 const finite = (g: Float64Array) => Array.from(g).filter((v) => Number.isFinite(v));
 
@@ -54,7 +92,14 @@ describe('SR1B 2015 (GO-SHIP; CCHDO)', () => {
     expect(r.pairs).toHaveLength(30);
     expect(r.excluded).toEqual([]);
     expect(r.years).toBe(0);
-    for (const g of [r.onPressure.diff, r.onDensity.heave, r.onDensity.diff, r.decomposition.waterMassTerm, r.decomposition.heaveTerm, r.decomposition.residual]) {
+    for (const g of [
+      r.onPressure.diff,
+      r.onDensity.heave,
+      r.onDensity.diff,
+      r.decomposition.waterMassTerm,
+      r.decomposition.heaveTerm,
+      r.decomposition.residual,
+    ]) {
       const v = finite(g);
       expect(v.length).toBeGreaterThan(1000);
       expect(v.every((x) => x === 0)).toBe(true);
@@ -64,24 +109,31 @@ describe('SR1B 2015 (GO-SHIP; CCHDO)', () => {
 
   it('against a copy displaced by a known heave it gives that heave', () => {
     const delta = (p: number) => 30 * Math.exp(-(((p - 800) / 600) ** 2));
-    const later = casts.map((c) => ({ ...c, time: c.time! + 5 * 365.2425 * 86_400_000, p: Float64Array.from(c.p, (q) => q + delta(q)) }));
+    const later = casts.map((c) => ({
+      ...c,
+      time: c.time! + 5 * 365.2425 * 86_400_000,
+      p: Float64Array.from(c.p, (q) => q + delta(q)),
+    }));
     const r = compareOccupations(casts, later, opts);
     expect(r.years).toBeCloseTo(5, 6);
     const nx = r.x.length;
     let n = 0;
     let worst = 0;
-    for (let i = 0; i < r.sigma.length; i++) for (let j = 0; j < nx; j++) {
-      const h = r.onDensity.heave[i * nx + j];
-      if (!Number.isFinite(h)) continue;
-      n++;
-      worst = Math.max(worst, Math.abs(h - delta(r.onDensity.pA[i * nx + j])));
-    }
+    for (let i = 0; i < r.sigma.length; i++)
+      for (let j = 0; j < nx; j++) {
+        const h = r.onDensity.heave[i * nx + j];
+        if (!Number.isFinite(h)) continue;
+        n++;
+        worst = Math.max(worst, Math.abs(h - delta(r.onDensity.pA[i * nx + j])));
+      }
     expect(n).toBeGreaterThan(1000);
     // δ is nearly linear over the 2-dbar bins of the files: the error is ≤ δ''·h²/8 ≈ 1e-4 dbar
     expect(worst).toBeLessThan(0.01);
     expect(Math.max(...finite(r.onDensity.diff).map(Math.abs))).toBeLessThan(1e-6);
     // at the core of the displacement every isopycnal moved by about 30 dbar
-    const core = Array.from(r.onDensity.heave).filter((h, k) => Number.isFinite(h) && Math.abs(r.onDensity.pA[k] - 800) < 50);
+    const core = Array.from(r.onDensity.heave).filter(
+      (h, k) => Number.isFinite(h) && Math.abs(r.onDensity.pA[k] - 800) < 50,
+    );
     expect(core.length).toBeGreaterThan(20);
     expect(Math.min(...core)).toBeGreaterThan(29.5);
   });

@@ -2,7 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { NetCDFReader } from 'netcdfjs';
 import { tableToNetcdf } from '../../../server/services/deliveries/cf';
 import { NC_FILL } from '../../../server/services/deliveries/netcdf';
-import { ISOPYCNAL_FLAGS, columnIndex, parseFlags, type DeliveryTable } from '../../../server/services/deliveries/table';
+import {
+  ISOPYCNAL_FLAGS,
+  columnIndex,
+  parseFlags,
+  type DeliveryTable,
+} from '../../../server/services/deliveries/table';
 import { readWithPythonNetcdf4, type PyDataset } from './pyread';
 import { syntheticIsopycnalTable, syntheticPressureTable } from './synthetic';
 
@@ -22,7 +27,9 @@ function locate(table: DeliveryTable, py: PyDataset, levelVar: string, refVar: s
   const iR = columnIndex(table, 'sigma_ref');
   return table.rows.map((row) => {
     const p = ids.indexOf(`${row[iS]}_${row[iC]}`);
-    const l = levels.findIndex((lv, k) => lv === row[iL] && (refData === null || (Array.isArray(refData) ? refData[k] : refData) === row[iR]));
+    const l = levels.findIndex(
+      (lv, k) => lv === row[iL] && (refData === null || (Array.isArray(refData) ? refData[k] : refData) === row[iR]),
+    );
     expect(p).toBeGreaterThanOrEqual(0);
     expect(l).toBeGreaterThanOrEqual(0);
     return [p, l];
@@ -45,7 +52,19 @@ describe('CF-1.10 NetCDF of delivery tables', () => {
     expect(attr(py, null, 'Conventions')).toBe('CF-1.10');
     expect(attr(py, null, 'featureType')).toBe('profile');
     expect(attr(py, null, 'institution')).toBe('Test institute');
-    for (const g of ['title', 'source', 'history', 'comment', 'equation_of_state', 'saar_source', 'inversion_handling', 'layer_set', 'exported_by', 'exported_at', 'software_version']) {
+    for (const g of [
+      'title',
+      'source',
+      'history',
+      'comment',
+      'equation_of_state',
+      'saar_source',
+      'inversion_handling',
+      'layer_set',
+      'exported_by',
+      'exported_at',
+      'software_version',
+    ]) {
       expect(typeof attr(py, null, g)).toBe('string');
     }
     // no global attribute named like the CF standard name; the choices are one documented text
@@ -90,8 +109,11 @@ describe('CF-1.10 NetCDF of delivery tables', () => {
       for (const name of ['pressure', 'depth', 'CT', 'SA', 'thickness', 'crossings', 'oxygen']) {
         expectClose((v[name].data as unknown[][])[p][l], row[columnIndex(table, name)] as number | null);
       }
-      const bits = ((v.flags.data as number[][])[p][l]);
-      const want = parseFlags(row[columnIndex(table, 'flags')] as string | null).reduce((b, f) => b | (1 << ISOPYCNAL_FLAGS.indexOf(f)), 0);
+      const bits = (v.flags.data as number[][])[p][l];
+      const want = parseFlags(row[columnIndex(table, 'flags')] as string | null).reduce(
+        (b, f) => b | (1 << ISOPYCNAL_FLAGS.indexOf(f)),
+        0,
+      );
       expect(bits).toBe(want);
       expect((v.note.data as string[][])[p][l]).toBe((row[columnIndex(table, 'note')] as string | null) ?? '');
       expectClose((v.latitude.data as number[])[p], row[columnIndex(table, 'latitude')] as number);
@@ -146,7 +168,9 @@ describe('CF-1.10 NetCDF of delivery tables', () => {
     const levels = nc.getDataVariable('sigma_level') as number[];
     const lats = nc.getDataVariable('latitude') as number[];
     const ct = nc.getDataVariable('CT') as number[];
-    const fill = (nc.variables.find((x) => x.name === 'CT')?.attributes as { name: string; value: unknown }[] | undefined)?.find((a) => a.name === '_FillValue')?.value;
+    const fill = (
+      nc.variables.find((x) => x.name === 'CT')?.attributes as { name: string; value: unknown }[] | undefined
+    )?.find((a) => a.name === '_FillValue')?.value;
     expect(fill).toBe(NC_FILL.double);
     const iLat = columnIndex(table, 'latitude');
     const iLev = columnIndex(table, 'sigma_level');
@@ -164,7 +188,10 @@ describe('CF-1.10 NetCDF of delivery tables', () => {
 
   it('refuses a table whose cast has two positions or a repeated level', () => {
     const table = syntheticIsopycnalTable({ seed: 25, casts: 2, levels: 3 });
-    const moved = { ...table, rows: table.rows.map((r, i) => (i === 1 ? r.map((v, c) => (c === 2 ? (v as number) + 1 : v)) : r)) };
+    const moved = {
+      ...table,
+      rows: table.rows.map((r, i) => (i === 1 ? r.map((v, c) => (c === 2 ? (v as number) + 1 : v)) : r)),
+    };
     expect(() => tableToNetcdf(moved)).toThrow(/more than one position/);
     const doubled = { ...table, rows: [...table.rows, table.rows[0]] };
     expect(() => tableToNetcdf(doubled)).toThrow(/twice/);

@@ -2,7 +2,12 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { parse } from 'csv-parse/sync';
 import { csvStream, writeCsv } from '../../../server/services/deliveries/csv';
-import { ISOPYCNAL_COLUMNS, type DeliveryColumn, type DeliveryRow, type DeliveryTable } from '../../../server/services/deliveries/table';
+import {
+  ISOPYCNAL_COLUMNS,
+  type DeliveryColumn,
+  type DeliveryRow,
+  type DeliveryTable,
+} from '../../../server/services/deliveries/table';
 import { provenance, syntheticIsopycnalTable } from './synthetic';
 
 // The rule restated independently of the writer: string cells whose first non-blank character is
@@ -46,13 +51,17 @@ describe('CSV writer', () => {
     const table = syntheticIsopycnalTable({ seed: 11, casts: 15, levels: 30, tricky: true, extras: true });
     const { header, records, comments } = readBack(writeCsv(table)); // read back with csv-parse
     expect(header).toEqual([...ISOPYCNAL_COLUMNS.map((c) => c.name), 'time', 'oxygen', 'note']);
-    expect(header.slice(0, 13).join(',')).toBe('station,cast,latitude,longitude,sigma_ref,sigma_level,pressure,depth,CT,SA,thickness,crossings,flags');
+    expect(header.slice(0, 13).join(',')).toBe(
+      'station,cast,latitude,longitude,sigma_ref,sigma_level,pressure,depth,CT,SA,thickness,crossings,flags',
+    );
     expect(records.length).toBe(table.rows.length);
     table.rows.forEach((row, r) => expectRowEqual(table.columns, row, records[r]));
     // the flags column holds ;-separated words from the contract, empty when there are none
     const fi = header.indexOf('flags');
     const words = new Set(records.flatMap((rec) => (rec[fi] ? rec[fi].split(';') : [])));
-    expect([...words].every((w) => ['outcrop', 'below_bottom', 'multi_crossing', 'in_inversion'].includes(w))).toBe(true);
+    expect([...words].every((w) => ['outcrop', 'below_bottom', 'multi_crossing', 'in_inversion'].includes(w))).toBe(
+      true,
+    );
     expect(words.size).toBeGreaterThan(1);
     expect(comments.length).toBeGreaterThan(5);
   });
@@ -64,10 +73,19 @@ describe('CSV writer', () => {
       { name: 'b', unit: null, type: 'number' },
     ];
     const cell = fc.oneof(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.constant(null));
-    const str = fc.oneof(fc.string({ unit: 'grapheme', maxLength: 12 }), fc.constantFrom('=A1', '-2', '+x', '@y', '\tz', '\rq', 'a,b', '"', '#x', 'x\r\ny'), fc.constant(null));
+    const str = fc.oneof(
+      fc.string({ unit: 'grapheme', maxLength: 12 }),
+      fc.constantFrom('=A1', '-2', '+x', '@y', '\tz', '\rq', 'a,b', '"', '#x', 'x\r\ny'),
+      fc.constant(null),
+    );
     fc.assert(
       fc.property(fc.array(fc.tuple(cell, str, cell), { minLength: 1, maxLength: 40 }), (rows) => {
-        const table: DeliveryTable = { kind: 'pressure', columns, rows: rows.map((r) => [...r]), provenance: provenance() };
+        const table: DeliveryTable = {
+          kind: 'pressure',
+          columns,
+          rows: rows.map((r) => [...r]),
+          provenance: provenance(),
+        };
         const { records } = readBack(writeCsv(table));
         expect(records.length).toBe(rows.length);
         table.rows.forEach((row, i) => expectRowEqual(columns, row, records[i]));
@@ -106,14 +124,21 @@ describe('CSV writer', () => {
   });
 
   it('quotes any locale separator so no `;=` payload becomes a formula in a `;` or tab locale (#14 item 9)', () => {
-    const columns: DeliveryColumn[] = [{ name: 's', unit: null, type: 'string' }, { name: 'n', unit: null, type: 'number' }];
+    const columns: DeliveryColumn[] = [
+      { name: 's', unit: null, type: 'string' },
+      { name: 'n', unit: null, type: 'number' },
+    ];
     const values = ['a;=1+1', 'K-07;@SUM(A1)', 'x\t=cmd', 'p|+1', ' =1', '＝1+1', 'semi;colon', 'plain'];
     const text = writeCsv({ kind: 'pressure', columns, rows: values.map((v) => [v, 1]), provenance: provenance() });
-    const data = text.split('\r\n').filter((l) => l && !l.startsWith('#')).slice(1);
+    const data = text
+      .split('\r\n')
+      .filter((l) => l && !l.startsWith('#'))
+      .slice(1);
     // read as a spreadsheet in each locale would: split on its separator, honouring RFC 4180 quotes
     for (const delimiter of [',', ';', '\t', '|']) {
       const recs = parse(data.join('\r\n'), { delimiter, relax_column_count: true, relax_quotes: true }) as string[][];
-      for (const rec of recs) for (const field of rec) expect(/^\s*[=+\-@＝＋－＠]/.test(field), `${delimiter}: ${field}`).toBe(false);
+      for (const rec of recs)
+        for (const field of rec) expect(/^\s*[=+\-@＝＋－＠]/.test(field), `${delimiter}: ${field}`).toBe(false);
     }
     expect(data[0]).toBe('"a;=1+1",1');
     expect(data[4]).toBe("' =1,1");

@@ -26,7 +26,13 @@ function general(seed: number): { ds: NcDataset; d: Float64Array; rec: number[] 
       floats: { type: 'float', value: [0.5, -1.25] },
     },
     variables: [
-      { name: 'd', type: 'double', dimensions: ['x', 'y'], attributes: { units: 'm', _FillValue: -9999 }, data: Array.from(d, (v, i) => (i === 5 ? null : v)) },
+      {
+        name: 'd',
+        type: 'double',
+        dimensions: ['x', 'y'],
+        attributes: { units: 'm', _FillValue: -9999 },
+        data: Array.from(d, (v, i) => (i === 5 ? null : v)),
+      },
       { name: 'f', type: 'float', dimensions: ['x'], attributes: {}, data: [0.5, NaN, -3.75] },
       { name: 'i', type: 'int', dimensions: ['y'], attributes: { valid_min: -5 }, data: [1, -2, null, 2147483647] },
       { name: 's', type: 'short', dimensions: ['x'], data: [1, -32768, 7] }, // odd count: padded
@@ -93,12 +99,17 @@ describe('NetCDF-3 classic writer', () => {
     expect(records.map((r) => r[3])).toEqual([NC_FILL.short, NC_FILL.short, NC_FILL.short, NC_FILL.short]);
     expect(nc.getDataVariable('i')).toEqual([1, -2, NC_FILL.int, 2147483647]);
     const dv = nc.variables.find((x) => x.name === 'd');
-    expect((dv?.attributes as { name: string; value: unknown }[] | undefined)?.find((a) => a.name === 'units')?.value).toBe('m');
+    expect(
+      (dv?.attributes as { name: string; value: unknown }[] | undefined)?.find((a) => a.name === 'units')?.value,
+    ).toBe('m');
   });
 
   it('follows the specification special case: one record variable, records not padded', () => {
     const data = [1, -2, 3, -4, 5];
-    const bytes = writeNetcdf({ dimensions: [{ name: 't', size: 'unlimited' }], variables: [{ name: 'v', type: 'short', dimensions: ['t'], data }] });
+    const bytes = writeNetcdf({
+      dimensions: [{ name: 't', size: 'unlimited' }],
+      variables: [{ name: 'v', type: 'short', dimensions: ['t'], data }],
+    });
     // header: magic 4 + numrecs 4; dim_list tag 4 + nelems 4 + name (4 + 4) + length 4 = 20;
     // gatt_list ABSENT 8; var_list tag 4 + nelems 4 + name 8 + ndims 4 + dimid 4 + ABSENT 8 +
     // nc_type 4 + vsize 4 + begin 4 = 44; total 80. Data: 5 shorts, 2 bytes each, no padding.
@@ -129,7 +140,10 @@ describe('NetCDF-3 classic writer', () => {
   it('round-trips any float64 exactly (fast-check; read back with netcdfjs)', () => {
     fc.assert(
       fc.property(fc.array(fc.double({ noNaN: true }), { minLength: 1, maxLength: 50 }), (values) => {
-        const bytes = writeNetcdf({ dimensions: [{ name: 'n', size: values.length }], variables: [{ name: 'v', type: 'double', dimensions: ['n'], data: values }] });
+        const bytes = writeNetcdf({
+          dimensions: [{ name: 'n', size: values.length }],
+          variables: [{ name: 'v', type: 'double', dimensions: ['n'], data: values }],
+        });
         const back = new NetCDFReader(bytes).getDataVariable('v') as number[];
         expect(back.length).toBe(values.length);
         back.forEach((b, i) => expect(Object.is(b, values[i])).toBe(true));
@@ -141,18 +155,44 @@ describe('NetCDF-3 classic writer', () => {
   it('refuses what the format cannot hold', () => {
     const ok = { name: 'x', size: 2 } as const;
     expect(() => writeNetcdf({ dimensions: [{ name: '1bad', size: 2 }], variables: [] })).toThrow(NetcdfWriteError);
-    expect(() => writeNetcdf({ dimensions: [{ name: 'a/b', size: 2 }], variables: [] })).toThrow(/invalid dimension name/);
+    expect(() => writeNetcdf({ dimensions: [{ name: 'a/b', size: 2 }], variables: [] })).toThrow(
+      /invalid dimension name/,
+    );
     expect(() => writeNetcdf({ dimensions: [ok, { ...ok }], variables: [] })).toThrow(/duplicate dimension/);
-    expect(() => writeNetcdf({ dimensions: [{ name: 'a', size: 'unlimited' }, { name: 'b', size: 'unlimited' }], variables: [] })).toThrow(/one unlimited/);
     expect(() =>
-      writeNetcdf({ dimensions: [ok, { name: 't', size: 'unlimited' }], variables: [{ name: 'v', type: 'double', dimensions: ['x', 't'] }] }),
+      writeNetcdf({
+        dimensions: [
+          { name: 'a', size: 'unlimited' },
+          { name: 'b', size: 'unlimited' },
+        ],
+        variables: [],
+      }),
+    ).toThrow(/one unlimited/);
+    expect(() =>
+      writeNetcdf({
+        dimensions: [ok, { name: 't', size: 'unlimited' }],
+        variables: [{ name: 'v', type: 'double', dimensions: ['x', 't'] }],
+      }),
     ).toThrow(/must come first/);
-    expect(() => writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'short', dimensions: ['x'], data: [1, 40000] }] })).toThrow(/does not fit/);
-    expect(() => writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'int', dimensions: ['x'], data: [1.5, 2] }] })).toThrow(/does not fit/);
-    expect(() => writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'double', dimensions: ['x'], data: [1, 2, 3] }] })).toThrow(/3 values for 2/);
-    expect(() => writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'double', dimensions: ['y'] }] })).toThrow(/unknown dimension/);
     expect(() =>
-      writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'int', dimensions: ['x'], attributes: { _FillValue: { type: 'double', value: 1 } } }] }),
+      writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'short', dimensions: ['x'], data: [1, 40000] }] }),
+    ).toThrow(/does not fit/);
+    expect(() =>
+      writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'int', dimensions: ['x'], data: [1.5, 2] }] }),
+    ).toThrow(/does not fit/);
+    expect(() =>
+      writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'double', dimensions: ['x'], data: [1, 2, 3] }] }),
+    ).toThrow(/3 values for 2/);
+    expect(() =>
+      writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'double', dimensions: ['y'] }] }),
+    ).toThrow(/unknown dimension/);
+    expect(() =>
+      writeNetcdf({
+        dimensions: [ok],
+        variables: [
+          { name: 'v', type: 'int', dimensions: ['x'], attributes: { _FillValue: { type: 'double', value: 1 } } },
+        ],
+      }),
     ).toThrow(/_FillValue/);
     expect(() =>
       writeNetcdf({ dimensions: [ok], variables: [{ name: 'v', type: 'char', dimensions: ['x'], data: ['abc'] }] }),

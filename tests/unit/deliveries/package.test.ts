@@ -5,7 +5,12 @@ import yauzl from 'yauzl';
 import { parse } from 'csv-parse/sync';
 import { NetCDFReader } from 'netcdfjs';
 import ExcelJS from 'exceljs';
-import { buildDataPackage, safeName, type DataPackageInput, type PackageProgress } from '../../../server/services/deliveries/package';
+import {
+  buildDataPackage,
+  safeName,
+  type DataPackageInput,
+  type PackageProgress,
+} from '../../../server/services/deliveries/package';
 import { writeCsv } from '../../../server/services/deliveries/csv';
 import { rng, syntheticIsopycnalTable, syntheticPressureTable } from './synthetic';
 
@@ -94,14 +99,20 @@ describe('data package', () => {
       const [, digest, path] = m as RegExpExecArray;
       const bytes = entries.get(path);
       expect(bytes).toBeDefined();
-      expect(createHash('sha256').update(bytes as Buffer).digest('hex')).toBe(digest);
+      expect(
+        createHash('sha256')
+          .update(bytes as Buffer)
+          .digest('hex'),
+      ).toBe(digest);
     }
 
     // raw files byte for byte
-    const [r1, r2, r3] = await Promise.all(inp.rawFiles.map(async (f) => {
-      const got = f.read();
-      return got instanceof Readable ? collect(got) : got;
-    }));
+    const [r1, r2, r3] = await Promise.all(
+      inp.rawFiles.map(async (f) => {
+        const got = f.read();
+        return got instanceof Readable ? collect(got) : got;
+      }),
+    );
     expect((entries.get('raw/st001.cnv') as Buffer).equals(r1)).toBe(true);
     expect((entries.get('raw/passwd') as Buffer).equals(r2)).toBe(true);
     expect((entries.get('raw/st001-2.cnv') as Buffer).equals(r3)).toBe(true);
@@ -142,7 +153,9 @@ describe('data package', () => {
   });
 
   it('fails the stream when a raw file cannot be read', async () => {
-    const bad = input({ rawFiles: [{ key: 'k', filename: 'x.cnv', read: async () => Promise.reject(new Error('storage down')) }] });
+    const bad = input({
+      rawFiles: [{ key: 'k', filename: 'x.cnv', read: async () => Promise.reject(new Error('storage down')) }],
+    });
     await expect(collect(buildDataPackage(bad))).rejects.toThrow(/storage down/);
   });
 });

@@ -32,7 +32,20 @@ export function provenance(overrides: Partial<Provenance> = {}): Provenance {
   };
 }
 
-const TRICKY = ['K-07', '12A', '=1+2', '+44', '-3', '@SUM', '\tTab', 'a,b', 'say "hi"', 'line\nbreak', 'Ünïcødé', ' spaced '];
+const TRICKY = [
+  'K-07',
+  '12A',
+  '=1+2',
+  '+44',
+  '-3',
+  '@SUM',
+  '\tTab',
+  'a,b',
+  'say "hi"',
+  'line\nbreak',
+  'Ünïcødé',
+  ' spaced ',
+];
 
 export interface SyntheticOptions {
   seed: number;
@@ -118,7 +131,10 @@ export function syntheticIsopycnalTable(o: SyntheticOptions, prov: Provenance = 
   );
 }
 
-export function syntheticPressureTable(o: { seed: number; casts: number; bins: number; binSize?: number }, prov: Provenance = provenance()): DeliveryTable {
+export function syntheticPressureTable(
+  o: { seed: number; casts: number; bins: number; binSize?: number },
+  prov: Provenance = provenance(),
+): DeliveryTable {
   const r = rng(o.seed);
   const rows: PressureRow[] = [];
   const bin = o.binSize ?? 2;

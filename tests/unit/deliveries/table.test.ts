@@ -32,21 +32,51 @@ describe('delivery table contract', () => {
     expect(ISOPYCNAL_COLUMNS.map((c) => c.name).join(',')).toBe(
       'station,cast,latitude,longitude,sigma_ref,sigma_level,pressure,depth,CT,SA,thickness,crossings,flags',
     );
-    expect(PRESSURE_COLUMNS.map((c) => c.name).slice(0, 9).join(',')).toBe('station,cast,latitude,longitude,pressure,count,CT,SA,sigma0');
+    expect(
+      PRESSURE_COLUMNS.map((c) => c.name)
+        .slice(0, 9)
+        .join(','),
+    ).toBe('station,cast,latitude,longitude,pressure,count,CT,SA,sigma0');
   });
 
   it('builds rows in column order, empty cells as null, extras after the contract columns', () => {
     const t = buildIsopycnalTable(
       [
         row({ extras: { oxygen: 251.5, time: '2026-03-04T05:06:00Z' } }),
-        row({ sigma_level: 27.9, pressure: null, depth: null, CT: NaN, SA: null, thickness: null, crossings: null, flags: ['below_bottom'], extras: { oxygen: null } }),
+        row({
+          sigma_level: 27.9,
+          pressure: null,
+          depth: null,
+          CT: NaN,
+          SA: null,
+          thickness: null,
+          crossings: null,
+          flags: ['below_bottom'],
+          extras: { oxygen: null },
+        }),
       ],
       provenance(),
     );
     expect(t.columns.map((c) => c.name).slice(13)).toEqual(['oxygen', 'time']);
     expect(t.columns[13].type).toBe('number');
     expect(t.columns[14].type).toBe('string');
-    expect(t.rows[0]).toEqual(['K-07', '1', -35.25, -20.5, 0, 26.5, 412.5, 409.1, 8.25, 34.9, 33.3, 1, null, 251.5, '2026-03-04T05:06:00Z']);
+    expect(t.rows[0]).toEqual([
+      'K-07',
+      '1',
+      -35.25,
+      -20.5,
+      0,
+      26.5,
+      412.5,
+      409.1,
+      8.25,
+      34.9,
+      33.3,
+      1,
+      null,
+      251.5,
+      '2026-03-04T05:06:00Z',
+    ]);
     expect(t.rows[1].slice(6)).toEqual([null, null, null, null, null, null, 'below_bottom', null, null]);
   });
 
@@ -62,10 +92,18 @@ describe('delivery table contract', () => {
     const good = buildIsopycnalTable([row()], provenance());
     expect(() => parseDeliveryTable(good)).not.toThrow();
     expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].slice(1)] })).toThrow(/expected 13/);
-    expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].map((v, i) => (i === 2 ? '12' : v))] })).toThrow(/latitude/);
-    expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].map((v, i) => (i === 6 ? Infinity : v))] })).toThrow(/finite/);
-    expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].map((v, i) => (i === 0 ? 12 : v))] })).toThrow(/station/);
-    expect(() => parseDeliveryTable({ ...good, columns: [...good.columns.slice(0, 12), { ...good.columns[0] }] })).toThrow(/duplicate column/);
+    expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].map((v, i) => (i === 2 ? '12' : v))] })).toThrow(
+      /latitude/,
+    );
+    expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].map((v, i) => (i === 6 ? Infinity : v))] })).toThrow(
+      /finite/,
+    );
+    expect(() => parseDeliveryTable({ ...good, rows: [good.rows[0].map((v, i) => (i === 0 ? 12 : v))] })).toThrow(
+      /station/,
+    );
+    expect(() =>
+      parseDeliveryTable({ ...good, columns: [...good.columns.slice(0, 12), { ...good.columns[0] }] }),
+    ).toThrow(/duplicate column/);
     expect(() => parseDeliveryTable({ ...good, provenance: { ...good.provenance, software: '' } })).toThrow();
   });
 

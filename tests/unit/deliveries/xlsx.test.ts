@@ -4,7 +4,6 @@ import { PROVENANCE_SHEET, tableSheetName, writeXlsx } from '../../../server/ser
 import type { DeliveryTable } from '../../../server/services/deliveries/table';
 import { provenance, syntheticIsopycnalTable, syntheticPressureTable } from './synthetic';
 
-
 async function load(bytes: Buffer): Promise<ExcelJS.Workbook> {
   const wb = new ExcelJS.Workbook();
   await wb.xlsx.load(bytes as unknown as ArrayBuffer); // read back with exceljs
@@ -30,7 +29,8 @@ async function expectTableSheet(table: DeliveryTable): Promise<ExcelJS.Workbook>
     row.forEach((v, c) => {
       const got = cellValue(ws, r + 3, c + 1);
       if (v === null) expect(got).toBeNull();
-      else if (typeof v === 'number') expect(Object.is(got, v) || (v === 0 && got === 0)).toBe(true); // numbers as numbers
+      else if (typeof v === 'number')
+        expect(Object.is(got, v) || (v === 0 && got === 0)).toBe(true); // numbers as numbers
       else expect(got).toBe(v); // typed string cells, written as they are (no leading ')
     });
   });

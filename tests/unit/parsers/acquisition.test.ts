@@ -31,7 +31,14 @@ describe('acquisition text export', () => {
     const c = await one('acquisition-two-pairs.txt');
     expect(c.format).toBe('acquisition');
     // NMEA lines: 34 07.50 S, 021 30.00 W, Mar 04 2026 05:06:00; operator lines: station, cast, water depth
-    expect(c.metadata).toMatchObject({ station: 'K-11', cast: '2', latitude: -34.125, longitude: -21.5, time: '2026-03-04T05:06:00Z', bottomDepth: 1480 });
+    expect(c.metadata).toMatchObject({
+      station: 'K-11',
+      cast: '2',
+      latitude: -34.125,
+      longitude: -21.5,
+      time: '2026-03-04T05:06:00Z',
+      bottomDepth: 1480,
+    });
     expect(c.profile.levels).toBe(150);
     expect(c.columns.pressure![20]).toBe(42);
     expect(c.columns.temperature[20]).toBeCloseTo(tAt(42), 4);
@@ -42,7 +49,13 @@ describe('acquisition text export', () => {
     expect(c.extras.conductivity_2.unit).toBe('S/m');
     // S/m to mS/cm is a factor of 10
     expect(c.columns.conductivity![20]).toBeCloseTo((3.0 + 0.09 * Number(tAt(42).toFixed(4))) * 10, 4);
-    expect(Object.keys(c.extras).sort()).toEqual(['conductivity_2', 'fluorescence', 'salinity_2', 'temperature_2', 'transmission']);
+    expect(Object.keys(c.extras).sort()).toEqual([
+      'conductivity_2',
+      'fluorescence',
+      'salinity_2',
+      'temperature_2',
+      'transmission',
+    ]);
     expect(c.notes.join(' ')).toMatch(/secondary kept as extra variables/);
   });
 
@@ -65,12 +78,17 @@ describe('acquisition text export', () => {
   it('depth in "salt water, m", position from operator lines, time from start_time', async () => {
     const c = await one('acquisition-depth.txt');
     expect(c.vertical).toBe('depth');
-    expect(c.metadata).toMatchObject({ station: 'D-2', latitude: 10.5, longitude: -45.25, time: '2026-03-05T11:20:00Z' });
+    expect(c.metadata).toMatchObject({
+      station: 'D-2',
+      latitude: 10.5,
+      longitude: -45.25,
+      time: '2026-03-05T11:20:00Z',
+    });
     expect(c.columns.depth![79]).toBe(238);
     expect(c.units.oxygen).toBe('µmol/kg');
   });
 
-  it('the export\'s dates', () => {
+  it("the export's dates", () => {
     expect(parseMonthDate('Mar 04 2026 05:06:00 [header]')).toBe('2026-03-04T05:06:00Z');
     expect(parseMonthDate('Dec 31 2025 23:59')).toBe('2025-12-31T23:59:00Z');
     expect(parseMonthDate('Foo 04 2026 05:06:00')).toBeNull();

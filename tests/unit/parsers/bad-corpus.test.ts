@@ -25,7 +25,9 @@ const manifest = Manifest.parse(JSON.parse(readFileSync(join(DIR, 'manifest.json
 
 describe('bad-file corpus', () => {
   it('has at least 300 files, each listed once in the manifest', () => {
-    const onDisk = readdirSync(DIR).filter((f) => f !== 'manifest.json').sort();
+    const onDisk = readdirSync(DIR)
+      .filter((f) => f !== 'manifest.json')
+      .sort();
     expect(onDisk.length).toBeGreaterThanOrEqual(300);
     expect(manifest.files.map((e) => e.file).sort()).toEqual(onDisk);
     expect(manifest.count).toBe(onDisk.length);
@@ -34,9 +36,25 @@ describe('bad-file corpus', () => {
   it('covers every kind of bad input the brief names', () => {
     const kinds = new Set(manifest.files.map((e) => e.expect));
     for (const k of [
-      'truncated', 'exchange_missing_end', 'missing_column', 'text_in_numeric', 'nan_inf', 'invalid_utf8', 'binary', 'empty_file',
-      'line_too_long', 'repeated_header', 'pressure_out_of_range', 'latitude_out_of_range', 'longitude_out_of_range', 'bad_time',
-      'salinity_out_of_range', 'zip_ratio', 'zip_too_large', 'zip_unsafe_path', 'unit_unconvertible',
+      'truncated',
+      'exchange_missing_end',
+      'missing_column',
+      'text_in_numeric',
+      'nan_inf',
+      'invalid_utf8',
+      'binary',
+      'empty_file',
+      'line_too_long',
+      'repeated_header',
+      'pressure_out_of_range',
+      'latitude_out_of_range',
+      'longitude_out_of_range',
+      'bad_time',
+      'salinity_out_of_range',
+      'zip_ratio',
+      'zip_too_large',
+      'zip_unsafe_path',
+      'unit_unconvertible',
     ])
       expect(kinds.has(k), k).toBe(true);
   });
@@ -51,7 +69,12 @@ describe('bad-file corpus', () => {
       expect(err.file.length).toBeGreaterThan(0);
       expect(err.message.length).toBeGreaterThan(0);
     }
-    const want = { code: e.expect, file: e.errorFile ?? e.file, ...(e.line !== undefined ? { line: e.line } : {}), ...(e.column !== undefined ? { column: e.column } : {}) };
+    const want = {
+      code: e.expect,
+      file: e.errorFile ?? e.file,
+      ...(e.line !== undefined ? { line: e.line } : {}),
+      ...(e.column !== undefined ? { column: e.column } : {}),
+    };
     expect(r.errors).toContainEqual(expect.objectContaining(want));
   });
 
@@ -62,6 +85,9 @@ describe('bad-file corpus', () => {
     // refused from the central directory: no inflated bytes were held (memory, not time, is the check)
     expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(20 * 1024 * 1024);
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.errors.map((e) => e.code)).toEqual(expect.arrayContaining([expect.stringMatching(/^zip_(ratio|too_large)$/)]));
+    if (!r.ok)
+      expect(r.errors.map((e) => e.code)).toEqual(
+        expect.arrayContaining([expect.stringMatching(/^zip_(ratio|too_large)$/)]),
+      );
   });
 });

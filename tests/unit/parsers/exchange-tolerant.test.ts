@@ -19,7 +19,18 @@ function exchange(o: Opts): Buffer {
     const p = 2 + 4 * k;
     const t = o.fills?.[k] === 'T' ? '-999.0000' : tAt(p).toFixed(4);
     const s = o.fills?.[k] === 'S' ? '-9.990e+02' : sAt(p).toFixed(4);
-    rows.push(padTo([p.toFixed(1), '2', t, o.fills?.[k] === 'T' ? '9' : k === 7 ? '3' : '2', s, o.fills?.[k] === 'S' ? '9' : '2'].join(',')));
+    rows.push(
+      padTo(
+        [
+          p.toFixed(1),
+          '2',
+          t,
+          o.fills?.[k] === 'T' ? '9' : k === 7 ? '3' : '2',
+          s,
+          o.fills?.[k] === 'S' ? '9' : '2',
+        ].join(','),
+      ),
+    );
   }
   return Buffer.from(
     [
@@ -35,7 +46,10 @@ function exchange(o: Opts): Buffer {
   );
 }
 
-async function one(name: string, bytes: Buffer): Promise<{ cast: ParsedCast; warnings: { code: string; message: string }[] }> {
+async function one(
+  name: string,
+  bytes: Buffer,
+): Promise<{ cast: ParsedCast; warnings: { code: string; message: string }[] }> {
   const r = await parseUpload(name, bytes);
   if (!r.ok) throw new Error(JSON.stringify(r.errors));
   expect(r.casts).toHaveLength(1);
@@ -54,13 +68,31 @@ describe('tolerant exchange-format CTD files', () => {
     ['STATION', 'CAST'],
     ['station_no', 'cast_num'],
   ])('station key %s and cast key %s', async (sk, ck) => {
-    const { cast } = await one('x.csv', exchange({ header: [`${sk} = 17`, `${ck} = 2`, ...POSITION, 'DATE = 20260302', 'TIME = 1415'] }));
-    expect(cast.metadata).toMatchObject({ station: '17', cast: '2', latitude: -34.5, longitude: 12.25, time: '2026-03-02T14:15:00Z' });
+    const { cast } = await one(
+      'x.csv',
+      exchange({ header: [`${sk} = 17`, `${ck} = 2`, ...POSITION, 'DATE = 20260302', 'TIME = 1415'] }),
+    );
+    expect(cast.metadata).toMatchObject({
+      station: '17',
+      cast: '2',
+      latitude: -34.5,
+      longitude: 12.25,
+      time: '2026-03-02T14:15:00Z',
+    });
   });
 
   it('comment and header lines padded with commas, UTF-8 in comments, -999 fills in any column, flags per value', async () => {
     const bytes = exchange({
-      header: ['EXPOCODE = 99XX20260301', 'SECT_ID = T1', 'STNNBR = 4', 'CASTNO = 1', ...POSITION, 'DATE = 20260302', 'TIME = 0930', 'DEPTH = 2500'],
+      header: [
+        'EXPOCODE = 99XX20260301',
+        'SECT_ID = T1',
+        'STNNBR = 4',
+        'CASTNO = 1',
+        ...POSITION,
+        'DATE = 20260302',
+        'TIME = 0930',
+        'DEPTH = 2500',
+      ],
       pad: true,
       comments: ['# Température (°C) and µmol/kg – ≥ 2 dbar; “quoted”', '#  another comment'],
       fills: { 3: 'T', 11: 'S' },
@@ -78,10 +110,16 @@ describe('tolerant exchange-format CTD files', () => {
   });
 
   it('no SECT_ID, DEPTH or TIME: read, with a warning for each', async () => {
-    const { cast, warnings } = await one('x.csv', exchange({ header: ['STNNBR = 5', 'CASTNO = 1', ...POSITION, 'DATE = 20260302'] }));
+    const { cast, warnings } = await one(
+      'x.csv',
+      exchange({ header: ['STNNBR = 5', 'CASTNO = 1', ...POSITION, 'DATE = 20260302'] }),
+    );
     expect(cast.metadata.time).toBe('2026-03-02T00:00:00Z');
     expect(cast.metadata.bottomDepth).toBeNull();
-    const msgs = warnings.filter((w) => w.code === 'missing_header').map((w) => w.message).join(' | ');
+    const msgs = warnings
+      .filter((w) => w.code === 'missing_header')
+      .map((w) => w.message)
+      .join(' | ');
     expect(msgs).toMatch(/SECT_ID/);
     expect(msgs).toMatch(/DEPTH/);
     expect(msgs).toMatch(/TIME/);
@@ -89,12 +127,18 @@ describe('tolerant exchange-format CTD files', () => {
   });
 
   it('station and cast from the standard file name EXPOCODE_STATION_CAST_ct1.csv, said in the notes', async () => {
-    const { cast } = await one('cruise/33XX20260301_00012_00003_ct1.csv', exchange({ header: [...POSITION, 'DATE = 20260302', 'TIME = 0100'] }));
+    const { cast } = await one(
+      'cruise/33XX20260301_00012_00003_ct1.csv',
+      exchange({ header: [...POSITION, 'DATE = 20260302', 'TIME = 0100'] }),
+    );
     expect(cast.metadata.station).toBe('12');
     expect(cast.metadata.cast).toBe('3');
     expect(cast.notes.join(' ')).toMatch(/station 12 and cast 3 taken from the file name/);
     // the header wins where it has the value
-    const { cast: c2 } = await one('33XX20260301_00012_00003_ct1.csv', exchange({ header: ['STNNBR = 99', ...POSITION, 'DATE = 20260302'] }));
+    const { cast: c2 } = await one(
+      '33XX20260301_00012_00003_ct1.csv',
+      exchange({ header: ['STNNBR = 99', ...POSITION, 'DATE = 20260302'] }),
+    );
     expect(c2.metadata.station).toBe('99');
     expect(c2.metadata.cast).toBe('3');
   });
@@ -106,7 +150,9 @@ describe('tolerant exchange-format CTD files', () => {
   });
 
   it('a bottle file is refused as bottle data, not with a parse error', async () => {
-    const bottle = Buffer.from('BOTTLE,20260301SIGMAL\n# invented\nEXPOCODE,SECT_ID,STNNBR,CASTNO,SAMPNO,CTDPRS,SALNTY,SALNTY_FLAG_W\n,,,,,DBAR,PSS-78,\n99XX,T1,1,1,24,5.0,34.5,2\nEND_DATA\n');
+    const bottle = Buffer.from(
+      'BOTTLE,20260301SIGMAL\n# invented\nEXPOCODE,SECT_ID,STNNBR,CASTNO,SAMPNO,CTDPRS,SALNTY,SALNTY_FLAG_W\n,,,,,DBAR,PSS-78,\n99XX,T1,1,1,24,5.0,34.5,2\nEND_DATA\n',
+    );
     for (const name of ['99XX20260301_hy1.csv', 'bottles.csv']) {
       const r = await parseUpload(name, bottle);
       expect(r.ok).toBe(false);

@@ -49,11 +49,31 @@ const mutation: fc.Arbitrary<Mutation> = fc.oneof(
   fc.record({ kind: fc.constant('truncate' as const), at: fc.double({ min: 0, max: 1, noNaN: true }) }),
   fc.record({ kind: fc.constant('dupLine' as const), line: fc.nat(400) }),
   fc.record({ kind: fc.constant('dropLine' as const), line: fc.nat(400) }),
-  fc.record({ kind: fc.constant('flip' as const), at: fc.double({ min: 0, max: 1, noNaN: true }), byte: fc.integer({ min: 0, max: 255 }) }),
+  fc.record({
+    kind: fc.constant('flip' as const),
+    at: fc.double({ min: 0, max: 1, noNaN: true }),
+    byte: fc.integer({ min: 0, max: 255 }),
+  }),
   fc.record({
     kind: fc.constant('insert' as const),
     at: fc.double({ min: 0, max: 1, noNaN: true }),
-    text: fc.constantFrom(',', '\t', ';', '\n', '"', '#', ' ', 'NaN', '-999', 'END_DATA\n', '1e400', '\r', 'pressure,temperature', '=', '..'),
+    text: fc.constantFrom(
+      ',',
+      '\t',
+      ';',
+      '\n',
+      '"',
+      '#',
+      ' ',
+      'NaN',
+      '-999',
+      'END_DATA\n',
+      '1e400',
+      '\r',
+      'pressure,temperature',
+      '=',
+      '..',
+    ),
   }),
 );
 
@@ -85,31 +105,45 @@ function apply(bytes: Buffer, m: Mutation): Buffer {
 describe('fuzzing parseUpload', () => {
   it('random bytes', async () => {
     await fc.assert(
-      fc.asyncProperty(fc.uint8Array({ maxLength: 2000 }), fc.constantFrom('x.csv', 'x.zip', 'x.txt'), async (arr, name) => {
-        const r = await parseUpload(name, Buffer.from(arr));
-        wellFormed(r, name);
-      }),
+      fc.asyncProperty(
+        fc.uint8Array({ maxLength: 2000 }),
+        fc.constantFrom('x.csv', 'x.zip', 'x.txt'),
+        async (arr, name) => {
+          const r = await parseUpload(name, Buffer.from(arr));
+          wellFormed(r, name);
+        },
+      ),
       { numRuns: 300, seed: 4 },
     );
   });
 
   it('random printable text', async () => {
     await fc.assert(
-      fc.asyncProperty(fc.string({ maxLength: 600, unit: fc.constantFrom(...'0123456789.,;-\t\n #:=eE+NaICTDPRS_FLAGWpressuretmp[]'.split('')) }), async (s) => {
-        const r = await parseUpload('t.csv', Buffer.from(s));
-        wellFormed(r, 't.csv');
-      }),
+      fc.asyncProperty(
+        fc.string({
+          maxLength: 600,
+          unit: fc.constantFrom(...'0123456789.,;-\t\n #:=eE+NaICTDPRS_FLAGWpressuretmp[]'.split('')),
+        }),
+        async (s) => {
+          const r = await parseUpload('t.csv', Buffer.from(s));
+          wellFormed(r, 't.csv');
+        },
+      ),
       { numRuns: 300, seed: 5 },
     );
   });
 
   it('mutations of the good samples', async () => {
     await fc.assert(
-      fc.asyncProperty(fc.constantFrom(...TEXT_SAMPLES), fc.array(mutation, { minLength: 1, maxLength: 4 }), async (sample, ms) => {
-        const bytes = ms.reduce(apply, sample.bytes);
-        const r = await parseUpload(sample.name, bytes);
-        wellFormed(r, sample.name);
-      }),
+      fc.asyncProperty(
+        fc.constantFrom(...TEXT_SAMPLES),
+        fc.array(mutation, { minLength: 1, maxLength: 4 }),
+        async (sample, ms) => {
+          const bytes = ms.reduce(apply, sample.bytes);
+          const r = await parseUpload(sample.name, bytes);
+          wellFormed(r, sample.name);
+        },
+      ),
       { numRuns: 400, seed: 6 },
     );
   });

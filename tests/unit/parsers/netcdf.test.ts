@@ -41,7 +41,11 @@ describe('CF profile files', () => {
     expect(cs).toHaveLength(3);
     expect(cs.map((c) => c.metadata.station)).toEqual(['T-01', 'T-02', 'T-03']);
     expect(cs.map((c) => c.profile.levels)).toEqual([120, 100, 80]);
-    expect(cs.map((c) => c.file)).toEqual(['cf-profiles.nc [profile 1]', 'cf-profiles.nc [profile 2]', 'cf-profiles.nc [profile 3]']);
+    expect(cs.map((c) => c.file)).toEqual([
+      'cf-profiles.nc [profile 1]',
+      'cf-profiles.nc [profile 2]',
+      'cf-profiles.nc [profile 3]',
+    ]);
     // days since 1950-01-01: 27821.25 days = 2026-03-04 06:00 UTC (2026-03-04 is day 27821, python datetime)
     expect(cs[0].metadata.time).toBe('2026-03-04T06:00:00Z');
     expect(cs[2].metadata).toMatchObject({ latitude: -41, longitude: 10.75 });
@@ -67,7 +71,10 @@ describe('CF profile files', () => {
 
   it('a contiguous ragged array: two profiles, conductivity S m-1 to mS/cm, oxygen ml l-1 to µmol/l by 44.661', async () => {
     const cs = await casts('cf-ragged.nc', sample('cf-ragged.nc'));
-    expect(cs.map((c) => [c.metadata.station, c.profile.levels])).toEqual([['R-1', 60], ['R-2', 40]]);
+    expect(cs.map((c) => [c.metadata.station, c.profile.levels])).toEqual([
+      ['R-1', 60],
+      ['R-2', 40],
+    ]);
     expect(cs[1].metadata.time).toBe('2026-03-01T02:00:00Z');
     expect(cs[1].metadata.longitude).toBe(-59.5);
     const c = cs[1];
@@ -94,7 +101,10 @@ describe('CF profile files', () => {
     z.addBuffer(sample('plain.csv'), 'a/plain.csv');
     z.end();
     const chunks: Buffer[] = [];
-    await new Promise<void>((res) => { z.outputStream.on('data', (b: Buffer) => chunks.push(b)); z.outputStream.on('end', () => res()); });
+    await new Promise<void>((res) => {
+      z.outputStream.on('data', (b: Buffer) => chunks.push(b));
+      z.outputStream.on('end', () => res());
+    });
     const cs = await casts('mixed.zip', Buffer.concat(chunks));
     expect(cs.map((c) => c.format).sort()).toEqual(['netcdf', 'netcdf', 'plain']);
   });
@@ -112,7 +122,11 @@ describe('WOCE netCDF CTD files of a real section (SR1B 2015, GO-SHIP/CCHDO; ack
   it('every level of every cast equals an independent reading with python3-netcdf4', async () => {
     const cs = await casts('74JC20150110_nc_ctd.zip', readFileSync(SR1B));
     expect(cs).toHaveLength(30);
-    const py = spawnSync(process.env.GSW_PYTHON ?? '/usr/bin/python3', ['-c', String.raw`
+    const py = spawnSync(
+      process.env.GSW_PYTHON ?? '/usr/bin/python3',
+      [
+        '-c',
+        String.raw`
 import sys, json, zipfile, numpy as np, netCDF4
 out = {}
 with zipfile.ZipFile(sys.argv[1]) as z:
@@ -122,23 +136,45 @@ with zipfile.ZipFile(sys.argv[1]) as z:
         out[n] = {'p': col('pressure'), 't': col('temperature'), 's': col('salinity'), 'o': col('oxygen'), 'of': [int(x) for x in d['oxygen_QC'][:]],
                   'lat': float(d['latitude'][0]), 'lon': float(d['longitude'][0]), 'bd': float(d.BOTTOM_DEPTH_METERS), 'date': int(d['woce_date'][0]), 'time': int(d['woce_time'][0])}
 print(json.dumps(out))
-`, SR1B], { encoding: 'utf8', maxBuffer: 1 << 27 });
+`,
+        SR1B,
+      ],
+      { encoding: 'utf8', maxBuffer: 1 << 27 },
+    );
     expect(py.status, py.stderr).toBe(0);
-    const ref = JSON.parse(py.stdout) as Record<string, { p: number[]; t: number[]; s: number[]; o: (number | null)[]; of: number[]; lat: number; lon: number; bd: number; date: number; time: number }>;
+    const ref = JSON.parse(py.stdout) as Record<
+      string,
+      {
+        p: number[];
+        t: number[];
+        s: number[];
+        o: (number | null)[];
+        of: number[];
+        lat: number;
+        lon: number;
+        bd: number;
+        date: number;
+        time: number;
+      }
+    >;
     for (const c of cs) {
       const r = ref[c.file];
       expect(r, c.file).toBeTruthy();
       expect(Array.from(c.columns.pressure!)).toEqual(r.p);
       expect(Array.from(c.columns.temperature)).toEqual(r.t);
       expect(Array.from(c.columns.salinity!)).toEqual(r.s);
-      expect(Array.from(c.columns.oxygen!, (v) => (Number.isNaN(v) ? null : v))).toEqual(r.o.map((v) => (v === -999 ? null : v)));
+      expect(Array.from(c.columns.oxygen!, (v) => (Number.isNaN(v) ? null : v))).toEqual(
+        r.o.map((v) => (v === -999 ? null : v)),
+      );
       expect(Array.from(c.flags.oxygen)).toEqual(r.of.map((f, i) => (r.o[i] === null || r.o[i] === -999 ? 9 : f)));
       expect(c.metadata.latitude).toBe(r.lat);
       expect(c.metadata.longitude).toBe(r.lon);
       expect(c.metadata.bottomDepth).toBe(r.bd);
       const d = String(r.date);
       const hm = String(r.time).padStart(4, '0');
-      expect(c.metadata.time).toBe(`${d.slice(0, 4)}-${d.slice(4, 6)}-${d.slice(6, 8)}T${hm.slice(0, 2)}:${hm.slice(2)}:00Z`);
+      expect(c.metadata.time).toBe(
+        `${d.slice(0, 4)}-${d.slice(4, 6)}-${d.slice(6, 8)}T${hm.slice(0, 2)}:${hm.slice(2)}:00Z`,
+      );
     }
   });
 });

@@ -22,9 +22,16 @@ describe('oxygen to µmol/kg', () => {
     expect(out.cast.notes.join(' ')).toMatch(/oxygen converted from µmol\/l to µmol\/kg with the potential density/);
     // the file's own ml/l values, read straight from the text (column 6 of the data lines)
     const lines = readFileSync(FILE, 'utf8').split('\n');
-    const data = lines.slice(lines.indexOf('*END*') + 1).filter((l) => l.trim() !== '').map((l) => l.trim().split(/\s+/).map(Number));
+    const data = lines
+      .slice(lines.indexOf('*END*') + 1)
+      .filter((l) => l.trim() !== '')
+      .map((l) => l.trim().split(/\s+/).map(Number));
     const ks = [0, 25, 75, 149];
-    const py = spawnSync(process.env.GSW_PYTHON ?? '/usr/bin/python3', ['-c', String.raw`
+    const py = spawnSync(
+      process.env.GSW_PYTHON ?? '/usr/bin/python3',
+      [
+        '-c',
+        String.raw`
 import sys, json, gsw
 rows = json.loads(sys.stdin.read())
 out = []
@@ -32,7 +39,10 @@ for p, t, sp in rows:
     sa = gsw.SA_from_SP(sp, p, -21.5, -34.125)
     out.append(float(gsw.sigma0(sa, gsw.CT_from_t(sa, t, p))))
 print(json.dumps(out))
-`], { input: JSON.stringify(ks.map((k) => [data[k][0], data[k][1], data[k][6]])), encoding: 'utf8' });
+`,
+      ],
+      { input: JSON.stringify(ks.map((k) => [data[k][0], data[k][1], data[k][6]])), encoding: 'utf8' },
+    );
     expect(py.status, py.stderr).toBe(0);
     const sigma0 = JSON.parse(py.stdout) as number[];
     ks.forEach((k, i) => {

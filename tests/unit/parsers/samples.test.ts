@@ -24,7 +24,14 @@ describe('good samples', () => {
   it('plain CSV of api.md: metadata lines, units in brackets, values as written', async () => {
     const c = await one('plain.csv');
     expect(c.format).toBe('plain');
-    expect(c.metadata).toMatchObject({ station: 'K-07', cast: '1', latitude: -34.125, longitude: -21.5, time: '2026-03-04T05:06:00Z', bottomDepth: 1480 });
+    expect(c.metadata).toMatchObject({
+      station: 'K-07',
+      cast: '1',
+      latitude: -34.125,
+      longitude: -21.5,
+      time: '2026-03-04T05:06:00Z',
+      bottomDepth: 1480,
+    });
     expect(c.vertical).toBe('pressure');
     expect(c.profile).toEqual({ levels: 200, downcastEnd: 199, hasUpcast: false, reversals: 0 });
     expect(c.columns.pressure?.[10]).toBe(22);
@@ -34,14 +41,17 @@ describe('good samples', () => {
     expect(Array.from(new Set(c.flags.temperature))).toEqual([2]);
   });
 
-  it.each(['plain-tab.tsv', 'plain-bom.csv', 'plain-semicolon-decimal-comma.csv', 'plain-whitespace.txt'])('%s reads the same numbers as the comma file', async (f) => {
-    const ref = await one('plain.csv');
-    const c = await one(f);
-    expect(c.columns.pressure).toEqual(ref.columns.pressure);
-    expect(c.columns.temperature).toEqual(ref.columns.temperature);
-    expect(c.columns.salinity).toEqual(ref.columns.salinity);
-    expect(c.metadata.station).toBe('K-07');
-  });
+  it.each(['plain-tab.tsv', 'plain-bom.csv', 'plain-semicolon-decimal-comma.csv', 'plain-whitespace.txt'])(
+    '%s reads the same numbers as the comma file',
+    async (f) => {
+      const ref = await one('plain.csv');
+      const c = await one(f);
+      expect(c.columns.pressure).toEqual(ref.columns.pressure);
+      expect(c.columns.temperature).toEqual(ref.columns.temperature);
+      expect(c.columns.salinity).toEqual(ref.columns.salinity);
+      expect(c.metadata.station).toBe('K-07');
+    },
+  );
 
   it('BOM is removed and said so', async () => {
     const c = await one('plain-bom.csv');
@@ -93,7 +103,14 @@ describe('good samples', () => {
   it('exchange file: header block, flags, fill values, longitude normalised', async () => {
     const c = await one('exchange_ct1.csv');
     expect(c.format).toBe('exchange');
-    expect(c.metadata).toMatchObject({ station: '12', cast: '1', latitude: -34.25, longitude: -20.5, time: '2026-03-04T05:06:00Z', bottomDepth: 1480 });
+    expect(c.metadata).toMatchObject({
+      station: '12',
+      cast: '1',
+      latitude: -34.25,
+      longitude: -20.5,
+      time: '2026-03-04T05:06:00Z',
+      bottomDepth: 1480,
+    });
     expect(c.metadata.extra.EXPOCODE).toBe('99TS20260301');
     const o = c.columns.oxygen as Float64Array;
     expect(Number.isNaN(o[7])).toBe(true);

@@ -38,7 +38,12 @@ describe('units', () => {
     expect(conv('depth', 'fathoms').f).toBeCloseTo(1.8288, 12);
   });
   it('unconvertible units are errors naming the column', () => {
-    for (const [role, u] of [['pressure', 'm'], ['temperature', 'furlong'], ['salinity', 'g/kg'], ['conductivity', 'dbar']] as const) {
+    for (const [role, u] of [
+      ['pressure', 'm'],
+      ['temperature', 'furlong'],
+      ['salinity', 'g/kg'],
+      ['conductivity', 'dbar'],
+    ] as const) {
       const r = resolveUnit(role, u, '"my column"');
       expect(r.ok).toBe(false);
       if (!r.ok) expect(r.message).toContain('"my column"');
@@ -64,7 +69,7 @@ describe('columns', () => {
 describe('metadata values', () => {
   it('positions in several spellings', () => {
     expect(parseLatitude('35 15.0 S')).toEqual({ ok: true, value: -35.25 });
-    expect(parseLatitude('S 35°15.0\'')).toEqual({ ok: true, value: -35.25 });
+    expect(parseLatitude("S 35°15.0'")).toEqual({ ok: true, value: -35.25 });
     expect(parseLongitude('339.5')).toEqual({ ok: true, value: -20.5 });
     expect(parseLongitude('20 30 W')).toEqual({ ok: true, value: -20.5 });
     expect(parseLatitude('-35 15 N').ok).toBe(false);
@@ -86,7 +91,9 @@ describe('files made for one check', () => {
     if (r.ok) return;
     expect(r.errors[0].code).toBe('missing_column');
     expect(r.unmappedHeaders).toEqual({ file: 'odd.csv', headers: ['prz', 'wt', 'sss', 'sonde'] });
-    const m = await parseUpload('odd.csv', csv(body), { columnMapping: { prz: 'pressure', wt: 'temperature', sss: 'salinity', sonde: 'ignore' } });
+    const m = await parseUpload('odd.csv', csv(body), {
+      columnMapping: { prz: 'pressure', wt: 'temperature', sss: 'salinity', sonde: 'ignore' },
+    });
     expect(m.ok).toBe(true);
     if (!m.ok) return;
     expect(Array.from(m.casts[0].columns.salinity as Float64Array)).toEqual([35.5, 35.5]);
@@ -114,7 +121,10 @@ describe('files made for one check', () => {
     }
   });
   it('fill values are missing (NaN, flag 9); NaN text in an extra column is missing too', async () => {
-    const r = await parseUpload('f.csv', csv('p,t,s,turbidity\n2,-999,35.5,NaN\n4,-9.0E+02,35.5,0.2\n6,18,-999.0,0.3\n'));
+    const r = await parseUpload(
+      'f.csv',
+      csv('p,t,s,turbidity\n2,-999,35.5,NaN\n4,-9.0E+02,35.5,0.2\n6,18,-999.0,0.3\n'),
+    );
     expect(r.ok).toBe(true);
     if (!r.ok) return;
     const c = r.casts[0];
@@ -129,12 +139,18 @@ describe('files made for one check', () => {
     if (r.ok) expect(r.warnings.some((w) => w.code === 'text_column' && w.column === 4)).toBe(true);
   });
   it('CRLF line ends and quoted headers', async () => {
-    const r = await parseUpload('q.csv', csv('"pressure [dbar]","temperature [ITS-90 degC]","salinity [PSS-78]"\r\n2,18,35.5\r\n"4","18","35.4"\r\n'));
+    const r = await parseUpload(
+      'q.csv',
+      csv('"pressure [dbar]","temperature [ITS-90 degC]","salinity [PSS-78]"\r\n2,18,35.5\r\n"4","18","35.4"\r\n'),
+    );
     expect(r.ok).toBe(true);
     if (r.ok) expect(Array.from(r.casts[0].columns.salinity as Float64Array)).toEqual([35.5, 35.4]);
   });
   it('an error names file, 1-based line in the original file and 1-based column', async () => {
-    const r = await parseUpload('e.csv', csv('# station: 1\n\n# cast: 2\npressure,temperature,salinity\n2,18,35\n\n4,18,abc\n'));
+    const r = await parseUpload(
+      'e.csv',
+      csv('# station: 1\n\n# cast: 2\npressure,temperature,salinity\n2,18,35\n\n4,18,abc\n'),
+    );
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.errors[0]).toMatchObject({ file: 'e.csv', line: 7, column: 3, code: 'text_in_numeric' });
     if (!r.ok) expect(r.errors[0].message).toContain('salinity');

@@ -16,7 +16,9 @@ function zipOf(list: { name: string; data: Buffer }[]): Promise<Buffer> {
     z.outputStream.on('error', reject);
   });
 }
-const cast = Buffer.from('# station: Z1\npressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]\n2,18,35.5\n4,17.9,35.5\n');
+const cast = Buffer.from(
+  '# station: Z1\npressure [dbar],temperature [ITS-90 degC],salinity [PSS-78]\n2,18,35.5\n4,17.9,35.5\n',
+);
 
 async function codeOf(p: Promise<unknown>): Promise<string> {
   try {
@@ -31,10 +33,15 @@ describe('zip', () => {
   it('unsafe paths', () => {
     expect(unsafePathReason('casts/a.csv')).toBeNull();
     expect(unsafePathReason('a..b.csv')).toBeNull();
-    for (const p of ['../a.csv', 'x/../../a.csv', '/abs.csv', 'C:/a.csv', '..\\a.csv']) expect(unsafePathReason(p), p).not.toBeNull();
+    for (const p of ['../a.csv', 'x/../../a.csv', '/abs.csv', 'C:/a.csv', '..\\a.csv'])
+      expect(unsafePathReason(p), p).not.toBeNull();
   });
   it('limits on entry count, total size and ratio', async () => {
-    const z = await zipOf([{ name: 'a.csv', data: cast }, { name: 'b.csv', data: cast }, { name: 'c.csv', data: cast }]);
+    const z = await zipOf([
+      { name: 'a.csv', data: cast },
+      { name: 'b.csv', data: cast },
+      { name: 'c.csv', data: cast },
+    ]);
     const base = { maxEntries: 100, maxEntryBytes: 1e6, maxTotalBytes: 1e6, maxRatio: 100, ratioFloorBytes: 1e6 };
     expect(await codeOf(readZip('z.zip', z, { ...base, maxEntries: 2 }))).toBe('zip_too_many_entries');
     expect(await codeOf(readZip('z.zip', z, { ...base, maxTotalBytes: cast.length * 2 }))).toBe('zip_too_large');
@@ -45,13 +52,20 @@ describe('zip', () => {
   });
   it('all-or-nothing: one bad entry fails the upload and names the entry', async () => {
     const bad = Buffer.from('pressure,temperature,salinity\n2,18,35.5\n4,hot,35.5\n');
-    const z = await zipOf([{ name: 'ok.csv', data: cast }, { name: 'd/bad.csv', data: bad }]);
+    const z = await zipOf([
+      { name: 'ok.csv', data: cast },
+      { name: 'd/bad.csv', data: bad },
+    ]);
     const r = await parseUpload('up.zip', z);
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.errors[0]).toMatchObject({ file: 'd/bad.csv', line: 3, column: 2, code: 'text_in_numeric' });
   });
   it('hidden and system entries are skipped with a warning', async () => {
-    const z = await zipOf([{ name: 'ok.csv', data: cast }, { name: '__MACOSX/._ok.csv', data: Buffer.from([0, 1, 2]) }, { name: 'README.txt', data: Buffer.from('notes') }]);
+    const z = await zipOf([
+      { name: 'ok.csv', data: cast },
+      { name: '__MACOSX/._ok.csv', data: Buffer.from([0, 1, 2]) },
+      { name: 'README.txt', data: Buffer.from('notes') },
+    ]);
     const r = await parseUpload('up.zip', z);
     expect(r.ok).toBe(true);
     if (r.ok) {

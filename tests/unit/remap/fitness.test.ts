@@ -6,7 +6,12 @@ const f64 = (a: number[]) => Float64Array.from(a);
 describe('coordinateFitness', () => {
   it('a strictly increasing variable is fully monotonic and single-valued (analytic case)', () => {
     const r = coordinateFitness(f64([0, 10, 20, 30]), f64([24, 25, 26, 27]));
-    expect(r).toEqual({ monotonicShare: 1, multiValuedShare: 0, direction: 'increasing', segments: [{ pTop: 0, pBottom: 30 }] });
+    expect(r).toEqual({
+      monotonicShare: 1,
+      multiValuedShare: 0,
+      direction: 'increasing',
+      segments: [{ pTop: 0, pBottom: 30 }],
+    });
   });
 
   it('a decreasing variable (temperature-like) is fit, direction decreasing (analytic case)', () => {
@@ -23,7 +28,10 @@ describe('coordinateFitness', () => {
     expect(r.direction).toBe('increasing');
     expect(r.monotonicShare).toBeCloseTo(40 / 50, 14);
     expect(r.multiValuedShare).toBeCloseTo(30 / 50, 14);
-    expect(r.segments).toEqual([{ pTop: 0, pBottom: 20 }, { pTop: 30, pBottom: 50 }]);
+    expect(r.segments).toEqual([
+      { pTop: 0, pBottom: 20 },
+      { pTop: 30, pBottom: 50 },
+    ]);
   });
 
   it('a constant stretch is multi-valued and not strictly monotonic (analytic case)', () => {

@@ -1,6 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { firstCrossing, fritschCarlsonSlopes, interpLinearAt, interpPchipAt, interpLinear } from '../../../shared/remap';
+import {
+  firstCrossing,
+  fritschCarlsonSlopes,
+  interpLinearAt,
+  interpPchipAt,
+  interpLinear,
+} from '../../../shared/remap';
 
 const f64 = (a: number[]) => Float64Array.from(a);
 
@@ -43,11 +49,17 @@ describe('Fritsch–Carlson monotone cubic', () => {
   it('is monotone on monotone data (Fritsch & Carlson 1980: α² + β² ≤ 9 is sufficient)', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.tuple(fc.double({ min: 0.01, max: 10, noNaN: true }), fc.double({ min: 0, max: 100, noNaN: true })), { minLength: 3, maxLength: 12 }),
+        fc.array(
+          fc.tuple(fc.double({ min: 0.01, max: 10, noNaN: true }), fc.double({ min: 0, max: 100, noNaN: true })),
+          { minLength: 3, maxLength: 12 },
+        ),
         (steps) => {
           const x = new Float64Array(steps.length);
           const y = new Float64Array(steps.length);
-          for (let i = 1; i < steps.length; i++) { x[i] = x[i - 1] + steps[i][0]; y[i] = y[i - 1] + steps[i][1]; }
+          for (let i = 1; i < steps.length; i++) {
+            x[i] = x[i - 1] + steps[i][0];
+            y[i] = y[i - 1] + steps[i][1];
+          }
           const q = new Float64Array(200);
           for (let j = 0; j < q.length; j++) q[j] = (x[x.length - 1] * j) / (q.length - 1);
           q[q.length - 1] = x[x.length - 1];

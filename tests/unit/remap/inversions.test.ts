@@ -5,7 +5,10 @@ import { detectInversions } from '../../../shared/remap';
 function stable(n = 1001): { p: Float64Array; sigma: Float64Array } {
   const p = new Float64Array(n);
   const sigma = new Float64Array(n);
-  for (let i = 0; i < n; i++) { p[i] = i; sigma[i] = 24 + 0.002 * i; }
+  for (let i = 0; i < n; i++) {
+    p[i] = i;
+    sigma[i] = 24 + 0.002 * i;
+  }
   return { p, sigma };
 }
 
@@ -42,7 +45,10 @@ describe('detectInversions', () => {
     sigma.set(sigma.slice(700, 720).reverse(), 700);
     sigma[900] -= 0.005; // below the default 0.01 kg/m³ threshold
     const inv = detectInversions(p, sigma);
-    expect(inv.map((i) => [i.iTop, i.iBottom, i.class])).toEqual([[99, 100, 'spike'], [700, 719, 'overturn']]);
+    expect(inv.map((i) => [i.iTop, i.iBottom, i.class])).toEqual([
+      [99, 100, 'spike'],
+      [700, 719, 'overturn'],
+    ]);
     const fine = detectInversions(p, sigma, { threshold: 0.001 });
     expect(fine.map((i) => i.iTop)).toEqual([99, 700, 899]);
   });
@@ -51,7 +57,10 @@ describe('detectInversions', () => {
     const n = 2000;
     const p = new Float64Array(n);
     const sigma = new Float64Array(n);
-    for (let i = 0; i < n; i++) { p[i] = 0.04 * i; sigma[i] = 25 + 0.01 * p[i]; }
+    for (let i = 0; i < n; i++) {
+      p[i] = 0.04 * i;
+      sigma[i] = 25 + 0.01 * p[i];
+    }
     for (let i = 1000; i < 1005; i++) sigma[i] -= 0.03; // 5 scans = 0.2 dbar
     const inv = detectInversions(p, sigma);
     expect(inv).toHaveLength(1);

@@ -20,6 +20,9 @@ describe('layer sets', () => {
   it('validates a set with one reference pressure; defaults cover σ0 and σ2', () => {
     expect(layerSetSchema.safeParse({ name: 'x', ref: 500, spec: '24:0.1:25' }).success).toBe(false);
     const sets = suggestedLayerSets();
-    expect(sets.map((s) => [s.ref, s.levels[0], s.levels[s.levels.length - 1]])).toEqual([[0, 24, 27.6], [2000, 36, 37.2]]);
+    expect(sets.map((s) => [s.ref, s.levels[0], s.levels[s.levels.length - 1]])).toEqual([
+      [0, 24, 27.6],
+      [2000, 36, 37.2],
+    ]);
   });
 });

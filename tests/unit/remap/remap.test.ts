@@ -1,6 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import {
-  FLAG_BELOW_BOTTOM, FLAG_IN_INVERSION, FLAG_MULTI_CROSSING, FLAG_OUTCROP, flagNames, remapToIsopycnals, countCrossings,
+  FLAG_BELOW_BOTTOM,
+  FLAG_IN_INVERSION,
+  FLAG_MULTI_CROSSING,
+  FLAG_OUTCROP,
+  flagNames,
+  remapToIsopycnals,
+  countCrossings,
   type RemapCast,
 } from '../../../shared/remap';
 
@@ -14,7 +20,12 @@ const range = (a: number, step: number, b: number) => {
 function linearCast(a = 0.002, n = 2001): RemapCast {
   const p = range(0, 1, n - 1);
   const sigma = p.map((v) => 24 + a * v);
-  return { p, z: p.map((v) => -0.99 * v), sigma, props: { CT: p.map((v) => 20 - 0.004 * v), SA: p.map((v) => 35 + 0.0002 * v) } };
+  return {
+    p,
+    z: p.map((v) => -0.99 * v),
+    sigma,
+    props: { CT: p.map((v) => 20 - 0.004 * v), SA: p.map((v) => 35 + 0.0002 * v) },
+  };
 }
 
 describe('remapToIsopycnals on analytic stratifications', () => {
@@ -64,7 +75,10 @@ describe('remapToIsopycnals on analytic stratifications', () => {
 
   it('flags outcrop and below-bottom targets and leaves them empty (analytic case)', () => {
     const cast = linearCast(0.002, 501); // σ from 24 to 25
-    const r = remapToIsopycnals(cast, Float64Array.from([23.5, 24.5, 25.5]), { handling: 'sort', interpolation: 'linear' });
+    const r = remapToIsopycnals(cast, Float64Array.from([23.5, 24.5, 25.5]), {
+      handling: 'sort',
+      interpolation: 'linear',
+    });
     expect(r.flags[0]).toBe(FLAG_OUTCROP);
     expect(r.flags[2]).toBe(FLAG_BELOW_BOTTOM);
     expect(flagNames(r.flags[0] | r.flags[2])).toEqual(['outcrop', 'below_bottom']);
@@ -77,7 +91,9 @@ describe('remapToIsopycnals on analytic stratifications', () => {
     const cast = linearCast();
     const targets = range(24.0, 0.1, 28.0);
     for (const interpolation of ['linear', 'pchip'] as const) {
-      const [a, b, c] = (['sort', 'drop', 'raw'] as const).map((handling) => remapToIsopycnals(cast, targets, { handling, interpolation }));
+      const [a, b, c] = (['sort', 'drop', 'raw'] as const).map((handling) =>
+        remapToIsopycnals(cast, targets, { handling, interpolation }),
+      );
       for (const other of [b, c]) {
         expect(Array.from(other.pressure)).toEqual(Array.from(a.pressure));
         expect(Array.from(other.props.SA)).toEqual(Array.from(a.props.SA));
@@ -124,7 +140,10 @@ describe('inversion handling on a planted overturn (analytic case)', () => {
     const r = remapToIsopycnals(cast, targets, { handling: 'drop', interpolation: 'linear' });
     expect(r.pressure[1]).toBeCloseTo(499 + 21.5 / 40, 9);
     expect(r.crossings[1]).toBe(1);
-    const deeper = remapToIsopycnals(cast, Float64Array.from([24 + 0.002 * 539.5]), { handling: 'drop', interpolation: 'linear' });
+    const deeper = remapToIsopycnals(cast, Float64Array.from([24 + 0.002 * 539.5]), {
+      handling: 'drop',
+      interpolation: 'linear',
+    });
     expect(deeper.pressure[0]).toBeCloseTo(520, 9); // halfway between 500 (σ539) and 540 (σ540) dbar
   });
 });

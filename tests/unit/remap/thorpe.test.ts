@@ -28,7 +28,11 @@ describe('thorpeSort (Thorpe 1977 reordering)', () => {
     const p = new Float64Array(n);
     const sigma = new Float64Array(n);
     let seed = 7;
-    for (let i = 0; i < n; i++) { p[i] = 2 * i; seed = (seed * 16807) % 2147483647; sigma[i] = 26 + seed / 2147483647; }
+    for (let i = 0; i < n; i++) {
+      p[i] = 2 * i;
+      seed = (seed * 16807) % 2147483647;
+      sigma[i] = 26 + seed / 2147483647;
+    }
     const t = thorpeSort(p, sigma, { s: sigma });
     for (let k = 1; k < n; k++) expect(t.sigma[k]).toBeGreaterThanOrEqual(t.sigma[k - 1]);
     expect(Array.from(t.props.s)).toEqual(Array.from(t.sigma));

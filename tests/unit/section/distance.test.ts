@@ -14,7 +14,12 @@ describe('alongTrackDistance', () => {
 
   it('projects on a drawn line: off-line casts land at the foot of their perpendicular (analytic case)', () => {
     // Line along the equator; the foot of (lon, lat) is (lon, 0), so the distance is lon·R·π/180.
-    const x = alongTrackDistance(Float64Array.from([1, 2, 1.5]), Float64Array.from([0.3, -0.4, 0.1]), { line: [[0, 0], [10, 0]] });
+    const x = alongTrackDistance(Float64Array.from([1, 2, 1.5]), Float64Array.from([0.3, -0.4, 0.1]), {
+      line: [
+        [0, 0],
+        [10, 0],
+      ],
+    });
     expect(x[0]).toBe(0);
     expect(x[1]).toBeCloseTo(1 * deg, 9);
     expect(x[2]).toBeCloseTo(0.5 * deg, 9);

@@ -27,7 +27,11 @@ print(json.dumps(out))
 `;
 const ref = JSON.parse(
   execFileSync(GSW_PYTHON, ['-c', py], {
-    input: JSON.stringify({ p: Array.from(p), a: { SA: Array.from(a.SA), CT: Array.from(a.CT) }, b: { SA: Array.from(b.SA), CT: Array.from(b.CT) } }),
+    input: JSON.stringify({
+      p: Array.from(p),
+      a: { SA: Array.from(a.SA), CT: Array.from(a.CT) },
+      b: { SA: Array.from(b.SA), CT: Array.from(b.CT) },
+    }),
   }).toString(),
 ) as { a: number[]; b: number[] };
 
@@ -36,7 +40,7 @@ describe('geostrophicSection: two-cast hand calculation', () => {
     // f = 2Ω sin φ at the mid latitude 10.25°, Ω = 7.292115e-5 rad/s (TEOS-10).
     const f = 2 * 7.292115e-5 * Math.sin((10.25 * Math.PI) / 180); // ≈ 2.5954e-5 s⁻¹
     // L: half a degree of a meridian on the sphere of mean radius 6371008.8 m.
-    const L = 6371008.8 * (0.5 * Math.PI) / 180; // ≈ 55597.5 m
+    const L = (6371008.8 * (0.5 * Math.PI)) / 180; // ≈ 55597.5 m
     expect(f).toBeCloseTo(2.5954e-5, 8);
     expect(L).toBeCloseTo(55597.5, 0);
     const s = geostrophicSection([a, b], { pRef: 1000, levels: p });
@@ -53,7 +57,7 @@ describe('geostrophicSection: two-cast hand calculation', () => {
     expect(pair.velocity[100]).toBe(0);
   });
 
-  it('deepest common level: zero velocity at the shallower cast\'s deepest level (definition)', () => {
+  it("deepest common level: zero velocity at the shallower cast's deepest level (definition)", () => {
     const short = { ...b, p: p.subarray(0, 81), SA: b.SA.subarray(0, 81), CT: b.CT.subarray(0, 81) };
     const s = geostrophicSection([a, short], { pRef: 'deepest_common', levels: p });
     expect(s.pairs[0].pRef).toBe(800);
@@ -67,16 +71,29 @@ describe('transportPerLayer', () => {
   it('uniform 0.1 m/s, σ linear 26 → 27 over 0–1000 dbar, 100 km wide (analytic case, thickness by TEOS-10 z_from_p)', () => {
     const lv = Float64Array.from({ length: 11 }, (_, i) => 100 * i);
     const section: GeostrophicSection = {
-      p: lv, sigmaRef: 0,
-      pairs: [{ a: 'a', b: 'b', x: 50, width: 1e5, lat: 20, pRef: 1000, velocity: new Float64Array(11).fill(0.1), sigma: lv.map((v) => 26 + v / 1000) }],
-      grid: { x: [50], y: Array.from(lv), z: [] }, skipped: [],
+      p: lv,
+      sigmaRef: 0,
+      pairs: [
+        {
+          a: 'a',
+          b: 'b',
+          x: 50,
+          width: 1e5,
+          lat: 20,
+          pRef: 1000,
+          velocity: new Float64Array(11).fill(0.1),
+          sigma: lv.map((v) => 26 + v / 1000),
+        },
+      ],
+      grid: { x: [50], y: Array.from(lv), z: [] },
+      skipped: [],
     };
     const layers = transportPerLayer(section, Float64Array.from([26, 26.25, 27]));
     // Interface 26.25 lies at 250 dbar, inside the 200–300 dbar interval: the piece above it
     // takes half of that interval's thickness.
     const dz = (p1: number, p2: number) => z_from_p(p1, 20) - z_from_p(p2, 20);
-    const upper = 0.1 * (dz(0, 200) + 0.5 * dz(200, 300)) * 1e5 / 1e6;
-    const lower = 0.1 * (0.5 * dz(200, 300) + dz(300, 1000)) * 1e5 / 1e6;
+    const upper = (0.1 * (dz(0, 200) + 0.5 * dz(200, 300)) * 1e5) / 1e6;
+    const lower = (0.1 * (0.5 * dz(200, 300) + dz(300, 1000)) * 1e5) / 1e6;
     expect(layers[0].transport[0]).toBeCloseTo(upper, 12);
     expect(layers[1].transport[0]).toBeCloseTo(lower, 12);
     expect(layers[0].total + layers[1].total).toBeCloseTo(0.1 * dz(0, 1000) * 0.1, 12);

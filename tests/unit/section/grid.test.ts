@@ -12,18 +12,30 @@ function cast(id: string, lonDeg: number, pDeep: number): SectionCast {
   const n = pDeep + 1;
   const p = Float64Array.from({ length: n }, (_, i) => i);
   return {
-    id, station: id, lon: lonDeg, lat: 0, bottomDepth: null, p,
+    id,
+    station: id,
+    lon: lonDeg,
+    lat: 0,
+    bottomDepth: null,
+    p,
     sigma: p.map((v) => 24 + 0.002 * v + 0.0001 * xKm),
     props: { T: p.map((v) => 20 - 0.01 * v + 0.001 * xKm) },
   };
 }
 
 describe('buildPressureSection', () => {
-  const casts = [cast('A', 0, 1000), cast('B', 0.1, 2000), cast('C', 0.2, 2000), cast('D', 0.3, 2000), cast('E', 0.8, 2000)];
+  const casts = [
+    cast('A', 0, 1000),
+    cast('B', 0.1, 2000),
+    cast('C', 0.2, 2000),
+    cast('D', 0.3, 2000),
+    cast('E', 0.8, 2000),
+  ];
   const g = buildPressureSection(casts, { property: 'T', binSize: 10, distanceKm: 2 });
   const castCols = [0, 0.1, 0.2, 0.3, 0.8].map((lon) => g.x.findIndex((v) => Math.abs(v - lon * KM_PER_DEG) < 1e-6));
   // Index of the grid column nearest to a distance (the regular columns are 2 km apart).
-  const col = (xKm: number) => g.x.reduce((best, v, i) => (Math.abs(v - xKm) < Math.abs(g.x[best] - xKm) ? i : best), 0);
+  const col = (xKm: number) =>
+    g.x.reduce((best, v, i) => (Math.abs(v - xKm) < Math.abs(g.x[best] - xKm) ? i : best), 0);
 
   it('interpolates linearly in distance between casts (analytic case: the field is linear in x)', () => {
     const ix = col(0.1 * KM_PER_DEG + 4);
@@ -65,7 +77,13 @@ describe('buildPressureSection', () => {
 describe('buildDensitySection and isopycnalLines', () => {
   const casts = [cast('A', 0, 2000), cast('B', 0.1, 2000), cast('C', 0.2, 2000)];
   const targets = Float64Array.from([24.5, 25.0, 26.0, 29.0]);
-  const g = buildDensitySection(casts, { property: 'T', targets, handling: 'sort', interpolation: 'linear', distanceKm: 3 });
+  const g = buildDensitySection(casts, {
+    property: 'T',
+    targets,
+    handling: 'sort',
+    interpolation: 'linear',
+    distanceKm: 3,
+  });
 
   it('puts each isopycnal at its analytic pressure, interpolated along distance (analytic case)', () => {
     for (let ix = 0; ix < g.x.length; ix++) {

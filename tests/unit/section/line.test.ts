@@ -1,7 +1,15 @@
 // Geometry of lines: cross-track distance, the off-line rule, projection on a drawn polyline,
 // distance along a line across the 180° meridian and over the pole, unwrapped longitudes.
 import { describe, it, expect } from 'vitest';
-import { crossTrackKm, offLineStations, projectOnPolyline, lineDistances, stationsNearPolyline, unwrapLongitudes, MIN_STEP_KM } from '../../../shared/section';
+import {
+  crossTrackKm,
+  offLineStations,
+  projectOnPolyline,
+  lineDistances,
+  stationsNearPolyline,
+  unwrapLongitudes,
+  MIN_STEP_KM,
+} from '../../../shared/section';
 
 const R = 6371.0088;
 const deg = (d: number) => (d * Math.PI) / 180;
@@ -36,7 +44,14 @@ describe('offLineStations', () => {
   it('leaves a straight line alone across the 180° meridian and over the pole', () => {
     const dateline = [176, 178, 180, -178, -176].map((lon, i) => ({ station: `D${i}`, lon, lat: 0 }));
     expect(offLineStations(dateline)).toEqual([]);
-    const pole = [[0, 86], [0, 88], [0, 89.5], [180, 89.5], [180, 88], [180, 86]].map(([lon, lat], i) => ({ station: `N${i}`, lon, lat }));
+    const pole = [
+      [0, 86],
+      [0, 88],
+      [0, 89.5],
+      [180, 89.5],
+      [180, 88],
+      [180, 86],
+    ].map(([lon, lat], i) => ({ station: `N${i}`, lon, lat }));
     expect(offLineStations(pole)).toEqual([]);
   });
 });
@@ -48,31 +63,60 @@ describe('distance along a line', () => {
     for (let i = 0; i < 5; i++) expect(x[i]).toBeCloseTo(arc(2 * i), 6);
   });
   it('passes over the pole: 86°N on 0°E to 86°N on 180°E is an 8° meridian arc, x strictly increasing', () => {
-    const pts = [[0, 86], [0, 88], [0, 89.5], [180, 89.5], [180, 88], [180, 86]].map(([lon, lat]) => ({ lon, lat }));
+    const pts = [
+      [0, 86],
+      [0, 88],
+      [0, 89.5],
+      [180, 89.5],
+      [180, 88],
+      [180, 86],
+    ].map(([lon, lat]) => ({ lon, lat }));
     const x = lineDistances(pts);
     for (let i = 1; i < x.length; i++) expect(x[i]).toBeGreaterThan(x[i - 1]);
     expect(x[3] - x[2]).toBeCloseTo(arc(1), 6);
     expect(x[5]).toBeCloseTo(arc(8), 6);
   });
   it('stretches a leg between coincident stations to the minimum step', () => {
-    const x = lineDistances([{ lon: 5, lat: 5 }, { lon: 5, lat: 5 }, { lon: 6, lat: 5 }]);
+    const x = lineDistances([
+      { lon: 5, lat: 5 },
+      { lon: 5, lat: 5 },
+      { lon: 6, lat: 5 },
+    ]);
     expect(x[1] - x[0]).toBeCloseTo(MIN_STEP_KM, 12);
     expect(x[2]).toBeGreaterThan(x[1]);
   });
   it('projects on a drawn polyline: the foot, the offset, measured from the first station', () => {
-    const poly: [number, number][] = [[170, 0], [180, 0], [-170, 0]];
+    const poly: [number, number][] = [
+      [170, 0],
+      [180, 0],
+      [-170, 0],
+    ];
     const f = projectOnPolyline(175, 1, poly);
     expect(f.alongKm).toBeCloseTo(arc(5), 0);
     expect(f.offsetKm).toBeCloseTo(arc(1), 6);
     const g = projectOnPolyline(-175, -2, poly);
     expect(g.alongKm).toBeCloseTo(arc(15), 0);
-    const x = lineDistances([{ lon: 175, lat: 1 }, { lon: -175, lat: -2 }], poly);
+    const x = lineDistances(
+      [
+        { lon: 175, lat: 1 },
+        { lon: -175, lat: -2 },
+      ],
+      poly,
+    );
     expect(x[0]).toBe(0);
     expect(x[1]).toBeCloseTo(arc(10), 0);
   });
   it('takes the stations within the corridor, ordered by their projection', () => {
-    const poly: [number, number][] = [[170, 0], [-170, 0]];
-    const pts = [{ station: 'C', lon: -175, lat: 0.2 }, { station: 'A', lon: 172, lat: -0.1 }, { station: 'far', lon: 178, lat: 3 }, { station: 'B', lon: 179.5, lat: 0 }];
+    const poly: [number, number][] = [
+      [170, 0],
+      [-170, 0],
+    ];
+    const pts = [
+      { station: 'C', lon: -175, lat: 0.2 },
+      { station: 'A', lon: 172, lat: -0.1 },
+      { station: 'far', lon: 178, lat: 3 },
+      { station: 'B', lon: 179.5, lat: 0 },
+    ];
     expect(stationsNearPolyline(pts, poly, 50).map((p) => p.station)).toEqual(['A', 'B', 'C']);
   });
   it('unwraps longitudes across the 180° meridian, either way', () => {

@@ -32,8 +32,14 @@ function run(dxKm: number, dd: number) {
     const sigma = depth.map((d) => sigmaOf(xm, d));
     const col = depth.map((d) => phi(xm, d));
     for (let iy = 0; iy < ny; iy++) levelGrid[iy * nx + ix] = col[iy];
-    const r = remapToIsopycnals({ p: depth, z: depth.map((d) => -d), sigma, props: { phi: col } }, targets, { handling: 'sort', interpolation: 'pchip' });
-    for (let j = 0; j < targets.length; j++) { depthOfSigma[j * nx + ix] = r.depth![j]; phiOnSigma[j * nx + ix] = r.props.phi[j]; }
+    const r = remapToIsopycnals({ p: depth, z: depth.map((d) => -d), sigma, props: { phi: col } }, targets, {
+      handling: 'sort',
+      interpolation: 'pchip',
+    });
+    for (let j = 0; j < targets.length; j++) {
+      depthOfSigma[j * nx + ix] = r.depth![j];
+      phiOnSigma[j * nx + ix] = r.props.phi[j];
+    }
   }
   const t = alongIsopycnalGradient(x, depth, levelGrid, depthOfSigma, targets.length);
   const direct = alongIsopycnalGradientDirect(x, phiOnSigma, targets.length);
@@ -68,7 +74,7 @@ describe('coordinate transform (∂φ/∂x)_σ = (∂φ/∂x)_z + (∂φ/∂z)_x
   it('matches the analytic along-isopycnal gradient and slope, converging (analytic case)', () => {
     expect(fine.maxExact).toBeLessThan(0.01 * fine.scale);
     expect(fine.maxExact).toBeLessThan(coarse.maxExact / 3);
-    expect(fine.maxSlope).toBeLessThan(1e-2 * (A * Math.PI) / L);
+    expect(fine.maxSlope).toBeLessThan((1e-2 * (A * Math.PI)) / L);
     expect(fine.maxSlope).toBeLessThan(coarse.maxSlope / 3);
   });
 });

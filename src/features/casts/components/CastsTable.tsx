@@ -87,12 +87,17 @@ const columns = helper.columns([
     cell: (info) => {
       const n = info.getValue();
       return n > 0 ? (
-        <span className="inline-flex items-center gap-1 font-semibold text-warn" aria-label={`${plural(n, 'inversion')}`}>
+        <span
+          className="inline-flex items-center gap-1 font-semibold text-warn"
+          aria-label={`${plural(n, 'inversion')}`}
+        >
           <span aria-hidden>▲</span>
           {n}
         </span>
       ) : (
-        <span className="text-ink-faint" aria-label="no inversions">0</span>
+        <span className="text-ink-faint" aria-label="no inversions">
+          0
+        </span>
       );
     },
   }),
@@ -113,12 +118,36 @@ function LifeButtons({ cast, actions }: { cast: CastSummary; actions: CastAction
     <span className="inline-flex items-center gap-1 font-sans">
       {pending && actions.canDecide && (
         <>
-          <Button size="sm" variant="secondary" busy={life.isPending} onClick={() => life.mutate({ castId: cast.id, action: 'accept' })} aria-label={`Accept the partly read ${what}`}>Accept</Button>
-          <Button size="sm" variant="quiet" disabled={life.isPending} onClick={() => life.mutate({ castId: cast.id, action: 'reject' })} aria-label={`Reject the partly read ${what}`}>Reject</Button>
+          <Button
+            size="sm"
+            variant="secondary"
+            busy={life.isPending}
+            onClick={() => life.mutate({ castId: cast.id, action: 'accept' })}
+            aria-label={`Accept the partly read ${what}`}
+          >
+            Accept
+          </Button>
+          <Button
+            size="sm"
+            variant="quiet"
+            disabled={life.isPending}
+            onClick={() => life.mutate({ castId: cast.id, action: 'reject' })}
+            aria-label={`Reject the partly read ${what}`}
+          >
+            Reject
+          </Button>
         </>
       )}
       {actions.canRemove && (
-        <Button size="sm" variant="quiet" busy={life.isPending && !pending} onClick={() => life.mutate({ castId: cast.id, action: 'remove' })} aria-label={`Remove ${what}`}>Remove</Button>
+        <Button
+          size="sm"
+          variant="quiet"
+          busy={life.isPending && !pending}
+          onClick={() => life.mutate({ castId: cast.id, action: 'remove' })}
+          aria-label={`Remove ${what}`}
+        >
+          Remove
+        </Button>
       )}
       {life.isError && <ErrorNotice error={life.error} title="Not done" />}
     </span>
@@ -128,9 +157,14 @@ function LifeButtons({ cast, actions }: { cast: CastSummary; actions: CastAction
 /** "partly read": some lines of the file were left out; the title lists them. */
 function PartlyReadMark({ cast }: { cast: CastSummary }) {
   if (!cast.partlyRead) return null;
-  const lines = cast.partlyRead.dropped.map((d) => `line ${d.line ?? '?'}${d.column ? `, column ${d.column}` : ''}: ${d.message}`).join('\n');
+  const lines = cast.partlyRead.dropped
+    .map((d) => `line ${d.line ?? '?'}${d.column ? `, column ${d.column}` : ''}: ${d.message}`)
+    .join('\n');
   return (
-    <span title={lines} className="ml-2 rounded-sm border border-warn/50 px-1 font-sans text-2xs uppercase tracking-[0.06em] text-warn-strong">
+    <span
+      title={lines}
+      className="ml-2 rounded-sm border border-warn/50 px-1 font-sans text-2xs uppercase tracking-[0.06em] text-warn-strong"
+    >
       partly read{cast.partlyRead.decision ? ' · accepted' : ` · ${cast.partlyRead.dropped.length} lines left out`}
     </span>
   );
@@ -140,7 +174,10 @@ function PartlyReadMark({ cast }: { cast: CastSummary }) {
 function CastLink({ castId, station, cast }: { castId: string; station: string; cast: string }) {
   const { id = '' } = useParams();
   return (
-    <Link to={`/cruises/${encodeURIComponent(id)}/casts/${encodeURIComponent(castId)}`} aria-label={`Open the cast sheet of station ${station} cast ${cast}`}>
+    <Link
+      to={`/cruises/${encodeURIComponent(id)}/casts/${encodeURIComponent(castId)}`}
+      aria-label={`Open the cast sheet of station ${station} cast ${cast}`}
+    >
       {station}
     </Link>
   );
@@ -161,7 +198,14 @@ export function CastsTable({ casts, actions }: { casts: readonly CastSummary[]; 
   const shown = useMemo(
     () =>
       withActions
-        ? [...columns, helper.display({ id: 'life', header: '', cell: (info) => <LifeButtons cast={info.row.original} actions={actions} /> })]
+        ? [
+            ...columns,
+            helper.display({
+              id: 'life',
+              header: '',
+              cell: (info) => <LifeButtons cast={info.row.original} actions={actions} />,
+            }),
+          ]
         : columns,
     [withActions, actions],
   );
@@ -184,8 +228,8 @@ export function CastsTable({ casts, actions }: { casts: readonly CastSummary[]; 
   if (casts.length === 0) {
     return (
       <EmptyState title="No casts yet">
-        Casts appear here as the technicians' files come through intake: one row per cast, with its level count and
-        any density inversions found.
+        Casts appear here as the technicians' files come through intake: one row per cast, with its level count and any
+        density inversions found.
       </EmptyState>
     );
   }
@@ -217,10 +261,13 @@ export function CastsTable({ casts, actions }: { casts: readonly CastSummary[]; 
             className="size-4 accent-[#123f44]"
           />
           Only casts with inversions
-          <span className={`font-mono text-xs tabular-nums ${warnedTotal > 0 ? 'text-warn' : 'text-ink-muted'}`}>({warnedTotal})</span>
+          <span className={`font-mono text-xs tabular-nums ${warnedTotal > 0 ? 'text-warn' : 'text-ink-muted'}`}>
+            ({warnedTotal})
+          </span>
         </label>
         <span className="ml-auto text-xs text-ink-muted" aria-live="polite">
-          <span className="font-mono tabular-nums">{rows.length}</span> of <span className="font-mono tabular-nums">{casts.length}</span> casts
+          <span className="font-mono tabular-nums">{rows.length}</span> of{' '}
+          <span className="font-mono tabular-nums">{casts.length}</span> casts
         </span>
       </div>
       <div className="max-h-[28rem] overflow-auto">
@@ -263,7 +310,10 @@ export function CastsTable({ casts, actions }: { casts: readonly CastSummary[]; 
                 {row.getAllCells().map((cell) => {
                   const align = (cell.column.columnDef.meta as ColumnMetaAlign | undefined)?.align ?? 'right';
                   return (
-                    <td key={cell.id} className={`px-3 py-1 ${align === 'left' ? 'text-left' : 'text-right'} ${cell.column.id === 'station' ? 'font-semibold text-ink-strong' : ''}`}>
+                    <td
+                      key={cell.id}
+                      className={`px-3 py-1 ${align === 'left' ? 'text-left' : 'text-right'} ${cell.column.id === 'station' ? 'font-semibold text-ink-strong' : ''}`}
+                    >
                       <table.FlexRender cell={cell} />
                     </td>
                   );
@@ -286,7 +336,10 @@ export function CastsTable({ casts, actions }: { casts: readonly CastSummary[]; 
 
 /** TanStack Table wants a stable data array; the query result is one, but a readonly copy is not. */
 function useStableData(casts: readonly CastSummary[]): [CastSummary[]] {
-  const [state, setState] = useState<{ source: readonly CastSummary[]; copy: CastSummary[] }>(() => ({ source: casts, copy: [...casts] }));
+  const [state, setState] = useState<{ source: readonly CastSummary[]; copy: CastSummary[] }>(() => ({
+    source: casts,
+    copy: [...casts],
+  }));
   if (state.source !== casts) {
     const next = { source: casts, copy: [...casts] };
     setState(next);

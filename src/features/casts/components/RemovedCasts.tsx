@@ -14,10 +14,20 @@ export function RemovedCasts({ cruiseId, canRestore }: { cruiseId: string; canRe
       <ul className="mt-1 flex flex-col gap-1 text-sm">
         {removed.data.map((c) => (
           <li key={c.id} className="flex items-center gap-3">
-            <span className="font-mono text-ink-strong">station {c.station} cast {c.cast}</span>
-            <span className="text-xs text-ink-muted">{c.sourceFile} · removed {formatUtc(c.removedAt)}</span>
+            <span className="font-mono text-ink-strong">
+              station {c.station} cast {c.cast}
+            </span>
+            <span className="text-xs text-ink-muted">
+              {c.sourceFile} · removed {formatUtc(c.removedAt)}
+            </span>
             {canRestore && (
-              <Button size="sm" variant="secondary" busy={life.isPending} onClick={() => life.mutate({ castId: c.id, action: 'restore' })} aria-label={`Restore station ${c.station} cast ${c.cast}`}>
+              <Button
+                size="sm"
+                variant="secondary"
+                busy={life.isPending}
+                onClick={() => life.mutate({ castId: c.id, action: 'restore' })}
+                aria-label={`Restore station ${c.station} cast ${c.cast}`}
+              >
                 Restore
               </Button>
             )}

@@ -26,10 +26,23 @@ export function useAuditTrail(cruiseId: string) {
 }
 
 const WORDS: Record<string, string> = {
-  create: 'created', update: 'edited', lock: 'locked', unlock: 'unlocked', invite: 'invited', accept_invitation: 'joined',
-  change_role: 'changed the role of', remove_member: 'removed', upload: 'uploaded', ingest: 'processed', reprocess: 'reprocessed',
-  reprocess_requested: 'asked to reprocess', retry: 'retried', set_flag: 'set quality flags on', column_mapping: 'mapped columns of',
-  release: 'released', delete: 'deleted',
+  create: 'created',
+  update: 'edited',
+  lock: 'locked',
+  unlock: 'unlocked',
+  invite: 'invited',
+  accept_invitation: 'joined',
+  change_role: 'changed the role of',
+  remove_member: 'removed',
+  upload: 'uploaded',
+  ingest: 'processed',
+  reprocess: 'reprocessed',
+  reprocess_requested: 'asked to reprocess',
+  retry: 'retried',
+  set_flag: 'set quality flags on',
+  column_mapping: 'mapped columns of',
+  release: 'released',
+  delete: 'deleted',
 };
 const brief = (v: unknown) => (v === null || v === undefined ? '—' : JSON.stringify(v).slice(0, 160));
 
@@ -44,27 +57,52 @@ export function AuditTrail({ cruiseId }: { cruiseId: string }) {
       <table className="w-full border-collapse text-sm" aria-label="Audit trail">
         <thead>
           <tr className="border-b border-paper-rule text-2xs uppercase tracking-[0.08em] text-ink-muted">
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">When (UTC)</th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">Who</th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">What</th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">Before</th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">After</th>
+            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+              When (UTC)
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+              Who
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+              What
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+              Before
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+              After
+            </th>
           </tr>
         </thead>
         <tbody>
           {rows.map((e) => (
             <tr key={e.id} className="border-b border-paper-rule/60 align-top last:border-0">
-              <td className="whitespace-nowrap px-3 py-1"><Num>{e.at.slice(0, 16).replace('T', ' ')}Z</Num></td>
+              <td className="whitespace-nowrap px-3 py-1">
+                <Num>{e.at.slice(0, 16).replace('T', ' ')}Z</Num>
+              </td>
               <td className="px-3 py-1">{e.actor?.name ?? 'system'}</td>
-              <td className="px-3 py-1">{WORDS[e.action] ?? e.action} {e.entity.replace('_', ' ')}</td>
-              <td className="max-w-[22rem] truncate px-3 py-1 font-mono text-2xs text-ink-muted" title={brief(e.before)}>{brief(e.before)}</td>
-              <td className="max-w-[22rem] truncate px-3 py-1 font-mono text-2xs text-ink-soft" title={brief(e.after)}>{brief(e.after)}</td>
+              <td className="px-3 py-1">
+                {WORDS[e.action] ?? e.action} {e.entity.replace('_', ' ')}
+              </td>
+              <td
+                className="max-w-[22rem] truncate px-3 py-1 font-mono text-2xs text-ink-muted"
+                title={brief(e.before)}
+              >
+                {brief(e.before)}
+              </td>
+              <td className="max-w-[22rem] truncate px-3 py-1 font-mono text-2xs text-ink-soft" title={brief(e.after)}>
+                {brief(e.after)}
+              </td>
             </tr>
           ))}
         </tbody>
       </table>
       {trail.data.length > 12 && (
-        <button type="button" className="px-3 py-2 text-xs text-ink-soft underline decoration-dotted" onClick={() => setAll((v) => !v)}>
+        <button
+          type="button"
+          className="px-3 py-2 text-xs text-ink-soft underline decoration-dotted"
+          onClick={() => setAll((v) => !v)}
+        >
           {all ? 'Show the latest only' : `Show all ${trail.data.length} entries`}
         </button>
       )}

@@ -20,17 +20,28 @@ function LockControl({ cruise }: { cruise: Cruise }) {
     );
   }
   return (
-    <div role="group" aria-label="Confirm lock" className="flex max-w-md flex-col items-end gap-2 text-xs text-ink-soft">
+    <div
+      role="group"
+      aria-label="Confirm lock"
+      className="flex max-w-md flex-col items-end gap-2 text-xs text-ink-soft"
+    >
       <p className="text-right">
         {cruise.locked
           ? 'Unlock: uploads, quality flags, stations, column mappings, layer sets, derived variables and cruise details can change again.'
           : 'Lock: the data are frozen. No uploads, retries or reprocessing; no quality flags, stations, column mappings, layer sets, derived variables or cruise details change. The team, saved views and deliveries stay open.'}
       </p>
       <div className="flex items-center gap-2">
-        <Button size="sm" variant="primary" busy={update.isPending} onClick={() => update.mutate({ locked: !cruise.locked }, { onSuccess: () => setConfirming(false) })}>
+        <Button
+          size="sm"
+          variant="primary"
+          busy={update.isPending}
+          onClick={() => update.mutate({ locked: !cruise.locked }, { onSuccess: () => setConfirming(false) })}
+        >
           {cruise.locked ? 'Unlock' : 'Lock'}
         </Button>
-        <Button size="sm" variant="quiet" onClick={() => setConfirming(false)}>Back</Button>
+        <Button size="sm" variant="quiet" onClick={() => setConfirming(false)}>
+          Back
+        </Button>
       </div>
     </div>
   );
@@ -46,8 +57,11 @@ export function CruiseHeader({ cruise, screen = 'Cruise desk' }: { cruise: Cruis
     <header className="flex flex-wrap items-end gap-x-6 gap-y-1">
       <div className="flex flex-col">
         <p className="text-xs uppercase tracking-[0.14em] text-ink-muted">
-          {screen}{cruise.role && <> · your role: {roleLabel(cruise.role)}</>}
-          {cruise.locked && <span className="ml-2 border border-ink/40 px-1.5 py-px text-[0.65rem] text-ink">Locked</span>}
+          {screen}
+          {cruise.role && <> · your role: {roleLabel(cruise.role)}</>}
+          {cruise.locked && (
+            <span className="ml-2 border border-ink/40 px-1.5 py-px text-[0.65rem] text-ink">Locked</span>
+          )}
         </p>
         <h1 className="text-xl font-semibold leading-tight text-ink-strong">{cruise.name}</h1>
       </div>

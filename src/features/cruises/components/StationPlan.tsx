@@ -12,19 +12,35 @@ import { fieldErrorsOf, newStationSchema, type Station } from '../types';
 export function StationList({ stations }: { stations: readonly Station[] }) {
   const ordered = [...stations].sort((a, b) => a.order - b.order);
   if (ordered.length === 0) {
-    return <EmptyState title="No stations planned yet">The chief scientist adds the planned stations of the line here.</EmptyState>;
+    return (
+      <EmptyState title="No stations planned yet">
+        The chief scientist adds the planned stations of the line here.
+      </EmptyState>
+    );
   }
   return (
     <div className="max-h-[22rem] overflow-auto">
       <table className="w-full border-collapse text-sm" aria-label="Planned stations">
         <thead className="sticky top-0 bg-paper-raised">
           <tr className="border-b border-paper-rule text-left text-xs uppercase tracking-[0.08em] text-ink-muted">
-            <th scope="col" className="px-3 py-1.5 text-right font-semibold">#</th>
-            <th scope="col" className="px-3 py-1.5 font-semibold">Station</th>
-            <th scope="col" className="px-3 py-1.5 text-right font-semibold">Latitude</th>
-            <th scope="col" className="px-3 py-1.5 text-right font-semibold">Longitude</th>
-            <th scope="col" className="px-3 py-1.5 text-right font-semibold">Depth (m)</th>
-            <th scope="col" className="px-3 py-1.5 font-semibold">Status</th>
+            <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+              #
+            </th>
+            <th scope="col" className="px-3 py-1.5 font-semibold">
+              Station
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+              Latitude
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+              Longitude
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+              Depth (m)
+            </th>
+            <th scope="col" className="px-3 py-1.5 font-semibold">
+              Status
+            </th>
           </tr>
         </thead>
         <tbody className="font-mono text-[0.8rem] tabular-nums">
@@ -37,9 +53,15 @@ export function StationList({ stations }: { stations: readonly Station[] }) {
               <td className="px-3 py-1 text-right">{s.plannedDepth ?? '—'}</td>
               <td className="px-3 py-1 font-sans">
                 {s.occupied ? (
-                  <span className="inline-flex items-center gap-1.5 text-ink"><span aria-hidden className="size-2 rounded-full bg-ink" />Occupied</span>
+                  <span className="inline-flex items-center gap-1.5 text-ink">
+                    <span aria-hidden className="size-2 rounded-full bg-ink" />
+                    Occupied
+                  </span>
                 ) : (
-                  <span className="inline-flex items-center gap-1.5 text-ink-muted"><span aria-hidden className="size-2 rounded-full border border-ink" />Planned</span>
+                  <span className="inline-flex items-center gap-1.5 text-ink-muted">
+                    <span aria-hidden className="size-2 rounded-full border border-ink" />
+                    Planned
+                  </span>
                 )}
               </td>
             </tr>
@@ -85,18 +107,60 @@ export function AddStationForm({ cruiseId }: { cruiseId: string }) {
   };
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Add a planned station" className="flex flex-col gap-3 border-t border-paper-rule p-4">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label="Add a planned station"
+      className="flex flex-col gap-3 border-t border-paper-rule p-4"
+    >
       <div className="grid grid-cols-2 items-start gap-3 2xl:grid-cols-4">
-        <TextField label="Station name" value={values.name} onChange={set('name')} error={errors.name} mono placeholder="K-07" autoComplete="off" />
-        <TextField label="Latitude (°)" value={values.latitude} onChange={set('latitude')} error={errors.latitude} mono inputMode="decimal" placeholder="-35.250" autoComplete="off" />
-        <TextField label="Longitude (°)" value={values.longitude} onChange={set('longitude')} error={errors.longitude} mono inputMode="decimal" placeholder="-20.500" autoComplete="off" />
-        <TextField label="Planned depth (m)" value={values.plannedDepth} onChange={set('plannedDepth')} error={errors.plannedDepth} optional mono inputMode="numeric" autoComplete="off" />
+        <TextField
+          label="Station name"
+          value={values.name}
+          onChange={set('name')}
+          error={errors.name}
+          mono
+          placeholder="K-07"
+          autoComplete="off"
+        />
+        <TextField
+          label="Latitude (°)"
+          value={values.latitude}
+          onChange={set('latitude')}
+          error={errors.latitude}
+          mono
+          inputMode="decimal"
+          placeholder="-35.250"
+          autoComplete="off"
+        />
+        <TextField
+          label="Longitude (°)"
+          value={values.longitude}
+          onChange={set('longitude')}
+          error={errors.longitude}
+          mono
+          inputMode="decimal"
+          placeholder="-20.500"
+          autoComplete="off"
+        />
+        <TextField
+          label="Planned depth (m)"
+          value={values.plannedDepth}
+          onChange={set('plannedDepth')}
+          error={errors.plannedDepth}
+          optional
+          mono
+          inputMode="numeric"
+          autoComplete="off"
+        />
       </div>
       <div className="flex items-center gap-3">
         <Button type="submit" variant="primary" busy={add.isPending}>
           Add station
         </Button>
-        <p className="text-xs text-ink-muted">Decimal degrees; south and west are negative. New stations go to the end of the line.</p>
+        <p className="text-xs text-ink-muted">
+          Decimal degrees; south and west are negative. New stations go to the end of the line.
+        </p>
       </div>
       {add.error && !isApiError(add.error, 400) && <ErrorNotice error={add.error} title="The station was not added" />}
       {added && <InfoNotice>Station {added} added to the plan.</InfoNotice>}

@@ -69,8 +69,12 @@ export function StationMap({ stations, cruiseName }: { stations: readonly Statio
         </defs>
         <g clipPath="url(#station-map-frame)">
           <path d={graticulePath} fill="none" className="stroke-ink/15" strokeWidth={0.75} />
-          {landPath && <path d={landPath} className="fill-land stroke-ink-soft/60" strokeWidth={0.6} strokeLinejoin="round" />}
-          {sectionLine && <path d={sectionLine} fill="none" className="stroke-ink" strokeWidth={1.25} strokeOpacity={0.7} />}
+          {landPath && (
+            <path d={landPath} className="fill-land stroke-ink-soft/60" strokeWidth={0.6} strokeLinejoin="round" />
+          )}
+          {sectionLine && (
+            <path d={sectionLine} fill="none" className="stroke-ink" strokeWidth={1.25} strokeOpacity={0.7} />
+          )}
           {points.map(({ station, x, y }, i) => {
             const active = hovered === station.id;
             const showLabel = active || i % labelEvery === 0 || i === points.length - 1;
@@ -153,7 +157,8 @@ export function StationMap({ stations, cruiseName }: { stations: readonly Statio
             {hover.station.occupied ? 'Occupied' : 'Planned'}
             {hover.station.plannedDepth != null && (
               <>
-                {' '}· planned depth <span className="font-mono tabular-nums">{hover.station.plannedDepth} m</span>
+                {' '}
+                · planned depth <span className="font-mono tabular-nums">{hover.station.plannedDepth} m</span>
               </>
             )}
           </p>
@@ -162,19 +167,30 @@ export function StationMap({ stations, cruiseName }: { stations: readonly Statio
 
       <figcaption className="flex flex-wrap items-center gap-x-5 gap-y-1 border-t border-paper-rule px-3 py-2 text-xs text-ink-soft">
         <span className="inline-flex items-center gap-1.5">
-          <svg width="12" height="12" aria-hidden="true"><circle cx="6" cy="6" r="4" className="fill-paper-raised stroke-ink" strokeWidth="1.5" /></svg>
+          <svg width="12" height="12" aria-hidden="true">
+            <circle cx="6" cy="6" r="4" className="fill-paper-raised stroke-ink" strokeWidth="1.5" />
+          </svg>
           Planned
         </span>
         <span className="inline-flex items-center gap-1.5">
-          <svg width="12" height="12" aria-hidden="true"><circle cx="6" cy="6" r="4" className="fill-ink stroke-ink" strokeWidth="1.5" /></svg>
+          <svg width="12" height="12" aria-hidden="true">
+            <circle cx="6" cy="6" r="4" className="fill-ink stroke-ink" strokeWidth="1.5" />
+          </svg>
           Occupied (cast received)
         </span>
         <span className="inline-flex items-center gap-1.5">
-          <svg width="18" height="12" aria-hidden="true"><line x1="1" x2="17" y1="6" y2="6" className="stroke-ink" strokeWidth="1.25" /></svg>
+          <svg width="18" height="12" aria-hidden="true">
+            <line x1="1" x2="17" y1="6" y2="6" className="stroke-ink" strokeWidth="1.25" />
+          </svg>
           Section line, in plan order
         </span>
         <span className="ml-auto text-ink-muted">
-          {land.isPending ? 'Loading coastlines…' : land.isError ? 'Coastlines unavailable' : 'Coastlines: Natural Earth 1:50m'} · graticule {degreeLabel(frame.step, 'lat').replace(/[NS]$/, '')}
+          {land.isPending
+            ? 'Loading coastlines…'
+            : land.isError
+              ? 'Coastlines unavailable'
+              : 'Coastlines: Natural Earth 1:50m'}{' '}
+          · graticule {degreeLabel(frame.step, 'lat').replace(/[NS]$/, '')}
         </span>
       </figcaption>
     </figure>

@@ -4,12 +4,27 @@ import { SelectField, TextField } from '../../../components/Field';
 import { ErrorNotice, InfoNotice } from '../../../components/Notice';
 import { useBuildDelivery } from '../api';
 import { DEFAULT_FORM, validateDeliveryForm, type DeliveryFormErrors, type LayerSetChoice } from '../form';
-import { DELIVERY_FORMATS, DELIVERY_KINDS, FLAG_MEANINGS, FORMAT_TEXT, KIND_TEXT, type DeliveryFormValues } from '../types';
+import {
+  DELIVERY_FORMATS,
+  DELIVERY_KINDS,
+  FLAG_MEANINGS,
+  FORMAT_TEXT,
+  KIND_TEXT,
+  type DeliveryFormValues,
+} from '../types';
 
 const SIGMA = (ref: number) => `σ${ref / 1000}`;
 
 /** Build a delivery: what kind, from which choices, which flags, which formats. */
-export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruiseId: string; layerSets: readonly LayerSetChoice[]; line?: string | null }) {
+export function BuildDeliveryForm({
+  cruiseId,
+  layerSets,
+  line = null,
+}: {
+  cruiseId: string;
+  layerSets: readonly LayerSetChoice[];
+  line?: string | null;
+}) {
   const [values, setValues] = useState<DeliveryFormValues>(DEFAULT_FORM);
   const [errors, setErrors] = useState<DeliveryFormErrors>({});
   const build = useBuildDelivery(cruiseId);
@@ -34,7 +49,8 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
     build.mutate(line ? { ...result.body, line } : result.body);
   };
 
-  const toggle = <T,>(list: readonly T[], item: T): T[] => (list.includes(item) ? list.filter((x) => x !== item) : [...list, item]);
+  const toggle = <T,>(list: readonly T[], item: T): T[] =>
+    list.includes(item) ? list.filter((x) => x !== item) : [...list, item];
 
   return (
     <form onSubmit={submit} noValidate aria-label="Build a delivery" className="flex flex-col gap-4 p-4">
@@ -42,7 +58,14 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
         <legend className="mb-1 text-sm font-semibold text-ink-soft">Kind</legend>
         {DELIVERY_KINDS.map((k) => (
           <label key={k} className="flex items-start gap-2 text-sm">
-            <input type="radio" name="kind" value={k} checked={values.kind === k} onChange={() => set({ kind: k })} className="mt-1" />
+            <input
+              type="radio"
+              name="kind"
+              value={k}
+              checked={values.kind === k}
+              onChange={() => set({ kind: k })}
+              className="mt-1"
+            />
             <span>
               <span className="font-semibold text-ink-strong">{KIND_TEXT[k].label}</span>
               <span className="block text-xs text-ink-muted">{KIND_TEXT[k].explain}</span>
@@ -53,7 +76,12 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
 
       {usesIsopycnals && (
         <div className="grid grid-cols-2 gap-3">
-          <SelectField label="Layer set" value={values.layerSetId} onChange={(e) => set({ layerSetId: e.target.value })} fieldClassName="col-span-2">
+          <SelectField
+            label="Layer set"
+            value={values.layerSetId}
+            onChange={(e) => set({ layerSetId: e.target.value })}
+            fieldClassName="col-span-2"
+          >
             <option value="">Default levels of the reference pressure</option>
             {layerSets.map((s) => (
               <option key={s.id} value={s.id}>
@@ -75,12 +103,20 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
               </option>
             ))}
           </SelectField>
-          <SelectField label="Inversion handling" value={values.inversions} onChange={(e) => set({ inversions: e.target.value as DeliveryFormValues['inversions'] })}>
+          <SelectField
+            label="Inversion handling"
+            value={values.inversions}
+            onChange={(e) => set({ inversions: e.target.value as DeliveryFormValues['inversions'] })}
+          >
             <option value="sort">Sort (reorder parcels)</option>
             <option value="drop">Drop inverted levels</option>
             <option value="raw">Raw (first crossing)</option>
           </SelectField>
-          <SelectField label="Interpolation" value={values.interpolation} onChange={(e) => set({ interpolation: e.target.value as DeliveryFormValues['interpolation'] })}>
+          <SelectField
+            label="Interpolation"
+            value={values.interpolation}
+            onChange={(e) => set({ interpolation: e.target.value as DeliveryFormValues['interpolation'] })}
+          >
             <option value="linear">Linear in σ</option>
             <option value="pchip">Monotone cubic</option>
           </SelectField>
@@ -88,7 +124,15 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
       )}
 
       {usesBins && (
-        <TextField label="Pressure bin (dbar)" mono inputMode="decimal" value={values.bin} error={errors.bin} onChange={(e) => set({ bin: e.target.value })} fieldClassName="w-40" />
+        <TextField
+          label="Pressure bin (dbar)"
+          mono
+          inputMode="decimal"
+          value={values.bin}
+          error={errors.bin}
+          onChange={(e) => set({ bin: e.target.value })}
+          fieldClassName="w-40"
+        />
       )}
 
       <fieldset aria-describedby={errors.flags ? 'flags-error' : undefined}>
@@ -98,14 +142,23 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
             const f = Number(flag);
             return (
               <label key={flag} className="flex items-center gap-1.5 text-sm">
-                <input type="checkbox" checked={values.flags.includes(f)} onChange={() => set({ flags: toggle(values.flags, f) })} aria-label={`Flag ${f}: ${meaning}`} />
+                <input
+                  type="checkbox"
+                  checked={values.flags.includes(f)}
+                  onChange={() => set({ flags: toggle(values.flags, f) })}
+                  aria-label={`Flag ${f}: ${meaning}`}
+                />
                 <span className="font-mono text-ink-strong">{f}</span>
                 <span className="text-ink-soft">{meaning}</span>
               </label>
             );
           })}
         </div>
-        {errors.flags && <p id="flags-error" className="mt-1 text-sm text-warn-strong">{errors.flags}</p>}
+        {errors.flags && (
+          <p id="flags-error" className="mt-1 text-sm text-warn-strong">
+            {errors.flags}
+          </p>
+        )}
       </fieldset>
 
       <fieldset aria-describedby={errors.formats ? 'formats-error' : undefined}>
@@ -113,18 +166,28 @@ export function BuildDeliveryForm({ cruiseId, layerSets, line = null }: { cruise
         <div className="flex flex-wrap gap-x-4 gap-y-1">
           {DELIVERY_FORMATS.map((f) => (
             <label key={f} className="flex items-center gap-1.5 text-sm">
-              <input type="checkbox" checked={values.formats.includes(f)} onChange={() => set({ formats: toggle(values.formats, f) })} />
+              <input
+                type="checkbox"
+                checked={values.formats.includes(f)}
+                onChange={() => set({ formats: toggle(values.formats, f) })}
+              />
               {FORMAT_TEXT[f]}
             </label>
           ))}
         </div>
-        {errors.formats && <p id="formats-error" className="mt-1 text-sm text-warn-strong">{errors.formats}</p>}
+        {errors.formats && (
+          <p id="formats-error" className="mt-1 text-sm text-warn-strong">
+            {errors.formats}
+          </p>
+        )}
       </fieldset>
 
       {build.isError && <ErrorNotice error={build.error} title="The delivery was not started" />}
       {build.isSuccess && <InfoNotice>Building the delivery — its progress shows in the list.</InfoNotice>}
       <div>
-        <Button type="submit" variant="primary" busy={build.isPending}>Build delivery</Button>
+        <Button type="submit" variant="primary" busy={build.isPending}>
+          Build delivery
+        </Button>
       </div>
     </form>
   );

@@ -5,7 +5,17 @@ import { baseLayout, PLOT_COLORS, plotConfig, pressureAxis, valueAxis } from '..
 import type { FormulaPreview } from '../types';
 
 /** A small profile of the formula's values against pressure (increasing downward) on one cast. */
-export function PreviewPlot({ preview, name, unit, castLabel }: { preview: FormulaPreview; name: string; unit: string | null; castLabel: string }) {
+export function PreviewPlot({
+  preview,
+  name,
+  unit,
+  castLabel,
+}: {
+  preview: FormulaPreview;
+  name: string;
+  unit: string | null;
+  castLabel: string;
+}) {
   const data = useMemo<Data[]>(
     () => [
       {
@@ -25,7 +35,11 @@ export function PreviewPlot({ preview, name, unit, castLabel }: { preview: Formu
       label={`Preview of ${title} on ${castLabel} against pressure`}
       height={340}
       data={data}
-      layout={baseLayout({ xaxis: valueAxis(title, { side: 'top', nticks: 5 }), yaxis: pressureAxis(), margin: { l: 56, r: 12, t: 40, b: 12 } })}
+      layout={baseLayout({
+        xaxis: valueAxis(title, { side: 'top', nticks: 5 }),
+        yaxis: pressureAxis(),
+        margin: { l: 56, r: 12, t: 40, b: 12 },
+      })}
       config={plotConfig({ displayModeBar: false })}
     />
   );

@@ -8,7 +8,17 @@ export function formatBytes(n: number | null | undefined): string {
 }
 
 /** A determinate bar with its figures beside it. `tone` warn only for failure. */
-export function Bar({ label, value, tone = 'ink', figures }: { label: string; value: number; tone?: 'ink' | 'warn' | 'muted'; figures?: string }) {
+export function Bar({
+  label,
+  value,
+  tone = 'ink',
+  figures,
+}: {
+  label: string;
+  value: number;
+  tone?: 'ink' | 'warn' | 'muted';
+  figures?: string;
+}) {
   const v = Math.max(0, Math.min(1, Number.isFinite(value) ? value : 0));
   const fill = tone === 'warn' ? 'bg-warn' : tone === 'muted' ? 'bg-ink-faint' : 'bg-ink';
   return (
@@ -45,7 +55,9 @@ export function StatusBadge({ status }: { status: UploadStatus }) {
         ? 'border-ink/40 bg-ink-wash text-ink-strong'
         : 'border-paper-rule bg-paper-sunk text-ink-soft';
   return (
-    <span className={`inline-flex items-center gap-1 rounded-sm border px-1.5 py-px text-2xs font-semibold uppercase tracking-[0.08em] ${look}`}>
+    <span
+      className={`inline-flex items-center gap-1 rounded-sm border px-1.5 py-px text-2xs font-semibold uppercase tracking-[0.08em] ${look}`}
+    >
       {status === 'failed' && <span aria-hidden>▲</span>}
       {STATUS_TEXT[status]}
     </span>

@@ -9,7 +9,19 @@ import { COLUMN_ROLES, COLUMN_ROLE_LABELS, type ColumnMapping, type ColumnRole }
  * cruise's mapping (so the next file with the same headers goes straight through), then the file is
  * processed again.
  */
-export function ColumnMappingStep({ cruiseId, uploadId, filename, headers, onDone }: { cruiseId: string; uploadId: string; filename: string; headers: readonly string[]; onDone?: () => void }) {
+export function ColumnMappingStep({
+  cruiseId,
+  uploadId,
+  filename,
+  headers,
+  onDone,
+}: {
+  cruiseId: string;
+  uploadId: string;
+  filename: string;
+  headers: readonly string[];
+  onDone?: () => void;
+}) {
   const remembered = useColumnMapping(cruiseId);
   const save = useSaveColumnMapping(cruiseId);
   const retry = useRetryUpload(cruiseId);
@@ -35,12 +47,17 @@ export function ColumnMappingStep({ cruiseId, uploadId, filename, headers, onDon
 
   const busy = save.isPending || retry.isPending;
   return (
-    <form onSubmit={submit} noValidate aria-label={`Column mapping for ${filename}`} className="flex flex-col gap-3 border border-paper-rule bg-paper px-3 py-3">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label={`Column mapping for ${filename}`}
+      className="flex flex-col gap-3 border border-paper-rule bg-paper px-3 py-3"
+    >
       <div>
         <p className="text-sm font-semibold text-ink-strong">Tell Sigmaline what these columns are</p>
         <p className="text-xs text-ink-muted">
-          {headers.length === 1 ? 'One header' : `${headers.length} headers`} of {filename} were not recognised. The mapping is remembered for this
-          cruise, so later files with the same headers need no answer.
+          {headers.length === 1 ? 'One header' : `${headers.length} headers`} of {filename} were not recognised. The
+          mapping is remembered for this cruise, so later files with the same headers need no answer.
         </p>
       </div>
       <div className="grid grid-cols-[repeat(auto-fill,minmax(15rem,1fr))] gap-x-4 gap-y-2">
@@ -73,7 +90,8 @@ export function ColumnMappingStep({ cruiseId, uploadId, filename, headers, onDon
       </div>
       {missing.some((h) => roleOf(h) === '') && (
         <p role="alert" className="text-sm text-warn-strong">
-          Choose a role for every column (or “Ignore this column”): {missing.filter((h) => roleOf(h) === '').join(', ')}.
+          Choose a role for every column (or “Ignore this column”): {missing.filter((h) => roleOf(h) === '').join(', ')}
+          .
         </p>
       )}
       {save.isError && <ErrorNotice error={save.error} title="The mapping was not saved" />}

@@ -4,7 +4,15 @@ import { useId, useRef, useState, type DragEvent } from 'react';
  * Where files are dropped: one, many, or a zip. The visible button opens the file picker; the
  * whole zone also takes a drop. Keyboard users reach the button; the zone itself is not a control.
  */
-export function DropZone({ onFiles, disabled = false, maxBytes }: { onFiles: (files: File[]) => void; disabled?: boolean; maxBytes?: number }) {
+export function DropZone({
+  onFiles,
+  disabled = false,
+  maxBytes,
+}: {
+  onFiles: (files: File[]) => void;
+  disabled?: boolean;
+  maxBytes?: number;
+}) {
   const [over, setOver] = useState(false);
   const input = useRef<HTMLInputElement>(null);
   const hintId = useId();
@@ -34,14 +42,24 @@ export function DropZone({ onFiles, disabled = false, maxBytes }: { onFiles: (fi
       } ${disabled ? 'opacity-60' : ''}`}
     >
       <svg width="40" height="32" viewBox="0 0 40 32" aria-hidden="true" className="text-ink-soft">
-        <path d="M4 8 C12 3 18 13 26 8 S36 6 36 6 M4 15 C12 10 18 20 26 15 S36 13 36 13" fill="none" stroke="currentColor" strokeWidth="1.6" />
+        <path
+          d="M4 8 C12 3 18 13 26 8 S36 6 36 6 M4 15 C12 10 18 20 26 15 S36 13 36 13"
+          fill="none"
+          stroke="currentColor"
+          strokeWidth="1.6"
+        />
         <path d="M20 31 V19 M15 24 L20 19 L25 24" fill="none" stroke="currentColor" strokeWidth="1.8" />
       </svg>
       <p className="text-[0.95rem] font-semibold text-ink-strong">Drop cast files here</p>
       <p id={hintId} className="max-w-[60ch] text-sm text-ink-muted">
-        Delimited text (CSV, TSV) with a header row, the hydrographic exchange format, a station table, or a zip of any of
-        these. Each file is sent on its own with its own progress bar
-        {maxBytes ? <>; at most <span className="font-mono">{Math.round(maxBytes / 1048576)} MB</span> a file</> : null}.
+        Delimited text (CSV, TSV) with a header row, the hydrographic exchange format, a station table, or a zip of any
+        of these. Each file is sent on its own with its own progress bar
+        {maxBytes ? (
+          <>
+            ; at most <span className="font-mono">{Math.round(maxBytes / 1048576)} MB</span> a file
+          </>
+        ) : null}
+        .
       </p>
       <input
         ref={input}

@@ -4,7 +4,17 @@ import { Bar, formatBytes } from './Bars';
 import { UploadFollow } from './UploadFollow';
 
 /** The files sent from this browser in this visit: bytes first, then what the server does with them. */
-export function OutgoingList({ cruiseId, outgoing, onCancel, onClear }: { cruiseId: string; outgoing: readonly Outgoing[]; onCancel: (key: string) => void; onClear: () => void }) {
+export function OutgoingList({
+  cruiseId,
+  outgoing,
+  onCancel,
+  onClear,
+}: {
+  cruiseId: string;
+  outgoing: readonly Outgoing[];
+  onCancel: (key: string) => void;
+  onClear: () => void;
+}) {
   if (outgoing.length === 0) return null;
   const finished = outgoing.filter((o) => o.phase === 'sent' || o.phase === 'failed').length;
   const sentBytes = outgoing.reduce((n, o) => n + o.loaded, 0);
@@ -32,13 +42,21 @@ export function OutgoingList({ cruiseId, outgoing, onCancel, onClear }: { cruise
             <div className="flex flex-col gap-2">
               {(o.phase === 'waiting' || o.phase === 'sending') && (
                 <div className="grid grid-cols-[6.5rem_1fr_auto] items-center gap-3">
-                  <span className="text-2xs font-semibold uppercase tracking-[0.08em] text-ink-soft">{o.phase === 'waiting' ? 'Waiting' : 'Sending'}</span>
+                  <span className="text-2xs font-semibold uppercase tracking-[0.08em] text-ink-soft">
+                    {o.phase === 'waiting' ? 'Waiting' : 'Sending'}
+                  </span>
                   <Bar
                     label={`Sending ${o.name}`}
                     value={o.size > 0 ? o.loaded / o.size : 0}
                     figures={`${formatBytes(o.loaded)} / ${formatBytes(o.size)}`}
                   />
-                  <Button size="sm" variant="quiet" onClick={() => onCancel(o.key)} aria-label={`Cancel sending ${o.name}`} disabled={o.phase === 'waiting'}>
+                  <Button
+                    size="sm"
+                    variant="quiet"
+                    onClick={() => onCancel(o.key)}
+                    aria-label={`Cancel sending ${o.name}`}
+                    disabled={o.phase === 'waiting'}
+                  >
                     Cancel
                   </Button>
                 </div>

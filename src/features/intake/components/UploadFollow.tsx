@@ -12,7 +12,15 @@ import { FileProblems } from './FileProblems';
  * then ready with its casts, or failed with its errors by file, line and column, the mapping step
  * when headers were not recognised, and a retry.
  */
-export function UploadFollow({ cruiseId, upload: initial, canUpload }: { cruiseId: string; upload: Upload; canUpload: boolean }) {
+export function UploadFollow({
+  cruiseId,
+  upload: initial,
+  canUpload,
+}: {
+  cruiseId: string;
+  upload: Upload;
+  canUpload: boolean;
+}) {
   const query = useUpload(cruiseId, initial.id, initial);
   const retry = useRetryUpload(cruiseId);
   const decide = useReplaceDecision(cruiseId);
@@ -34,48 +42,89 @@ export function UploadFollow({ cruiseId, upload: initial, canUpload }: { cruiseI
         ) : upload.status === 'ready' ? (
           <p className="text-sm text-ink-soft">
             {upload.castIds.length === 1 ? '1 cast' : `${upload.castIds.length} casts`} stored
-            {upload.duplicate && <span className="ml-2 text-ink-muted">(the same bytes were uploaded before; no new casts)</span>}
+            {upload.duplicate && (
+              <span className="ml-2 text-ink-muted">(the same bytes were uploaded before; no new casts)</span>
+            )}
             {upload.castIds.length > 0 && (
               <>
                 {' · '}
-                <Link to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(upload.castIds[0])}`}>open the first</Link>
+                <Link to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(upload.castIds[0])}`}>
+                  open the first
+                </Link>
               </>
             )}
           </p>
         ) : upload.status === 'awaiting_decision' ? (
           <p className="text-sm text-ink-strong">
-            {upload.conflicts?.items.length === 1 ? 'This file has a cast that already exists.' : `This file has ${upload.conflicts?.items.length ?? 0} casts that already exist.`}
+            {upload.conflicts?.items.length === 1
+              ? 'This file has a cast that already exists.'
+              : `This file has ${upload.conflicts?.items.length ?? 0} casts that already exist.`}
           </p>
         ) : (
-          <p className="text-sm text-warn-strong">{needsMapping ? 'Some headers were not recognised.' : 'The file could not be read.'}</p>
+          <p className="text-sm text-warn-strong">
+            {needsMapping ? 'Some headers were not recognised.' : 'The file could not be read.'}
+          </p>
         )}
         {upload.status === 'failed' && canUpload && !needsMapping && (
-          <Button size="sm" variant="secondary" busy={retry.isPending} onClick={() => retry.mutate(upload.id)} aria-label={`Retry ${upload.filename}`}>
+          <Button
+            size="sm"
+            variant="secondary"
+            busy={retry.isPending}
+            onClick={() => retry.mutate(upload.id)}
+            aria-label={`Retry ${upload.filename}`}
+          >
             Retry
           </Button>
         )}
       </div>
-      {(upload.status === 'failed' || upload.status === 'awaiting_decision') && canUpload && upload.castIds.length === 0 && (
-        <div>
-          <Button size="sm" variant="quiet" busy={remove.isPending} onClick={() => remove.mutate(upload.id)} aria-label={`Remove the upload ${upload.filename}`}>
-            Remove this upload
-          </Button>
-        </div>
-      )}
+      {(upload.status === 'failed' || upload.status === 'awaiting_decision') &&
+        canUpload &&
+        upload.castIds.length === 0 && (
+          <div>
+            <Button
+              size="sm"
+              variant="quiet"
+              busy={remove.isPending}
+              onClick={() => remove.mutate(upload.id)}
+              aria-label={`Remove the upload ${upload.filename}`}
+            >
+              Remove this upload
+            </Button>
+          </div>
+        )}
       {upload.status === 'awaiting_decision' && upload.conflicts && (
-        <div className="rounded border border-ink/30 bg-ink-wash/40 p-3 text-sm" role="group" aria-label={`Replace earlier casts with ${upload.filename}?`}>
-          <p className="text-ink-strong">Replace the earlier versions with this file? The earlier versions stay in each cast&apos;s history, and flags set on them are carried over where the levels match.</p>
+        <div
+          className="rounded border border-ink/30 bg-ink-wash/40 p-3 text-sm"
+          role="group"
+          aria-label={`Replace earlier casts with ${upload.filename}?`}
+        >
+          <p className="text-ink-strong">
+            Replace the earlier versions with this file? The earlier versions stay in each cast&apos;s history, and
+            flags set on them are carried over where the levels match.
+          </p>
           <ul className="my-2 list-disc pl-5 font-mono text-xs text-ink-soft">
             {upload.conflicts.items.map((c) => (
-              <li key={`${c.station}/${c.cast}`}>station {c.station} cast {c.cast}: now from {c.existingFile}, new in {c.file}</li>
+              <li key={`${c.station}/${c.cast}`}>
+                station {c.station} cast {c.cast}: now from {c.existingFile}, new in {c.file}
+              </li>
             ))}
           </ul>
           {canUpload && (
             <div className="flex gap-2">
-              <Button size="sm" variant="primary" busy={decide.isPending} onClick={() => decide.mutate({ uploadId: upload.id, replace: true })}>
+              <Button
+                size="sm"
+                variant="primary"
+                busy={decide.isPending}
+                onClick={() => decide.mutate({ uploadId: upload.id, replace: true })}
+              >
                 Replace the earlier versions
               </Button>
-              <Button size="sm" variant="secondary" disabled={decide.isPending} onClick={() => decide.mutate({ uploadId: upload.id, replace: false })}>
+              <Button
+                size="sm"
+                variant="secondary"
+                disabled={decide.isPending}
+                onClick={() => decide.mutate({ uploadId: upload.id, replace: false })}
+              >
                 Keep the earlier versions
               </Button>
             </div>
@@ -87,9 +136,16 @@ export function UploadFollow({ cruiseId, upload: initial, canUpload }: { cruiseI
       {query.isError && <ErrorNotice error={query.error} title="The status could not be read" />}
       {retry.isError && <ErrorNotice error={retry.error} title="The file was not queued again" />}
       <FileProblems problems={upload.errors} kind="error" filename={upload.filename} />
-      {upload.status !== 'failed' && <FileProblems problems={upload.warnings} kind="warning" filename={upload.filename} limit={8} />}
+      {upload.status !== 'failed' && (
+        <FileProblems problems={upload.warnings} kind="warning" filename={upload.filename} limit={8} />
+      )}
       {needsMapping && canUpload && (
-        <ColumnMappingStep cruiseId={cruiseId} uploadId={upload.id} filename={upload.filename} headers={upload.unmappedHeaders ?? []} />
+        <ColumnMappingStep
+          cruiseId={cruiseId}
+          uploadId={upload.id}
+          filename={upload.filename}
+          headers={upload.unmappedHeaders ?? []}
+        />
       )}
     </div>
   );

@@ -6,10 +6,22 @@ import { formatBytes, StatusBadge } from './Bars';
 import { UploadFollow } from './UploadFollow';
 
 /** Every upload of the cruise, newest first; a row opens to its errors, mapping step and retry. */
-export function UploadHistory({ cruiseId, uploads, canUpload }: { cruiseId: string; uploads: readonly Upload[]; canUpload: boolean }) {
+export function UploadHistory({
+  cruiseId,
+  uploads,
+  canUpload,
+}: {
+  cruiseId: string;
+  uploads: readonly Upload[];
+  canUpload: boolean;
+}) {
   const [open, setOpen] = useState<string | null>(null);
   if (uploads.length === 0) {
-    return <EmptyState title="Nothing uploaded yet">Every file sent to this cruise is listed here with its status, the casts it made and any errors.</EmptyState>;
+    return (
+      <EmptyState title="Nothing uploaded yet">
+        Every file sent to this cruise is listed here with its status, the casts it made and any errors.
+      </EmptyState>
+    );
   }
   const failed = uploads.filter((u) => u.status === 'failed').length;
   return (
@@ -22,13 +34,27 @@ export function UploadHistory({ cruiseId, uploads, canUpload }: { cruiseId: stri
         <table className="w-full border-collapse text-sm" aria-label="Upload history">
           <thead className="sticky top-0 z-10 bg-paper-raised">
             <tr className="border-b border-paper-rule text-xs uppercase tracking-[0.08em] text-ink-muted">
-              <th scope="col" className="px-3 py-1.5 text-left font-semibold">File</th>
-              <th scope="col" className="px-3 py-1.5 text-left font-semibold">Received (UTC)</th>
-              <th scope="col" className="px-3 py-1.5 text-right font-semibold">Size</th>
-              <th scope="col" className="px-3 py-1.5 text-left font-semibold">Status</th>
-              <th scope="col" className="px-3 py-1.5 text-right font-semibold">Casts</th>
-              <th scope="col" className="px-3 py-1.5 text-right font-semibold">Errors</th>
-              <th scope="col" className="px-3 py-1.5"><span className="sr-only">Details</span></th>
+              <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+                File
+              </th>
+              <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+                Received (UTC)
+              </th>
+              <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+                Size
+              </th>
+              <th scope="col" className="px-3 py-1.5 text-left font-semibold">
+                Status
+              </th>
+              <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+                Casts
+              </th>
+              <th scope="col" className="px-3 py-1.5 text-right font-semibold">
+                Errors
+              </th>
+              <th scope="col" className="px-3 py-1.5">
+                <span className="sr-only">Details</span>
+              </th>
             </tr>
           </thead>
           <tbody className="font-mono text-[0.8rem] tabular-nums">
@@ -37,12 +63,20 @@ export function UploadHistory({ cruiseId, uploads, canUpload }: { cruiseId: stri
               return (
                 <Fragment key={u.id}>
                   <tr className={`border-b border-paper-rule/70 ${u.status === 'failed' ? 'bg-warn-wash/25' : ''}`}>
-                    <td className="max-w-[22rem] truncate px-3 py-1 text-ink-strong" title={u.filename}>{u.filename}</td>
+                    <td className="max-w-[22rem] truncate px-3 py-1 text-ink-strong" title={u.filename}>
+                      {u.filename}
+                    </td>
                     <td className="px-3 py-1">{formatUtc(u.createdAt)}</td>
                     <td className="px-3 py-1 text-right">{formatBytes(u.size)}</td>
-                    <td className="px-3 py-1 font-sans"><StatusBadge status={u.status} /></td>
+                    <td className="px-3 py-1 font-sans">
+                      <StatusBadge status={u.status} />
+                    </td>
                     <td className="px-3 py-1 text-right">{u.castIds.length}</td>
-                    <td className={`px-3 py-1 text-right ${u.errors.length > 0 ? 'font-semibold text-warn' : 'text-ink-faint'}`}>{u.errors.length}</td>
+                    <td
+                      className={`px-3 py-1 text-right ${u.errors.length > 0 ? 'font-semibold text-warn' : 'text-ink-faint'}`}
+                    >
+                      {u.errors.length}
+                    </td>
                     <td className="px-3 py-1 text-right font-sans">
                       <button
                         type="button"

@@ -1,7 +1,17 @@
 import { useLines } from '../api';
 
 /** Choose the line a section-shaped view is drawn from; null is the cruise's default line. */
-export function LinePicker({ cruiseId, value, onChange, label = 'Line' }: { cruiseId: string; value: string | null; onChange: (id: string | null) => void; label?: string }) {
+export function LinePicker({
+  cruiseId,
+  value,
+  onChange,
+  label = 'Line',
+}: {
+  cruiseId: string;
+  value: string | null;
+  onChange: (id: string | null) => void;
+  label?: string;
+}) {
   const lines = useLines(cruiseId);
   const list = lines.data ?? [];
   const def = list.find((l) => l.isDefault);

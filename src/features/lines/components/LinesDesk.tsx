@@ -11,7 +11,17 @@ import { LinesMap, mapStations, type MapMode } from './LinesMap';
  * The lines on the cruise desk: the map with every line, the tools to make one (pick stations by
  * click or lasso, draw a polyline, paste a station list), and the editor of the selected line.
  */
-export function LinesDesk({ cruiseId, cruiseName, plan, canEdit }: { cruiseId: string; cruiseName: string; plan: readonly Station[]; canEdit: boolean }) {
+export function LinesDesk({
+  cruiseId,
+  cruiseName,
+  plan,
+  canEdit,
+}: {
+  cruiseId: string;
+  cruiseName: string;
+  plan: readonly Station[];
+  canEdit: boolean;
+}) {
   const lines = useLines(cruiseId);
   const list = useMemo(() => lines.data ?? [], [lines.data]);
   const [selectedId, setSelectedId] = useState<string | null>(null);
@@ -24,65 +34,199 @@ export function LinesDesk({ cruiseId, cruiseName, plan, canEdit }: { cruiseId: s
   const [pasting, setPasting] = useState(false);
   const create = useCreateLine(cruiseId);
   const stations = useMemo(() => mapStations(plan, list), [plan, list]);
-  useEffect(() => { if (!selectedId && list.length) setSelectedId(list[0].id); }, [list, selectedId]);
+  useEffect(() => {
+    if (!selectedId && list.length) setSelectedId(list[0].id);
+  }, [list, selectedId]);
   const selected = list.find((l) => l.id === selectedId) ?? null;
 
-  const reset = () => { setMode('view'); setPicked([]); setDrawn([]); setName(''); setPasting(false); setPasted(''); };
+  const reset = () => {
+    setMode('view');
+    setPicked([]);
+    setDrawn([]);
+    setName('');
+    setPasting(false);
+    setPasted('');
+  };
   const make = (body: Parameters<typeof create.mutate>[0]) =>
-    create.mutate(body, { onSuccess: (l) => { setSelectedId(l.id); reset(); } });
+    create.mutate(body, {
+      onSuccess: (l) => {
+        setSelectedId(l.id);
+        reset();
+      },
+    });
   const lineName = name.trim() || `Line ${list.length}`;
 
   if (lines.isPending) return <Progress label="Loading the lines…" />;
-  if (lines.isError) return <div className="p-4"><ErrorNotice error={lines.error} title="The lines could not be loaded" /></div>;
+  if (lines.isError)
+    return (
+      <div className="p-4">
+        <ErrorNotice error={lines.error} title="The lines could not be loaded" />
+      </div>
+    );
 
   return (
     <div className="flex flex-col">
       {canEdit && (
-        <div className="flex flex-wrap items-end gap-2 border-b border-paper-rule px-3 py-2 text-sm" role="toolbar" aria-label="Make a line">
-          <Button size="sm" variant={mode === 'pick' ? 'primary' : 'secondary'} onClick={() => { reset(); setMode('pick'); }}>Pick stations</Button>
-          <Button size="sm" variant={mode === 'draw' ? 'primary' : 'secondary'} onClick={() => { reset(); setMode('draw'); }}>Draw a line</Button>
-          <Button size="sm" variant={pasting ? 'primary' : 'secondary'} onClick={() => { reset(); setPasting(true); }}>Paste a station list</Button>
+        <div
+          className="flex flex-wrap items-end gap-2 border-b border-paper-rule px-3 py-2 text-sm"
+          role="toolbar"
+          aria-label="Make a line"
+        >
+          <Button
+            size="sm"
+            variant={mode === 'pick' ? 'primary' : 'secondary'}
+            onClick={() => {
+              reset();
+              setMode('pick');
+            }}
+          >
+            Pick stations
+          </Button>
+          <Button
+            size="sm"
+            variant={mode === 'draw' ? 'primary' : 'secondary'}
+            onClick={() => {
+              reset();
+              setMode('draw');
+            }}
+          >
+            Draw a line
+          </Button>
+          <Button
+            size="sm"
+            variant={pasting ? 'primary' : 'secondary'}
+            onClick={() => {
+              reset();
+              setPasting(true);
+            }}
+          >
+            Paste a station list
+          </Button>
           {(mode !== 'view' || pasting) && (
             <>
-              <label className="flex flex-col text-xs text-ink-soft">Name
-                <input aria-label="Line name" className="h-7 w-40 rounded border border-ink/40 bg-paper-raised px-2 text-sm" value={name} onChange={(e) => setName(e.target.value)} placeholder={lineName} />
+              <label className="flex flex-col text-xs text-ink-soft">
+                Name
+                <input
+                  aria-label="Line name"
+                  className="h-7 w-40 rounded border border-ink/40 bg-paper-raised px-2 text-sm"
+                  value={name}
+                  onChange={(e) => setName(e.target.value)}
+                  placeholder={lineName}
+                />
               </label>
               {mode === 'draw' && (
-                <label className="flex flex-col text-xs text-ink-soft">Within (km)
-                  <input aria-label="Corridor in km" className="h-7 w-16 rounded border border-ink/40 bg-paper-raised px-2 font-mono text-sm" value={corridor} onChange={(e) => setCorridor(e.target.value)} />
+                <label className="flex flex-col text-xs text-ink-soft">
+                  Within (km)
+                  <input
+                    aria-label="Corridor in km"
+                    className="h-7 w-16 rounded border border-ink/40 bg-paper-raised px-2 font-mono text-sm"
+                    value={corridor}
+                    onChange={(e) => setCorridor(e.target.value)}
+                  />
                 </label>
               )}
-              {mode === 'pick' && <Button size="sm" variant="primary" disabled={picked.length < 1} busy={create.isPending} onClick={() => make({ name: lineName, stations: picked })}>Make the line ({picked.length})</Button>}
-              {mode === 'draw' && (
-                <Button size="sm" variant="primary" disabled={drawn.length < 2} busy={create.isPending}
-                  onClick={() => make({ name: lineName, polyline: drawn, corridorKm: Number(corridor) || 30 })}>Take the stations near it ({drawn.length} points)</Button>
+              {mode === 'pick' && (
+                <Button
+                  size="sm"
+                  variant="primary"
+                  disabled={picked.length < 1}
+                  busy={create.isPending}
+                  onClick={() => make({ name: lineName, stations: picked })}
+                >
+                  Make the line ({picked.length})
+                </Button>
               )}
-              {pasting && <Button size="sm" variant="primary" disabled={!parseStationList(pasted).length} busy={create.isPending} onClick={() => make({ name: lineName, stations: parseStationList(pasted) })}>Make the line</Button>}
-              <Button size="sm" variant="quiet" onClick={reset}>Cancel</Button>
+              {mode === 'draw' && (
+                <Button
+                  size="sm"
+                  variant="primary"
+                  disabled={drawn.length < 2}
+                  busy={create.isPending}
+                  onClick={() => make({ name: lineName, polyline: drawn, corridorKm: Number(corridor) || 30 })}
+                >
+                  Take the stations near it ({drawn.length} points)
+                </Button>
+              )}
+              {pasting && (
+                <Button
+                  size="sm"
+                  variant="primary"
+                  disabled={!parseStationList(pasted).length}
+                  busy={create.isPending}
+                  onClick={() => make({ name: lineName, stations: parseStationList(pasted) })}
+                >
+                  Make the line
+                </Button>
+              )}
+              <Button size="sm" variant="quiet" onClick={reset}>
+                Cancel
+              </Button>
             </>
           )}
           <span className="ml-auto text-xs text-ink-muted">
             {mode === 'pick' && 'Click stations in line order, or drag a lasso round them.'}
-            {mode === 'draw' && 'Click the map to add the points of the line; stations within the distance are taken, in order along it.'}
+            {mode === 'draw' &&
+              'Click the map to add the points of the line; stations within the distance are taken, in order along it.'}
           </span>
         </div>
       )}
       {pasting && (
-        <textarea aria-label="Station list" className="m-3 h-16 rounded border border-ink/40 bg-paper-raised p-2 font-mono text-sm" value={pasted}
-          onChange={(e) => setPasted(e.target.value)} placeholder="Station names in line order, e.g. CP-01, CP-02, CP-05" />
+        <textarea
+          aria-label="Station list"
+          className="m-3 h-16 rounded border border-ink/40 bg-paper-raised p-2 font-mono text-sm"
+          value={pasted}
+          onChange={(e) => setPasted(e.target.value)}
+          placeholder="Station names in line order, e.g. CP-01, CP-02, CP-05"
+        />
       )}
-      {create.isError && <div className="px-3 pt-2"><ErrorNotice error={create.error} title="The line could not be made" /></div>}
-      <LinesMap cruiseName={cruiseName} stations={stations} lines={list} selectedLineId={selectedId} onSelectLine={setSelectedId} mode={mode}
-        picked={picked} drawn={drawn} onDrawPoint={(p) => setDrawn((d) => [...d, p])}
-        onPick={(names, how) => setPicked((cur) => how === 'toggle' && names.length === 1 && cur.includes(names[0])
-          ? cur.filter((n) => n !== names[0]) : [...cur, ...names.filter((n) => !cur.includes(n))])} />
-      {selected && <LineEditor key={selected.id} cruiseId={cruiseId} line={selected} canEdit={canEdit} onDeleted={() => setSelectedId(null)} />}
+      {create.isError && (
+        <div className="px-3 pt-2">
+          <ErrorNotice error={create.error} title="The line could not be made" />
+        </div>
+      )}
+      <LinesMap
+        cruiseName={cruiseName}
+        stations={stations}
+        lines={list}
+        selectedLineId={selectedId}
+        onSelectLine={setSelectedId}
+        mode={mode}
+        picked={picked}
+        drawn={drawn}
+        onDrawPoint={(p) => setDrawn((d) => [...d, p])}
+        onPick={(names, how) =>
+          setPicked((cur) =>
+            how === 'toggle' && names.length === 1 && cur.includes(names[0])
+              ? cur.filter((n) => n !== names[0])
+              : [...cur, ...names.filter((n) => !cur.includes(n))],
+          )
+        }
+      />
+      {selected && (
+        <LineEditor
+          key={selected.id}
+          cruiseId={cruiseId}
+          line={selected}
+          canEdit={canEdit}
+          onDeleted={() => setSelectedId(null)}
+        />
+      )}
     </div>
   );
 }
 
 /** The selected line: its stations in order with the cast of each, off-line and left-out stations. */
-function LineEditor({ cruiseId, line, canEdit, onDeleted }: { cruiseId: string; line: Line; canEdit: boolean; onDeleted: () => void }) {
+function LineEditor({
+  cruiseId,
+  line,
+  canEdit,
+  onDeleted,
+}: {
+  cruiseId: string;
+  line: Line;
+  canEdit: boolean;
+  onDeleted: () => void;
+}) {
   const update = useUpdateLine(cruiseId);
   const del = useDeleteLine(cruiseId);
   const [rename, setRename] = useState(line.name);
@@ -94,28 +238,70 @@ function LineEditor({ cruiseId, line, canEdit, onDeleted }: { cruiseId: string; 
     next.splice(i + d, 0, s);
     patch({ id: line.id, stations: next });
   };
-  const remove = (station: string) => (line.isDefault
-    ? patch({ id: line.id, exclude: [...line.excluded.filter((e) => e.why === 'left out by the analyst').map((e) => e.station), station] })
-    : patch({ id: line.id, stations: names.filter((n) => n !== station) }));
+  const remove = (station: string) =>
+    line.isDefault
+      ? patch({
+          id: line.id,
+          exclude: [...line.excluded.filter((e) => e.why === 'left out by the analyst').map((e) => e.station), station],
+        })
+      : patch({ id: line.id, stations: names.filter((n) => n !== station) });
   const setCast = (station: string, choice: CastChoice | null) => patch({ id: line.id, casts: { [station]: choice } });
   const leftOut = line.excluded.filter((e) => e.why === 'left out by the analyst').map((e) => e.station);
 
   return (
-    <section aria-label={`Line ${line.name}`} className="flex flex-col gap-3 border-t border-paper-rule p-3 text-sm" data-testid="line-editor">
+    <section
+      aria-label={`Line ${line.name}`}
+      className="flex flex-col gap-3 border-t border-paper-rule p-3 text-sm"
+      data-testid="line-editor"
+    >
       <div className="flex flex-wrap items-center gap-2">
         {canEdit ? (
-          <input aria-label="Rename the line" className="h-8 w-56 rounded border border-ink/40 bg-paper-raised px-2 font-semibold" value={rename}
-            onChange={(e) => setRename(e.target.value)} onBlur={() => rename.trim() && rename !== line.name && patch({ id: line.id, name: rename.trim() })} />
-        ) : <h3 className="font-semibold text-ink-strong">{line.name}</h3>}
-        <span className="text-ink-muted">{line.stations.length} stations{line.isDefault ? ' · the default line, kept up to date as casts arrive' : ''}{line.polyline ? ` · drawn, stations within ${line.corridorKm} km` : ''}</span>
-        <Link className="ml-auto text-ink underline" to={`section?line=${encodeURIComponent(line.id)}`} relative="path" data-testid="open-section">Open its section</Link>
-        {canEdit && !line.isDefault && <Button size="sm" variant="danger" busy={del.isPending} onClick={() => del.mutate(line.id, { onSuccess: onDeleted })}>Delete</Button>}
+          <input
+            aria-label="Rename the line"
+            className="h-8 w-56 rounded border border-ink/40 bg-paper-raised px-2 font-semibold"
+            value={rename}
+            onChange={(e) => setRename(e.target.value)}
+            onBlur={() => rename.trim() && rename !== line.name && patch({ id: line.id, name: rename.trim() })}
+          />
+        ) : (
+          <h3 className="font-semibold text-ink-strong">{line.name}</h3>
+        )}
+        <span className="text-ink-muted">
+          {line.stations.length} stations{line.isDefault ? ' · the default line, kept up to date as casts arrive' : ''}
+          {line.polyline ? ` · drawn, stations within ${line.corridorKm} km` : ''}
+        </span>
+        <Link
+          className="ml-auto text-ink underline"
+          to={`section?line=${encodeURIComponent(line.id)}`}
+          relative="path"
+          data-testid="open-section"
+        >
+          Open its section
+        </Link>
+        {canEdit && !line.isDefault && (
+          <Button
+            size="sm"
+            variant="danger"
+            busy={del.isPending}
+            onClick={() => del.mutate(line.id, { onSuccess: onDeleted })}
+          >
+            Delete
+          </Button>
+        )}
       </div>
-      {(update.isError || del.isError) && <ErrorNotice error={update.error ?? del.error} title="The line could not be changed" />}
+      {(update.isError || del.isError) && (
+        <ErrorNotice error={update.error ?? del.error} title="The line could not be changed" />
+      )}
       <div className="max-h-72 overflow-auto">
         <table className="w-full text-left">
           <thead className="text-xs uppercase tracking-[0.08em] text-ink-muted">
-            <tr><th className="px-1">#</th><th className="px-1">Station</th><th className="px-1">Cast</th><th className="px-1 text-right">km</th><th className="px-1" /></tr>
+            <tr>
+              <th className="px-1">#</th>
+              <th className="px-1">Station</th>
+              <th className="px-1">Cast</th>
+              <th className="px-1 text-right">km</th>
+              <th className="px-1" />
+            </tr>
           </thead>
           <tbody>
             {line.stations.map((s, i) => (
@@ -125,16 +311,45 @@ function LineEditor({ cruiseId, line, canEdit, onDeleted }: { cruiseId: string; 
                 <td className="px-1">
                   {canEdit && s.candidates.length > 1 ? (
                     <CastSelect station={s} onChoose={(c) => setCast(s.station, c)} />
-                  ) : <span className="font-mono">{s.cast}</span>}
+                  ) : (
+                    <span className="font-mono">{s.cast}</span>
+                  )}
                   {s.note && <span className="ml-2 text-xs text-ink-muted">{s.note}</span>}
                 </td>
                 <td className="px-1 text-right font-mono tabular-nums">{s.x.toFixed(1)}</td>
                 <td className="whitespace-nowrap px-1 text-right">
-                  {canEdit && !line.isDefault && <>
-                    <Button size="sm" variant="quiet" aria-label={`Move ${s.station} up`} disabled={i === 0} onClick={() => move(i, -1)}>↑</Button>
-                    <Button size="sm" variant="quiet" aria-label={`Move ${s.station} down`} disabled={i === names.length - 1} onClick={() => move(i, 1)}>↓</Button>
-                  </>}
-                  {canEdit && <Button size="sm" variant="quiet" aria-label={`Leave ${s.station} out`} onClick={() => remove(s.station)}>✕</Button>}
+                  {canEdit && !line.isDefault && (
+                    <>
+                      <Button
+                        size="sm"
+                        variant="quiet"
+                        aria-label={`Move ${s.station} up`}
+                        disabled={i === 0}
+                        onClick={() => move(i, -1)}
+                      >
+                        ↑
+                      </Button>
+                      <Button
+                        size="sm"
+                        variant="quiet"
+                        aria-label={`Move ${s.station} down`}
+                        disabled={i === names.length - 1}
+                        onClick={() => move(i, 1)}
+                      >
+                        ↓
+                      </Button>
+                    </>
+                  )}
+                  {canEdit && (
+                    <Button
+                      size="sm"
+                      variant="quiet"
+                      aria-label={`Leave ${s.station} out`}
+                      onClick={() => remove(s.station)}
+                    >
+                      ✕
+                    </Button>
+                  )}
                 </td>
               </tr>
             ))}
@@ -147,7 +362,15 @@ function LineEditor({ cruiseId, line, canEdit, onDeleted }: { cruiseId: string; 
           {line.offLine.map((o) => (
             <span key={o.station} className="inline-flex items-center gap-1 font-mono">
               {o.station} <span className="text-xs text-ink-muted">({o.offKm.toFixed(0)} km off)</span>
-              {canEdit && <Button size="sm" variant="secondary" onClick={() => patch({ id: line.id, include: [...new Set([...line.include, o.station])] })}>Take back in</Button>}
+              {canEdit && (
+                <Button
+                  size="sm"
+                  variant="secondary"
+                  onClick={() => patch({ id: line.id, include: [...new Set([...line.include, o.station])] })}
+                >
+                  Take back in
+                </Button>
+              )}
             </span>
           ))}
         </p>
@@ -155,19 +378,37 @@ function LineEditor({ cruiseId, line, canEdit, onDeleted }: { cruiseId: string; 
       {leftOut.length > 0 && canEdit && (
         <p className="flex flex-wrap items-center gap-2">
           <span className="font-semibold text-ink-soft">Left out:</span>
-          {leftOut.map((n) => <Button key={n} size="sm" variant="secondary" onClick={() => patch({ id: line.id, exclude: leftOut.filter((x) => x !== n) })}>Put {n} back</Button>)}
+          {leftOut.map((n) => (
+            <Button
+              key={n}
+              size="sm"
+              variant="secondary"
+              onClick={() => patch({ id: line.id, exclude: leftOut.filter((x) => x !== n) })}
+            >
+              Put {n} back
+            </Button>
+          ))}
         </p>
       )}
     </section>
   );
 }
 
-function CastSelect({ station, onChoose }: { station: Line['stations'][number]; onChoose: (c: CastChoice | null) => void }) {
+function CastSelect({
+  station,
+  onChoose,
+}: {
+  station: Line['stations'][number];
+  onChoose: (c: CastChoice | null) => void;
+}) {
   const deepest = station.candidates[0];
   const shallow = station.candidates.slice(1);
   const value = station.choice === 'composite' ? 'composite' : station.choice === 'deepest' ? '' : station.castId;
   return (
-    <select aria-label={`Cast at ${station.station}`} className="h-7 rounded border border-ink/40 bg-paper-raised px-1 font-mono text-sm" value={value}
+    <select
+      aria-label={`Cast at ${station.station}`}
+      className="h-7 rounded border border-ink/40 bg-paper-raised px-1 font-mono text-sm"
+      value={value}
       onChange={(e) => {
         const v = e.target.value;
         if (v === '') onChoose(null);
@@ -176,10 +417,21 @@ function CastSelect({ station, onChoose }: { station: Line['stations'][number]; 
           const join = Math.round(Math.min(top.deepest - 10, deepest.deepest / 2) / 10) * 10;
           onChoose({ shallow: top.castId, deep: deepest.castId, joinPressure: Math.max(10, join) });
         } else onChoose(v);
-      }}>
-      <option value="">deepest (cast {deepest.cast}, {deepest.deepest.toFixed(0)} dbar)</option>
-      {station.candidates.map((c) => <option key={c.castId} value={c.castId}>cast {c.cast} · {c.deepest.toFixed(0)} dbar</option>)}
-      {shallow.length > 0 && <option value="composite">composite: cast {shallow[0].cast} above cast {deepest.cast}</option>}
+      }}
+    >
+      <option value="">
+        deepest (cast {deepest.cast}, {deepest.deepest.toFixed(0)} dbar)
+      </option>
+      {station.candidates.map((c) => (
+        <option key={c.castId} value={c.castId}>
+          cast {c.cast} · {c.deepest.toFixed(0)} dbar
+        </option>
+      ))}
+      {shallow.length > 0 && (
+        <option value="composite">
+          composite: cast {shallow[0].cast} above cast {deepest.cast}
+        </option>
+      )}
     </select>
   );
 }

@@ -1,7 +1,15 @@
 import { useState } from 'react';
 import { Button } from '../../../components/Button';
 import type { FigureText } from '../export/compose';
-import { DEFAULT_EXPORT_SIZE, EXPORT_FORMATS, figureBytes, saveBlob, type ExportFormat, type ExportSize, type ExportSource } from '../export/exportFigure';
+import {
+  DEFAULT_EXPORT_SIZE,
+  EXPORT_FORMATS,
+  figureBytes,
+  saveBlob,
+  type ExportFormat,
+  type ExportSize,
+  type ExportSource,
+} from '../export/exportFigure';
 
 export interface ExportMenuProps {
   /** What is exported, in words ("the frame by pressure", "the section view"). */
@@ -62,23 +70,43 @@ export function ExportMenu({ what, sources, text, fileName }: ExportMenuProps) {
 
   return (
     <details className="relative print:hidden" data-export-menu>
-      <summary className="cursor-pointer list-none rounded border border-paper-rule px-2 py-0.5 text-xs text-ink hover:bg-ink-wash" aria-label={`Export ${what}`}>
+      <summary
+        className="cursor-pointer list-none rounded border border-paper-rule px-2 py-0.5 text-xs text-ink hover:bg-ink-wash"
+        aria-label={`Export ${what}`}
+      >
         Export…
       </summary>
-      <div className="absolute right-0 z-30 mt-1 flex w-72 flex-col gap-2 border border-ink/30 bg-paper-raised p-3 text-xs shadow-md" role="group" aria-label={`Export ${what}`}>
-        <p className="text-ink-strong">Export {what} with its title, caption and provenance. The file is made here in the browser.</p>
+      <div
+        className="absolute right-0 z-30 mt-1 flex w-72 flex-col gap-2 border border-ink/30 bg-paper-raised p-3 text-xs shadow-md"
+        role="group"
+        aria-label={`Export ${what}`}
+      >
+        <p className="text-ink-strong">
+          Export {what} with its title, caption and provenance. The file is made here in the browser.
+        </p>
         {field('width', 'Width', 'px')}
         {field('height', 'Height', 'px per plot')}
         {field('dpi', 'DPI', 'PNG, PDF')}
         <div className="flex gap-1.5">
           {EXPORT_FORMATS.map((f) => (
-            <Button key={f} size="sm" busy={busy === f} disabled={busy !== null} onClick={() => void run(f)} aria-label={`Save ${what} as ${f.toUpperCase()}`}>
+            <Button
+              key={f}
+              size="sm"
+              busy={busy === f}
+              disabled={busy !== null}
+              onClick={() => void run(f)}
+              aria-label={`Save ${what} as ${f.toUpperCase()}`}
+            >
               {f.toUpperCase()}
             </Button>
           ))}
         </div>
         <p className="font-mono text-2xs text-ink-muted break-all">{fileName}.…</p>
-        {problem && <p role="alert" className="text-warn-strong">{problem}</p>}
+        {problem && (
+          <p role="alert" className="text-warn-strong">
+            {problem}
+          </p>
+        )}
       </div>
     </details>
   );

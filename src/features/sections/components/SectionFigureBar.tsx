@@ -34,7 +34,11 @@ export function FrameExportMenu({ what, text, fileName, caption, frame }: FrameE
   );
 }
 
-const FRAME_WORDS: Record<FrameChoice, string> = { both: 'Both frames', pressure: 'By pressure', density: 'By density' };
+const FRAME_WORDS: Record<FrameChoice, string> = {
+  both: 'Both frames',
+  pressure: 'By pressure',
+  density: 'By density',
+};
 
 /**
  * Above the frames: which frames to show (both, or one at a time), copy a link to this view,
@@ -61,7 +65,11 @@ export function SectionFigureBar({
   };
   return (
     <div className="flex flex-wrap items-center gap-2 print:hidden" role="toolbar" aria-label="Section figure">
-      <div role="radiogroup" aria-label="Frames shown" className="flex overflow-hidden rounded border border-paper-rule text-sm">
+      <div
+        role="radiogroup"
+        aria-label="Frames shown"
+        className="flex overflow-hidden rounded border border-paper-rule text-sm"
+      >
         {FRAME_CHOICES.map((f) => (
           <button
             key={f}
@@ -79,7 +87,9 @@ export function SectionFigureBar({
       <Button size="sm" variant="quiet" onClick={() => void copy()} aria-label="Copy a link to this view">
         {copied === 'yes' ? 'Link copied' : copied === 'failed' ? 'Copy failed: use the address bar' : 'Copy link'}
       </Button>
-      <Button size="sm" variant="quiet" onClick={() => window.print()}>Print</Button>
+      <Button size="sm" variant="quiet" onClick={() => window.print()}>
+        Print
+      </Button>
       <ExportMenu
         what="the section view"
         text={exportProps.text}
@@ -98,7 +108,11 @@ export function SectionFigureBar({
 }
 
 /** The provenance line of a figure: cruise, line, software version, date (UTC). */
-export function provenanceLine(cruise: { name: string; ship?: string | null }, lineName: string | null, now = new Date()): string {
+export function provenanceLine(
+  cruise: { name: string; ship?: string | null },
+  lineName: string | null,
+  now = new Date(),
+): string {
   const line = lineName ? `line ${lineName}` : 'default line (deepest cast per station, in plan order)';
   return `Cruise ${cruise.name}${cruise.ship ? ` (${cruise.ship})` : ''} · ${line} · ${SOFTWARE} · drawn ${now.toISOString().slice(0, 16).replace('T', ' ')} UTC · provisional research data, not for navigation`;
 }

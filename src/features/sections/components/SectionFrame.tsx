@@ -31,7 +31,13 @@ export interface FrameLook {
   extensions: { below: number; above: number };
 }
 
-export const PLAIN_LOOK: FrameLook = { palette: BRINE, contourStep: null, yScale: null, xScale: null, extensions: { below: 0, above: 0 } };
+export const PLAIN_LOOK: FrameLook = {
+  palette: BRINE,
+  contourStep: null,
+  yScale: null,
+  xScale: null,
+  extensions: { below: 0, above: 0 },
+};
 
 /** The bottom is drawn in a dark neutral, so it reads as "no water" and never as a value. */
 export const BOTTOM_FILL = '#3d3b36';
@@ -63,7 +69,8 @@ export interface SectionFrameProps {
 
 /** One config for every frame: react-plotly redraws whenever the config object changes. */
 const FRAME_CONFIG = plotConfig();
-const configFor = (fileName: string | undefined) => (fileName ? plotConfig({ toImageButtonOptions: { format: 'png', scale: 2, filename: fileName } }) : FRAME_CONFIG);
+const configFor = (fileName: string | undefined) =>
+  fileName ? plotConfig({ toImageButtonOptions: { format: 'png', scale: 2, filename: fileName } }) : FRAME_CONFIG;
 
 /** Stretches of consecutive bottom points whose bottom is known (land is drawn only there). */
 export function knownBottomRuns<T extends { known: boolean }>(b: T[]): T[][] {
@@ -71,20 +78,44 @@ export function knownBottomRuns<T extends { known: boolean }>(b: T[]): T[][] {
   let cur: T[] = [];
   for (const q of b) {
     if (q.known) cur.push(q);
-    else if (cur.length) { runs.push(cur); cur = []; }
+    else if (cur.length) {
+      runs.push(cur);
+      cur = [];
+    }
   }
   if (cur.length) runs.push(cur);
   return runs;
 }
 
 /** One frame of the section: the field, isopycnals (pressure frame), the bottom, stations and inversion marks. */
-export function SectionFrame({ section, coord, valueTitle, range, cursorStationId, height, caption, onHover, onPickStation, onPickInversion, onDrawn, look = PLAIN_LOOK, fileName }: SectionFrameProps) {
+export function SectionFrame({
+  section,
+  coord,
+  valueTitle,
+  range,
+  cursorStationId,
+  height,
+  caption,
+  onHover,
+  onPickStation,
+  onPickInversion,
+  onDrawn,
+  look = PLAIN_LOOK,
+  fileName,
+}: SectionFrameProps) {
   // The traces depend on the data, the colour range and the look; the station cursor changes the
   // layout (a dotted line, a bold tick label), which Plotly redraws without recomputing the field.
-  const data = useMemo(() => buildTraces(section, coord, valueTitle, range, look), [section, coord, valueTitle, range, look]);
-  const layout = useMemo(() => buildLayout(section, coord, cursorStationId, look), [section, coord, cursorStationId, look]);
+  const data = useMemo(
+    () => buildTraces(section, coord, valueTitle, range, look),
+    [section, coord, valueTitle, range, look],
+  );
+  const layout = useMemo(
+    () => buildLayout(section, coord, cursorStationId, look),
+    [section, coord, cursorStationId, look],
+  );
   const config = useMemo(() => configFor(fileName), [fileName]);
-  const title = coord === 'pressure' ? 'Section by pressure' : `Section by density (${sigmaLabel(section.choices.ref)})`;
+  const title =
+    coord === 'pressure' ? 'Section by pressure' : `Section by density (${sigmaLabel(section.choices.ref)})`;
 
   // react-plotly binds event handlers only when it redraws; stable handlers that read the newest
   // props keep a click from acting on the props of an older render.
@@ -142,7 +173,10 @@ export function buildFigure(
   cursorStationId: string | null,
   look: FrameLook = PLAIN_LOOK,
 ): { data: Data[]; layout: Partial<Layout> } {
-  return { data: buildTraces(section, coord, valueTitle, range, look), layout: buildLayout(section, coord, cursorStationId, look) };
+  return {
+    data: buildTraces(section, coord, valueTitle, range, look),
+    layout: buildLayout(section, coord, cursorStationId, look),
+  };
 }
 
 /**
@@ -190,17 +224,35 @@ export function buildTraces(
     hoverinfo: 'none',
     // Placed in the fixed right margin (see FRAME_MARGIN), so it pushes no margin and costs no redraw.
     // Its ends are fixed (y 0.1–0.9, no padding) so the extension marks can sit on them.
-    colorbar: { ...colorBar(valueTitle), x: 1, xanchor: 'left', xpad: 10, y: 0.5, yanchor: 'middle', len: 0.8, ypad: 0 } as Data['colorbar' & keyof Data],
+    colorbar: {
+      ...colorBar(valueTitle),
+      x: 1,
+      xanchor: 'left',
+      xpad: 10,
+      y: 0.5,
+      yanchor: 'middle',
+      len: 0.8,
+      ypad: 0,
+    } as Data['colorbar' & keyof Data],
     hoverongaps: true,
   } as Data);
 
   // The property's own contours, labelled along the lines by the library.
   const step = look.contourStep;
   if (step && step > 0) {
-    let lo = Infinity, hi = -Infinity;
-    for (const row of grid.z) for (const v of row) if (v !== null && Number.isFinite(v)) { if (v < lo) lo = v; if (v > hi) hi = v; }
+    let lo = Infinity,
+      hi = -Infinity;
+    for (const row of grid.z)
+      for (const v of row)
+        if (v !== null && Number.isFinite(v)) {
+          if (v < lo) lo = v;
+          if (v > hi) hi = v;
+        }
     if (Number.isFinite(lo) && (hi - lo) / step <= 200) {
-      const digits = Math.max(0, Math.min(4, -Math.floor(Math.log10(step) + 1e-9) + (String(step).includes('5') && step < 1 ? 1 : 0)));
+      const digits = Math.max(
+        0,
+        Math.min(4, -Math.floor(Math.log10(step) + 1e-9) + (String(step).includes('5') && step < 1 ? 1 : 0)),
+      );
       data.push({
         type: 'contour',
         name: 'contours',
@@ -208,8 +260,13 @@ export function buildTraces(
         y: gridY,
         z: grid.z as number[][],
         contours: {
-          coloring: 'none', showlabels: true, start: Math.ceil(lo / step) * step, end: Math.floor(hi / step) * step, size: step,
-          labelfont: { family: '"JetBrains Mono", monospace', size: 9, color: PLOT_COLORS.inkStrong }, labelformat: `.${digits}f`,
+          coloring: 'none',
+          showlabels: true,
+          start: Math.ceil(lo / step) * step,
+          end: Math.floor(hi / step) * step,
+          size: step,
+          labelfont: { family: '"JetBrains Mono", monospace', size: 9, color: PLOT_COLORS.inkStrong },
+          labelformat: `.${digits}f`,
         },
         line: { color: PLOT_COLORS.inkStrong, width: 0.6, dash: 'dot', smoothing: 0.6 },
         connectgaps: false,
@@ -223,10 +280,17 @@ export function buildTraces(
     // Isopycnals as the server traced them (σ level → pressure at each station): lines, not a
     // contour pass over the grid, and all of them one trace, broken by nulls — a trace each cost
     // Plotly a calc, a layer and a draw apiece, ~40 times.
-    const xs: (number | null)[] = [], ys: (number | null)[] = [];
+    const xs: (number | null)[] = [],
+      ys: (number | null)[] = [];
     for (const line of section.isopycnals) {
-      if (xs.length) { xs.push(null); ys.push(null); }
-      stations.forEach((s, i) => { xs.push(s.x); ys.push(Yn(line.p[i] ?? null)); });
+      if (xs.length) {
+        xs.push(null);
+        ys.push(null);
+      }
+      stations.forEach((s, i) => {
+        xs.push(s.x);
+        ys.push(Yn(line.p[i] ?? null));
+      });
     }
     if (xs.length) {
       data.push({
@@ -246,7 +310,13 @@ export function buildTraces(
       // Land only where a bottom is known: one filled run per stretch of stations with a known bottom.
       const span = b.length > 1 ? b[b.length - 1].x - b[0].x : 1;
       for (const run of knownBottomRuns(b)) {
-        const pts = run.length > 1 ? run : [{ ...run[0], x: run[0].x - span * 0.004 }, { ...run[0], x: run[0].x + span * 0.004 }];
+        const pts =
+          run.length > 1
+            ? run
+            : [
+                { ...run[0], x: run[0].x - span * 0.004 },
+                { ...run[0], x: run[0].x + span * 0.004 },
+              ];
         data.push({
           type: 'scatter',
           mode: 'lines',
@@ -277,13 +347,22 @@ export function buildTraces(
 
   // Inversion warnings: a warm bar over the inverted interval at the cast, a marker on top.
   const marks = section.inversions
-    .map((v) => ({ v, top: coord === 'pressure' ? v.pTop : v.sigmaTop, bottom: coord === 'pressure' ? v.pBottom : v.sigmaBottom }))
+    .map((v) => ({
+      v,
+      top: coord === 'pressure' ? v.pTop : v.sigmaTop,
+      bottom: coord === 'pressure' ? v.pBottom : v.sigmaBottom,
+    }))
     .filter((m) => m.top !== null && m.bottom !== null);
   if (marks.length) {
-    const xs: (number | null)[] = [], ys: (number | null)[] = [], ids: (string | null)[] = [];
+    const xs: (number | null)[] = [],
+      ys: (number | null)[] = [],
+      ids: (string | null)[] = [];
     for (const m of marks) {
       // Spikes are a few decibars: give the bar a visible length without moving its top.
-      const bottom = Math.max(m.bottom as number, (m.top as number) + (coord === 'pressure' ? (yMax - yMin) * 0.012 : 0.004));
+      const bottom = Math.max(
+        m.bottom as number,
+        (m.top as number) + (coord === 'pressure' ? (yMax - yMin) * 0.012 : 0.004),
+      );
       xs.push(m.v.x, m.v.x, null);
       ys.push(coord === 'pressure' ? Y(m.top as number) : m.top, coord === 'pressure' ? Y(bottom) : bottom, null);
       ids.push(m.v.castId, m.v.castId, null);
@@ -304,7 +383,12 @@ export function buildTraces(
       x: marks.map((m) => m.v.x),
       y: marks.map((m) => (coord === 'pressure' ? Y(m.top as number) : (m.top as number))),
       customdata: marks.map((m) => m.v.castId) as unknown as Data['customdata' & keyof Data],
-      marker: { symbol: 'triangle-down', size: 10, color: PLOT_COLORS.warn, line: { color: PLOT_COLORS.paper, width: 1 } },
+      marker: {
+        symbol: 'triangle-down',
+        size: 10,
+        color: PLOT_COLORS.warn,
+        line: { color: PLOT_COLORS.paper, width: 1 },
+      },
       hovertemplate: marks.map(
         (m) =>
           `Inversion at ${m.v.station}<br>${m.v.pTop.toFixed(0)}–${m.v.pBottom.toFixed(0)} dbar, ${m.v.class}<br>Δσ ${m.v.deficit.toFixed(3)} kg/m³<extra>click to open the cast</extra>`,
@@ -326,7 +410,12 @@ export function buildTraces(
   return data;
 }
 
-export function buildLayout(section: Section, coord: 'pressure' | 'density', cursorStationId: string | null, look: FrameLook = PLAIN_LOOK): Partial<Layout> {
+export function buildLayout(
+  section: Section,
+  coord: 'pressure' | 'density',
+  cursorStationId: string | null,
+  look: FrameLook = PLAIN_LOOK,
+): Partial<Layout> {
   const { grid, stations } = section;
   const yMax = frameYMax(section);
   const yMin = grid.y[0] ?? 0;
@@ -348,12 +437,25 @@ export function buildLayout(section: Section, coord: 'pressure' | 'density', cur
   }
   // The density frame spans the σ levels that have water somewhere, not the whole target list.
   const wet = grid.z.map((row) => row.some((v) => v !== null));
-  const firstWet = wet.indexOf(true), lastWet = wet.lastIndexOf(true);
-  const sigmaSpan = firstWet >= 0 ? [grid.y[Math.max(0, firstWet - 1)], grid.y[Math.min(grid.y.length - 1, lastWet + 1)]] : null;
+  const firstWet = wet.indexOf(true),
+    lastWet = wet.lastIndexOf(true);
+  const sigmaSpan =
+    firstWet >= 0 ? [grid.y[Math.max(0, firstWet - 1)], grid.y[Math.min(grid.y.length - 1, lastWet + 1)]] : null;
   const yTicks = ys?.ticks ? { tickmode: 'array' as const, tickvals: ys.ticks.vals, ticktext: ys.ticks.text } : {};
-  const yAxis = coord === 'pressure'
-    ? valueAxis(ys?.title ?? 'Pressure (dbar)', { autorange: false, range: [Y(yMax * 1.02), Y(yMin)], automargin: false, ...yTicks })
-    : densityAxis(section.choices.ref, sigmaSpan ? { autorange: false, range: [sigmaSpan[1], sigmaSpan[0]], automargin: false } : { autorange: 'reversed', automargin: false });
+  const yAxis =
+    coord === 'pressure'
+      ? valueAxis(ys?.title ?? 'Pressure (dbar)', {
+          autorange: false,
+          range: [Y(yMax * 1.02), Y(yMin)],
+          automargin: false,
+          ...yTicks,
+        })
+      : densityAxis(
+          section.choices.ref,
+          sigmaSpan
+            ? { autorange: false, range: [sigmaSpan[1], sigmaSpan[0]], automargin: false }
+            : { autorange: 'reversed', automargin: false },
+        );
   const xs = look.xScale ?? makeXScale('distance', stations);
   const xTicks = xs.ticks ? { tickmode: 'array' as const, tickvals: xs.ticks.vals, ticktext: xs.ticks.text } : {};
   shapes.push(...extensionMarks(look));
@@ -385,12 +487,22 @@ export function buildLayout(section: Section, coord: 'pressure' | 'density', cur
 /** Isopycnal labels placed along their lines (see placeLineLabels), on a paper-coloured chip. */
 function isopycnalLabels(section: Section, Y: (p: number) => number, ySpan: [number, number]): Partial<Annotations>[] {
   const xs = section.stations.map((s) => s.x);
-  const lines = section.isopycnals.map((l) => ({ xs, ys: l.p.map((p) => (p === null ? null : Y(p))), text: l.sigma.toFixed(2) }));
+  const lines = section.isopycnals.map((l) => ({
+    xs,
+    ys: l.p.map((p) => (p === null ? null : Y(p))),
+    text: l.sigma.toFixed(2),
+  }));
   const xSpan: [number, number] = [section.grid.x[0] ?? 0, section.grid.x[section.grid.x.length - 1] ?? 1];
   return placeLineLabels(lines, xSpan, ySpan).map((l) => ({
-    x: l.x, y: l.y, text: l.text, showarrow: false, xref: 'x', yref: 'y',
+    x: l.x,
+    y: l.y,
+    text: l.text,
+    showarrow: false,
+    xref: 'x',
+    yref: 'y',
     font: { family: '"JetBrains Mono", monospace', size: 9, color: PLOT_COLORS.inkStrong },
-    bgcolor: 'rgba(252, 250, 245, 0.8)', borderpad: 1,
+    bgcolor: 'rgba(252, 250, 245, 0.8)',
+    borderpad: 1,
   }));
 }
 
@@ -402,11 +514,20 @@ function isopycnalLabels(section: Section, Y: (p: number) => number, ySpan: [num
 function extensionMarks(look: FrameLook): Partial<Shape>[] {
   const out: Partial<Shape>[] = [];
   const end = (t: 0 | 1) => look.palette[t === 0 ? 0 : look.palette.length - 1][1];
-  const tri = (y: number, up: boolean, colour: string): Partial<Shape> => ({
-    type: 'path', xref: 'paper', yref: 'paper', xsizemode: 'pixel', ysizemode: 'pixel', xanchor: 1, yanchor: y,
-    path: up ? 'M 10 1 L 22 1 L 16 13 Z' : 'M 10 -1 L 22 -1 L 16 -13 Z',
-    fillcolor: colour, line: { color: PLOT_COLORS.inkSoft, width: 0.6 }, name: up ? 'extension above' : 'extension below',
-  } as Partial<Shape>);
+  const tri = (y: number, up: boolean, colour: string): Partial<Shape> =>
+    ({
+      type: 'path',
+      xref: 'paper',
+      yref: 'paper',
+      xsizemode: 'pixel',
+      ysizemode: 'pixel',
+      xanchor: 1,
+      yanchor: y,
+      path: up ? 'M 10 1 L 22 1 L 16 13 Z' : 'M 10 -1 L 22 -1 L 16 -13 Z',
+      fillcolor: colour,
+      line: { color: PLOT_COLORS.inkSoft, width: 0.6 },
+      name: up ? 'extension above' : 'extension below',
+    }) as Partial<Shape>;
   if (look.extensions.above > 0) out.push(tri(0.9, true, end(1)));
   if (look.extensions.below > 0) out.push(tri(0.1, false, end(0)));
   return out;

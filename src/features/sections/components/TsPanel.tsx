@@ -1,6 +1,17 @@
 import { useMemo } from 'react';
 import type { Data, PlotMouseEvent } from 'plotly.js';
-import { DEPTHS, LazyPlot, PLOT_COLORS, baseLayout, colorAt, colorBar, plotConfig, sigmaLabel, toPlotly, valueAxis } from '../../../components/plot';
+import {
+  DEPTHS,
+  LazyPlot,
+  PLOT_COLORS,
+  baseLayout,
+  colorAt,
+  colorBar,
+  plotConfig,
+  sigmaLabel,
+  toPlotly,
+  valueAxis,
+} from '../../../components/plot';
 import { ErrorNotice, Progress } from '../../../components/Notice';
 import { Panel } from '../../../components/Panel';
 import { useTsPoints } from '../api';
@@ -20,12 +31,24 @@ export interface TsPanelProps {
 }
 
 /** CT against SA for every cast, over σ contours at the view's reference pressure computed here. */
-export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onColourBy, onSelectCast, height = 420, line = null }: TsPanelProps) {
+export function TsPanel({
+  cruiseId,
+  refPressure,
+  colourBy,
+  selectedCastId,
+  onColourBy,
+  onSelectCast,
+  height = 420,
+  line = null,
+}: TsPanelProps) {
   // SVG points, not WebGL (a headless or GPU-less browser has no WebGL, and SVG exports as a
   // vector figure): every 16th level keeps it quick.
   const every = 16;
   const ts = useTsPoints(cruiseId, every, line);
-  const figure = useMemo(() => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, 'scatter') : null), [ts.data, refPressure, colourBy, selectedCastId]);
+  const figure = useMemo(
+    () => (ts.data ? buildTsFigure(ts.data, refPressure, colourBy, selectedCastId, 'scatter') : null),
+    [ts.data, refPressure, colourBy, selectedCastId],
+  );
 
   return (
     <Panel
@@ -37,7 +60,13 @@ export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onCol
           <span aria-hidden>Colour by</span>
           {(['pressure', 'station'] as const).map((by) => (
             <label key={by} className="flex items-center gap-1">
-              <input type="radio" name="ts-colour" value={by} checked={colourBy === by} onChange={() => onColourBy(by)} />
+              <input
+                type="radio"
+                name="ts-colour"
+                value={by}
+                checked={colourBy === by}
+                onChange={() => onColourBy(by)}
+              />
               {by}
             </label>
           ))}
@@ -45,7 +74,11 @@ export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onCol
       }
     >
       {ts.isPending && <Progress label="Loading the T–S points…" />}
-      {ts.isError && <div className="p-3"><ErrorNotice error={ts.error} title="The T–S points could not be loaded" /></div>}
+      {ts.isError && (
+        <div className="p-3">
+          <ErrorNotice error={ts.error} title="The T–S points could not be loaded" />
+        </div>
+      )}
       {figure && (
         <LazyPlot
           label={`T–S diagram with ${sigmaLabel(refPressure)} contours`}
@@ -59,7 +92,8 @@ export function TsPanel({ cruiseId, refPressure, colourBy, selectedCastId, onCol
           }}
           caption={
             <>
-              Every {every}th level of every cast. Contours: {sigmaLabel(refPressure)} (kg/m³) at {refPressure} dbar from the 75-term TEOS-10 density, computed in the browser.
+              Every {every}th level of every cast. Contours: {sigmaLabel(refPressure)} (kg/m³) at {refPressure} dbar
+              from the 75-term TEOS-10 density, computed in the browser.
               {selectedCastId && ' The selected station is drawn dark; click a point to select its station.'}
             </>
           }
@@ -89,14 +123,24 @@ export function buildTsFigure(
       x: grid.SA,
       y: grid.CT,
       z: grid.sigma as number[][],
-      contours: step ? { coloring: 'none', showlabels: true, start: step.start, end: step.end, size: step.size, labelfont: { family: '"JetBrains Mono", monospace', size: 9.5, color: PLOT_COLORS.inkMuted } } : { coloring: 'none', showlabels: true },
+      contours: step
+        ? {
+            coloring: 'none',
+            showlabels: true,
+            start: step.start,
+            end: step.end,
+            size: step.size,
+            labelfont: { family: '"JetBrains Mono", monospace', size: 9.5, color: PLOT_COLORS.inkMuted },
+          }
+        : { coloring: 'none', showlabels: true },
       line: { color: PLOT_COLORS.inkFaint, width: 0.8 },
       hoverinfo: 'skip',
       showscale: false,
     } as Data);
   }
   const xs = casts.map((c) => c.x);
-  const xMin = Math.min(...xs), xMax = Math.max(...xs);
+  const xMin = Math.min(...xs),
+    xMax = Math.max(...xs);
   let pMax = 0;
   for (const c of casts) for (const p of c.p) if (p !== null && p > pMax) pMax = p;
   const anySelected = casts.some((c) => c.castId === selectedCastId);
@@ -119,7 +163,15 @@ export function buildTsFigure(
         size: selected ? 5 : 4,
         opacity: faded ? 0.35 : 0.9,
         color: selected ? PLOT_COLORS.inkStrong : colourBy === 'pressure' ? (c.p as number[]) : stationColour,
-        ...(colourBy === 'pressure' && !selected ? { colorscale: toPlotly(DEPTHS), cmin: -0.12 * (pMax || 1), cmax: pMax || 1, showscale: c === scaleHolder, colorbar: colorBar('Pressure (dbar)') } : {}),
+        ...(colourBy === 'pressure' && !selected
+          ? {
+              colorscale: toPlotly(DEPTHS),
+              cmin: -0.12 * (pMax || 1),
+              cmax: pMax || 1,
+              showscale: c === scaleHolder,
+              colorbar: colorBar('Pressure (dbar)'),
+            }
+          : {}),
         line: selected ? { color: PLOT_COLORS.paper, width: 0.5 } : { width: 0 },
       },
     } as Data;

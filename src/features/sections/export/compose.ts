@@ -33,8 +33,10 @@ export function wrap(text: string, chars: number): string[] {
   const lines: string[] = [];
   let line = '';
   for (const word of text.split(/\s+/).filter(Boolean)) {
-    if (line && line.length + 1 + word.length > chars) { lines.push(line); line = word; }
-    else line = line ? `${line} ${word}` : word;
+    if (line && line.length + 1 + word.length > chars) {
+      lines.push(line);
+      line = word;
+    } else line = line ? `${line} ${word}` : word;
   }
   if (line) lines.push(line);
   return lines;
@@ -60,20 +62,28 @@ export function figureLayout(panels: readonly { width: number; height: number; c
 export function composeSvg(panels: readonly FigurePanel[], text: FigureText): string {
   const { width, height, placed, provenanceY } = figureLayout(panels);
   const parts: string[] = [];
-  parts.push(`<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">`);
+  parts.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">`,
+  );
   parts.push(`<title>${escapeXml(text.title)}</title>`);
   parts.push(`<rect width="100%" height="100%" fill="${PAPER}"/>`);
-  parts.push(`<text x="12" y="23" font-family="${FIGURE_FONT}" font-size="16" font-weight="600" fill="${INK}">${escapeXml(text.title)}</text>`);
+  parts.push(
+    `<text x="12" y="23" font-family="${FIGURE_FONT}" font-size="16" font-weight="600" fill="${INK}">${escapeXml(text.title)}</text>`,
+  );
   panels.forEach((p, i) => {
     const at = placed[i];
     // The plot's own SVG, nested at its place (its root <svg> keeps its own coordinate system).
     const inner = p.svg.replace(/^<\?xml[^>]*>\s*/, '').replace(/^<svg\b/, `<svg x="0" y="${at.top}"`);
     parts.push(inner);
     at.lines.forEach((line, k) => {
-      parts.push(`<text x="12" y="${at.captionTop + 11 + k * LINE_H}" font-family="${FIGURE_FONT}" font-size="11.5" fill="${INK_SOFT}" class="caption">${escapeXml(line)}</text>`);
+      parts.push(
+        `<text x="12" y="${at.captionTop + 11 + k * LINE_H}" font-family="${FIGURE_FONT}" font-size="11.5" fill="${INK_SOFT}" class="caption">${escapeXml(line)}</text>`,
+      );
     });
   });
-  parts.push(`<text x="12" y="${provenanceY}" font-family="${FIGURE_FONT}" font-size="10" fill="${INK_SOFT}" class="provenance">${escapeXml(text.provenance)}</text>`);
+  parts.push(
+    `<text x="12" y="${provenanceY}" font-family="${FIGURE_FONT}" font-size="10" fill="${INK_SOFT}" class="provenance">${escapeXml(text.provenance)}</text>`,
+  );
   parts.push('</svg>');
   return parts.join('\n');
 }
@@ -82,7 +92,14 @@ export function composeSvg(panels: readonly FigurePanel[], text: FigureText): st
 export function fileNameFor(...parts: (string | null | undefined)[]): string {
   return parts
     .filter((p): p is string => !!p && p.trim() !== '')
-    .map((p) => p.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').replace(/σ/g, 'sigma').replace(/[^\w.-]+/g, '-').replace(/^-+|-+$/g, ''))
+    .map((p) =>
+      p
+        .normalize('NFKD')
+        .replace(/[\u0300-\u036f]/g, '')
+        .replace(/σ/g, 'sigma')
+        .replace(/[^\w.-]+/g, '-')
+        .replace(/^-+|-+$/g, ''),
+    )
     .filter(Boolean)
     .join('_')
     .slice(0, 120);

@@ -25,13 +25,15 @@ export interface ExportSource {
 /** The figure's panels drawn again by the library as SVG, at the asked size. */
 async function panelsOf(sources: readonly ExportSource[], size: ExportSize): Promise<FigurePanel[]> {
   const Plotly = await plotlyLibrary();
-  return Promise.all(sources.map(async (s) => {
-    const url = await Plotly.toImage(s.graph, { format: 'svg', width: size.width, height: size.height });
-    const comma = url.indexOf(',');
-    const body = url.slice(comma + 1);
-    const svg = url.slice(0, comma).includes('base64') ? atob(body) : decodeURIComponent(body);
-    return { svg, width: size.width, height: size.height, caption: s.caption };
-  }));
+  return Promise.all(
+    sources.map(async (s) => {
+      const url = await Plotly.toImage(s.graph, { format: 'svg', width: size.width, height: size.height });
+      const comma = url.indexOf(',');
+      const body = url.slice(comma + 1);
+      const svg = url.slice(0, comma).includes('base64') ? atob(body) : decodeURIComponent(body);
+      return { svg, width: size.width, height: size.height, caption: s.caption };
+    }),
+  );
 }
 
 async function rasterise(svg: string, width: number, height: number, scale: number): Promise<HTMLCanvasElement> {
@@ -54,27 +56,55 @@ async function rasterise(svg: string, width: number, height: number, scale: numb
 }
 
 /** The figure's bytes in a format, with its MIME type. Title, captions and provenance are in every format. */
-export async function figureBytes(sources: readonly ExportSource[], text: FigureText, format: ExportFormat, size: ExportSize): Promise<Blob> {
+export async function figureBytes(
+  sources: readonly ExportSource[],
+  text: FigureText,
+  format: ExportFormat,
+  size: ExportSize,
+): Promise<Blob> {
   const panels = await panelsOf(sources, size);
   const layout = figureLayout(panels);
   if (format === 'svg') return new Blob([composeSvg(panels, text)], { type: 'image/svg+xml' });
   if (format === 'png') {
     const canvas = await rasterise(composeSvg(panels, text), layout.width, layout.height, size.dpi / 96);
-    return new Promise((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('The PNG could not be made.'))), 'image/png'));
+    return new Promise((resolve, reject) =>
+      canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('The PNG could not be made.'))), 'image/png'),
+    );
   }
   // PDF: the plots as one raster at the asked dpi, the words as real (searchable) text on top.
-  const bare = composeSvg(panels, { title: '', provenance: '' }).replace(/<text [^>]*class="caption"[^>]*>.*?<\/text>/g, '');
+  const bare = composeSvg(panels, { title: '', provenance: '' }).replace(
+    /<text [^>]*class="caption"[^>]*>.*?<\/text>/g,
+    '',
+  );
   const canvas = await rasterise(bare, layout.width, layout.height, size.dpi / 96);
   const rgba = canvas.getContext('2d')!.getImageData(0, 0, canvas.width, canvas.height).data;
   const rgb = new Uint8Array((rgba.length / 4) * 3);
-  for (let i = 0, j = 0; i < rgba.length; i += 4, j += 3) { rgb[j] = rgba[i]; rgb[j + 1] = rgba[i + 1]; rgb[j + 2] = rgba[i + 2]; }
+  for (let i = 0, j = 0; i < rgba.length; i += 4, j += 3) {
+    rgb[j] = rgba[i];
+    rgb[j + 1] = rgba[i + 1];
+    rgb[j + 2] = rgba[i + 2];
+  }
   const pt = 0.75; // points per CSS pixel
   const texts: PdfText[] = [{ text: text.title, x: 12 * pt, y: 23 * pt, size: 12, bold: true, colour: '#0b2e32' }];
-  layout.placed.forEach((p) => p.lines.forEach((line, k) => texts.push({ text: line, x: 12 * pt, y: (p.captionTop + 11 + k * 15) * pt, size: 8.6, colour: '#3f6468' })));
+  layout.placed.forEach((p) =>
+    p.lines.forEach((line, k) =>
+      texts.push({ text: line, x: 12 * pt, y: (p.captionTop + 11 + k * 15) * pt, size: 8.6, colour: '#3f6468' }),
+    ),
+  );
   texts.push({ text: text.provenance, x: 12 * pt, y: layout.provenanceY * pt, size: 7.5, colour: '#3f6468' });
   const bytes = await writePdf(
     { width: layout.width * pt, height: layout.height * pt, title: text.title },
-    [{ rgb, pixelsWide: canvas.width, pixelsHigh: canvas.height, x: 0, y: 0, width: layout.width * pt, height: layout.height * pt }],
+    [
+      {
+        rgb,
+        pixelsWide: canvas.width,
+        pixelsHigh: canvas.height,
+        x: 0,
+        y: 0,
+        width: layout.width * pt,
+        height: layout.height * pt,
+      },
+    ],
     texts,
   );
   return new Blob([bytes as BlobPart], { type: 'application/pdf' });

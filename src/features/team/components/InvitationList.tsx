@@ -14,7 +14,11 @@ export function InvitationList({ invitations }: { invitations: readonly Invitati
   const now = Date.now();
   const rows = invitations
     .map((inv) => ({ inv, status: statusOf(inv, now) }))
-    .sort((a, b) => (a.status === 'pending' ? 0 : 1) - (b.status === 'pending' ? 0 : 1) || b.inv.createdAt.localeCompare(a.inv.createdAt));
+    .sort(
+      (a, b) =>
+        (a.status === 'pending' ? 0 : 1) - (b.status === 'pending' ? 0 : 1) ||
+        b.inv.createdAt.localeCompare(a.inv.createdAt),
+    );
   const pending = rows.filter((r) => r.status === 'pending').length;
 
   if (rows.length === 0) return <EmptyState title="No invitations sent yet" />;
@@ -26,10 +30,18 @@ export function InvitationList({ invitations }: { invitations: readonly Invitati
       </caption>
       <thead>
         <tr className="border-b border-paper-rule text-left text-xs uppercase tracking-[0.08em] text-ink-muted">
-          <th scope="col" className="px-4 py-1.5 font-semibold">E-mail</th>
-          <th scope="col" className="px-4 py-1.5 font-semibold">Role</th>
-          <th scope="col" className="px-4 py-1.5 font-semibold">Sent</th>
-          <th scope="col" className="px-4 py-1.5 font-semibold">Status</th>
+          <th scope="col" className="px-4 py-1.5 font-semibold">
+            E-mail
+          </th>
+          <th scope="col" className="px-4 py-1.5 font-semibold">
+            Role
+          </th>
+          <th scope="col" className="px-4 py-1.5 font-semibold">
+            Sent
+          </th>
+          <th scope="col" className="px-4 py-1.5 font-semibold">
+            Status
+          </th>
         </tr>
       </thead>
       <tbody>
@@ -37,11 +49,28 @@ export function InvitationList({ invitations }: { invitations: readonly Invitati
           <tr key={inv.id} className="border-b border-paper-rule/70 last:border-0">
             <td className="px-4 py-1.5 font-mono text-[0.8rem] text-ink-strong">{inv.email}</td>
             <td className="px-4 py-1.5">{roleLabel(inv.role)}</td>
-            <td className="px-4 py-1.5 whitespace-nowrap font-mono text-[0.8rem] tabular-nums text-ink-soft">{formatUtc(inv.createdAt)}</td>
+            <td className="px-4 py-1.5 whitespace-nowrap font-mono text-[0.8rem] tabular-nums text-ink-soft">
+              {formatUtc(inv.createdAt)}
+            </td>
             <td className="px-4 py-1.5">
-              {status === 'pending' && <span className="text-ink">Pending{inv.expiresAt && <span className="text-ink-muted"> · until <span className="whitespace-nowrap font-mono text-[0.8rem]">{formatUtc(inv.expiresAt).slice(0, 10)}</span></span>}</span>}
+              {status === 'pending' && (
+                <span className="text-ink">
+                  Pending
+                  {inv.expiresAt && (
+                    <span className="text-ink-muted">
+                      {' '}
+                      · until{' '}
+                      <span className="whitespace-nowrap font-mono text-[0.8rem]">
+                        {formatUtc(inv.expiresAt).slice(0, 10)}
+                      </span>
+                    </span>
+                  )}
+                </span>
+              )}
               {status === 'accepted' && <span className="text-ink-muted">Accepted</span>}
-              {status === 'expired' && <span className="text-ink-muted line-through decoration-ink-faint">Expired</span>}
+              {status === 'expired' && (
+                <span className="text-ink-muted line-through decoration-ink-faint">Expired</span>
+              )}
             </td>
           </tr>
         ))}

@@ -49,13 +49,19 @@ export function InviteForm({ cruiseId, cruiseName }: { cruiseId: string; cruiseN
     return (
       <div className="flex flex-col gap-3 p-4" role="group" aria-label="Confirm invitation">
         <p className="text-sm text-ink-strong">
-          Send an invitation to <span className="font-mono">{pending.email}</span> to join <strong>{cruiseName}</strong> as{' '}
-          <strong>{roleLabel(pending.role)}</strong>?
+          Send an invitation to <span className="font-mono">{pending.email}</span> to join <strong>{cruiseName}</strong>{' '}
+          as <strong>{roleLabel(pending.role)}</strong>?
         </p>
-        <p className="text-xs text-ink-muted">They receive an e-mail with a link; it creates their account or adds the cruise to the one they have.</p>
+        <p className="text-xs text-ink-muted">
+          They receive an e-mail with a link; it creates their account or adds the cruise to the one they have.
+        </p>
         <div className="flex gap-2">
-          <Button variant="primary" onClick={send} busy={invite.isPending}>Send invitation</Button>
-          <Button variant="quiet" onClick={() => setPending(null)} disabled={invite.isPending}>Back</Button>
+          <Button variant="primary" onClick={send} busy={invite.isPending}>
+            Send invitation
+          </Button>
+          <Button variant="quiet" onClick={() => setPending(null)} disabled={invite.isPending}>
+            Back
+          </Button>
         </div>
       </div>
     );
@@ -63,17 +69,35 @@ export function InviteForm({ cruiseId, cruiseName }: { cruiseId: string; cruiseN
 
   return (
     <form onSubmit={review} noValidate aria-label="Invite a member" className="flex flex-col gap-3 p-4">
-      <TextField label="E-mail" type="email" value={email} onChange={(e) => setEmail(e.target.value)} error={errors.email} autoComplete="off" placeholder="name@institute.example" />
+      <TextField
+        label="E-mail"
+        type="email"
+        value={email}
+        onChange={(e) => setEmail(e.target.value)}
+        error={errors.email}
+        autoComplete="off"
+        placeholder="name@institute.example"
+      />
       <SelectField label="Role" value={role} onChange={(e) => setRole(e.target.value as Role)} error={errors.role}>
         {ROLE_ORDER.map((r) => (
-          <option key={r} value={r}>{roleLabel(r)}</option>
+          <option key={r} value={r}>
+            {roleLabel(r)}
+          </option>
         ))}
       </SelectField>
       <div>
-        <Button type="submit" variant="primary">Review invitation</Button>
+        <Button type="submit" variant="primary">
+          Review invitation
+        </Button>
       </div>
-      {invite.error && !isApiError(invite.error, 400) && <ErrorNotice error={invite.error} title="The invitation was not sent" />}
-      {sentTo && <InfoNotice>Invitation sent to <span className="font-mono">{sentTo}</span>.</InfoNotice>}
+      {invite.error && !isApiError(invite.error, 400) && (
+        <ErrorNotice error={invite.error} title="The invitation was not sent" />
+      )}
+      {sentTo && (
+        <InfoNotice>
+          Invitation sent to <span className="font-mono">{sentTo}</span>.
+        </InfoNotice>
+      )}
     </form>
   );
 }

@@ -36,10 +36,20 @@ export function MemberList({
       <table className="w-full border-collapse text-sm" aria-label="Members">
         <thead>
           <tr className="border-b border-paper-rule text-left text-xs uppercase tracking-[0.08em] text-ink-muted">
-            <th scope="col" className="px-4 py-1.5 font-semibold">Name</th>
-            <th scope="col" className="px-4 py-1.5 font-semibold">E-mail</th>
-            <th scope="col" className="px-4 py-1.5 font-semibold">Role</th>
-            {canManage && <th scope="col" className="px-4 py-1.5 text-right font-semibold"><span className="sr-only">Actions</span></th>}
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Name
+            </th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              E-mail
+            </th>
+            <th scope="col" className="px-4 py-1.5 font-semibold">
+              Role
+            </th>
+            {canManage && (
+              <th scope="col" className="px-4 py-1.5 text-right font-semibold">
+                <span className="sr-only">Actions</span>
+              </th>
+            )}
           </tr>
         </thead>
         <tbody>
@@ -65,7 +75,9 @@ export function MemberList({
                       className="h-8 rounded border border-paper-rule bg-paper-raised px-2 text-sm text-ink-strong focus:outline-2 focus:outline-ink/70"
                     >
                       {ROLE_ORDER.map((r) => (
-                        <option key={r} value={r}>{roleLabel(r)}</option>
+                        <option key={r} value={r}>
+                          {roleLabel(r)}
+                        </option>
                       ))}
                     </select>
                   ) : (
@@ -86,10 +98,17 @@ export function MemberList({
                           >
                             Confirm removal
                           </Button>
-                          <Button size="sm" variant="quiet" onClick={() => setConfirming(null)}>Keep</Button>
+                          <Button size="sm" variant="quiet" onClick={() => setConfirming(null)}>
+                            Keep
+                          </Button>
                         </span>
                       ) : (
-                        <Button size="sm" variant="quiet" aria-label={`Remove ${m.name}`} onClick={() => setConfirming(m.userId)}>
+                        <Button
+                          size="sm"
+                          variant="quiet"
+                          aria-label={`Remove ${m.name}`}
+                          onClick={() => setConfirming(m.userId)}
+                        >
                           Remove
                         </Button>
                       ))}
