@@ -136,17 +136,15 @@ export function createApp(deps: AppDeps, opts: { staticDir?: string } = {}): App
       .filter(([, v]) => v !== 'ok')
       .map(([k]) => k);
     if (down.length) {
-      res
-        .status(503)
-        .json({
-          status: 'down',
-          ...parts,
-          error: {
-            code: 'unavailable',
-            message: `Not available: ${down.join(', ')}`,
-            details: down.map((d) => ({ part: d })),
-          },
-        });
+      res.status(503).json({
+        status: 'down',
+        ...parts,
+        error: {
+          code: 'unavailable',
+          message: `Not available: ${down.join(', ')}`,
+          details: down.map((d) => ({ part: d })),
+        },
+      });
     } else res.json({ status: 'ok', ...parts });
   });
 

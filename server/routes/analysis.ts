@@ -134,16 +134,14 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
           return row;
         });
         invalidateDataVersion(ctx.cruiseId!);
-        res
-          .status(201)
-          .json({
-            id: d.id,
-            name: d.name,
-            formula: d.formula,
-            unit: d.unit,
-            description: d.description,
-            variables: f.variables,
-          });
+        res.status(201).json({
+          id: d.id,
+          name: d.name,
+          formula: d.formula,
+          unit: d.unit,
+          description: d.description,
+          variables: f.variables,
+        });
       },
     }),
     defineRoute({

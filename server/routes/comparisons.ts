@@ -64,15 +64,13 @@ export function comparisonRoutes(_deps: AppDeps): RouteSpec[] {
       handler: async (req, res) => {
         const parsed = ComparisonQuery.safeParse(req.query);
         if (!parsed.success) {
-          res
-            .status(400)
-            .json({
-              error: {
-                code: 'validation',
-                message: 'The query string is not valid.',
-                details: parsed.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message })),
-              },
-            });
+          res.status(400).json({
+            error: {
+              code: 'validation',
+              message: 'The query string is not valid.',
+              details: parsed.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message })),
+            },
+          });
           return;
         }
         const e = ExportQuery.parse(req.query);

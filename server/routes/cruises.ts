@@ -243,17 +243,15 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
           );
           return st;
         });
-        res
-          .status(201)
-          .json({
-            id: s.id,
-            name: s.name,
-            latitude: s.latitude,
-            longitude: s.longitude,
-            plannedDepth: s.plannedDepth,
-            order: s.order,
-            occupied: false,
-          });
+        res.status(201).json({
+          id: s.id,
+          name: s.name,
+          latitude: s.latitude,
+          longitude: s.longitude,
+          plannedDepth: s.plannedDepth,
+          order: s.order,
+          occupied: false,
+        });
       },
     }),
     defineRoute({

@@ -152,18 +152,16 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
           text: `${quoted(req.user!.name)} invites you to the cruise ${quoted(cruise.name)} (ship ${quoted(cruise.ship)}) on Sigmaline as ${ROLE_WORDS[role]}.\n\nAccept the invitation here (valid for 14 days):\n${link}\n\nIf you do not know the sender, ignore this message.\n`,
           html: `<p>${escapeHtml(req.user!.name)} invites you to the cruise <b>${escapeHtml(cruise.name)}</b> (${escapeHtml(cruise.ship)}) on Sigmaline as ${ROLE_WORDS[role]}.</p><p><a href="${escapeHtml(link)}">Accept the invitation</a> (valid for 14 days).</p>`,
         });
-        res
-          .status(201)
-          .json({
-            invitation: {
-              id: inv.id,
-              email,
-              role,
-              createdAt: inv.createdAt,
-              expiresAt: inv.expiresAt,
-              acceptedAt: null,
-            },
-          });
+        res.status(201).json({
+          invitation: {
+            id: inv.id,
+            email,
+            role,
+            createdAt: inv.createdAt,
+            expiresAt: inv.expiresAt,
+            acceptedAt: null,
+          },
+        });
       },
     }),
     defineRoute({

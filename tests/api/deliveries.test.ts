@@ -140,16 +140,14 @@ describe('deliveries', () => {
     ]);
     // the section engine for the same choices
     const sec = (
-      await who.analyst.agent
-        .get(`/api/cruises/${cruiseId}/section`)
-        .query({
-          property: 'CT',
-          coord: 'density',
-          ref: 0,
-          levels: '25.0:0.25:27.5',
-          inversions: 'sort',
-          interpolation: 'linear',
-        })
+      await who.analyst.agent.get(`/api/cruises/${cruiseId}/section`).query({
+        property: 'CT',
+        coord: 'density',
+        ref: 0,
+        levels: '25.0:0.25:27.5',
+        inversions: 'sort',
+        interpolation: 'linear',
+      })
     ).body;
     let compared = 0;
     for (const st of sec.stations as { station: string; x: number }[]) {
