@@ -99,7 +99,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...editors], cruise: byParam() },
       body: NewVariable,
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof NewVariable>;
+        const b = ctx.body;
         if (RESERVED.has(b.name))
           throw badRequest(`${b.name} is the name of a cast column.`, [
             { field: 'name', message: 'taken by a cast column' },
@@ -180,7 +180,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: 'any', cruise: castCruise },
       body: Preview,
       handler: async (req, _res, ctx) => {
-        const { formula } = ctx.body as z.infer<typeof Preview>;
+        const { formula } = ctx.body;
         const cols = (await readColumns([String(req.params.id)])).get(String(req.params.id))!;
         const usable = Object.fromEntries(
           Object.entries(cols.columns).filter(
@@ -199,7 +199,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
       query: TsQuery,
       handler: async (_req, _res, ctx) => {
-        const { every, line } = ctx.query as z.infer<typeof TsQuery>;
+        const { every, line } = ctx.query;
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`ts:${ctx.cruiseId}:${version}:${every}:${line ?? ''}`, async () => {
           const resolved = await loadLineCasts(ctx.cruiseId!, line, []);
@@ -231,7 +231,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
       query: GeoQuery,
       handler: async (_req, _res, ctx) => {
-        const q = ctx.query as z.infer<typeof GeoQuery>;
+        const q = ctx.query;
         const version = await dataVersion(ctx.cruiseId!);
         return cached(`geo:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => {
           const resolved = await loadLineCasts(ctx.cruiseId!, q.line, []);
@@ -312,7 +312,7 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
       body: NewView,
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof NewView>;
+        const b = ctx.body;
         const v = await SavedView.create({
           cruiseId: ctx.cruiseId!,
           userId: req.user!.id,

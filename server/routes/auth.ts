@@ -63,7 +63,7 @@ export function authRoutes(deps: AppDeps): RouteSpec[] {
       body: Login,
       responses: { 200: 'signed in', 401: 'bad credentials', 429: 'too many failed attempts' },
       handler: async (req, _res, ctx) => {
-        const { email } = ctx.body as z.infer<typeof Login>;
+        const { email } = ctx.body;
         const key = email.trim().toLowerCase();
         const ip = req.ip ?? '';
         // A growing delay per account and address, never a lockout (server/auth/limiter.ts).
@@ -109,7 +109,7 @@ export function authRoutes(deps: AppDeps): RouteSpec[] {
       body: ResetRequest,
       responses: { 202: 'accepted (whether or not the account exists)' },
       handler: async (_req, res, ctx) => {
-        const { email } = ctx.body as z.infer<typeof ResetRequest>;
+        const { email } = ctx.body;
         const key = email.trim().toLowerCase();
         // The same work whatever the address: one rate-limit slot, then the lookup, the token and the
         // mail happen after the answer, from the mail queue (no timing tells an account exists).
@@ -151,7 +151,7 @@ export function authRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'public' },
       body: ResetConfirm,
       handler: async (req, res, ctx) => {
-        const { token, password } = ctx.body as z.infer<typeof ResetConfirm>;
+        const { token, password } = ctx.body;
         const invalid = () => badRequest('This reset link is unknown, used or expired.', [], 'invalid_token');
         const reset = await PasswordReset.findOne({ where: { tokenHash: hashToken(token) } });
         if (!reset || reset.usedAt || reset.expiresAt < new Date()) throw invalid();
@@ -183,7 +183,7 @@ export function authRoutes(deps: AppDeps): RouteSpec[] {
       body: ChangePassword,
       responses: { 204: 'changed', 401: 'the current password is wrong', 429: 'too many failed attempts' },
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof ChangePassword>;
+        const b = ctx.body;
         const me = req.user!;
         const ip = req.ip ?? '';
         await checkSignInAllowed(me.email, ip, settings);

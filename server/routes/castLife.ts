@@ -40,8 +40,7 @@ export function castLifeRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'Remove a cast from everything (audited, restorable)',
       rule: { kind: 'member', roles: ['chief_scientist'], cruise: anyCastCruise },
       body: RemoveBody,
-      handler: async (req, _res, ctx) =>
-        removeCast(deps, String(req.params.id), req.user!.id, (ctx.body as z.infer<typeof RemoveBody>).reason ?? null),
+      handler: async (req, _res, ctx) => removeCast(deps, String(req.params.id), req.user!.id, ctx.body.reason ?? null),
     }),
     defineRoute({
       method: 'post',
@@ -65,8 +64,7 @@ export function castLifeRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'Accept or reject a partly read cast (lines left out)',
       rule: { kind: 'member', roles: [...intake], cruise: anyCastCruise },
       body: SalvageBody,
-      handler: async (req, _res, ctx) =>
-        decideSalvage(deps, String(req.params.id), req.user!.id, (ctx.body as z.infer<typeof SalvageBody>).decision),
+      handler: async (req, _res, ctx) => decideSalvage(deps, String(req.params.id), req.user!.id, ctx.body.decision),
     }),
     defineRoute({
       method: 'get',
@@ -87,7 +85,7 @@ export function castLifeRoutes(deps: AppDeps): RouteSpec[] {
         if (!u) throw notFound();
         if (u.status !== 'awaiting_decision' || !u.conflicts)
           throw new HttpError(409, 'no_decision_needed', 'This upload is not waiting for a decision.');
-        const { replace } = ctx.body as z.infer<typeof ReplaceBody>;
+        const { replace } = ctx.body;
         await u.update({
           status: 'queued',
           progress: 0,

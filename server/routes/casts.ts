@@ -96,8 +96,7 @@ export function castRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'Set a quality flag (1–9 scale) on a pressure range of a variable',
       rule: { kind: 'member', roles: ['technician', 'chief_scientist'], cruise: castCruise },
       body: FlagEdit,
-      handler: async (req, _res, ctx) =>
-        setFlag(deps, String(req.params.id), ctx.body as z.infer<typeof FlagEdit>, req.user!.id),
+      handler: async (req, _res, ctx) => setFlag(deps, String(req.params.id), ctx.body, req.user!.id),
     }),
   ];
 }

@@ -89,7 +89,7 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'signed_in' },
       body: CreateCruise,
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof CreateCruise>;
+        const b = ctx.body;
         const cruise = await sequelize.transaction(async (transaction) => {
           const c = await Cruise.create(
             {
@@ -155,7 +155,7 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
       body: PatchCruise,
       handler: async (req, _res, ctx) => {
-        const b = ctx.body as z.infer<typeof PatchCruise>;
+        const b = ctx.body;
         return sequelize.transaction(async (transaction) => {
           const c = await Cruise.findByPk(ctx.cruiseId!, { transaction, lock: true });
           if (!c) throw notFound();
@@ -212,7 +212,7 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
       body: NewStation,
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof NewStation>;
+        const b = ctx.body;
         const s = await sequelize.transaction(async (transaction) => {
           if (await Station.findOne({ where: { cruiseId: ctx.cruiseId!, name: b.name }, transaction }))
             throw conflict(`Station ${b.name} is already planned.`);

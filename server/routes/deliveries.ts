@@ -85,7 +85,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
       body: NewDelivery,
       responses: { 202: 'queued' },
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof NewDelivery>;
+        const b = ctx.body;
         if (b.kind !== 'pressure' && b.levels) levelsOrError(b.levels);
         b.line = (await lineRow(ctx.cruiseId!, b.line)).id;
         const d = await deps.db.sequelize.transaction(async (transaction) => {
@@ -143,7 +143,7 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
           );
         }
         if (d.status !== 'ready') throw new HttpError(409, 'not_ready', 'This delivery is not built yet.');
-        const f = d.files.find((x) => x.format === (ctx.query as { format: string }).format);
+        const f = d.files.find((x) => x.format === ctx.query.format);
         if (!f) throw notFound('This delivery has no file in that format.');
         res.redirect(302, await deps.storage.presignedGetUrl(f.key, f.filename));
       },

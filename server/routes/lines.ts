@@ -62,7 +62,7 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...editors], cruise: byParam() },
       body: NewLine,
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof NewLine>;
+        const b = ctx.body;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
           const r = await createLine(ctx.cruiseId!, req.user!.id, b, transaction);
           await audit(
@@ -97,7 +97,7 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
       body: PatchLine,
       handler: async (req, _res, ctx) => {
-        const b = ctx.body as z.infer<typeof PatchLine>;
+        const b = ctx.body;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
           const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
           if (!r) throw notFound('No such line.');

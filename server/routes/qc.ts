@@ -46,8 +46,7 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'Accept or reject pending QC proposals of a cast, by id or by test (audited)',
       rule: { kind: 'member', roles: [...FLAGGERS], cruise: castCruise },
       body: Decide,
-      handler: async (req, _res, ctx) =>
-        decideProposals(deps, String(req.params.id), ctx.body as z.infer<typeof Decide>, req.user!.id),
+      handler: async (req, _res, ctx) => decideProposals(deps, String(req.params.id), ctx.body, req.user!.id),
     }),
     defineRoute({
       method: 'get',
@@ -63,8 +62,7 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'Undo one flag change of a cast (audited)',
       rule: { kind: 'member', roles: [...FLAGGERS], cruise: castCruise },
       body: Undo,
-      handler: async (req, _res, ctx) =>
-        undoFlagChange(deps, String(req.params.id), (ctx.body as z.infer<typeof Undo>).changeId, req.user!.id),
+      handler: async (req, _res, ctx) => undoFlagChange(deps, String(req.params.id), ctx.body.changeId, req.user!.id),
     }),
     defineRoute({
       method: 'get',
@@ -72,8 +70,7 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'The previous and next station’s casts along the line, for overlays',
       rule: { kind: 'member', roles: 'any', cruise: castCruise },
       query: NeighbourQuery,
-      handler: async (req, _res, ctx) =>
-        neighboursOf(String(req.params.id), (ctx.query as z.infer<typeof NeighbourQuery>).line ?? null),
+      handler: async (req, _res, ctx) => neighboursOf(String(req.params.id), ctx.query.line ?? null),
     }),
     defineRoute({
       method: 'get',

@@ -60,7 +60,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...readers], cruise: byParam() },
       query: IsopycnalQuery,
       handler: async (req, res, ctx) => {
-        const q = ctx.query as z.infer<typeof IsopycnalQuery>;
+        const q = ctx.query;
         const table = await isopycnalTable(ctx.cruiseId!, req.user!.email, {
           ref: q.ref,
           levels: q.levels ?? null,
@@ -82,7 +82,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...readers], cruise: byParam() },
       query: PressureQuery,
       handler: async (req, res, ctx) => {
-        const q = ctx.query as z.infer<typeof PressureQuery>;
+        const q = ctx.query;
         const table = await pressureTable(ctx.cruiseId!, req.user!.email, q);
         res.setHeader('content-type', 'text/csv; charset=utf-8');
         res.setHeader('content-disposition', attachment(table, 'pressure', { bin: q.bin }));
@@ -96,7 +96,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
       query: SectionQuery,
       handler: async (_req, res, ctx) => {
-        const q = ctx.query as z.infer<typeof SectionQuery>;
+        const q = ctx.query;
         const version = await dataVersion(ctx.cruiseId!);
         // The cache holds the serialised grid, plain and gzipped: a warm read is a lookup and a write.
         const body = await cached(`section:${ctx.cruiseId}:${version}:${JSON.stringify(q)}`, async () => {
@@ -140,7 +140,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...editors], cruise: byParam() },
       body: LayerSetBody,
       handler: async (req, res, ctx) => {
-        const b = ctx.body as z.infer<typeof LayerSetBody>;
+        const b = ctx.body;
         const n = levelsOrError(b.levels).length;
         const row = await deps.db.sequelize.transaction(async (transaction) => {
           const r = await LayerSet.create(
@@ -180,7 +180,7 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...editors], cruise: byParam() },
       body: LayerSetBody.partial(),
       handler: async (req, _res, ctx) => {
-        const b = ctx.body as Partial<z.infer<typeof LayerSetBody>>;
+        const b = ctx.body;
         if (b.levels) levelsOrError(b.levels);
         if (!/^[0-9a-f-]{36}$/i.test(String(req.params.setId))) throw notFound('No such layer set.');
         const out = await deps.db.sequelize.transaction(async (transaction) => {

@@ -91,7 +91,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
       body: Invite,
       handler: async (req, res, ctx) => {
-        const { email, role } = ctx.body as z.infer<typeof Invite>;
+        const { email, role } = ctx.body;
         const cruise = (await Cruise.findByPk(ctx.cruiseId!))!;
         const existing = await User.findOne({ where: { email } });
         if (existing && (await Membership.findOne({ where: { userId: existing.id, cruiseId: cruise.id } })))
@@ -172,7 +172,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
       body: ChangeRole,
       handler: async (req, _res, ctx) => {
-        const { role } = ctx.body as z.infer<typeof ChangeRole>;
+        const { role } = ctx.body;
         const userId = await byUser(req as never);
         return sequelize
           .transaction(async (transaction) => {
@@ -268,7 +268,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'public' },
       body: Accept,
       handler: async (req, _res, ctx) => {
-        const b = ctx.body as z.infer<typeof Accept>;
+        const b = ctx.body;
         const inv = await liveInvitation(String(req.params.token));
         let user = await User.findOne({ where: { email: inv.email } });
         if (user?.passwordHash) {

@@ -209,7 +209,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
       rule: { kind: 'member', roles: [...intake], cruise: byParam() },
       body: Mapping,
       handler: async (req, _res, ctx) => {
-        const { mapping } = ctx.body as z.infer<typeof Mapping>;
+        const { mapping } = ctx.body;
         await deps.db.sequelize.transaction(async (transaction) => {
           for (const [header, role] of Object.entries(mapping)) {
             await ColumnMapping.upsert(
