@@ -110,6 +110,11 @@ function enthalpyAt(a: Float64Array, y: number): number {
  * Potential temperature pt_from_t(SA, t, p, p_ref), °C: the temperature a parcel of (SA, t, p)
  * has when moved without exchange of heat or salt to p_ref, i.e. the solution of
  * η(SA, pt, p_ref) = η(SA, t, p) with entropy η = −∂g/∂T (IOC et al. 2010, eq. 3.1.3).
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param p_ref reference pressure, dbar
+ * @returns potential temperature referenced to p_ref (ITS-90), °C; NaN outside the range
  */
 export function pt_from_t(SA: number, t: number, p: number, p_ref: number): number {
   if (!inRange(SA, t, p) || !inRange(SA, t, p_ref)) return NaN;
@@ -118,7 +123,14 @@ export function pt_from_t(SA: number, t: number, p: number, p_ref: number): numb
   return tScale * yOfEntropy(aRef, gyAt(aInSitu, y), y);
 }
 
-/** Potential temperature referenced to the sea surface, pt_from_t(SA, t, p, 0), °C. */
+/**
+ * Potential temperature referenced to the sea surface, pt_from_t(SA, t, p, 0), °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns potential temperature referenced to 0 dbar (ITS-90), °C
+ */
 export function pt0_from_t(SA: number, t: number, p: number): number {
   if (!inRange(SA, t, p)) return NaN;
   collapsePair(SA, p, 0, aInSitu, aRef);
@@ -129,6 +141,9 @@ export function pt0_from_t(SA: number, t: number, p: number): number {
 /**
  * Conservative Temperature CT_from_pt(SA, pt), °C: potential enthalpy at 0 dbar divided by
  * cp0 = 3991.86795711963 J/(kg K) (McDougall 2003; IOC et al. 2010, eq. 3.3.1).
+ * @param SA Absolute Salinity, g/kg
+ * @param pt potential temperature referenced to 0 dbar (ITS-90), °C
+ * @returns Conservative Temperature (ITS-90), °C
  */
 export function CT_from_pt(SA: number, pt: number): number {
   if (!inRange(SA, pt, 0)) return NaN;
@@ -136,7 +151,14 @@ export function CT_from_pt(SA: number, pt: number): number {
   return enthalpyAt(aRef, pt / tScale) / cp0;
 }
 
-/** Conservative Temperature CT_from_t(SA, t, p), °C: CT_from_pt(SA, pt0_from_t(SA, t, p)). */
+/**
+ * Conservative Temperature CT_from_t(SA, t, p), °C: CT_from_pt(SA, pt0_from_t(SA, t, p)).
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns Conservative Temperature (ITS-90), °C
+ */
 export function CT_from_t(SA: number, t: number, p: number): number {
   if (!inRange(SA, t, p)) return NaN;
   collapsePair(SA, p, 0, aInSitu, aRef);
@@ -149,6 +171,12 @@ export function CT_from_t(SA: number, t: number, p: number): number {
  * pt0_from_t and CT_from_t of one parcel from one Newton solve (the same sums as the two
  * functions above, which each solve for pt0): pair[0] = pt0 °C, pair[1] = CT °C; NaN outside the
  * range. SA g/kg, t °C (ITS-90), p dbar.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param pair output, written in place: [pt0 °C, CT °C]
+ * @returns nothing: pt0 and CT are written into pair
  */
 export function pt0_CT_from_t(SA: number, t: number, p: number, pair: Float64Array): void {
   if (!inRange(SA, t, p)) {
@@ -177,8 +205,14 @@ function yOfCT(CT: number): number {
   return y;
 }
 
-/** Potential temperature (ref. 0 dbar) of a given Conservative Temperature, pt_from_CT(SA, CT), °C:
- * the inverse of CT_from_pt, by Newton's method on potential enthalpy. */
+/**
+ * Potential temperature (ref. 0 dbar) of a given Conservative Temperature, pt_from_CT(SA, CT), °C:
+ * the inverse of CT_from_pt, by Newton's method on potential enthalpy.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @returns potential temperature referenced to 0 dbar (ITS-90), °C
+ */
 export function pt_from_CT(SA: number, CT: number): number {
   if (!inRange(SA, CT, 0)) return NaN;
   collapse(SA, 0, aRef);
@@ -188,6 +222,11 @@ export function pt_from_CT(SA: number, CT: number): number {
 /**
  * In-situ temperature t_from_CT(SA, CT, p), °C: the inverse of CT_from_t, via pt_from_CT and then
  * the potential temperature of that parcel brought from 0 dbar to p.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns in-situ temperature (ITS-90), °C
  */
 export function t_from_CT(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
@@ -210,7 +249,15 @@ function sameLength(name: string, ...columns: ArrayLike<number>[]): number {
   return n;
 }
 
-/** pt0_from_t over columns: SA g/kg, t °C, p dbar → pt °C. */
+/**
+ * pt0_from_t over columns: SA g/kg, t °C, p dbar → pt °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns potential temperature referenced to 0 dbar for each level, °C
+ */
 export function pt0_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = sameLength('pt0_from_t_batch', SA, t, p);
   const o = out ?? new Float64Array(n);
@@ -218,7 +265,16 @@ export function pt0_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Ar
   return o;
 }
 
-/** pt_from_t over columns to one reference pressure p_ref (dbar) → pt °C. */
+/**
+ * pt_from_t over columns to one reference pressure p_ref (dbar) → pt °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param p_ref reference pressure, dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns potential temperature referenced to p_ref for each level, °C
+ */
 export function pt_from_t_batch(
   SA: Float64Array,
   t: Float64Array,
@@ -232,7 +288,14 @@ export function pt_from_t_batch(
   return o;
 }
 
-/** CT_from_pt over columns: SA g/kg, pt °C → CT °C. */
+/**
+ * CT_from_pt over columns: SA g/kg, pt °C → CT °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param pt potential temperature referenced to 0 dbar (ITS-90), °C
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns Conservative Temperature for each level, °C
+ */
 export function CT_from_pt_batch(SA: Float64Array, pt: Float64Array, out?: Float64Array): Float64Array {
   const n = sameLength('CT_from_pt_batch', SA, pt);
   const o = out ?? new Float64Array(n);
@@ -240,7 +303,15 @@ export function CT_from_pt_batch(SA: Float64Array, pt: Float64Array, out?: Float
   return o;
 }
 
-/** CT_from_t over columns: SA g/kg, t °C, p dbar → CT °C. */
+/**
+ * CT_from_t over columns: SA g/kg, t °C, p dbar → CT °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns Conservative Temperature for each level, °C
+ */
 export function CT_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = sameLength('CT_from_t_batch', SA, t, p);
   const o = out ?? new Float64Array(n);
@@ -248,7 +319,14 @@ export function CT_from_t_batch(SA: Float64Array, t: Float64Array, p: Float64Arr
   return o;
 }
 
-/** pt_from_CT over columns: SA g/kg, CT °C → pt °C. */
+/**
+ * pt_from_CT over columns: SA g/kg, CT °C → pt °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns potential temperature referenced to 0 dbar for each level, °C
+ */
 export function pt_from_CT_batch(SA: Float64Array, CT: Float64Array, out?: Float64Array): Float64Array {
   const n = sameLength('pt_from_CT_batch', SA, CT);
   const o = out ?? new Float64Array(n);
@@ -256,7 +334,15 @@ export function pt_from_CT_batch(SA: Float64Array, CT: Float64Array, out?: Float
   return o;
 }
 
-/** t_from_CT over columns: SA g/kg, CT °C, p dbar → t °C. */
+/**
+ * t_from_CT over columns: SA g/kg, CT °C, p dbar → t °C.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual, §3.1 and §3.3; McDougall (2003), J. Phys. Oceanogr. 33.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns in-situ temperature for each level, °C
+ */
 export function t_from_CT_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = sameLength('t_from_CT_batch', SA, CT, p);
   const o = out ?? new Float64Array(n);

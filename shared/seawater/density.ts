@@ -191,13 +191,25 @@ function evalPlane(q: Float64Array, xs: number, ys: number): number {
 
 const xsOf = (SA: number): number => Math.sqrt(sfac * SA + offset);
 
-/** Specific volume v, m³/kg. SA g/kg, CT °C, p dbar. Roquet et al. (2015) 75-term polynomial. */
+/**
+ * Specific volume v, m³/kg. SA g/kg, CT °C, p dbar. Roquet et al. (2015) 75-term polynomial.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns specific volume, m³/kg
+ */
 export function specvol(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
   return evalCube(V, xsOf(SA), CT * 0.025, p * 1e-4);
 }
 
-/** In-situ density ρ = 1/v, kg/m³. SA g/kg, CT °C, p dbar. Roquet et al. (2015). */
+/**
+ * In-situ density ρ = 1/v, kg/m³. SA g/kg, CT °C, p dbar. Roquet et al. (2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns in-situ density, kg/m³
+ */
 export function rho(SA: number, CT: number, p: number): number {
   return 1 / specvol(SA, CT, p);
 }
@@ -205,6 +217,10 @@ export function rho(SA: number, CT: number, p: number): number {
 /**
  * Thermal expansion coefficient with respect to CT, α = (1/v) ∂v/∂CT, 1/K.
  * SA g/kg, CT °C, p dbar. Analytic derivative of the Roquet et al. (2015) polynomial.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns thermal expansion coefficient with respect to Conservative Temperature, 1/K
  */
 export function alpha(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
@@ -218,6 +234,10 @@ export function alpha(SA: number, CT: number, p: number): number {
  * Saline contraction coefficient at constant CT, β = −(1/v) ∂v/∂SA, kg/g.
  * SA g/kg, CT °C, p dbar. Analytic derivative of the Roquet et al. (2015) polynomial
  * (∂xs/∂SA = sfac / (2 xs)).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns saline contraction coefficient at constant Conservative Temperature, kg/g
  */
 export function beta(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
@@ -227,7 +247,14 @@ export function beta(SA: number, CT: number, p: number): number {
   return (-evalCube(V_XS, xs, ys, z) * 0.5 * sfac) / (xs * evalCube(V, xs, ys, z));
 }
 
-/** v, α and β together at one point (N² needs all three; the cube is walked three times). */
+/**
+ * v, α and β together at one point (N² needs all three; the cube is walked three times).
+ * Reference: Roquet, Madec, McDougall & Barker (2015), Ocean Modelling 90, 29–43; IOC, SCOR & IAPSO (2010).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns specific volume (m³/kg), alpha (1/K) and beta (kg/g) in one evaluation
+ */
 export function specvol_alpha_beta(
   SA: number,
   CT: number,
@@ -248,6 +275,11 @@ export function specvol_alpha_beta(
 /**
  * Specific volume anomaly relative to the standard ocean SSO = 35.16504 g/kg, CT = 0 °C at
  * the same pressure, m³/kg (TEOS-10 Manual §3.7; the integrand of dynamic height anomaly).
+ * Reference: Roquet, Madec, McDougall & Barker (2015), Ocean Modelling 90, 29–43; IOC, SCOR & IAPSO (2010).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns specific volume anomaly from the standard ocean (SSO, 0 °C), m³/kg
  */
 export function specvol_anom_standard(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
@@ -257,7 +289,12 @@ export function specvol_anom_standard(SA: number, CT: number, p: number): number
 
 const XS_SSO = xsOf(SSO);
 
-/** Specific volume of the standard ocean (SSO, CT = 0) at pressure p dbar, m³/kg. */
+/**
+ * Specific volume of the standard ocean (SSO, CT = 0) at pressure p dbar, m³/kg.
+ * Reference: Roquet, Madec, McDougall & Barker (2015), Ocean Modelling 90, 29–43; IOC, SCOR & IAPSO (2010).
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns specific volume of the standard ocean (SA = 35.16504 g/kg, CT = 0 °C) at p, m³/kg
+ */
 export function specvol_SSO_0(p: number): number {
   return evalCube(V, XS_SSO, 0, p * 1e-4);
 }
@@ -265,18 +302,34 @@ export function specvol_SSO_0(p: number): number {
 /**
  * Dynamic enthalpy h̃ = ∫₀^P v dP', J/kg, the pressure integral of the polynomial
  * (Young 2010; TEOS-10 Manual §3.32; Roquet et al. 2015). SA g/kg, CT °C, p dbar.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns dynamic enthalpy, J/kg
  */
 export function dynamic_enthalpy(SA: number, CT: number, p: number): number {
   if (!inRange(SA, CT, p)) return NaN;
   return evalCube(V_INT_Z, xsOf(SA), CT * 0.025, p * 1e-4, DEG + 1) * 1e8;
 }
 
-/** Dynamic enthalpy of the standard ocean (SSO, CT = 0), J/kg; used by z_from_p (TEOS-10). */
+/**
+ * Dynamic enthalpy of the standard ocean (SSO, CT = 0), J/kg; used by z_from_p (TEOS-10).
+ * Reference: Roquet, Madec, McDougall & Barker (2015), Ocean Modelling 90, 29–43; IOC, SCOR & IAPSO (2010).
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns enthalpy of the standard ocean (SA = 35.16504 g/kg, CT = 0 °C) at p, J/kg
+ */
 export function enthalpy_SSO_0(p: number): number {
   return evalCube(V_INT_Z, XS_SSO, 0, p * 1e-4, DEG + 1) * 1e8;
 }
 
-/** Specific enthalpy h = cp0·CT + h̃, J/kg (TEOS-10 Manual eq. 3.32.x). SA g/kg, CT °C, p dbar. */
+/**
+ * Specific enthalpy h = cp0·CT + h̃, J/kg (TEOS-10 Manual eq. 3.32.x). SA g/kg, CT °C, p dbar.
+ * Reference: Roquet, Madec, McDougall & Barker (2015), Ocean Modelling 90, 29–43; IOC, SCOR & IAPSO (2010).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns specific enthalpy, J/kg
+ */
 export function enthalpy(SA: number, CT: number, p: number): number {
   return cp0 * CT + dynamic_enthalpy(SA, CT, p);
 }
@@ -298,6 +351,10 @@ function planeAt(p_ref: number): Float64Array {
 /**
  * Potential density anomaly σ_pr = ρ(SA, CT, p_ref) − 1000 kg/m³ for any reference pressure
  * p_ref dbar (TEOS-10 names 0…4000 dbar σ0…σ4). SA g/kg, CT °C. Roquet et al. (2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p_ref reference pressure, dbar
+ * @returns potential density anomaly referenced to p_ref (density minus 1000 kg/m³), kg/m³
  */
 export function sigma_pr(SA: number, CT: number, p_ref: number): number {
   if (!inRange(SA, CT, p_ref)) return NaN;
@@ -329,7 +386,15 @@ function checkLengths(...cols: ArrayLike<number>[]): number {
   return n;
 }
 
-/** σ_pr over columns: SA g/kg, CT °C, one reference pressure p_ref dbar → kg/m³. */
+/**
+ * σ_pr over columns: SA g/kg, CT °C, one reference pressure p_ref dbar → kg/m³.
+ * Reference: Roquet, Madec, McDougall & Barker (2015), Ocean Modelling 90, 29–43; IOC, SCOR & IAPSO (2010).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p_ref reference pressure, dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns potential density anomaly referenced to p_ref for each level, kg/m³
+ */
 export function sigma_batch(SA: Float64Array, CT: Float64Array, p_ref: number, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT);
   const o = outFor(n, out);
@@ -394,7 +459,14 @@ export function sigma_batch(SA: Float64Array, CT: Float64Array, p_ref: number, o
 export const sigma0_batch = (SA: Float64Array, CT: Float64Array, out?: Float64Array): Float64Array =>
   sigma_batch(SA, CT, 0, out);
 
-/** In-situ density over columns, kg/m³. SA g/kg, CT °C, p dbar (Roquet et al. 2015). */
+/**
+ * In-situ density over columns, kg/m³. SA g/kg, CT °C, p dbar (Roquet et al. 2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns in-situ density for each level, kg/m³
+ */
 export function rho_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT, p);
   const o = outFor(n, out);
@@ -402,7 +474,14 @@ export function rho_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, o
   return o;
 }
 
-/** Specific volume over columns, m³/kg. SA g/kg, CT °C, p dbar (Roquet et al. 2015). */
+/**
+ * Specific volume over columns, m³/kg. SA g/kg, CT °C, p dbar (Roquet et al. 2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns specific volume for each level, m³/kg
+ */
 export function specvol_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT, p);
   const o = outFor(n, out);
@@ -410,7 +489,14 @@ export function specvol_batch(SA: Float64Array, CT: Float64Array, p: Float64Arra
   return o;
 }
 
-/** α over columns, 1/K (Roquet et al. 2015). */
+/**
+ * α over columns, 1/K (Roquet et al. 2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns thermal expansion coefficient for each level, 1/K
+ */
 export function alpha_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT, p);
   const o = outFor(n, out);
@@ -418,7 +504,14 @@ export function alpha_batch(SA: Float64Array, CT: Float64Array, p: Float64Array,
   return o;
 }
 
-/** β over columns, kg/g (Roquet et al. 2015). */
+/**
+ * β over columns, kg/g (Roquet et al. 2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns saline contraction coefficient for each level, kg/g
+ */
 export function beta_batch(SA: Float64Array, CT: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = checkLengths(SA, CT, p);
   const o = outFor(n, out);

@@ -88,6 +88,9 @@ function collectNotes(kind: CastNote['kind'], reasons: (string | null)[]): CastN
  * Derive every TEOS-10 column of a cast. Levels whose inputs are out of range come back NaN and
  * are listed in the notes with the reason; where the Absolute Salinity atlas has no value the
  * Reference Salinity is used (SA = SR) and the notes say so.
+ * Reference: the TEOS-10 functions it calls (IOC, SCOR & IAPSO 2010); see docs/science.md.
+ * @param input the measured columns of one cast and its position (CastInput: p dbar, t °C, SP or C mS/cm, lon, lat degrees)
+ * @returns the derived columns (SA g/kg, CT °C, σ kg/m³, N² 1/s², …) and notes on missing values
  */
 export function deriveCast(input: CastInput): DerivedCast {
   const cast = CastInputSchema.parse(input);

@@ -28,6 +28,10 @@ function rho_surface(S: number, t: number): number {
 /**
  * Secant bulk modulus K(S, t68, p), bar, with p in dbar (UNESCO 1983, after Millero, Chen,
  * Bradshaw & Schleicher 1980): K = K(S, t, 0) + A·P + B·P² with P in bar.
+ * @param S salinity on the Practical Salinity Scale (PSS-78), unitless
+ * @param t68 in-situ temperature (IPTS-68), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns secant bulk modulus K(S, t68, p), bar
  */
 export function secant_bulk_modulus_eos80(S: number, t68: number, p: number): number {
   const t = t68;
@@ -45,13 +49,23 @@ export function secant_bulk_modulus_eos80(S: number, t68: number, p: number): nu
   return K0 + P * (A + P * B);
 }
 
-/** EOS-80 in-situ density in its own variables: SP, t68 °C, p dbar → kg/m³ (UNESCO 1983). */
+/**
+ * EOS-80 in-situ density in its own variables: SP, t68 °C, p dbar → kg/m³ (UNESCO 1983).
+ * @param S salinity on the Practical Salinity Scale (PSS-78), unitless
+ * @param t68 in-situ temperature (IPTS-68), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns in-situ density (EOS-80), kg/m³
+ */
 export function rho_eos80_t68(S: number, t68: number, p: number): number {
   return rho_surface(S, t68) / (1 - p / 10 / secant_bulk_modulus_eos80(S, t68, p));
 }
 
 /**
  * Adiabatic lapse rate Γ(S, t68, p), °C/dbar (Bryden 1973, as given in UNESCO 1983); p in dbar.
+ * @param S salinity on the Practical Salinity Scale (PSS-78), unitless
+ * @param t68 in-situ temperature (IPTS-68), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns adiabatic lapse rate, °C/dbar
  */
 export function adiabatic_lapse_rate_eos80(S: number, t68: number, p: number): number {
   const t = t68;
@@ -68,6 +82,11 @@ export function adiabatic_lapse_rate_eos80(S: number, t68: number, p: number): n
 /**
  * EOS-80 potential temperature in its own variables: the fourth-order Runge–Kutta integral of
  * the lapse rate from p to p_ref (Fofonoff 1977, as given in UNESCO 1983). SP, t68 °C, dbar.
+ * @param S salinity on the Practical Salinity Scale (PSS-78), unitless
+ * @param t68 in-situ temperature (IPTS-68), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param p_ref reference pressure, dbar
+ * @returns potential temperature (EOS-80, IPTS-68), °C
  */
 export function pt_eos80_t68(S: number, t68: number, p: number, p_ref: number): number {
   const h = p_ref - p;
@@ -90,13 +109,28 @@ function usable(SP: number, t: number, p: number): boolean {
   return checkRange({ SP, t, p }) === null;
 }
 
-/** EOS-80 in-situ density rho_eos80(SP, t, p): SP unitless, t ITS-90 °C, p dbar → kg/m³. */
+/**
+ * EOS-80 in-situ density rho_eos80(SP, t, p): SP unitless, t ITS-90 °C, p dbar → kg/m³.
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44 (Fofonoff & Millard).
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns in-situ density (EOS-80), kg/m³
+ */
 export function rho_eos80(SP: number, t: number, p: number): number {
   if (!usable(SP, t, p)) return NaN;
   return rho_eos80_t68(SP, t68_from_t90(t), p);
 }
 
-/** EOS-80 potential temperature pt_eos80(SP, t, p, p_ref), ITS-90 °C (t ITS-90 °C, p and p_ref dbar). */
+/**
+ * EOS-80 potential temperature pt_eos80(SP, t, p, p_ref), ITS-90 °C (t ITS-90 °C, p and p_ref dbar).
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44 (Fofonoff & Millard).
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param p_ref reference pressure, dbar
+ * @returns potential temperature (EOS-80), °C ITS-90
+ */
 export function pt_eos80(SP: number, t: number, p: number, p_ref: number): number {
   if (!usable(SP, t, p) || !usable(SP, t, p_ref)) return NaN;
   return t90_from_t68(pt_eos80_t68(SP, t68_from_t90(t), p, p_ref));
@@ -105,13 +139,25 @@ export function pt_eos80(SP: number, t: number, p: number, p_ref: number): numbe
 /**
  * EOS-80 potential density anomaly σθ = ρ(SP, θ, 0) − 1000 kg/m³ with θ referenced to 0 dbar
  * (UNESCO 1983): SP unitless, t ITS-90 °C, p dbar. The legacy "sigma-theta" of older tables.
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns potential density anomaly σθ (EOS-80), kg/m³
  */
 export function sigma_theta_eos80(SP: number, t: number, p: number): number {
   if (!usable(SP, t, p)) return NaN;
   return rho_surface(SP, pt_eos80_t68(SP, t68_from_t90(t), p, 0)) - 1000;
 }
 
-/** sigma_theta_eos80 over columns → kg/m³. Allocates only the output. */
+/**
+ * sigma_theta_eos80 over columns → kg/m³. Allocates only the output.
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44 (Fofonoff & Millard).
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns σθ (EOS-80) for each level, kg/m³
+ */
 export function sigma_theta_eos80_batch(
   SP: Float64Array,
   t: Float64Array,

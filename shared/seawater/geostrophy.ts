@@ -43,6 +43,10 @@ function pchipEndSlope(h0: number, h1: number, m0: number, m1: number): number {
 /**
  * Derivatives at the knots of a shape-preserving piecewise cubic Hermite interpolant
  * (Fritsch & Carlson 1980; Fritsch & Butland 1984 weighted harmonic mean). x increasing.
+ * @param x abscissae, strictly increasing (here pressure, dbar)
+ * @param y ordinates at x (any unit)
+ * @param d output, written in place: the slopes dy/dx at x
+ * @returns the slopes d (same array as passed)
  */
 export function pchipSlopes(
   x: ArrayLike<number>,
@@ -175,6 +179,14 @@ function integrationGrid(
  * Levels with a NaN in SA, CT or p are skipped and come back NaN; when p_ref is deeper than the
  * deepest good level, or fewer than two levels are good, every level comes back NaN.
  * TEOS-10 Manual §3.27 with the reference library's integration between bottles (see file head).
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual §3.27; McDougall & Barker (2011), GSW Toolbox guide.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param p_ref reference pressure, dbar
+ * @param options max_dp, the largest gap between levels integrated without interpolation (dbar, default 1),
+ *   and the interpolation between levels (default 'pchip')
+ * @returns dynamic height anomaly at each level, m²/s²
  */
 export function geo_strf_dyn_height(
   SA: ArrayLike<number>,
@@ -265,7 +277,12 @@ export const OMEGA = 7.292115e-5;
 /** Mean Earth radius, m (WGS-84 mean radius R1 = 6 371 008.8 m, Moritz 2000). */
 export const EARTH_MEAN_RADIUS = 6371008.8;
 
-/** Coriolis parameter f = 2Ω sin φ, 1/s; lat degrees. */
+/**
+ * Coriolis parameter f = 2Ω sin φ, 1/s; lat degrees.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual §3.27; McDougall & Barker (2011), GSW Toolbox guide.
+ * @param lat latitude, degrees north
+ * @returns Coriolis parameter, 1/s
+ */
 export function f(lat: number): number {
   return 2 * OMEGA * Math.sin((lat * Math.PI) / 180);
 }
@@ -273,6 +290,15 @@ export function f(lat: number): number {
 /**
  * Great-circle distance (haversine) between two positions, m; lon/lat degrees. An optional
  * sea pressure p (dbar) shortens the arc to the radius at that depth, (R + z(p)).
+ * Reference: the haversine formula (common practice), with the depth correction of the TEOS-10
+ * library's distance function (McDougall & Barker 2011, GSW Toolbox guide).
+ * @param lon_a longitude of station A, degrees east
+ * @param lat_a latitude of station A, degrees north
+ * @param lon_b longitude of station B, degrees east
+ * @param lat_b latitude of station B, degrees north
+ * @param p sea pressure at which the arc is measured, dbar (0, the surface, unless given)
+ * @param radius radius of the sphere, m (the Earth’s mean radius unless given)
+ * @returns great-circle distance between A and B, m
  */
 export function distance(
   lon_a: number,
@@ -306,6 +332,16 @@ export interface GeostrophicVelocityOptions {
  * f at the mid latitude, L the great-circle distance. D_a, D_b dynamic height anomalies m²/s²
  * on the same levels and relative to the same reference; lon/lat degrees. Positive v is 90° to
  * the left of the direction a → b (Fofonoff 1962; TEOS-10 Manual §3.27).
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual §3.27; McDougall & Barker (2011), GSW Toolbox guide.
+ * @param D_a dynamic height anomaly profile of station A, m²/s²
+ * @param D_b dynamic height anomaly profile of station B, m²/s²
+ * @param lon_a longitude of station A, degrees east
+ * @param lat_a latitude of station A, degrees north
+ * @param lon_b longitude of station B, degrees east
+ * @param lat_b latitude of station B, degrees north
+ * @param options radius of the Earth (m, default the mean radius) and the pressures of D_a and D_b (dbar) for
+ *   the (R + z) correction of the distance
+ * @returns geostrophic velocity at each level relative to the reference, m/s
  */
 export function geostrophic_velocity(
   D_a: ArrayLike<number>,
@@ -356,6 +392,13 @@ export interface StrfVelocityResult {
  * reference pressure (dbar) or to the deepest level where both casts have data
  * ('deepest_common', the usual level-of-no-motion choice for a station pair).
  * SA g/kg, CT °C, lon/lat degrees.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual §3.27; McDougall & Barker (2011), GSW Toolbox guide.
+ * @param a station A: its SA (g/kg) and CT (°C) columns, lon and lat (degrees)
+ * @param b station B, as a
+ * @param p the common pressure levels of both columns, dbar
+ * @param reference reference pressure of the velocity (level of no motion), dbar, or 'deepest_common'
+ * @param options max_dp and interpolation as for geo_strf_dyn_height, and the Earth's radius (m)
+ * @returns the velocity profile (m/s) and what was integrated
  */
 export function geo_strf_velocity(
   a: CastTS,
@@ -394,6 +437,12 @@ export function geo_strf_velocity(
  * Volume transport per layer between adjacent levels, m³/s: the mean velocity of the two levels
  * times the layer's thickness in metres (from z_from_p at the mid latitude) times the distance L (m).
  * v m/s, p dbar, lat degrees. Layers touching a NaN give NaN.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual §3.27; McDougall & Barker (2011), GSW Toolbox guide.
+ * @param v geostrophic velocity at each level, m/s
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param L horizontal distance between the two stations, m
+ * @param lat latitude, degrees north
+ * @returns volume transport of each layer between adjacent levels, m³/s
  */
 export function layer_transport(v: ArrayLike<number>, p: ArrayLike<number>, L: number, lat: number): Float64Array {
   const out = new Float64Array(Math.max(0, v.length - 1));

@@ -169,6 +169,11 @@ const zPow = new Float64Array(7);
  * g(SA, t, p) = Σ_j a_j y^j with y = t/40, in J/kg. SA in g/kg (≥ 0), p in dbar.
  * Reads the tables term by term; `collapse` is the same sum in Horner form, for speed, and a
  * unit test holds the two equal.
+ * Reference: IAPWS SR7-09 (2009) and IAPWS R13-08 (2008); IOC, SCOR & IAPSO (2010), Appendix H.
+ * @param SA Absolute Salinity, g/kg
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param a output, written in place: the collapsed Gibbs coefficients in y = t/40 at (SA, p)
+ * @returns nothing: the coefficients are written into a
  */
 export function collapseFromTables(SA: number, p: number, a: Float64Array): void {
   const x2 = sfac * SA;
@@ -191,6 +196,11 @@ export function collapseFromTables(SA: number, p: number, a: Float64Array): void
  * As `collapseFromTables`: a_j = Σ_k z^k (g_jk + g_1jk x² ln x + Σ_{i≥2} g_ijk x^i), with the
  * coefficients of the two tables written out (Horner form in x at the surface, sums of powers
  * at depth). The conversions call this once or twice per point: it is the hot path of CT_from_t.
+ * Reference: IAPWS SR7-09 (2009) and IAPWS R13-08 (2008); IOC, SCOR & IAPSO (2010), Appendix H.
+ * @param SA Absolute Salinity, g/kg
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param a output, written in place: the collapsed Gibbs coefficients in y = t/40 at (SA, p)
+ * @returns nothing: the coefficients are written into a
  */
 export function collapse(SA: number, p: number, a: Float64Array): void {
   const x2 = sfac * SA;
@@ -203,6 +213,13 @@ export function collapse(SA: number, p: number, a: Float64Array): void {
  * sharing the square root and the logarithm of salinity. The conversions need only the
  * derivatives ∂g/∂y and ∂²g/∂y² at the in-situ pressure, so there a[0] (g's part free of y)
  * is not summed and is left NaN; at the reference pressure everything is.
+ * Reference: IAPWS SR7-09 (2009) and IAPWS R13-08 (2008); IOC, SCOR & IAPSO (2010), Appendix H.
+ * @param SA Absolute Salinity, g/kg
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param p_ref reference pressure, dbar
+ * @param a output, written in place: the collapsed coefficients at p
+ * @param b output, written in place: the collapsed coefficients at p_ref
+ * @returns nothing: the coefficients are written into a and b
  */
 export function collapsePair(SA: number, p: number, p_ref: number, a: Float64Array, b: Float64Array): void {
   const x2 = sfac * SA;

@@ -35,6 +35,11 @@ export interface MldResult {
  * Mixed-layer pressure (dbar) from σ0 (kg/m³) and p (dbar, increasing). The reference σ0 is
  * interpolated linearly to p_ref; a cast whose first good level is deeper than p_ref has no
  * reference (NaN with a reason). Convert to depth with z_from_p.
+ * Reference: de Boyer Montégut et al. (2004), J. Geophys. Res. 109, C12003.
+ * @param sigma0 potential density anomaly referenced to 0 dbar, kg/m³
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param options p_ref, the reference level (dbar, default 10), and threshold (kg/m³, default 0.03)
+ * @returns the mixed-layer depth (dbar) and how it was found
  */
 export function mixed_layer_depth(
   sigma0: ArrayLike<number>,

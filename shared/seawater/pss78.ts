@@ -11,12 +11,21 @@ import { checkRange } from './ranges';
 /** Conductivity of standard seawater, C(35, 15 °C IPTS-68, 0 dbar) = 42.9140 mS/cm (UNESCO 1983). */
 export const C3515 = 42.914;
 
-/** IPTS-68 temperature from ITS-90: t68 = 1.00024·t90 (Saunders 1990; UNESCO/JPOTS). */
+/**
+ * IPTS-68 temperature from ITS-90: t68 = 1.00024·t90 (Saunders 1990; UNESCO/JPOTS).
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44; Hill, Dauphinee & Woods (1986).
+ * @param t90 temperature (ITS-90), °C
+ * @returns temperature on the IPTS-68 scale, °C
+ */
 export function t68_from_t90(t90: number): number {
   return 1.00024 * t90;
 }
 
-/** ITS-90 temperature from IPTS-68: t90 = t68/1.00024 (Saunders 1990), °C. */
+/**
+ * ITS-90 temperature from IPTS-68: t90 = t68/1.00024 (Saunders 1990), °C.
+ * @param t68 in-situ temperature (IPTS-68), °C
+ * @returns temperature on the ITS-90 scale, °C
+ */
 export function t90_from_t68(t68: number): number {
   return t68 / 1.00024;
 }
@@ -81,6 +90,10 @@ function hill_ratio_at_sp2(t68: number): number {
  * Practical Salinity SP_from_C(C, t, p) from conductivity C (mS/cm), in-situ temperature t (°C,
  * ITS-90) and sea pressure p (dbar): PSS-78 (UNESCO 1983) for SP ≥ 2 and Hill et al. (1986)
  * below. NaN outside 0 ≤ SP ≤ 42 and the ranges of `ranges.ts` (`checkRange` says why).
+ * @param C conductivity, mS/cm
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns Practical Salinity (PSS-78), unitless; NaN outside its range
  */
 export function SP_from_C(C: number, t: number, p: number): number {
   if (!(C >= 0 && C <= 100 && t >= -6 && t <= 40 && p >= -5 && p <= 10000)) return NaN;
@@ -99,7 +112,14 @@ function sp_of_C(C: number, t68: number, p: number): number {
   return Math.max(0, hill_ratio_at_sp2(t68) * hill_raw(sp, Rt, t68));
 }
 
-/** Why SP_from_C(C, t, p) is NaN, or null when it is a number. */
+/**
+ * Why SP_from_C(C, t, p) is NaN, or null when it is a number.
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44; Hill, Dauphinee & Woods (1986).
+ * @param C conductivity, mS/cm
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns why SP_from_C gives NaN for these inputs, or null when it gives a number
+ */
 export function SP_from_C_reason(C: number, t: number, p: number): string | null {
   const inputs = checkRange({ C, t, p });
   if (inputs) return inputs;
@@ -111,6 +131,11 @@ export function SP_from_C_reason(C: number, t: number, p: number): string | null
 /**
  * Conductivity C_from_SP(SP, t, p), mS/cm: the inverse of SP_from_C, found by the secant method
  * (SP grows monotonically with C). For tests and for making demo casts.
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44; Hill, Dauphinee & Woods (1986).
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns conductivity, mS/cm
  */
 export function C_from_SP(SP: number, t: number, p: number): number {
   if (checkRange({ SP, t, p })) return NaN;
@@ -131,7 +156,15 @@ export function C_from_SP(SP: number, t: number, p: number): number {
   return c1;
 }
 
-/** SP_from_C over columns: C mS/cm, t °C, p dbar → SP. Allocates only the output. */
+/**
+ * SP_from_C over columns: C mS/cm, t °C, p dbar → SP. Allocates only the output.
+ * Reference: UNESCO (1983), Unesco Technical Papers in Marine Science 44; Hill, Dauphinee & Woods (1986).
+ * @param C conductivity, mS/cm
+ * @param t in-situ temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns Practical Salinity for each level, unitless
+ */
 export function SP_from_C_batch(C: Float64Array, t: Float64Array, p: Float64Array, out?: Float64Array): Float64Array {
   const n = C.length;
   if (t.length !== n || p.length !== n) throw new RangeError('SP_from_C_batch: input columns differ in length');

@@ -24,7 +24,14 @@ export const C_RANGE = [0, 100] as const;
 export const LAT_RANGE = [-90, 90] as const;
 export const LON_RANGE = [-360, 720] as const;
 
-/** True when (SA, temperature, p) lies inside the box (any NaN gives false). */
+/**
+ * True when (SA, temperature, p) lies inside the box (any NaN gives false).
+ * Reference: IAPWS R13-08 (2008), §4; IOC, SCOR & IAPSO (2010), §2.2; UNESCO (1983).
+ * @param SA Absolute Salinity, g/kg
+ * @param T temperature (in-situ or Conservative), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @returns whether the inputs lie inside the seawater core’s range of validity
+ */
 export function inRange(SA: number, T: number, p: number): boolean {
   return (
     SA >= SA_RANGE[0] && SA <= SA_RANGE[1] && T >= T_RANGE[0] && T <= T_RANGE[1] && p >= P_RANGE[0] && p <= P_RANGE[1]
@@ -61,6 +68,9 @@ const LIMITS: Record<keyof SeawaterInputs, { unit: string; range: readonly [numb
 /**
  * Why a function given these inputs returns NaN, in words a hydrographer can read, or null when
  * every input is usable. Only the inputs passed are checked, e.g. `checkRange({ SA, t, p })`.
+ * Reference: IAPWS R13-08 (2008), §4; IOC, SCOR & IAPSO (2010), §2.2; UNESCO (1983).
+ * @param inputs named scalar inputs (SA g/kg, SP unitless, t and CT °C, p dbar); absent ones are not checked
+ * @returns the reason the first input out of range gives NaN, or null when all are in range
  */
 export function checkRange(inputs: SeawaterInputs): string | null {
   for (const name of Object.keys(inputs) as (keyof SeawaterInputs)[]) {
@@ -91,6 +101,9 @@ export interface RangeNote {
 /**
  * Scan a cast's columns and group its unusable levels by the input that failed, for the cast's
  * notes: a cast gives a few lines, not one per level.
+ * Reference: IAPWS R13-08 (2008), §4; IOC, SCOR & IAPSO (2010), §2.2; UNESCO (1983).
+ * @param columns named input columns in the same units as `inputs` of checkRange
+ * @returns one note per input column that leaves the range: where and how often
  */
 export function rangeNotes(columns: { [K in keyof SeawaterInputs]?: ArrayLike<number> }): RangeNote[] {
   const names = Object.keys(columns) as (keyof SeawaterInputs)[];

@@ -112,7 +112,11 @@ function loadAtlas(): Atlas {
   return atlas;
 }
 
-/** Reference Salinity SR_from_SP(SP) = (35.16504/35)·SP, g/kg (Millero et al. 2008). */
+/**
+ * Reference Salinity SR_from_SP(SP) = (35.16504/35)·SP, g/kg (Millero et al. 2008).
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @returns Reference Salinity, g/kg
+ */
 export function SR_from_SP(SP: number): number {
   return uPS * SP;
 }
@@ -222,6 +226,10 @@ function saarAt(a: Atlas, p: number, x: number, lat: number): number {
  * Absolute Salinity Anomaly Ratio SAAR(p, lon, lat), unitless, from the McDougall et al. (2012)
  * atlas; { value: 0, inAtlas: false } where the atlas has no value (land, south of 86° S).
  * p in dbar, lon in °E, lat in °N.
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param lon longitude, degrees east (taken modulo 360)
+ * @param lat latitude, degrees north
+ * @returns the Absolute Salinity Anomaly Ratio (unitless) and whether the atlas holds the point
  */
 export function SAAR(p: number, lon: number, lat: number): SAARValue {
   if (!(Number.isFinite(p) && Number.isFinite(lon) && Number.isFinite(lat))) return { value: NaN, inAtlas: false };
@@ -229,7 +237,12 @@ export function SAAR(p: number, lon: number, lat: number): SAARValue {
   return Number.isNaN(v) ? { value: 0, inAtlas: false } : { value: v, inAtlas: true };
 }
 
-/** True inside the Baltic Sea region of Feistel et al. (2010), from the edges in the atlas file. */
+/**
+ * True inside the Baltic Sea region of Feistel et al. (2010), from the edges in the atlas file.
+ * @param lon longitude, degrees east (taken modulo 360)
+ * @param lat latitude, degrees north
+ * @returns whether the position lies in the Baltic Sea polygon of the atlas
+ */
 export function inBaltic(lon: number, lat: number): boolean {
   return balticAt(loadAtlas().baltic, wrapLon(lon), lat);
 }
@@ -248,7 +261,11 @@ function balticAt(b: Float64Array, x: number, lat: number): boolean {
   return x >= west && x <= east;
 }
 
-/** Absolute Salinity in the Baltic Sea, SA = (35.16504 − 0.087)/35·SP + 0.087 g/kg (Feistel et al. 2010). */
+/**
+ * Absolute Salinity in the Baltic Sea, SA = (35.16504 − 0.087)/35·SP + 0.087 g/kg (Feistel et al. 2010).
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @returns Absolute Salinity by the Baltic relation, g/kg (the caller decides that the position is in the Baltic)
+ */
 export function SA_from_SP_Baltic(SP: number): number {
   return ((SSO - 0.087) / 35) * SP + 0.087;
 }
@@ -266,6 +283,12 @@ export interface SADetail {
 /**
  * Absolute Salinity with its provenance: SA from the atlas, the Baltic formula, or SR where the
  * atlas has no value (with a note). SP unitless, p dbar, lon °E, lat °N → SA g/kg.
+ * Reference: Millero et al. (2008), Deep-Sea Res. I 55; McDougall et al. (2012), Ocean Science 8, 1123–1134.
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param lon longitude, degrees east (taken modulo 360)
+ * @param lat latitude, degrees north
+ * @returns Absolute Salinity (g/kg) and where its anomaly came from
  */
 export function SA_from_SP_detail(SP: number, p: number, lon: number, lat: number): SADetail {
   const reason = checkRange({ SP, p, lon, lat });
@@ -282,7 +305,15 @@ export function SA_from_SP_detail(SP: number, p: number, lon: number, lat: numbe
   return { SA: SR_from_SP(SP) * (1 + ratio.value), source: 'atlas', note: null };
 }
 
-/** Absolute Salinity SA_from_SP(SP, p, lon, lat), g/kg: SR·(1 + SAAR), Baltic formula, or SR fallback. */
+/**
+ * Absolute Salinity SA_from_SP(SP, p, lon, lat), g/kg: SR·(1 + SAAR), Baltic formula, or SR fallback.
+ * Reference: Millero et al. (2008), Deep-Sea Res. I 55; McDougall et al. (2012), Ocean Science 8, 1123–1134.
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param lon longitude, degrees east (taken modulo 360)
+ * @param lat latitude, degrees north
+ * @returns Absolute Salinity, g/kg
+ */
 export function SA_from_SP(SP: number, p: number, lon: number, lat: number): number {
   // The range test of `checkRange`, written out: this runs once per level of every cast.
   if (!(
@@ -306,6 +337,14 @@ export function SA_from_SP(SP: number, p: number, lon: number, lat: number): num
 /**
  * SA_from_SP over a cast's columns at one position, and where the atlas is silent there
  * (`silent[i] = 1`: SA = SR used), with one atlas look-up a level. SP unitless, p dbar → SA g/kg.
+ * Reference: Millero et al. (2008), Deep-Sea Res. I 55; McDougall et al. (2012), Ocean Science 8, 1123–1134.
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param lon longitude, degrees east (taken modulo 360)
+ * @param lat latitude, degrees north
+ * @param SA Absolute Salinity, g/kg
+ * @param silent optional output: set to 1 where the atlas is silent at a level (SAAR taken as 0)
+ * @returns nothing: Absolute Salinity (g/kg) is written into out
  */
 export function SA_from_SP_cast(
   SP: Float64Array,
@@ -342,6 +381,13 @@ export function SA_from_SP_cast(
 /**
  * SA_from_SP over a cast's columns (SP, p) at one or many positions (lon, lat as numbers or
  * columns) → SA g/kg. Allocates only the output.
+ * Reference: Millero et al. (2008), Deep-Sea Res. I 55; McDougall et al. (2012), Ocean Science 8, 1123–1134.
+ * @param SP Practical Salinity (PSS-78), unitless
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param lon longitude, degrees east (taken modulo 360)
+ * @param lat latitude, degrees north
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns Absolute Salinity for each level, g/kg
  */
 export function SA_from_SP_batch(
   SP: Float64Array,

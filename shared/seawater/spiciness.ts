@@ -43,7 +43,12 @@ const S: ReadonlyArray<readonly number[]> = [
 ];
 const FLAT = Float64Array.from(S.flat());
 
-/** spiciness0(SA g/kg, CT °C) in kg/m³ (McDougall & Krzysik 2015). */
+/**
+ * spiciness0(SA g/kg, CT °C) in kg/m³ (McDougall & Krzysik 2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @returns spiciness referenced to 0 dbar, kg/m³
+ */
 export function spiciness0(SA: number, CT: number): number {
   if (!inRange(SA, CT, 0)) return NaN;
   const xs = Math.sqrt(sfac * SA + offset);
@@ -57,7 +62,14 @@ export function spiciness0(SA: number, CT: number): number {
   return r;
 }
 
-/** spiciness0 over columns SA g/kg, CT °C → kg/m³. */
+/**
+ * spiciness0 over columns SA g/kg, CT °C → kg/m³.
+ * Reference: McDougall & Krzysik (2015), J. Mar. Res. 73, 141–152.
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param out optional output column of the same length (allocated when absent)
+ * @returns spiciness referenced to 0 dbar for each level, kg/m³
+ */
 export function spiciness0_batch(SA: Float64Array, CT: Float64Array, out?: Float64Array): Float64Array {
   if (SA.length !== CT.length) throw new RangeError('SA and CT differ in length');
   const o = out ?? new Float64Array(SA.length);

@@ -19,6 +19,12 @@ export interface NsquaredResult {
  * Buoyancy frequency squared N² (s⁻²) between adjacent levels of a cast.
  * SA g/kg, CT °C, p dbar (increasing), lat degrees (one latitude for the cast, or one per level).
  * A pair with a NaN gives NaN at its mid-point.
+ * Reference: IOC, SCOR & IAPSO (2010), TEOS-10 Manual §3.10; Roquet et al. (2015).
+ * @param SA Absolute Salinity, g/kg
+ * @param CT Conservative Temperature (ITS-90), °C
+ * @param p sea pressure (absolute pressure minus 10.1325 dbar), dbar
+ * @param lat latitude, degrees north
+ * @returns N² between adjacent levels (1/s²) and the mid-point pressures (dbar)
  */
 export function Nsquared(
   SA: ArrayLike<number>,
