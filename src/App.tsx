@@ -23,7 +23,7 @@ const lazyScreen = (load: () => Promise<{ default: React.ComponentType }>) => as
 
 /**
  * Every route of the client. Screens live one per file in src/routes/; the cruise area's
- * sub-navigation is CRUISE_SECTIONS in src/features/cruises/nav.ts — add a child route here and
+ * sub-navigation is CRUISE_TABS in src/features/cruises/nav.ts — add a child route here and
  * an entry there.
  */
 export function buildRoutes(queryClient: QueryClient): RouteObject[] {

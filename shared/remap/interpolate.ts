@@ -225,7 +225,12 @@ export function fritschCarlsonSlopes(x: Float64Array, y: Float64Array, out?: Flo
  * the bracketed targets: the cubic Hermite form on [x_k, x_{k+1}] with the limited derivatives.
  * Only the two nodes of each used interval are evaluated, so the cost is O(m) per column.
  */
-export function interpPchipAt(x: Float64Array, y: Float64Array, br: Bracket, out?: Float64Array): Float64Array {
+export function interpFritschCarlsonAt(
+  x: Float64Array,
+  y: Float64Array,
+  br: Bracket,
+  out?: Float64Array,
+): Float64Array {
   const m = br.index.length;
   const res = out ?? new Float64Array(m);
   let kCached = -2;

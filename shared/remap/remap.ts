@@ -29,7 +29,7 @@ import {
   firstCrossing,
   interpLinearAt,
   interpLinearOrderedAt,
-  interpPchipAt,
+  interpFritschCarlsonAt,
   lowerBound,
   upperBound,
   type Bracket,
@@ -264,9 +264,9 @@ function evaluate(
     if (how === 'linear') return interpLinearOrderedAt(y, order, br);
     const moved = new Float64Array(order.length);
     for (let k = 0; k < order.length; k++) moved[k] = y[order[k]];
-    return interpPchipAt(sigma, moved, br);
+    return interpFritschCarlsonAt(sigma, moved, br);
   }
-  return how === 'pchip' ? interpPchipAt(sigma, y, br) : interpLinearAt(y, br);
+  return how === 'pchip' ? interpFritschCarlsonAt(sigma, y, br) : interpLinearAt(y, br);
 }
 
 /** Mid-levels about each target: m + 1 values, half a step beyond the ends. */

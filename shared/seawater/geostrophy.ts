@@ -48,7 +48,7 @@ function pchipEndSlope(h0: number, h1: number, m0: number, m1: number): number {
  * @param d output, written in place: the slopes dy/dx at x
  * @returns the slopes d (same array as passed)
  */
-export function pchipSlopes(
+export function pchipSlopesFritschButland(
   x: ArrayLike<number>,
   y: ArrayLike<number>,
   d: Float64Array = new Float64Array(x.length),
@@ -251,8 +251,8 @@ export function geo_strf_dyn_height(
     const saI = new Float64Array(grid.length),
       ctI = new Float64Array(grid.length);
     if (interpolation === 'pchip') {
-      hermiteAt(pp, sa, pchipSlopes(pp, sa), grid, saI);
-      hermiteAt(pp, ct, pchipSlopes(pp, ct), grid, ctI);
+      hermiteAt(pp, sa, pchipSlopesFritschButland(pp, sa), grid, saI);
+      hermiteAt(pp, ct, pchipSlopesFritschButland(pp, ct), grid, ctI);
     } else {
       hermiteAt(pp, sa, null, grid, saI);
       hermiteAt(pp, ct, null, grid, ctI);

@@ -12,7 +12,7 @@ export {
   layer_transport,
   distance,
   f,
-  pchipSlopes,
+  pchipSlopesFritschButland,
   EARTH_MEAN_RADIUS,
   type DynHeightOptions,
   type DynHeightInterpolation,

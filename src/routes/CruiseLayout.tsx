@@ -1,9 +1,9 @@
 import { Link, NavLink, Outlet, useLocation, useOutletContext, useParams } from 'react-router-dom';
 import { ErrorNotice, Progress } from '../components/Notice';
-import { CRUISE_SECTIONS, CruiseHeader, useCruise, type Cruise } from '../features/cruises';
+import { CRUISE_TABS, CruiseHeader, useCruise, type Cruise } from '../features/cruises';
 import { isApiError } from '../lib/http';
 
-/** The cruise area: header, the sub-navigation from CRUISE_SECTIONS, then the section's screen. */
+/** The cruise area: header, the sub-navigation from CRUISE_TABS, then the section's screen. */
 export default function CruiseLayout() {
   const { id = '' } = useParams();
   const cruise = useCruise(id);
@@ -25,7 +25,7 @@ export default function CruiseLayout() {
     return <ErrorNotice error={cruise.error} title="The cruise could not be loaded" />;
   }
 
-  const sections = CRUISE_SECTIONS.filter((s) => !s.visibleTo || s.visibleTo(cruise.data.role));
+  const tabs = CRUISE_TABS.filter((s) => !s.visibleTo || s.visibleTo(cruise.data.role));
   const screen = screenName(location.pathname, id);
   return (
     <div className="flex flex-col gap-3">
@@ -37,11 +37,8 @@ export default function CruiseLayout() {
         <span className="text-ink-soft">{screen}</span>
       </nav>
       <CruiseHeader cruise={cruise.data} screen={screen} />
-      <nav
-        aria-label="Cruise sections"
-        className="-mt-1 flex flex-wrap gap-0.5 border-b border-paper-rule print:hidden"
-      >
-        {sections.map((s) => (
+      <nav aria-label="Cruise tabs" className="-mt-1 flex flex-wrap gap-0.5 border-b border-paper-rule print:hidden">
+        {tabs.map((s) => (
           <NavLink
             key={s.label}
             to={s.path ? `/cruises/${encodeURIComponent(id)}/${s.path}` : `/cruises/${encodeURIComponent(id)}`}
@@ -64,7 +61,7 @@ function screenName(pathname: string, id: string): string {
   const rest = pathname.replace(`/cruises/${encodeURIComponent(id)}`, '').replace(/^\/+/, '');
   if (!rest) return 'Cruise desk';
   if (/^casts\/./.test(rest)) return 'Cast sheet';
-  const hit = CRUISE_SECTIONS.find((s) => s.path && (rest === s.path || rest.startsWith(`${s.path}/`)));
+  const hit = CRUISE_TABS.find((s) => s.path && (rest === s.path || rest.startsWith(`${s.path}/`)));
   return hit ? hit.label : 'Cruise';
 }
 

@@ -11,8 +11,8 @@ export {
   useAddStation,
 } from './api';
 export type { CruisePatch } from './api';
-export { CRUISE_SECTIONS } from './nav';
-export type { CruiseSection } from './nav';
+export { CRUISE_TABS } from './nav';
+export type { CruiseTab } from './nav';
 export { CreateCruiseForm } from './components/CreateCruiseForm';
 export { CruiseHeader } from './components/CruiseHeader';
 export { StationList, AddStationForm } from './components/StationPlan';

@@ -1,6 +1,6 @@
 import type { Role } from '../auth';
 
-export interface CruiseSection {
+export interface CruiseTab {
   /** Shown in the cruise sub-navigation. */
   label: string;
   /** Relative to `/cruises/:id`; '' is the desk itself. */
@@ -14,7 +14,7 @@ export interface CruiseSection {
  * Desk, Intake, Casts, Section, Layer sets, Deliveries, Team.
  * Add an entry here when its route exists (and add the route in src/App.tsx).
  */
-export const CRUISE_SECTIONS: readonly CruiseSection[] = [
+export const CRUISE_TABS: readonly CruiseTab[] = [
   { label: 'Desk', path: '' },
   { label: 'Intake', path: 'intake' },
   { label: 'Casts', path: 'casts' },

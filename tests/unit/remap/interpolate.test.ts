@@ -4,7 +4,7 @@ import {
   firstCrossing,
   fritschCarlsonSlopes,
   interpLinearAt,
-  interpPchipAt,
+  interpFritschCarlsonAt,
   interpLinear,
 } from '../../../shared/remap';
 
@@ -36,7 +36,7 @@ describe('Fritsch–Carlson monotone cubic', () => {
     const x = f64([0, 0.5, 1.7, 2, 3.1]);
     const y = x.map((v) => 1 + 4 * v);
     const q = f64([0.1, 0.9, 1.8, 3.0]);
-    const out = interpPchipAt(x, y, firstCrossing(x, q));
+    const out = interpFritschCarlsonAt(x, y, firstCrossing(x, q));
     for (let j = 0; j < q.length; j++) expect(Math.abs(out[j] - (1 + 4 * q[j]))).toBeLessThan(1e-13);
   });
 
@@ -63,7 +63,7 @@ describe('Fritsch–Carlson monotone cubic', () => {
           const q = new Float64Array(200);
           for (let j = 0; j < q.length; j++) q[j] = (x[x.length - 1] * j) / (q.length - 1);
           q[q.length - 1] = x[x.length - 1];
-          const out = interpPchipAt(x, y, firstCrossing(x, q));
+          const out = interpFritschCarlsonAt(x, y, firstCrossing(x, q));
           for (let j = 1; j < q.length; j++) if (out[j] < out[j - 1] - 1e-9 * (1 + Math.abs(out[j]))) return false;
           return out[0] === y[0] && Math.abs(out[q.length - 1] - y[y.length - 1]) < 1e-9 * (1 + y[y.length - 1]);
         },
