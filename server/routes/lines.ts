@@ -5,8 +5,8 @@ import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { notFound } from '../lib/errors';
 import { Line } from '../models/index';
-import { audit } from '../lib/audit';
-import { cached, dataVersion, invalidateDataVersion, loadCruiseCasts } from '../services/cruiseData';
+import { auditedChange } from '../services/changes';
+import { cached, dataVersion, loadCruiseCasts } from '../services/cruiseData';
 import { listLines, createLine, updateLine, deleteLine, resolveLine, lineJson } from '../services/lines';
 import type { AppDeps } from '../lib/deps';
 
@@ -63,22 +63,14 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
       body: NewLine,
       handler: async (req, res, ctx) => {
         const b = ctx.body;
-        const row = await deps.db.sequelize.transaction(async (transaction) => {
-          const r = await createLine(ctx.cruiseId!, req.user!.id, b, transaction);
-          await audit(
-            {
-              cruiseId: ctx.cruiseId!,
-              userId: req.user!.id,
-              action: 'create',
-              entity: 'line',
-              entityId: r.id,
-              after: b,
-            },
-            transaction,
-          );
-          return r;
-        });
-        invalidateDataVersion(ctx.cruiseId!);
+        const row = await auditedChange(
+          deps.db.sequelize,
+          { cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'create', entity: 'line' },
+          async (transaction) => {
+            const r = await createLine(ctx.cruiseId!, req.user!.id, b, transaction);
+            return { result: r, entityId: r.id, after: b };
+          },
+        );
         res.status(201).json(await one(row));
       },
     }),
@@ -98,34 +90,25 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
       body: PatchLine,
       handler: async (req, _res, ctx) => {
         const b = ctx.body;
-        const row = await deps.db.sequelize.transaction(async (transaction) => {
-          const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
-          if (!r) throw notFound('No such line.');
-          const before = {
-            name: r.name,
-            stations: r.stations,
-            casts: r.casts,
-            include: r.include,
-            exclude: r.exclude,
-            polyline: r.polyline,
-            corridorKm: r.corridorKm,
-          };
-          await updateLine(r, b, transaction);
-          await audit(
-            {
-              cruiseId: ctx.cruiseId!,
-              userId: req.user!.id,
-              action: 'update',
-              entity: 'line',
-              entityId: r.id,
-              before,
-              after: b,
-            },
-            transaction,
-          );
-          return r;
-        });
-        invalidateDataVersion(ctx.cruiseId!);
+        const row = await auditedChange(
+          deps.db.sequelize,
+          { cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'update', entity: 'line' },
+          async (transaction) => {
+            const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
+            if (!r) throw notFound('No such line.');
+            const before = {
+              name: r.name,
+              stations: r.stations,
+              casts: r.casts,
+              include: r.include,
+              exclude: r.exclude,
+              polyline: r.polyline,
+              corridorKm: r.corridorKm,
+            };
+            await updateLine(r, b, transaction);
+            return { result: r, entityId: r.id, before, after: b };
+          },
+        );
         return one(row);
       },
     }),
@@ -136,23 +119,16 @@ export function lineRoutes(deps: AppDeps): RouteSpec[] {
       summary: 'Delete a line (not the default line)',
       rule: { kind: 'member', roles: [...editors], cruise: lineCruise },
       handler: async (req, res, ctx) => {
-        await deps.db.sequelize.transaction(async (transaction) => {
-          const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
-          if (!r) throw notFound('No such line.');
-          await deleteLine(r, transaction);
-          await audit(
-            {
-              cruiseId: ctx.cruiseId!,
-              userId: req.user!.id,
-              action: 'delete',
-              entity: 'line',
-              entityId: r.id,
-              before: { name: r.name, stations: r.stations, casts: r.casts },
-            },
-            transaction,
-          );
-        });
-        invalidateDataVersion(ctx.cruiseId!);
+        await auditedChange(
+          deps.db.sequelize,
+          { cruiseId: ctx.cruiseId!, userId: req.user!.id, action: 'delete', entity: 'line' },
+          async (transaction) => {
+            const r = await Line.findByPk(String(req.params.id), { transaction, lock: true });
+            if (!r) throw notFound('No such line.');
+            await deleteLine(r, transaction);
+            return { result: null, entityId: r.id, before: { name: r.name, stations: r.stations, casts: r.casts } };
+          },
+        );
         res.status(204).end();
       },
     }),

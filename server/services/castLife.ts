@@ -5,9 +5,8 @@
 // default scope says so, and a unique index over live rows keeps one live cast per station and cast.
 import type { Transaction } from 'sequelize';
 import { AuditEntry, Cast, Upload, User, type UploadConflict } from '../models/index';
-import { audit } from '../lib/audit';
 import { HttpError, notFound } from '../lib/errors';
-import { invalidateDataVersion } from './cruiseData';
+import { auditedChange } from './changes';
 import { readColumns, type StoredColumn } from './columns';
 import { inversionsOfGoodLevels } from './processCast';
 import type { AppDeps } from '../lib/deps';
@@ -174,21 +173,18 @@ export async function removeCast(deps: AppDeps, castId: string, userId: string, 
       'superseded',
       'This version was replaced by a corrected file; remove the live version instead.',
     );
-  await deps.db.sequelize.transaction(async (transaction) => {
-    await c.update({ removedAt: new Date(), removedBy: userId }, { transaction });
-    await audit(
-      {
-        cruiseId: c.cruiseId,
-        userId,
-        action: 'remove_cast',
-        entity: 'cast',
+  await auditedChange(
+    deps.db.sequelize,
+    { cruiseId: c.cruiseId, userId, action: 'remove_cast', entity: 'cast' },
+    async (transaction) => {
+      await c.update({ removedAt: new Date(), removedBy: userId }, { transaction });
+      return {
+        result: null,
         entityId: c.id,
         after: { station: c.station, cast: c.cast, file: c.sourceFile, reason },
-      },
-      transaction,
-    );
-  });
-  invalidateDataVersion(c.cruiseId);
+      };
+    },
+  );
   return castLifeJson(c);
 }
 
@@ -203,21 +199,14 @@ export async function restoreCast(deps: AppDeps, castId: string, userId: string)
       `Station ${c.station} cast ${c.cast} already has a live cast (from ${live.sourceFile}); remove it first to restore this one.`,
       [{ castId: live.id }],
     );
-  await deps.db.sequelize.transaction(async (transaction) => {
-    await c.update({ removedAt: null, removedBy: null }, { transaction });
-    await audit(
-      {
-        cruiseId: c.cruiseId,
-        userId,
-        action: 'restore_cast',
-        entity: 'cast',
-        entityId: c.id,
-        after: { station: c.station, cast: c.cast, file: c.sourceFile },
-      },
-      transaction,
-    );
-  });
-  invalidateDataVersion(c.cruiseId);
+  await auditedChange(
+    deps.db.sequelize,
+    { cruiseId: c.cruiseId, userId, action: 'restore_cast', entity: 'cast' },
+    async (transaction) => {
+      await c.update({ removedAt: null, removedBy: null }, { transaction });
+      return { result: null, entityId: c.id, after: { station: c.station, cast: c.cast, file: c.sourceFile } };
+    },
+  );
   return castLifeJson(c);
 }
 
@@ -227,28 +216,30 @@ export async function decideSalvage(deps: AppDeps, castId: string, userId: strin
   if (!c.partlyRead || c.partlyRead.decision !== null)
     throw new HttpError(409, 'not_pending', 'This cast is not a partly read cast awaiting a decision.');
   if (c.removedAt || c.supersededBy) throw new HttpError(409, 'not_live', 'This cast is no longer live.');
-  await deps.db.sequelize.transaction(async (transaction) => {
-    const partlyRead = {
-      ...c.partlyRead!,
-      decision: 'accepted' as const,
-      decidedBy: userId,
-      decidedAt: new Date().toISOString(),
-    };
-    if (decision === 'accept') await c.update({ partlyRead }, { transaction });
-    else await c.update({ removedAt: new Date(), removedBy: userId }, { transaction });
-    await audit(
-      {
-        cruiseId: c.cruiseId,
-        userId,
-        action: decision === 'accept' ? 'accept_partly_read' : 'reject_partly_read',
-        entity: 'cast',
+  await auditedChange(
+    deps.db.sequelize,
+    {
+      cruiseId: c.cruiseId,
+      userId,
+      action: decision === 'accept' ? 'accept_partly_read' : 'reject_partly_read',
+      entity: 'cast',
+    },
+    async (transaction) => {
+      const partlyRead = {
+        ...c.partlyRead!,
+        decision: 'accepted' as const,
+        decidedBy: userId,
+        decidedAt: new Date().toISOString(),
+      };
+      if (decision === 'accept') await c.update({ partlyRead }, { transaction });
+      else await c.update({ removedAt: new Date(), removedBy: userId }, { transaction });
+      return {
+        result: null,
         entityId: c.id,
         after: { station: c.station, cast: c.cast, dropped: c.partlyRead!.dropped.length },
-      },
-      transaction,
-    );
-  });
-  invalidateDataVersion(c.cruiseId);
+      };
+    },
+  );
   return castLifeJson(c);
 }
 
@@ -336,20 +327,15 @@ export async function removeEmptyUpload(deps: AppDeps, uploadId: string, userId:
     );
   if (u.status === 'queued' || u.status === 'processing')
     throw new HttpError(409, 'upload_busy', 'This upload is still being processed.');
-  await deps.db.sequelize.transaction(async (transaction) => {
-    await audit(
-      {
-        cruiseId: u.cruiseId,
-        userId,
-        action: 'remove_upload',
-        entity: 'upload',
-        entityId: u.id,
-        before: { filename: u.filename, status: u.status, sha256: u.sha256 },
-      },
-      transaction,
-    );
-    await u.destroy({ transaction });
-  });
+  await auditedChange(
+    deps.db.sequelize,
+    { cruiseId: u.cruiseId, userId, action: 'remove_upload', entity: 'upload' },
+    async (transaction) => {
+      const before = { filename: u.filename, status: u.status, sha256: u.sha256 };
+      await u.destroy({ transaction });
+      return { result: null, entityId: u.id, before };
+    },
+  );
   return { removed: u.id };
 }
 
