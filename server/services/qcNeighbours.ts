@@ -68,7 +68,7 @@ export async function neighbourStations(
   };
 }
 
-const COLUMNS = ['pressure', 'temperature', 'SP', 'conductivity', 'oxygen', 'SA', 'CT'];
+const COLUMNS = ['pressure', 'temperature', 'SP', 'conductivity', 'oxygen', 'SA', 'CT', 'N2', 'p_mid'];
 const json = (a: Float64Array | undefined) => (a ? Array.from(a, (v) => (Number.isFinite(v) ? v : null)) : undefined);
 
 export interface NeighbourProfile {
