@@ -384,6 +384,7 @@ describe('cast sheet QC desk', () => {
     }
     await expect.poll(async () => page.getByRole('button', { name: /^Reopen / }).count()).toBeGreaterThan(0);
     const before = await pendingCount();
+    await drawn(page);
     await page.screenshot({ path: join(SHOTS, 'castsheet-rejected-reopen-1280.png'), fullPage: true });
     // J steps through every proposal (decided ones too) until the rejected one is current
     const qc = (await api.agent.get(`/api/casts/${castOf['CP-11']}/qc`)).body as {
