@@ -348,6 +348,25 @@ describe('cast sheet QC desk', () => {
     await figure(page, 'Measured profiles of').screenshot({ path: join(SHOTS, 'castsheet-earlier-upper-1280.png') });
     await figure(page, 'Profiles of').screenshot({ path: join(SHOTS, 'castsheet-earlier-derived-upper-1280.png') });
     await figure(page, 'T–S diagram').screenshot({ path: join(SHOTS, 'castsheet-earlier-ts-1280.png') });
+    // zoom (drag in zoom mode) into the SP panel where the earlier occupation parts from this cast (the planted
+    // freshening of intermediate water in the invented demo, 900–1100 dbar)
+    const spBox = await figure(page, 'Measured profiles of')
+      .locator('.js-plotly-plot')
+      .evaluate((gd) => {
+        type Ax = { _offset: number; c2p: (v: number) => number };
+        const fl = (gd as unknown as { _fullLayout: { xaxis2: Ax; yaxis: Ax } })._fullLayout;
+        const r = gd.getBoundingClientRect();
+        const x = (v: number) => r.left + fl.xaxis2._offset + fl.xaxis2.c2p(v);
+        const y = (v: number) => r.top + fl.yaxis._offset + fl.yaxis.c2p(v);
+        return { x0: x(34.4), x1: x(34.8), y0: y(800), y1: y(1150) };
+      });
+    await page.mouse.move(spBox.x0, spBox.y0);
+    await page.mouse.down();
+    await page.mouse.move(spBox.x1, spBox.y1, { steps: 8 });
+    await page.mouse.up();
+    await page.mouse.move(5, 5);
+    await page.waitForTimeout(800);
+    await figure(page, 'Measured profiles of').screenshot({ path: join(SHOTS, 'castsheet-earlier-zoom-1280.png') });
     await page.getByRole('button', { name: 'Full depth' }).click();
 
     // the choice of earlier occupation can be switched off, and is kept in the URL

@@ -94,19 +94,7 @@ export function ProfileFigure({
     panels.forEach((panel, i) => {
       const axis = i === 0 ? 'x' : `x${i + 1}`;
       const axisName = i === 0 ? 'xaxis' : `xaxis${i + 1}`;
-      traces.push({
-        type: 'scatter',
-        mode: 'lines',
-        name: panel.key,
-        x: [...panel.values],
-        y: [...panel.pressure],
-        xaxis: axis,
-        yaxis: 'y',
-        line: { color: panel.signed ? PLOT_COLORS.inkSoft : PLOT_COLORS.ink, width: panel.signed ? 0.8 : 1.3 },
-        connectgaps: false,
-        hovertemplate: `${panel.title} %{x:.${panel.digits}f}<br>p %{y:.1f} dbar<extra></extra>`,
-      } as Data);
-      // the overlaid casts over this one: where they agree, the dashes lie on its line
+      // the overlaid casts under this one: the cast under QC stays on top, the others show where they part from it
       for (const o of panel.overlays ?? []) {
         const st = NEIGHBOUR_STYLE[o.role];
         traces.push({
@@ -123,6 +111,18 @@ export function ProfileFigure({
           hovertemplate: `${o.name}<br>${panel.title} %{x:.${panel.digits}f}<br>p %{y:.1f} dbar<extra></extra>`,
         } as Data);
       }
+      traces.push({
+        type: 'scatter',
+        mode: 'lines',
+        name: panel.key,
+        x: [...panel.values],
+        y: [...panel.pressure],
+        xaxis: axis,
+        yaxis: 'y',
+        line: { color: panel.signed ? PLOT_COLORS.inkSoft : PLOT_COLORS.ink, width: panel.signed ? 0.8 : 1.3 },
+        connectgaps: false,
+        hovertemplate: `${panel.title} %{x:.${panel.digits}f}<br>p %{y:.1f} dbar<extra></extra>`,
+      } as Data);
       if (panel.flagSources.length) {
         for (const run of flaggedRuns(cast.flags, panel.flagSources, pressure)) {
           const idx = run.indices;

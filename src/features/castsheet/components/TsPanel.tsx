@@ -50,15 +50,6 @@ export function TsPanel({
         line: { color: PLOT_COLORS.rule, width: 0.6 },
       } as Data);
     }
-    traces.push({
-      type: 'scatter',
-      mode: 'lines',
-      name: `station ${cast.station}`,
-      x: [...SA],
-      y: [...CT],
-      line: { color: PLOT_COLORS.ink, width: 1.3 },
-      hovertemplate: 'SA %{x:.4f} g/kg<br>CT %{y:.4f} °C<extra></extra>',
-    } as Data);
     for (const n of neighbours) {
       const st = NEIGHBOUR_STYLE[n.role];
       traces.push({
@@ -71,6 +62,15 @@ export function TsPanel({
         hovertemplate: `${n.label}<br>SA %{x:.4f}<br>CT %{y:.4f}<extra></extra>`,
       } as Data);
     }
+    traces.push({
+      type: 'scatter',
+      mode: 'lines',
+      name: `station ${cast.station}`,
+      x: [...SA],
+      y: [...CT],
+      line: { color: PLOT_COLORS.ink, width: 1.3 },
+      hovertemplate: 'SA %{x:.4f} g/kg<br>CT %{y:.4f} °C<extra></extra>',
+    } as Data);
     const { questionable, bad } = flaggedLevels(cast.flags, 'sigma');
     const pick = (idx: number[], v: readonly (number | null)[]) => idx.map((i) => v[i] ?? null);
     if (questionable.length)
