@@ -350,6 +350,7 @@ describe('cast sheet QC desk', () => {
     await figure(page, 'T–S diagram').screenshot({ path: join(SHOTS, 'castsheet-earlier-ts-1280.png') });
     // zoom (drag in zoom mode) into the SP panel where the earlier occupation parts from this cast (the planted
     // freshening of intermediate water in the invented demo, 900–1100 dbar)
+    await figure(page, 'Measured profiles of').scrollIntoViewIfNeeded();
     const spBox = await figure(page, 'Measured profiles of')
       .locator('.js-plotly-plot')
       .evaluate((gd) => {
