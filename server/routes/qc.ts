@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { castCruise } from './casts';
 import { QC_TESTS, QC_TEST_INFO } from '../../shared/qc/index';
-import { decideProposals, pendingOfCruise, qcOfCast } from '../services/qcProposals';
+import { decideProposals, pendingOfCruise, qcOfCast, reopenProposals } from '../services/qcProposals';
 import { flagLog, undoFlagChange } from '../services/qcFlags';
 import { neighboursOf } from '../services/qcNeighbours';
 import type { AppDeps } from '../lib/deps';
@@ -23,7 +23,22 @@ const Decide = z
     path: ['ids'],
   });
 
-const NeighbourQuery = z.object({ line: z.uuid().optional() });
+const Reopen = z
+  .object({
+    ids: z.array(z.uuid()).max(2000).optional(),
+    test: z.enum(QC_TESTS).optional(),
+    reason: z.string().trim().max(500).optional(),
+  })
+  .refine((b) => (b.ids?.length ?? 0) > 0 || b.test, {
+    message: 'Say which proposals: their ids, or a test.',
+    path: ['ids'],
+  });
+
+const NeighbourQuery = z.object({
+  line: z.uuid().optional(),
+  /** pairing distance of the earlier occupation's partner, km */
+  pairKm: z.coerce.number().positive().max(500).optional(),
+});
 
 const Undo = z.object({ changeId: z.string().regex(/^\d{1,18}$/, 'a flag-log entry number') });
 
@@ -49,6 +64,17 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
       handler: async (req, _res, ctx) => decideProposals(deps, String(req.params.id), ctx.body, req.user!.id),
     }),
     defineRoute({
+      method: 'post',
+      changesData: true,
+      path: '/casts/:id/qc/reopen',
+      summary:
+        'Reopen rejected QC proposals of a cast (back to pending), by id or by test (audited); accepted ones are undone in the flag log',
+      rule: { kind: 'member', roles: [...FLAGGERS], cruise: castCruise },
+      body: Reopen,
+      handler: async (req, _res, ctx) =>
+        reopenProposals(deps, String(req.params.id), ctx.body as z.infer<typeof Reopen>, req.user!.id),
+    }),
+    defineRoute({
       method: 'get',
       path: '/casts/:id/flag-log',
       summary: 'Every flag change of a cast, newest first, with what each replaced',
@@ -67,10 +93,14 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({
       method: 'get',
       path: '/casts/:id/neighbours',
-      summary: 'The previous and next station’s casts along the line, for overlays',
+      summary:
+        'The previous and next station’s casts along the line, and the same station in earlier occupations of the line (cruises the user belongs to), for overlays',
       rule: { kind: 'member', roles: 'any', cruise: castCruise },
       query: NeighbourQuery,
-      handler: async (req, _res, ctx) => neighboursOf(String(req.params.id), ctx.query.line ?? null),
+      handler: async (req, _res, ctx) => {
+        const q = ctx.query;
+        return neighboursOf(req.user!.id, String(req.params.id), { line: q.line ?? null, pairKm: q.pairKm });
+      },
     }),
     defineRoute({
       method: 'get',

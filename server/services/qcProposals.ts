@@ -11,7 +11,7 @@ import { readColumns, type StoredColumn } from './columns';
 import { applyFlagEdit, type FlagVariable } from './qcFlags';
 import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
-import { badRequest, notFound } from '../lib/errors';
+import { badRequest, conflict, notFound } from '../lib/errors';
 import type { AppDeps } from '../lib/deps';
 
 /** What the intake hands over: the cast ids it stored, in the order of the processed casts. */
@@ -122,6 +122,8 @@ export interface ProposalView {
   detail: string;
   status: ProposalStatus;
   decidedAt: string | null;
+  /** the flag-log entry an accepted proposal made (undo it there to reopen the proposal) */
+  flagChangeId: string | null;
 }
 
 const view = (r: QcProposalRow): ProposalView => ({
@@ -137,6 +139,7 @@ const view = (r: QcProposalRow): ProposalView => ({
   detail: r.detail,
   status: r.status,
   decidedAt: r.decidedAt ? r.decidedAt.toISOString() : null,
+  flagChangeId: r.flagChangeId ? String(r.flagChangeId) : null,
 });
 
 /** A cast's proposals (by test, then depth) and the inversions its intake found. */
@@ -252,4 +255,71 @@ export async function decideProposals(
   });
   if (choice.decision === 'accept' && r.decided) invalidateDataVersion(c.cruiseId);
   return r;
+}
+
+/**
+ * Reopen rejected proposals of a cast (by id or all rejected ones of a test): they are pending again, nothing else
+ * changes (a rejection set no flag). Each reopening is audited (`qc_reopen`, with the decision it takes back).
+ * Accepted proposals are reopened by undoing their flag in the flag log (409 names the entry).
+ */
+export async function reopenProposals(
+  deps: AppDeps,
+  castId: string,
+  choice: { ids?: string[]; test?: QcTestId; reason?: string },
+  userId: string,
+): Promise<{ reopened: number }> {
+  const c = await Cast.findByPk(castId);
+  if (!c) throw notFound();
+  if (!choice.ids?.length && !choice.test)
+    throw badRequest('Say which proposals: their ids, or a test.', [
+      { field: 'ids', message: 'ids or test is required' },
+    ]);
+  return deps.db.sequelize.transaction(async (transaction) => {
+    const where: Record<string, unknown> = { castId };
+    if (choice.ids?.length) where.id = choice.ids;
+    if (choice.test) where.test = choice.test;
+    const rows = await QcProposalRow.findAll({ where, transaction, lock: true, order: [['pFrom', 'ASC']] });
+    if (choice.ids?.length) {
+      if (rows.length !== new Set(choice.ids).size)
+        throw badRequest('Some of these proposals are not this cast’s.', [{ field: 'ids', message: 'not found' }]);
+      const accepted = rows.find((r) => r.status === 'accepted');
+      if (accepted)
+        throw conflict(
+          `An accepted proposal is reopened by undoing its flag in the flag log (entry #${accepted.flagChangeId}).`,
+        );
+      if (rows.some((r) => r.status !== 'rejected'))
+        throw badRequest('Some of these proposals are pending already.', [{ field: 'ids', message: 'not rejected' }]);
+    }
+    const rejected = rows.filter((r) => r.status === 'rejected');
+    for (const row of rejected) {
+      const before = {
+        status: 'rejected',
+        decidedBy: row.decidedBy,
+        decidedAt: row.decidedAt ? row.decidedAt.toISOString() : null,
+      };
+      await row.update({ status: 'pending', decidedBy: null, decidedAt: null, flagChangeId: null }, { transaction });
+      await audit(
+        {
+          cruiseId: c.cruiseId,
+          userId,
+          action: 'qc_reopen',
+          entity: 'qc_proposal',
+          entityId: row.id,
+          before,
+          after: {
+            status: 'pending',
+            test: row.test,
+            variable: row.variable,
+            pFrom: row.pFrom,
+            pTo: row.pTo,
+            flag: row.flag,
+            cast: castId,
+            ...(choice.reason ? { reason: choice.reason } : {}),
+          },
+        },
+        transaction,
+      );
+    }
+    return { reopened: rejected.length };
+  });
 }

@@ -30,13 +30,18 @@ import {
   usePendingProposals,
   useQcKeys,
   useUndoFlagChange,
+  useReopenProposals,
+  overlayCasts,
+  earlierDate,
   type CastDetail,
+  type EarlierOccupation,
   type CastInversion,
   type Decision,
   type Pick,
   type Proposal,
 } from '../features/castsheet';
 import type { CastSummary } from '../features/casts';
+import { LinePicker } from '../features/lines';
 import { isApiError } from '../lib/http';
 import { INVERSION_THRESHOLD } from '../features/castsheet';
 import { useCurrentCruise } from './CruiseLayout';
@@ -103,7 +108,7 @@ function CastSheetOf({ castId }: { castId: string }) {
 
 type Picked = Pick & { at: number };
 
-function Legend() {
+function Legend({ earlier }: { earlier: EarlierOccupation | null }) {
   return (
     <p className="flex flex-wrap gap-x-4 gap-y-1 border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted">
       <span className="inline-flex items-center gap-1">
@@ -142,7 +147,50 @@ function Legend() {
         />{' '}
         next station
       </span>
+      {earlier?.partner && (
+        <span className="inline-flex items-center gap-1" data-testid="legend-earlier">
+          <span
+            className="inline-block w-5 border-t-2"
+            style={{ borderColor: NEIGHBOUR_STYLE.earlier.color, borderStyle: 'dashed' }}
+            aria-hidden
+          />{' '}
+          same station in {earlier.cruise} ({earlierDate(earlier)}, {earlier.partner.station})
+        </span>
+      )}
     </p>
+  );
+}
+
+/** Which earlier occupation is overlaid: the newest with a partner, unless the user chose another (or none). */
+function EarlierChooser({
+  earlier,
+  value,
+  onChange,
+}: {
+  earlier: readonly EarlierOccupation[];
+  value: string;
+  onChange: (v: string) => void;
+}) {
+  if (earlier.length === 0) return null;
+  return (
+    <label className="flex items-center gap-2 text-sm">
+      <span className="font-semibold text-ink-soft">Earlier occupation</span>
+      <select
+        aria-label="Earlier occupation"
+        data-testid="earlier-picker"
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="h-8 rounded border border-ink/40 bg-paper-raised px-2 text-sm text-ink"
+      >
+        {earlier.map((e) => (
+          <option key={e.cruiseId} value={e.cruiseId} disabled={!e.partner}>
+            {e.cruise} · {earlierDate(e)}
+            {e.partner ? ` · ${e.partner.station}` : ' · no partner'}
+          </option>
+        ))}
+        <option value="none">None</option>
+      </select>
+    </label>
   );
 }
 
@@ -162,13 +210,42 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   const pWindow = useMemo<[number, number] | null>(() => (upper ? [0, 1500] : null), [upper]);
   const mayFlag = (cruise.role === 'technician' || cruise.role === 'chief_scientist') && !cruise.locked;
 
+  // the neighbours follow the line the user chose (here, or on the section screen: ?line=<id>); else the default line
+  const lineParam = search.get('line');
+  const line = lineParam && /^[0-9a-f-]{36}$/i.test(lineParam) ? lineParam : null;
+  const setLine = (id: string | null) => {
+    const next = new URLSearchParams(search);
+    if (id) next.set('line', id);
+    else next.delete('line');
+    setSearch(next, { replace: true });
+  };
+  // which earlier occupation is overlaid (?then=<cruise id> or none), kept while stepping between casts
+  const earlierChoice = search.get('then');
+  const setEarlierChoice = (v: string) => {
+    const next = new URLSearchParams(search);
+    next.set('then', v);
+    setSearch(next, { replace: true });
+  };
+
   const qc = useCastQc(cast.id);
   const log = useFlagLog(cast.id);
-  const neighboursQ = useNeighbours(cast.id);
+  const neighboursQ = useNeighbours(cast.id, line);
   const pendingQ = usePendingProposals(cruise.id);
   const decide = useDecideProposals(cruise.id, cast.id);
+  const reopen = useReopenProposals(cruise.id, cast.id);
   const undo = useUndoFlagChange(cruise.id, cast.id);
-  const neighbours = useMemo(() => neighboursQ.data?.neighbours ?? [], [neighboursQ.data]);
+  const earlierList = useMemo(() => neighboursQ.data?.earlier ?? [], [neighboursQ.data]);
+  const earlierId =
+    (earlierChoice && (earlierChoice === 'none' || earlierList.some((e) => e.cruiseId === earlierChoice))
+      ? earlierChoice
+      : null) ??
+    earlierList.find((e) => e.partner)?.cruiseId ??
+    'none';
+  const earlier = earlierList.find((e) => e.cruiseId === earlierId && e.partner) ?? null;
+  const neighbours = useMemo(
+    () => overlayCasts(neighboursQ.data?.neighbours ?? [], earlier),
+    [neighboursQ.data, earlier],
+  );
   const proposals = useMemo(() => qc.data?.proposals ?? [], [qc.data]);
 
   const sigma = useMemo(() => sigmaProfile(cast.columns.SA, cast.columns.CT, ref), [cast, ref]);
@@ -202,13 +279,18 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
     ? proposals.filter((p) => p.status === 'pending')
     : proposals;
   const current = proposals.find((p) => p.id === currentId) ?? null;
-  const step = (d: 1 | -1) => {
-    if (steppable.length === 0) return;
-    const k = steppable.findIndex((p) => p.id === currentId);
-    const next =
-      steppable[k < 0 ? (d === 1 ? 0 : steppable.length - 1) : (k + d + steppable.length) % steppable.length];
+  const step = (d: 1 | -1, among: readonly Proposal[] = steppable) => {
+    if (among.length === 0) return;
+    const k = among.findIndex((p) => p.id === currentId);
+    const next = among[k < 0 ? (d === 1 ? 0 : among.length - 1) : (k + d + among.length) % among.length];
     pickProposal(next);
     document.querySelector(`[data-proposal="${next.id}"]`)?.scrollIntoView({ block: 'nearest' });
+  };
+  // a rejected proposal is reopened; an accepted one is undone through its flag-log entry (it is pending again)
+  const onReopen = (p: Proposal) => {
+    if (p.status === 'rejected') reopen.mutate({ ids: [p.id] }, { onSuccess: () => setCurrentId(p.id) });
+    else if (p.status === 'accepted' && p.flagChangeId)
+      undo.mutate(p.flagChangeId, { onSuccess: () => setCurrentId(p.id) });
   };
   const onDecide = (d: Decision) => {
     decide.mutate(d, {
@@ -236,22 +318,31 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   useQcKeys({
     nextProposal: () => step(1),
     previousProposal: () => step(-1),
+    nextAnyProposal: () => step(1, proposals),
+    previousAnyProposal: () => step(-1, proposals),
     accept: mayFlag
       ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'accept' })
       : undefined,
     reject: mayFlag
       ? () => current?.status === 'pending' && onDecide({ ids: [current.id], decision: 'reject' })
       : undefined,
+    reopen: mayFlag ? () => current && current.status !== 'pending' && onReopen(current) : undefined,
     nextPendingCast: () => toPendingCast(1),
     previousPendingCast: () => toPendingCast(-1),
   });
 
   const pendingHere = proposals.filter((p) => p.status === 'pending').length;
-  const neighbourText = neighbours.length
-    ? `Overlaid: ${neighbours.map((n) => `${n.role} station ${n.station}`).join(', ')} (neighbours along ${neighboursQ.data?.order ?? 'the line'}).`
+  const near = neighboursQ.data?.neighbours ?? [];
+  const neighbourText = near.length
+    ? `Neighbours along ${neighboursQ.data?.order ?? 'the line'}: ${near.map((n) => `${n.role} ${n.station}`).join(', ')}.`
     : neighboursQ.isPending
       ? 'Loading the neighbouring casts…'
       : 'No neighbouring cast to overlay.';
+  const earlierText = earlier?.partner
+    ? `Then: station ${earlier.partner.station} of ${earlier.cruise} (${earlier.ship}), ${earlierDate(earlier)}, ${earlier.partner.offsetKm.toFixed(1)} km from this cast.`
+    : earlierList.length && earlierId !== 'none'
+      ? (earlierList.find((e) => e.note)?.note ?? null)
+      : null;
   const figureProps = {
     cast,
     inversions: inversionSet.inversions,
@@ -265,12 +356,27 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
   return (
     <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
       <div className="flex min-w-0 flex-col gap-4">
+        <div
+          className="flex flex-wrap items-center gap-x-5 gap-y-2 rounded border border-paper-rule bg-paper-raised px-4 py-2"
+          data-testid="compare-bar"
+        >
+          <LinePicker cruiseId={cruise.id} value={line} onChange={setLine} label="Neighbours along" />
+          <EarlierChooser earlier={earlierList} value={earlierId} onChange={setEarlierChoice} />
+          <p className="w-full text-xs text-ink-muted" data-testid="overlay-text">
+            {neighbourText}
+            {earlierText && (
+              <>
+                {' '}
+                <span data-testid="earlier-text">{earlierText}</span>
+              </>
+            )}
+          </p>
+        </div>
         <Panel
           title="Measured profiles"
           titleId="measured"
           actions={
             <span className="flex items-center gap-2 text-2xs text-ink-muted">
-              {neighbourText}
               <span className="flex" role="group" aria-label="Pressure window">
                 {([false, true] as const).map((u) => (
                   <button
@@ -293,7 +399,7 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
             height={460}
             label={`Measured profiles of station ${cast.station} cast ${cast.cast}: ${measured.map((p) => p.title).join(', ')} against pressure`}
           />
-          <Legend />
+          <Legend earlier={earlier} />
         </Panel>
         <Panel
           title="Derived profiles"
@@ -332,7 +438,14 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
             intake.
           </p>
         </Panel>
-        <Panel title="T–S diagram, with the neighbouring stations" titleId="ts">
+        <Panel
+          title={
+            earlier?.partner
+              ? `T–S diagram, with the neighbouring stations and ${earlier.cruise}`
+              : 'T–S diagram, with the neighbouring stations'
+          }
+          titleId="ts"
+        >
           <TsPanel cast={cast} neighbours={neighbours} height={400} />
         </Panel>
         <Panel
@@ -374,10 +487,11 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
               qc={qc.data}
               currentId={currentId}
               mayDecide={mayFlag}
-              busy={decide.isPending}
-              error={decide.error}
+              busy={decide.isPending || reopen.isPending || undo.isPending}
+              error={decide.error ?? reopen.error}
               onPick={pickProposal}
               onDecide={onDecide}
+              onReopen={onReopen}
             />
           ) : (
             <Progress label="Loading the proposals…" />

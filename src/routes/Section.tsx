@@ -104,8 +104,11 @@ export default function Section() {
   };
 
   const pickStation = useCallback((id: string) => setView({ station: id }, { replace: true }), [setView]);
+  // the cast sheet's neighbours follow the line drawn here
   const openCast = (castId: string) =>
-    navigate(`/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(castId)}`);
+    navigate(
+      `/cruises/${encodeURIComponent(cruise.id)}/casts/${encodeURIComponent(castId)}${view.line ? `?line=${encodeURIComponent(view.line)}` : ''}`,
+    );
   const valueTitle = `${view.property}${unit ? ` (${unit})` : ''}`;
   const levelsText = layerSet
     ? `${layerSet.name} (${layerSet.levels})`
@@ -280,7 +283,7 @@ export default function Section() {
               sigma={sigma}
               digits={digits}
             />
-            <InversionList cruiseId={cruise.id} inversions={inversions} sigma={sigma} />
+            <InversionList cruiseId={cruise.id} inversions={inversions} sigma={sigma} line={view.line} />
             <SavedViews cruiseId={cruise.id} query={serialiseViewState(view)} canSave={canSaveViews(cruise.role)} />
           </aside>
         </div>

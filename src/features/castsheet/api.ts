@@ -45,11 +45,18 @@ export function useFlagLog(castId: string) {
   });
 }
 
-/** The previous and next station's casts, for overlays. */
-export function useNeighbours(castId: string) {
+/**
+ * The previous and next station's casts along a line (null: the cruise's default line), and the same station in
+ * the earlier occupations of that line, for overlays.
+ */
+export function useNeighbours(castId: string, line: string | null = null) {
   return useQuery({
-    queryKey: castKeys.neighbours(castId),
-    queryFn: ({ signal }) => http(`/api/casts/${enc(castId)}/neighbours`, { schema: neighboursSchema, signal }),
+    queryKey: castKeys.neighbours(castId, line),
+    queryFn: ({ signal }) =>
+      http(`/api/casts/${enc(castId)}/neighbours${line ? `?line=${enc(line)}` : ''}`, {
+        schema: neighboursSchema,
+        signal,
+      }),
     staleTime: 60_000,
   });
 }
@@ -107,6 +114,23 @@ export function useDecideProposals(cruiseId: string, castId: string) {
         schema: z.object({ decided: z.number(), levels: z.number() }),
       }),
     onSuccess: () => invalidateFlags(queryClient, cruiseId, castId),
+  });
+}
+
+/** Reopen rejected proposals (back to pending), by id or all rejected ones of a test. */
+export function useReopenProposals(cruiseId: string, castId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (d: { ids?: string[]; test?: QcTestId; reason?: string }) =>
+      http(`/api/casts/${enc(castId)}/qc/reopen`, {
+        method: 'POST',
+        body: d,
+        schema: z.object({ reopened: z.number() }),
+      }),
+    onSuccess: () => {
+      void queryClient.invalidateQueries({ queryKey: castKeys.qc(castId) });
+      void queryClient.invalidateQueries({ queryKey: castKeys.pending(cruiseId) });
+    },
   });
 }
 

@@ -9,6 +9,7 @@ export {
   usePendingProposals,
   useDecideProposals,
   useUndoFlagChange,
+  useReopenProposals,
 } from './api';
 export type { Decision } from './api';
 export {
@@ -26,7 +27,7 @@ export {
 export type { FlagFormValues, FlagFormResult, InversionSet, InversionHandling } from './profiles';
 export { rangeOfSelection, snapToLevels, spanOfSelection, flaggedRuns } from './picking';
 export type { Pick } from './picking';
-export { measuredPanels, derivedPanels } from './panels';
+export { measuredPanels, derivedPanels, overlayCasts, earlierDate } from './panels';
 export { ProfileFigure, NEIGHBOUR_STYLE, PROPOSAL_COLOR } from './components/ProfileFigure';
 export type { PanelSpec, OverlaySeries } from './components/ProfileFigure';
 export { TsPanel } from './components/TsPanel';
@@ -50,4 +51,6 @@ export type {
   FlagLogEntry,
   Neighbour,
   QcTestId,
+  EarlierOccupation,
+  OverlayCast,
 } from './types';

@@ -7,15 +7,21 @@ export const typingInField = (el: EventTarget | null) =>
 export interface QcKeyHandlers {
   nextProposal: () => void;
   previousProposal: () => void;
+  /** J / K: next and previous proposal whatever its status (to reach a decided one) */
+  nextAnyProposal?: () => void;
+  previousAnyProposal?: () => void;
   accept?: () => void;
   reject?: () => void;
+  /** reopen the current rejected proposal, or undo the current accepted one's flag */
+  reopen?: () => void;
   nextPendingCast?: () => void;
   previousPendingCast?: () => void;
 }
 
 /**
  * The QC desk's keys (not while typing in a field, not with a modifier): j / k next and previous proposal,
- * a / r accept and reject the current one, { and } the previous and next cast with pending proposals.
+ * a / r accept and reject the current one, u reopen it (a rejected one; an accepted one is undone through its
+ * flag-log entry), { and } the previous and next cast with pending proposals.
  * ([ and ] step casts in CastStepper.)
  */
 export function useQcKeys(handlers: QcKeyHandlers) {
@@ -30,8 +36,11 @@ export function useQcKeys(handlers: QcKeyHandlers) {
       const action = {
         j: h.nextProposal,
         k: h.previousProposal,
+        J: h.nextAnyProposal,
+        K: h.previousAnyProposal,
         a: h.accept,
         r: h.reject,
+        u: h.reopen,
         '}': h.nextPendingCast,
         '{': h.previousPendingCast,
       }[e.key];

@@ -1,28 +1,51 @@
 import { sigmaLabel } from '../../components/plot/theme';
 import { sigmaProfile } from './profiles';
 import type { OverlaySeries, PanelSpec } from './components/ProfileFigure';
-import type { CastDetail, Neighbour } from './types';
+import type { CastDetail, EarlierOccupation, Neighbour, OverlayCast } from './types';
 
-const label = (n: Neighbour) => `${n.role === 'previous' ? 'previous' : 'next'} · ${n.station}`;
+/** The neighbours and the chosen earlier occupation's partner as overlays (earlier last, drawn on top). */
+export function overlayCasts(neighbours: readonly Neighbour[], earlier: EarlierOccupation | null): OverlayCast[] {
+  const out: OverlayCast[] = neighbours.map((n) => ({
+    station: n.station,
+    role: n.role,
+    label: `${n.role} · ${n.station}`,
+    columns: n.columns,
+    extras: n.extras,
+  }));
+  if (earlier?.partner)
+    out.push({
+      station: earlier.partner.station,
+      role: 'earlier',
+      label: `${earlier.cruise} · ${earlierDate(earlier)} · ${earlier.partner.station}`,
+      columns: earlier.partner.columns,
+      extras: earlier.partner.extras,
+    });
+  return out;
+}
+
+/** The date of the earlier occupation's partner cast (else the cruise's start), YYYY-MM-DD. */
+export const earlierDate = (e: EarlierOccupation) => (e.partner?.time ?? e.startDate).slice(0, 10);
 
 function overlays(
-  neighbours: readonly Neighbour[],
-  values: (n: Neighbour) => readonly (number | null)[] | undefined,
+  neighbours: readonly OverlayCast[],
+  values: (n: OverlayCast) => readonly (number | null)[] | undefined,
+  pressure: (n: OverlayCast) => readonly (number | null)[] | undefined = (n) => n.columns.pressure,
 ): OverlaySeries[] {
   const out: OverlaySeries[] = [];
   for (const n of neighbours) {
     const v = values(n);
-    const p = n.columns.pressure;
-    if (v && p) out.push({ name: label(n), role: n.role, p, v });
+    const p = pressure(n);
+    if (v && p) out.push({ name: n.label, role: n.role, p, v });
   }
   return out;
 }
 
 /**
  * The measured variables as their own panels: in-situ temperature, practical salinity, conductivity and
- * oxygen where the cast has them, then every extra variable; each with its flags and the neighbours.
+ * oxygen where the cast has them, then every extra variable; each with its flags and the overlaid casts
+ * (neighbours, the earlier occupation).
  */
-export function measuredPanels(cast: CastDetail, neighbours: readonly Neighbour[]): PanelSpec[] {
+export function measuredPanels(cast: CastDetail, neighbours: readonly OverlayCast[]): PanelSpec[] {
   const p = cast.columns.pressure;
   const c = cast.columns;
   const panels: PanelSpec[] = [];
@@ -101,7 +124,7 @@ export function derivedPanels(
   cast: CastDetail,
   sigma: readonly (number | null)[],
   ref: number,
-  neighbours: readonly Neighbour[],
+  neighbours: readonly OverlayCast[],
 ): PanelSpec[] {
   const p = cast.columns.pressure;
   return [
@@ -149,6 +172,11 @@ export function derivedPanels(
       flagSources: [],
       proposalVariables: [],
       signed: true,
+      overlays: overlays(
+        neighbours,
+        (n) => n.columns.N2,
+        (n) => n.columns.p_mid,
+      ),
     },
   ];
 }

@@ -206,6 +206,11 @@ export const proposalSchema = z.object({
   detail: z.string(),
   status: z.enum(['pending', 'accepted', 'rejected']),
   decidedAt: z.string().nullable(),
+  /** the flag-log entry an accepted proposal made (undoing it reopens the proposal) */
+  flagChangeId: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? null),
 });
 export type Proposal = z.infer<typeof proposalSchema>;
 
@@ -235,6 +240,29 @@ export const flagLogEntrySchema = z.object({
 });
 export type FlagLogEntry = z.infer<typeof flagLogEntrySchema>;
 
+const earlierSchema = z.object({
+  cruiseId: id,
+  cruise: z.string(),
+  ship: z.string(),
+  startDate: z.string(),
+  lineId: id,
+  line: z.string(),
+  why: z.array(z.string()),
+  partner: z
+    .object({
+      id,
+      station: label,
+      cast: label,
+      time: z.string().nullable(),
+      offsetKm: z.number(),
+      columns: z.record(z.string(), column.optional()),
+      extras: z.record(z.string(), column),
+    })
+    .nullable(),
+  note: z.string().nullable(),
+});
+export type EarlierOccupation = z.infer<typeof earlierSchema>;
+
 export const neighboursSchema = z.object({
   order: z.string(),
   neighbours: z.array(
@@ -247,8 +275,28 @@ export const neighboursSchema = z.object({
       extras: z.record(z.string(), column),
     }),
   ),
+  pairDistanceKm: z
+    .number()
+    .nullish()
+    .transform((v) => v ?? null),
+  /** the same station in earlier occupations of the line (only cruises the user belongs to), newest first */
+  earlier: z
+    .array(earlierSchema)
+    .nullish()
+    .transform((v) => v ?? []),
 });
 export type Neighbours = z.infer<typeof neighboursSchema>;
 export type Neighbour = Neighbours['neighbours'][number];
+
+/** A cast drawn over this one: a neighbouring station, or the same station in an earlier occupation. */
+export type OverlayRole = 'previous' | 'next' | 'earlier';
+export interface OverlayCast {
+  station: string;
+  role: OverlayRole;
+  /** what the overlay is called on the figures and in the legend */
+  label: string;
+  columns: Record<string, (number | null)[] | undefined>;
+  extras: Record<string, (number | null)[]>;
+}
 
 export const pendingSchema = z.array(z.object({ castId: id, pending: z.number().int() }));

@@ -10,12 +10,12 @@ import {
   valueAxis,
 } from '../../../components/plot/theme';
 import { flaggedRuns, spanOfSelection, type Pick } from '../picking';
-import type { CastDetail, CastInversion, Proposal } from '../types';
+import type { CastDetail, CastInversion, OverlayRole, Proposal } from '../types';
 
-/** A neighbouring cast's profile on one panel. */
+/** An overlaid cast's profile on one panel: a neighbouring station, or the same station in an earlier occupation. */
 export interface OverlaySeries {
   name: string;
-  role: 'previous' | 'next';
+  role: OverlayRole;
   p: readonly (number | null)[];
   v: readonly (number | null)[];
 }
@@ -40,10 +40,12 @@ export interface PanelSpec {
   inversionMarks?: boolean;
 }
 
+/** Overlays: previous station dashed blue, next dotted violet, the same station in an earlier occupation olive. */
 export const NEIGHBOUR_STYLE = {
-  previous: { color: '#2f5d8a', dash: 'dash' },
-  next: { color: '#7a5c99', dash: 'dot' },
-} as const;
+  previous: { color: '#2f5d8a', dash: 'dash', width: 1.4 },
+  next: { color: '#7a5c99', dash: 'dot', width: 1.4 },
+  earlier: { color: '#5b7a2e', dash: 'longdashdot', width: 1.7 },
+} as const satisfies Record<OverlayRole, { color: string; dash: string; width: number }>;
 /** Pending proposals: a violet wash, never the warning accent (proposals are not flags). */
 export const PROPOSAL_COLOR = '#6b4f8f';
 
@@ -92,6 +94,7 @@ export function ProfileFigure({
     panels.forEach((panel, i) => {
       const axis = i === 0 ? 'x' : `x${i + 1}`;
       const axisName = i === 0 ? 'xaxis' : `xaxis${i + 1}`;
+      // the overlaid casts under this one: the cast under QC stays on top, the others show where they part from it
       for (const o of panel.overlays ?? []) {
         const st = NEIGHBOUR_STYLE[o.role];
         traces.push({
@@ -102,8 +105,8 @@ export function ProfileFigure({
           y: [...o.p],
           xaxis: axis,
           yaxis: 'y',
-          line: { color: st.color, width: 1.4, dash: st.dash },
-          opacity: 0.9,
+          line: { color: st.color, width: panel.signed ? 0.7 : st.width, dash: st.dash },
+          opacity: panel.signed ? 0.7 : 0.9,
           connectgaps: false,
           hovertemplate: `${o.name}<br>${panel.title} %{x:.${panel.digits}f}<br>p %{y:.1f} dbar<extra></extra>`,
         } as Data);

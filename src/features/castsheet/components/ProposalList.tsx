@@ -19,13 +19,16 @@ export interface ProposalListProps {
   error: unknown;
   onPick: (p: Proposal) => void;
   onDecide: (d: { ids?: string[]; test?: QcTestId; decision: 'accept' | 'reject' }) => void;
+  /** reopen a rejected proposal, or undo an accepted one's flag (it is pending again) */
+  onReopen?: (p: Proposal) => void;
 }
 
 /**
  * What the automatic tests propose for this cast, grouped by test, with the test's source. Pending ones can be
- * accepted (the flag is set, and can be undone in the flag log) or rejected, one by one or all of a test.
+ * accepted (the flag is set, and can be undone in the flag log) or rejected, one by one or all of a test. A
+ * rejected one can be reopened; an accepted one is undone (its flag-log entry), which makes it pending again.
  */
-export function ProposalList({ qc, currentId, mayDecide, busy, error, onPick, onDecide }: ProposalListProps) {
+export function ProposalList({ qc, currentId, mayDecide, busy, error, onPick, onDecide, onReopen }: ProposalListProps) {
   const pending = qc.proposals.filter((p) => p.status === 'pending').length;
   const byTest = qc.tests.map((t) => ({ ...t, items: qc.proposals.filter((p) => p.test === t.id) }));
   return (
@@ -114,10 +117,28 @@ export function ProposalList({ qc, currentId, mayDecide, busy, error, onPick, on
                           </span>
                         )
                       ) : (
-                        <span
-                          className={`shrink-0 text-2xs uppercase tracking-[0.08em] ${p.status === 'accepted' ? 'text-ink' : 'text-ink-muted'}`}
-                        >
-                          {p.status}
+                        <span className="flex shrink-0 items-center gap-1.5">
+                          <span
+                            className={`text-2xs uppercase tracking-[0.08em] ${p.status === 'accepted' ? 'text-ink' : 'text-ink-muted'}`}
+                          >
+                            {p.status}
+                          </span>
+                          {mayDecide && onReopen && (p.status === 'rejected' || p.flagChangeId) && (
+                            <Button
+                              size="sm"
+                              variant="secondary"
+                              disabled={busy}
+                              onClick={() => onReopen(p)}
+                              aria-label={`${p.status === 'rejected' ? 'Reopen' : 'Undo'} ${t.label} at ${p.pFrom} dbar`}
+                              title={
+                                p.status === 'rejected'
+                                  ? 'Back to pending (the decision is taken back, audited)'
+                                  : `Undo its flag (flag-log entry #${p.flagChangeId}); the proposal is pending again`
+                              }
+                            >
+                              {p.status === 'rejected' ? 'Reopen' : 'Undo'}
+                            </Button>
+                          )}
                         </span>
                       )}
                     </li>
@@ -130,10 +151,12 @@ export function ProposalList({ qc, currentId, mayDecide, busy, error, onPick, on
       </ul>
       {error != null && <ErrorNotice error={error} title="The decision was not recorded" />}
       <p className="border-t border-paper-rule px-4 py-1.5 text-2xs text-ink-muted" data-testid="qc-keys">
-        Keys: <kbd className="font-mono">j</kbd>/<kbd className="font-mono">k</kbd> next / previous proposal ·{' '}
+        Keys: <kbd className="font-mono">j</kbd>/<kbd className="font-mono">k</kbd> next / previous pending proposal (
+        <kbd className="font-mono">J</kbd>/<kbd className="font-mono">K</kbd> any) ·{' '}
         {mayDecide && (
           <>
             <kbd className="font-mono">a</kbd> accept · <kbd className="font-mono">r</kbd> reject ·{' '}
+            <kbd className="font-mono">u</kbd> reopen / undo ·{' '}
           </>
         )}
         <kbd className="font-mono">[</kbd>/<kbd className="font-mono">]</kbd> previous / next cast ·{' '}

@@ -5,13 +5,13 @@ import { baseLayout, PLOT_COLORS, plotConfig, valueAxis } from '../../../compone
 import { sigma0 } from '../../../../shared/seawater/density';
 import { flaggedLevels } from '../profiles';
 import { NEIGHBOUR_STYLE } from './ProfileFigure';
-import type { CastDetail, Neighbour } from '../types';
+import type { CastDetail, OverlayCast } from '../types';
 
 const finite = (v: readonly (number | null)[] | undefined) =>
   (v ?? []).filter((x): x is number => x != null && Number.isFinite(x));
 
 /**
- * The T–S diagram of the cast (CT against SA) with its neighbours, on σ0 isopycnals (TEOS-10, computed here);
+ * The T–S diagram of the cast (CT against SA) with its neighbours and the earlier occupation, on σ0 isopycnals (TEOS-10, computed here);
  * levels flagged 3 and 4 marked as on the profiles.
  */
 export function TsPanel({
@@ -20,7 +20,7 @@ export function TsPanel({
   height = 420,
 }: {
   cast: CastDetail;
-  neighbours: readonly Neighbour[];
+  neighbours: readonly OverlayCast[];
   height?: number;
 }) {
   const { data, layout } = useMemo(() => {
@@ -55,11 +55,11 @@ export function TsPanel({
       traces.push({
         type: 'scatter',
         mode: 'lines',
-        name: `${n.role} · ${n.station}`,
+        name: n.label,
         x: n.columns.SA ?? [],
         y: n.columns.CT ?? [],
-        line: { color: st.color, width: 0.9, dash: st.dash },
-        hovertemplate: `${n.role} · ${n.station}<br>SA %{x:.4f}<br>CT %{y:.4f}<extra></extra>`,
+        line: { color: st.color, width: st.width * 0.7, dash: st.dash },
+        hovertemplate: `${n.label}<br>SA %{x:.4f}<br>CT %{y:.4f}<extra></extra>`,
       } as Data);
     }
     traces.push({
@@ -101,7 +101,7 @@ export function TsPanel({
   }, [cast, neighbours]);
   return (
     <LazyPlot
-      label={`T–S diagram of station ${cast.station} with its neighbours`}
+      label={`T–S diagram of station ${cast.station} with ${neighbours.map((n) => n.label).join(', ') || 'no overlay'}`}
       height={height}
       data={data}
       layout={layout}

@@ -7,10 +7,13 @@ export function InversionList({
   cruiseId,
   inversions,
   sigma,
+  line = null,
 }: {
   cruiseId: string;
   inversions: readonly SectionInversion[];
   sigma: string;
+  /** the line the section is drawn from (the cast sheet's neighbours follow it); null: the default line */
+  line?: string | null;
 }) {
   const casts = new Set(inversions.map((v) => v.castId)).size;
   return (
@@ -47,7 +50,7 @@ export function InversionList({
                 >
                   <td>
                     <Link
-                      to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(v.castId)}`}
+                      to={`/cruises/${encodeURIComponent(cruiseId)}/casts/${encodeURIComponent(v.castId)}${line ? `?line=${encodeURIComponent(line)}` : ''}`}
                       className="font-mono text-ink-strong"
                       aria-label={`Open cast of station ${v.station}: inversion ${v.pTop.toFixed(0)} to ${v.pBottom.toFixed(0)} dbar`}
                     >
