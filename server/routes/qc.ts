@@ -71,8 +71,7 @@ export function qcRoutes(deps: AppDeps): RouteSpec[] {
         'Reopen rejected QC proposals of a cast (back to pending), by id or by test (audited); accepted ones are undone in the flag log',
       rule: { kind: 'member', roles: [...FLAGGERS], cruise: castCruise },
       body: Reopen,
-      handler: async (req, _res, ctx) =>
-        reopenProposals(deps, String(req.params.id), ctx.body as z.infer<typeof Reopen>, req.user!.id),
+      handler: async (req, _res, ctx) => reopenProposals(deps, String(req.params.id), ctx.body, req.user!.id),
     }),
     defineRoute({
       method: 'get',
