@@ -17,7 +17,9 @@ const OUT = join(import.meta.dirname, '..', 'fixtures', 'demo');
 const CASTS = join(OUT, 'casts');
 
 const prng = mulberry32;
-const rand = prng(2604);
+// The main line draws from one stream; the stations added after it (the cross-line, the repeat
+// shallow cast, the time-series site) from a second, so the main line's files never change.
+let rand = prng(2604);
 /** Roughly Gaussian noise of standard deviation sd (sum of four uniforms). */
 const noise = (sd: number): number => (rand() + rand() + rand() + rand() - 2) * sd * Math.sqrt(3);
 
@@ -26,7 +28,7 @@ const PLANNED = 43;
 const SKIPPED = new Map<number, string>([
   [14, 'not occupied: winch fault, station dropped to keep the schedule'],
   [29, 'not occupied: weather (swell over the operating limit)'],
-  [43, 'not occupied: time ran out before the last station'],
+  [43, 'not occupied: dropped to give the time to the Corrow Rise cross-line and the Kestrel time-series site'],
 ]);
 const frac = (i: number): number => (i - 1) / (PLANNED - 1);
 const lonOf = (x: number): number => -30 + 20 * x;
@@ -101,12 +103,20 @@ type Planted =
   | { kind: 'spike'; station: string; file: string; pressure: number; dSP: number; sigma0Drop: number }
   | { kind: 'overturn'; station: string; file: string; pTop: number; pBottom: number; sigma0Deficit: number };
 
-function castLevels(i: number, x: number, bottom: number, lat: number): { levels: Level[]; mld: number } {
-  const pMax = Math.floor(p_from_z(-(bottom - 8 - 6 * rand()), lat) / 2) * 2;
+function castLevels(
+  i: number,
+  x: number,
+  bottom: number,
+  lat: number,
+  opts: { pStop?: number; heave?: number } = {},
+): { levels: Level[]; mld: number } {
+  const pBottom = Math.floor(p_from_z(-(bottom - 8 - 6 * rand()), lat) / 2) * 2;
+  const pMax = opts.pStop ?? pBottom;
   const levels: Level[] = [];
   let mld = 0;
   for (let p = 2; p <= pMax; p += 2) {
-    const w = water(x, p);
+    // heave: the water found at p sits that many dbar deeper (an internal wave between two casts)
+    const w = water(x, Math.max(2, p - (opts.heave ?? 0)));
     mld = w.mld;
     levels.push({
       p,
@@ -301,6 +311,147 @@ function main(): void {
     // ~1.3 h steaming between stations plus the cast itself at 60 m/min down and up.
     clock += (1.3 + (2 * bottom) / 60 / 60 + 0.4) * 3600e3;
   }
+
+  // ---- after the main line: the Kestrel time-series site, the Corrow Rise cross-line, and a
+  // repeat shallow cast at CP-24 where the cross-line crosses the main line (a second stream of
+  // numbers, so the files above stay as they were).
+  rand = prng(2605);
+  const repeatCasts: { station: string; cast: string; file: string; note: string }[] = [];
+  const crossLine: string[] = [];
+  const extraCast = (o: {
+    name: string;
+    cast: string;
+    file: string;
+    lat: number;
+    lon: number;
+    bottom: number;
+    x: number;
+    pStop?: number;
+    heave?: number;
+    steamKm: number;
+  }) => {
+    clock += (o.steamKm / 20) * 3600e3; // 20 km/h between stations
+    const { levels } = castLevels(0, o.x, o.bottom, o.lat, { pStop: o.pStop, heave: o.heave });
+    const sig = levels.map((l) => sig0(l.t, l.S, l.p));
+    let runMax = -Infinity;
+    for (let k = 0; k < sig.length; k++) {
+      runMax = Math.max(runMax, sig[k]);
+      if (runMax - sig[k] > maxBackground) {
+        maxBackground = runMax - sig[k];
+        worst = `${o.name} cast ${o.cast} at ${levels[k].p} dbar`;
+      }
+    }
+    const when = new Date(Math.round(clock / 60e3) * 60e3);
+    const time = when.toISOString().replace('.000Z', 'Z');
+    const meta = {
+      station: o.name,
+      cast: o.cast,
+      latitude: o.lat.toFixed(4),
+      longitude: o.lon.toFixed(4),
+      time,
+      bottom_depth: String(o.bottom),
+      ship: 'RV Tessellate',
+      cruise: 'TS-26-04',
+    };
+    writeFileSync(join(CASTS, o.file), plainFile(o.file, meta, levels));
+    stationRows.push([o.name, o.cast, o.lat.toFixed(4), o.lon.toFixed(4), time, String(o.bottom)].join(','));
+    const pLast = levels[levels.length - 1].p;
+    clock += (0.4 + (2 * (o.pStop ? pLast : o.bottom)) / 60 / 60) * 3600e3;
+    return time;
+  };
+  const planStation = (name: string, lat: number, lon: number, bottom: number, file: string, time: string) =>
+    stations.push({
+      station: name,
+      latitude: round(lat, 4),
+      longitude: round(lon, 4),
+      plannedBottomDepth: bottom,
+      occupied: true,
+      note: null,
+      castFile: `casts/${file}`,
+      time,
+    });
+  // The Kestrel time-series site, some 300 km north of the line: the default line leaves it out
+  // as "off the line" (docs/lines.md).
+  const kt = { lat: -30.62, lon: -14.85, bottom: 4310 };
+  const ktTime = extraCast({
+    name: 'KT-01',
+    cast: '1',
+    file: 'KT-01.csv',
+    ...kt,
+    x: (kt.lon + 30) / 20,
+    steamKm: 520,
+  });
+  planStation('KT-01', kt.lat, kt.lon, kt.bottom, 'KT-01.csv', ktTime);
+  occupied++;
+  // The cross-line: five stations 40 km apart, north-west to south-east across the crest of the
+  // Corrow Rise (its crest runs north-east, so the main line crosses it obliquely), through CP-24.
+  const c24 = { lat: latOf(frac(24)), lon: lonOf(frac(24)) };
+  const bearing = (135 * Math.PI) / 180;
+  const at = (s: number) => ({
+    lat: c24.lat + (s * Math.cos(bearing)) / 111.2,
+    lon: c24.lon + (s * Math.sin(bearing)) / (111.2 * Math.cos((c24.lat * Math.PI) / 180)),
+  });
+  /** Bottom across the crest (m): 2000 m on the crest, falling away either side (half-width ~100 km). */
+  const crossBottom = (s: number) =>
+    Math.round(2000 + 2950 * (1 - Math.exp(-((s / 98) ** 2))) + 60 * Math.sin(s / 17) * Math.min(1, Math.abs(s) / 40));
+  /** Where the water of a cross-line station sits on the main line's stratification. */
+  const crossX = (s: number) => frac(24) + (0.63 * s) / 1840;
+  const legs: { name: string; s: number }[] = [
+    { name: 'XR-01', s: -80 },
+    { name: 'XR-02', s: -40 },
+    { name: 'CP-24', s: 0 },
+    { name: 'XR-03', s: 40 },
+    { name: 'XR-04', s: 80 },
+  ];
+  let prev = kt as { lat: number; lon: number };
+  for (const leg of legs) {
+    const pos = leg.s === 0 ? c24 : at(leg.s);
+    const dKm = Math.hypot(
+      (pos.lat - prev.lat) * 111.2,
+      (pos.lon - prev.lon) * 111.2 * Math.cos((pos.lat * Math.PI) / 180),
+    );
+    prev = pos;
+    crossLine.push(leg.name);
+    if (leg.s === 0) {
+      // The repeat shallow cast at the crossing: to 1000 dbar, six days after CP-24's full-depth
+      // cast, with the thermocline heaved 6 dbar down by an internal wave since.
+      const file = 'CP-24_ct2.csv';
+      const bottom = bottomOf(frac(24));
+      extraCast({
+        name: 'CP-24',
+        cast: '2',
+        file,
+        lat: pos.lat,
+        lon: pos.lon,
+        bottom,
+        x: frac(24),
+        pStop: 1000,
+        heave: 6,
+        steamKm: dKm,
+      });
+      repeatCasts.push({
+        station: 'CP-24',
+        cast: '2',
+        file: `casts/${file}`,
+        note: 'repeat shallow cast to 1000 dbar where the cross-line crosses the main line',
+      });
+      continue;
+    }
+    const bottom = crossBottom(leg.s);
+    const file = `${leg.name}.csv`;
+    const time = extraCast({
+      name: leg.name,
+      cast: '1',
+      file,
+      lat: pos.lat,
+      lon: pos.lon,
+      bottom,
+      x: crossX(leg.s),
+      steamKm: dKm,
+    });
+    planStation(leg.name, pos.lat, pos.lon, bottom, file, time);
+    occupied++;
+  }
   if (maxBackground > 0.004) throw new Error(`background stratification has a σ0 fall of ${maxBackground} (${worst})`);
 
   const cruise = {
@@ -322,6 +473,18 @@ function main(): void {
     ],
     plannedStations: stations,
     occupiedCount: occupied,
+    repeatCasts,
+    lines: [
+      {
+        name: 'Corrow Passage main line',
+        stations: stations.filter((s) => /^CP-/.test(s.station) && s.occupied).map((s) => s.station),
+      },
+      {
+        name: 'Corrow Rise cross-line',
+        stations: crossLine,
+        composite: { station: 'CP-24', shallowCast: '2', deepCast: '1', joinPressure: 500 },
+      },
+    ],
   };
   writeFileSync(join(OUT, 'cruise.json'), JSON.stringify(cruise, null, 1) + '\n');
   writeFileSync(join(OUT, 'stations.csv'), stationRows.join('\n') + '\n');
@@ -329,9 +492,9 @@ function main(): void {
     join(OUT, 'planted.json'),
     JSON.stringify({ generatedBy: 'scripts/make-demo-cruise.ts', planted }, null, 1) + '\n',
   );
-  writeFileSync(join(OUT, 'README.md'), readme(planted, occupied, maxBackground));
+  writeFileSync(join(OUT, 'README.md'), readme(planted, occupied, repeatCasts.length, maxBackground));
   console.log(
-    `wrote ${occupied} casts, ${planted.length} planted inversions; largest background σ0 fall below the running maximum ${maxBackground.toFixed(5)} kg/m³`,
+    `wrote ${occupied + repeatCasts.length} casts, ${planted.length} planted inversions; largest background σ0 fall below the running maximum ${maxBackground.toFixed(5)} kg/m³`,
   );
 }
 
@@ -340,7 +503,7 @@ function round(v: number, d: number): number {
   return Math.round(v * f) / f;
 }
 
-function readme(planted: Planted[], occupied: number, maxBackground: number): string {
+function readme(planted: Planted[], occupied: number, repeats: number, maxBackground: number): string {
   const rows = planted.map((p) =>
     p.kind === 'spike'
       ? `| ${p.station} | \`casts/${p.file}\` | single-scan salinity spike | ${p.pressure} dbar (one level) | SP lowered by ${p.dSP} | ${p.sigma0Drop} |`
@@ -354,9 +517,18 @@ people, and the water, which is an analytic stratification with small sensor noi
 only and never a reference for a science check.
 
 - \`cruise.json\` — cruise metadata, team, and ${PLANNED} planned stations (${PLANNED - occupied} planned but not occupied).
-- \`casts/\` — ${occupied} casts at 2 dbar to ~10 m above the bottom: plain CSV (api.md format), and
+- \`casts/\` — ${occupied + repeats} casts (${occupied} stations, ${repeats} repeat) at 2 dbar to ~10 m above the bottom: plain CSV (api.md format), and
   ${[...EXCHANGE_STATIONS].map(stationName).join(', ')} in the exchange format with quality flags (an oxygen dropout 202–210 dbar is -999, flag 9).
-- \`stations.csv\` — the station table of the occupied stations.
+- After the main line (CP-01…CP-42, west to east): **KT-01**, the invented Kestrel time-series site
+  about 300 km north of the line (the default line leaves it out as off the line); then the
+  **Corrow Rise cross-line**, XR-01, XR-02, CP-24, XR-03, XR-04, 40 km apart from north-west to
+  south-east across the crest of the rise (bottom ~3400 m → 2000 m on the crest → ~3400 m), crossing the main line at
+  CP-24; and at CP-24 a **repeat shallow cast** (\`casts/CP-24_ct2.csv\`, cast 2, to 1000 dbar, six days
+  after the full-depth cast 1, its thermocline heaved 6 dbar by an internal wave). \`cruise.json\`
+  lists both lines (\`lines\`; the cross-line takes cast 2 above 500 dbar and cast 1 below at CP-24, a
+  composite) and the repeat casts (\`repeatCasts\`); the seed makes the cross-line and leaves the
+  cross-line's own stations out of the default line (the analyst's choice; one click brings them back).
+- \`stations.csv\` — the station table of the occupied stations (one row a cast).
 - \`planted.json\` — the table below, for tests.
 
 Water: warm salty mixed layer (60–120 dbar, deeper east of the front), thermocline deeper west of the

@@ -101,8 +101,9 @@ async function main(): Promise<void> {
     for (const c of r.casts) {
       const md = c.metadata;
       const st = md.station!;
-      // one cast a station (the demo's first, deepest profile), and CP-07 missed in the earlier year
-      if (done.has(st) || st === 'CP-07' || md.cast !== '1') continue;
+      // the main line only (not the cross-line, the time-series site or repeat casts added after
+      // it): one cast a station (the demo's first, deepest profile), and CP-07 missed in the earlier year
+      if (!/^CP-\d\d$/.test(st) || done.has(st) || st === 'CP-07' || md.cast !== '1') continue;
       done.add(st);
       const x = frac(st);
       const p = c.columns.pressure!;
@@ -151,12 +152,14 @@ async function main(): Promise<void> {
       written.push({ station: st, file, time });
     }
   }
-  const planned = demo.plannedStations.map((s) => ({
-    station: s.station,
-    latitude: s.latitude,
-    longitude: s.longitude,
-    plannedBottomDepth: s.plannedBottomDepth,
-  }));
+  const planned = demo.plannedStations
+    .filter((s) => /^CP-\d\d$/.test(s.station)) // the main line's plan; the later cruise's additions were not planned then
+    .map((s) => ({
+      station: s.station,
+      latitude: s.latitude,
+      longitude: s.longitude,
+      plannedBottomDepth: s.plannedBottomDepth,
+    }));
   const cruise = {
     name: 'TS-16-02 Corrow Passage section (first occupation)',
     code: 'TS-16-02',

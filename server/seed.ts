@@ -6,11 +6,12 @@ import { join } from 'node:path';
 import { z } from 'zod';
 import { loadSettings } from './config';
 import { connectServices } from './services/index';
-import { Cruise, LayerSet, Line, Membership, Station, Upload, User, type Role } from './models/index';
+import { Cast, Cruise, LayerSet, Line, Membership, Station, Upload, User, type Role } from './models/index';
 import { suggestedLayerSets } from '../shared/api/levels';
 import { hashPassword } from './auth/passwords';
 import { QUEUES } from './services/queue';
 import { seedEarlierOccupation } from './seedEarlier';
+import { ensureDefaultLine } from './services/lines';
 
 export const DEMO_PASSWORD = 'sigmaline-demo';
 export const DEMO_ACCOUNTS: { email: string; name: string; role: Role | 'admin' }[] = [
@@ -41,6 +42,17 @@ const DemoCruise = z
         })
         .passthrough(),
     ),
+    lines: z
+      .array(
+        z.object({
+          name: z.string(),
+          stations: z.array(z.string()),
+          composite: z
+            .object({ station: z.string(), shallowCast: z.string(), deepCast: z.string(), joinPressure: z.number() })
+            .optional(),
+        }),
+      )
+      .default([]),
   })
   .passthrough();
 
@@ -96,16 +108,22 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
         createdBy: users['analyst@sigmaline.test'].id,
       });
   }
-  // a second, shorter line beside the default one: over the crest of the invented Corrow Rise (docs/lines.md)
-  if ((await Line.count({ where: { cruiseId: cruise.id, isDefault: false } })) === 0) {
+  // the cross-line over the Corrow Rise (cruise.json `lines`; docs/lines.md): its own stations are
+  // left out of the default line by the analyst (one click brings them back); its composite at the
+  // crossing is chosen once the casts are in (below)
+  const cross = demo.lines.find((l) => l.composite);
+  if (cross && !(await Line.findOne({ where: { cruiseId: cruise.id, name: cross.name } }))) {
     await Line.create({
       cruiseId: cruise.id,
-      name: 'Corrow Rise crest',
-      stations: ['CP-20', 'CP-21', 'CP-22', 'CP-23', 'CP-24', 'CP-25', 'CP-26'],
+      name: cross.name,
+      stations: cross.stations,
       polyline: null,
       corridorKm: null,
       createdBy: users['analyst@sigmaline.test'].id,
     });
+    const main = new Set(demo.lines.filter((l) => !l.composite).flatMap((l) => l.stations));
+    const def = await ensureDefaultLine(cruise.id);
+    if (!def.exclude.length) await def.update({ exclude: cross.stations.filter((s) => !main.has(s)) });
   }
   for (const a of DEMO_ACCOUNTS) {
     if (a.role === 'admin') continue;
@@ -154,9 +172,27 @@ export async function seedDemo(opts: { root?: string; wait?: boolean } = {}) {
     const failed = await Upload.findAll({ where: { id: ids, status: 'failed' } });
     for (const f of failed)
       console.warn(`[sigmaline] demo file ${f.filename} failed: ${JSON.stringify(f.errors).slice(0, 300)}`);
+    if (cross?.composite) await chooseComposite(cruise.id, cross.name, cross.composite);
   }
   await deps.close();
   return { cruiseId: cruise.id, files: files.length };
+}
+
+/** The cross-line's composite at the crossing station, once both casts are in (left alone when chosen already). */
+async function chooseComposite(
+  cruiseId: string,
+  lineName: string,
+  c: { station: string; shallowCast: string; deepCast: string; joinPressure: number },
+) {
+  const line = await Line.findOne({ where: { cruiseId, name: lineName } });
+  if (!line || line.casts[c.station]) return;
+  const casts = await Cast.findAll({ where: { cruiseId, station: c.station }, attributes: ['id', 'cast'] });
+  const shallow = casts.find((k) => k.cast === c.shallowCast);
+  const deep = casts.find((k) => k.cast === c.deepCast);
+  if (!shallow || !deep) return;
+  await line.update({
+    casts: { ...line.casts, [c.station]: { shallow: shallow.id, deep: deep.id, joinPressure: c.joinPressure } },
+  });
 }
 
 const isMain = process.argv[1] && /server[\\/]seed\.ts$/.test(process.argv[1]);

@@ -116,10 +116,12 @@ async function readDataVersion(cruiseId: string): Promise<string> {
   return (rows as { v: string }[])[0].v;
 }
 
-/** names undefined: every column. */
-export async function loadCruiseCasts(cruiseId: string, names?: string[]): Promise<CruiseCast[]> {
+/** names undefined: every column. stations: only the casts at these stations (a line's), else all. */
+export async function loadCruiseCasts(cruiseId: string, names?: string[], stations?: string[]): Promise<CruiseCast[]> {
   const casts = await Cast.findAll({
-    where: { cruiseId },
+    where: stations ? { cruiseId, station: stations } : { cruiseId },
+    // only what a section, a line or a file reads (not the fitness figures or notes)
+    attributes: ['id', 'station', 'cast', 'latitude', 'longitude', 'time', 'bottomDepth', 'inversions'],
     order: [
       ['time', 'ASC NULLS LAST'],
       ['station', 'ASC'],

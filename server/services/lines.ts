@@ -338,7 +338,8 @@ export async function loadLineCasts(
   names?: string[],
 ): Promise<ResolvedLine> {
   const row = await lineRow(cruiseId, lineId);
-  const all = await loadCruiseCasts(cruiseId, names);
+  // a drawn line needs only the casts at its stations; the default line weighs every station
+  const all = await loadCruiseCasts(cruiseId, names, row.isDefault ? undefined : row.stations);
   return resolveLine(cruiseId, row, all);
 }
 

@@ -20,6 +20,7 @@ import {
   useFramesLook,
   figureFileName,
   provenanceLine,
+  compositeWords,
   propertyLabel,
   sampleGrid,
   sectionQueryString,
@@ -116,8 +117,11 @@ export default function Section() {
   const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
   const frameHeight = useFrameHeight(view.frames);
   // Figures leave with a provenance line and a file name of cruise, line and property.
-  const lineName = view.line; // the line picker can pass the line's name here instead of its id
-  const provenance = provenanceLine(cruise, lineName);
+  // the line drawn, by its name (the default line is named by what it is), and its composite joins
+  const drawnLine = byPressure.data?.line ?? byDensity.data?.line;
+  const lineName = drawnLine && !drawnLine.isDefault ? drawnLine.name : view.line ? (drawnLine?.name ?? null) : null;
+  const composites = compositeWords(stations);
+  const provenance = provenanceLine(cruise, lineName, undefined, composites);
   const fileBase = figureFileName(cruise.name, lineName, view.property);
   const pressureCaption = sentence(
     `${propLabel}${unit ? ` (${unit})` : ''} by pressure on ${byPressure.data?.choices.bin ?? 10} dbar bins`,
@@ -127,6 +131,7 @@ export default function Section() {
     look.words.range('pressure'),
     look.words.axes,
     `warm marks: inversions of ${sigma} at the cast, from top to bottom of the inverted interval; dark fill: the bottom`,
+    composites,
   );
   const densityCaption = sentence(
     `${densityShowsDepth ? 'Pressure (dbar) of the isopycnals' : `${propLabel}${unit ? ` (${unit})` : ''}`} on ${sigma} (reference ${view.ref} dbar)`,
@@ -137,6 +142,7 @@ export default function Section() {
     densityShowsDepth ? null : look.words.palette,
     look.words.range('density'),
     look.xAxisWords,
+    composites,
   );
   const cursor = stations.find((s) => s.id === view.station) ?? null;
   const inversions = byPressure.data?.inversions ?? [];

@@ -38,7 +38,7 @@ afterAll(async () => {
 });
 
 describe('demo cruise through the intake', () => {
-  it('ingests all 40 casts and finds exactly the planted inversions', async () => {
+  it('ingests all 46 casts (40 on the main line) and finds exactly the planted inversions', async () => {
     let req = tech.agent.post(`/api/cruises/${cruiseId}/uploads`).set('x-csrf-token', tech.csrf);
     const files = readdirSync(dir).sort();
     for (const f of files) req = req.attach('files', join(dir, f));

@@ -170,6 +170,55 @@ describe('a line from a station list', () => {
     expect(at(c, 1000)).toBeCloseTo(at(b, 1000), 9); // below the join: the deep cast
     expect(c.stations[1].choice).toBe('composite');
   });
+  it('takes the join pressure the analyst chooses, moves it, refuses one the shallow cast cannot reach, and names it in the files', async () => {
+    const d = (await lines())[0];
+    const s3 = d.stations.find((s) => s.station === 'S3')!;
+    const shallowId = (await who.analyst.agent.get(`/api/cruises/${cruiseId}/casts`)).body.find(
+      (c: { station: string; cast: string }) => c.station === 'S3' && c.cast === '2',
+    ).id;
+    const only = (await post({ name: 'Only shallow S3', stations: ['S2', 'S3', 'S4'], casts: { S3: shallowId } })).body;
+    const deep = (await post({ name: 'Only deep S3', stations: ['S2', 'S3', 'S4'] })).body;
+    const made = await post({
+      name: 'Join moved',
+      stations: ['S2', 'S3', 'S4'],
+      casts: { S3: { shallow: shallowId, deep: s3.castId, joinPressure: 200 } },
+    });
+    expect(made.status).toBe(201);
+    const [a, b] = await Promise.all([only, deep].map(async (l) => (await section({ line: l.id })).body));
+    const at = (s: typeof a, p: number) => {
+      const j = s.grid.x.findIndex((x: number) => Math.abs(x - s.stations[1].x) < 1e-9);
+      return s.grid.z[s.grid.y.findIndex((y: number) => Math.abs(y - p) < 1e-9)][j] as number;
+    };
+    // S3's shallow cast is 3 °C warmer (lines-helpers): 240 dbar is below a join at 200, above one at 280
+    const c200 = (await section({ line: made.body.id })).body;
+    expect(at(c200, 240)).toBeCloseTo(at(b, 240), 9);
+    const moved = await patch(made.body.id, {
+      casts: { S3: { shallow: shallowId, deep: s3.castId, joinPressure: 280 } },
+    });
+    expect(moved.status).toBe(200);
+    expect(moved.body.stations[1].composite).toMatchObject({ joinPressure: 280, shallowCast: '2', deepCast: '1' });
+    expect(moved.body.stations[1].note).toMatch(/cast 2 above 280 dbar, cast 1 from 280 dbar down/);
+    const c280 = (await section({ line: made.body.id })).body;
+    expect(at(c280, 240)).toBeCloseTo(at(a, 240), 9);
+    expect(at(c280, 240) - at(b, 240)).toBeGreaterThan(2);
+    expect(at(c280, 1000)).toBeCloseTo(at(b, 1000), 9);
+    expect(c280.stations[1].composite).toMatchObject({ joinPressure: 280 });
+    // the shallow cast stops at 300 dbar: a join at 400 would leave a hole, refused with its field
+    const far = await patch(made.body.id, {
+      casts: { S3: { shallow: shallowId, deep: s3.castId, joinPressure: 400 } },
+    });
+    expect(far.status).toBe(400);
+    expect(far.body.error.details.map((x: { field: string }) => x.field)).toContain('casts.S3.joinPressure');
+    expect((await who.analyst.agent.get(`/api/lines/${made.body.id}`)).body.stations[1].composite.joinPressure).toBe(
+      280,
+    );
+    // the files name the join in their provenance
+    const csv = await who.analyst.agent
+      .get(`/api/cruises/${cruiseId}/exports/pressure.csv`)
+      .query({ line: made.body.id, bin: 50 });
+    expect(csv.status).toBe(200);
+    expect(csv.text).toMatch(/S3 \(casts 2\+1 joined at 280 dbar\)/);
+  });
   it('renames, reorders and deletes', async () => {
     const r = await patch(id, { name: 'Westward', stations: ['S1', 'S3', 'S6'] });
     expect(r.status).toBe(200);

@@ -31,7 +31,11 @@ async function main(): Promise<void> {
   }
 }
 
-main().catch((err: unknown) => {
-  console.error(err);
-  process.exitCode = 1;
-});
+// Exits when done: a module's app may leave handles open (pools, job workers) after its close.
+main().then(
+  () => process.exit(process.exitCode ?? 0),
+  (err: unknown) => {
+    console.error(err);
+    process.exit(1);
+  },
+);

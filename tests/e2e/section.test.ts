@@ -44,7 +44,7 @@ beforeAll(async () => {
   const t = await agentFor(srv.t.app, tech.email);
   const dir = join(process.cwd(), 'fixtures/demo/casts');
   const files = readdirSync(dir).sort();
-  expect(files).toHaveLength(40);
+  expect(files).toHaveLength(46); // 40 main-line casts, the time-series site, the cross-line's four, one repeat
   let req = t.agent.post(`/api/cruises/${c.id}/uploads`).set('x-csrf-token', t.csrf);
   for (const f of files) req = req.attach('files', join(dir, f));
   expect((await req).status).toBe(202);

@@ -48,6 +48,16 @@ const Cruise = z.object({
       castFile: z.string().nullable(),
     }),
   ),
+  repeatCasts: z.array(z.object({ station: z.string(), cast: z.string(), file: z.string(), note: z.string() })),
+  lines: z.array(
+    z.object({
+      name: z.string(),
+      stations: z.array(z.string()),
+      composite: z
+        .object({ station: z.string(), shallowCast: z.string(), deepCast: z.string(), joinPressure: z.number() })
+        .optional(),
+    }),
+  ),
 });
 const planted = Planted.parse(JSON.parse(readFileSync(join(DIR, 'planted.json'), 'utf8'))).planted;
 const cruise = Cruise.parse(JSON.parse(readFileSync(join(DIR, 'cruise.json'), 'utf8')));
@@ -65,12 +75,14 @@ beforeAll(async () => {
 const at = (c: ParsedCast, p: number): number => (c.columns.pressure as Float64Array).indexOf(p);
 
 describe('demo cruise', () => {
-  it('about 40 casts, in both formats, each a full-depth downcast at 2 dbar', () => {
+  const repeat = new Set(cruise.repeatCasts.map((r) => r.file.replace(/^casts\//, '')));
+  it('about 40 casts, in both formats, each a full-depth downcast at 2 dbar (but the repeat shallow casts)', () => {
     expect(castFiles.length).toBeGreaterThanOrEqual(38);
     const formats = new Set([...casts.values()].map((c) => c.format));
     expect(formats).toEqual(new Set(['plain', 'exchange']));
     for (const [f, c] of casts) {
-      expect(c.metadata.station, f).toBe(f.replace(/(_ct1)?\.csv$/, ''));
+      expect(c.metadata.station, f).toBe(f.replace(/(_ct\d)?\.csv$/, ''));
+      if (repeat.has(f)) continue;
       expect(c.metadata.latitude).not.toBeNull();
       expect(c.metadata.time).not.toBeNull();
       const p = c.columns.pressure as Float64Array;
@@ -88,7 +100,7 @@ describe('demo cruise', () => {
     expect(unoccupied.length).toBeGreaterThanOrEqual(2);
     expect(unoccupied.length).toBeLessThanOrEqual(3);
     const files = cruise.plannedStations.filter((s) => s.occupied).map((s) => s.castFile);
-    expect(files.length).toBe(castFiles.length);
+    expect(files.length + cruise.repeatCasts.length).toBe(castFiles.length);
     for (const f of files) expect(existsSync(join(DIR, f as string)), String(f)).toBe(true);
     expect(new Set(cruise.team.map((t) => t.role))).toEqual(
       new Set(['chief_scientist', 'technician', 'analyst', 'pi']),
@@ -101,7 +113,9 @@ describe('demo cruise', () => {
     if (!r.ok) return;
     expect(r.stations.length).toBe(castFiles.length);
     for (const s of r.stations) {
-      const c = [...casts.values()].find((x) => x.metadata.station === s.station) as ParsedCast;
+      const c = [...casts.values()].find(
+        (x) => x.metadata.station === s.station && x.metadata.cast === s.cast,
+      ) as ParsedCast;
       expect(c.metadata.latitude).toBeCloseTo(s.latitude, 4);
       expect(c.metadata.time).toBe(s.time);
     }
@@ -185,5 +199,63 @@ describe('demo cruise', () => {
       expect(c.flags.salinity[k]).toBe(2);
       expect(c.extras.fluorescence.values.length).toBe(c.profile.levels);
     }
+  });
+
+  it('a short cross-line over the Corrow Rise that crosses the main line (not a stretch of it)', () => {
+    const pos = new Map(cruise.plannedStations.map((p) => [p.station, p]));
+    const main = cruise.lines.find((l) => !l.composite)!;
+    const cross = cruise.lines.find((l) => l.composite)!;
+    expect(cross.stations.length).toBeGreaterThanOrEqual(4);
+    expect(cross.stations.length).toBeLessThan(main.stations.length / 4);
+    // exactly one station shared with the main line: the crossing; the others are off it
+    const shared = cross.stations.filter((s) => main.stations.includes(s));
+    expect(shared).toEqual([cross.composite!.station]);
+    const i = cross.stations.indexOf(shared[0]);
+    expect(i).toBeGreaterThan(0);
+    expect(i).toBeLessThan(cross.stations.length - 1);
+    // the cross-line's ends lie either side of the main line (north of it, then south of it),
+    // and its bottom is shallowest at the crossing, on the crest of the rise
+    const mainLatAt = (lon: number) => {
+      const m = main.stations.map((s) => pos.get(s)!).sort((a, b) => a.longitude - b.longitude);
+      const k = m.findIndex((p) => p.longitude > lon);
+      const a = m[k - 1];
+      const b = m[k];
+      return a.latitude + ((b.latitude - a.latitude) * (lon - a.longitude)) / (b.longitude - a.longitude);
+    };
+    const side = (s: string) => Math.sign(pos.get(s)!.latitude - mainLatAt(pos.get(s)!.longitude));
+    expect(side(cross.stations[0])).toBe(1);
+    expect(side(cross.stations[cross.stations.length - 1])).toBe(-1);
+    const bottoms = cross.stations.map((s) => {
+      const c = [...casts.values()].find((x) => x.metadata.station === s && x.metadata.cast === '1')!;
+      return c.metadata.bottomDepth as number;
+    });
+    expect(Math.min(...bottoms)).toBe(bottoms[i]);
+    expect(bottoms[0] - bottoms[i]).toBeGreaterThan(1000);
+    expect(bottoms[bottoms.length - 1] - bottoms[i]).toBeGreaterThan(1000);
+  });
+
+  it('a repeat shallow cast beside the full-depth cast at the crossing, deep enough for the join', () => {
+    expect(cruise.repeatCasts).toHaveLength(1);
+    const r = cruise.repeatCasts[0];
+    const shallow = casts.get(r.file.replace(/^casts\//, ''))!;
+    const deep = [...casts.values()].find((x) => x.metadata.station === r.station && x.metadata.cast === '1')!;
+    expect(shallow.metadata.cast).toBe('2');
+    expect(shallow.metadata.latitude).toBeCloseTo(deep.metadata.latitude!, 3);
+    expect(shallow.metadata.longitude).toBeCloseTo(deep.metadata.longitude!, 3);
+    const ps = shallow.columns.pressure as Float64Array;
+    const pd = deep.columns.pressure as Float64Array;
+    expect(ps[ps.length - 1]).toBeLessThan(0.6 * pd[pd.length - 1]);
+    const join = cruise.lines.find((l) => l.composite)!.composite!.joinPressure;
+    expect(ps[0]).toBeLessThan(join);
+    expect(ps[ps.length - 1]).toBeGreaterThan(join);
+    expect(Date.parse(shallow.metadata.time!)).toBeGreaterThan(Date.parse(deep.metadata.time!));
+  });
+
+  it('a time-series site far off the line, which the off-line rule leaves out', async () => {
+    const { offLineStations } = await import('../../shared/section/index');
+    const pts = cruise.plannedStations
+      .filter((s) => s.occupied)
+      .map((s) => ({ station: s.station, lon: s.longitude, lat: s.latitude }));
+    expect(offLineStations(pts, 3).map((o) => o.station)).toEqual(['KT-01']);
   });
 });

@@ -31,7 +31,13 @@ export { createHoverStore, useHover } from './hoverStore';
 export type { HoverStore } from './hoverStore';
 export { useFramesLook, autoPalette, sentence } from './look';
 export type { FramesLook } from './look';
-export { SectionFigureBar, FrameExportMenu, provenanceLine, figureFileName } from './components/SectionFigureBar';
+export {
+  SectionFigureBar,
+  FrameExportMenu,
+  provenanceLine,
+  figureFileName,
+  compositeWords,
+} from './components/SectionFigureBar';
 export type { FrameExport } from './components/SectionFigureBar';
 export { ExportMenu } from './components/ExportMenu';
 export { composeSvg, fileNameFor, wrap } from './export/compose';

@@ -25,6 +25,8 @@ export const sectionStationSchema = z.object({
   longitude: z.number().nullable(),
   bottom: z.number().nullable(),
   deepest: z.number().nullable(),
+  /** A composite cast (docs/lines.md): the shallow cast above the join, the deep cast from it down. */
+  composite: z.object({ shallowCast: label, deepCast: label, joinPressure: z.number() }).nullable().optional(),
 });
 export type SectionStation = z.infer<typeof sectionStationSchema>;
 

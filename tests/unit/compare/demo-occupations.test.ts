@@ -20,7 +20,8 @@ async function occupation(dir: string, prop: 'SA' | 'CT'): Promise<OccupationCas
     const r = await parseUpload(f, readFileSync(join(ROOT, dir, 'casts', f)));
     if (!r.ok) throw new Error(f);
     for (const c of r.casts) {
-      if (c.metadata.cast !== '1') continue;
+      // the main line's first casts (the cross-line, the time-series site and repeat casts are not on it)
+      if (c.metadata.cast !== '1' || !/^CP-\d\d$/.test(c.metadata.station ?? '')) continue;
       const pc = processCast(c, { inversionThreshold: 0.01 });
       if (!pc.ok) throw new Error(f);
       const col = (n: string) => pc.cast.columns.find((k) => k.name === n)!.values as Float64Array;

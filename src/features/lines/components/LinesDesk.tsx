@@ -403,35 +403,77 @@ function CastSelect({
 }) {
   const deepest = station.candidates[0];
   const shallow = station.candidates.slice(1);
-  const value = station.choice === 'composite' ? 'composite' : station.choice === 'deepest' ? '' : station.castId;
+  const composite = station.composite;
+  const value = composite ? `composite:${composite.shallowCastId}` : station.choice === 'deepest' ? '' : station.castId;
+  /** A first join: 10 dbar above the shallow cast's deepest level, or half the deep cast's depth, on 10 dbar. */
+  const firstJoin = (top: { deepest: number }) =>
+    Math.max(10, Math.round(Math.min(top.deepest - 10, deepest.deepest / 2) / 10) * 10);
   return (
-    <select
-      aria-label={`Cast at ${station.station}`}
-      className="h-7 rounded border border-ink/40 bg-paper-raised px-1 font-mono text-sm"
-      value={value}
-      onChange={(e) => {
-        const v = e.target.value;
-        if (v === '') onChoose(null);
-        else if (v === 'composite') {
-          const top = shallow[0];
-          const join = Math.round(Math.min(top.deepest - 10, deepest.deepest / 2) / 10) * 10;
-          onChoose({ shallow: top.castId, deep: deepest.castId, joinPressure: Math.max(10, join) });
-        } else onChoose(v);
-      }}
-    >
-      <option value="">
-        deepest (cast {deepest.cast}, {deepest.deepest.toFixed(0)} dbar)
-      </option>
-      {station.candidates.map((c) => (
-        <option key={c.castId} value={c.castId}>
-          cast {c.cast} · {c.deepest.toFixed(0)} dbar
+    <span className="inline-flex flex-wrap items-center gap-1">
+      <select
+        aria-label={`Cast at ${station.station}`}
+        className="h-7 rounded border border-ink/40 bg-paper-raised px-1 font-mono text-sm"
+        value={value}
+        onChange={(e) => {
+          const v = e.target.value;
+          if (v === '') onChoose(null);
+          else if (v.startsWith('composite:')) {
+            const top = shallow.find((c) => c.castId === v.slice('composite:'.length)) ?? shallow[0];
+            onChoose({ shallow: top.castId, deep: deepest.castId, joinPressure: firstJoin(top) });
+          } else onChoose(v);
+        }}
+      >
+        <option value="">
+          deepest (cast {deepest.cast}, {deepest.deepest.toFixed(0)} dbar)
         </option>
-      ))}
-      {shallow.length > 0 && (
-        <option value="composite">
-          composite: cast {shallow[0].cast} above cast {deepest.cast}
-        </option>
+        {station.candidates.map((c) => (
+          <option key={c.castId} value={c.castId}>
+            cast {c.cast} · {c.deepest.toFixed(0)} dbar
+          </option>
+        ))}
+        {shallow.map((c) => (
+          <option key={`composite:${c.castId}`} value={`composite:${c.castId}`}>
+            composite: cast {c.cast} above cast {deepest.cast}
+          </option>
+        ))}
+      </select>
+      {composite && (
+        <JoinField
+          key={`${composite.shallowCastId}:${composite.joinPressure}`}
+          station={station.station}
+          join={composite.joinPressure}
+          onJoin={(joinPressure) =>
+            onChoose({ shallow: composite.shallowCastId, deep: composite.deepCastId, joinPressure })
+          }
+        />
       )}
-    </select>
+    </span>
+  );
+}
+
+/** The join pressure of a composite, dbar: sent on Enter or when the field is left, if it changed. */
+function JoinField({ station, join, onJoin }: { station: string; join: number; onJoin: (p: number) => void }) {
+  const [text, setText] = useState(String(join));
+  const send = () => {
+    const p = Number(text);
+    if (Number.isFinite(p) && p > 0 && p !== join) onJoin(p);
+    else setText(String(join));
+  };
+  return (
+    <label className="inline-flex items-center gap-1 text-xs text-ink-soft">
+      joined at
+      <input
+        aria-label={`Join pressure at ${station} in dbar`}
+        className="h-7 w-16 rounded border border-ink/40 bg-paper-raised px-1 text-right font-mono text-sm tabular-nums"
+        inputMode="decimal"
+        value={text}
+        onChange={(e) => setText(e.target.value)}
+        onBlur={send}
+        onKeyDown={(e) => {
+          if (e.key === 'Enter') send();
+        }}
+      />
+      dbar
+    </label>
   );
 }

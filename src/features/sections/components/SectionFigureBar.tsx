@@ -112,12 +112,27 @@ export function provenanceLine(
   cruise: { name: string; ship?: string | null },
   lineName: string | null,
   now = new Date(),
+  composites: string | null = null,
 ): string {
   const line = lineName ? `line ${lineName}` : 'default line (deepest cast per station, in plan order)';
-  return `Cruise ${cruise.name}${cruise.ship ? ` (${cruise.ship})` : ''} · ${line} · ${SOFTWARE} · drawn ${now.toISOString().slice(0, 16).replace('T', ' ')} UTC · provisional research data, not for navigation`;
+  return `Cruise ${cruise.name}${cruise.ship ? ` (${cruise.ship})` : ''} · ${line}${composites ? ` · ${composites}` : ''} · ${SOFTWARE} · drawn ${now.toISOString().slice(0, 16).replace('T', ' ')} UTC · provisional research data, not for navigation`;
 }
 
 /** A figure's file name after cruise, line and property. */
 export function figureFileName(cruise: string, lineName: string | null, property: string): string {
   return fileNameFor(cruise, lineName ?? 'default-line', property);
+}
+
+/** The joins of a line's composite casts, for a caption and a provenance line; null when there are none. */
+export function compositeWords(
+  stations: { station: string; composite?: { shallowCast: string; deepCast: string; joinPressure: number } | null }[],
+): string | null {
+  const joins = stations.flatMap((s) =>
+    s.composite
+      ? [
+          `${s.station} (cast ${s.composite.shallowCast} above ${s.composite.joinPressure} dbar, cast ${s.composite.deepCast} from it down)`,
+        ]
+      : [],
+  );
+  return joins.length ? `composite ${joins.length === 1 ? 'cast' : 'casts'} at ${joins.join(', ')}` : null;
 }
