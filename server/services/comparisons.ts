@@ -323,6 +323,31 @@ const cell = (v: number, digits?: number): number | null =>
 
 const list = (a: Float64Array, digits?: number) => Array.from(a, (v) => cell(v, digits));
 
+const ZEROS = '0'.repeat(24);
+/**
+ * The JSON text of roundSig(v, digits) (the same number; written from the integer mantissa, about
+ * twice as fast as String(roundSig(…))); NaN and ±Infinity as null.
+ */
+function sigText(v: number, digits: number): string {
+  if (!Number.isFinite(v)) return 'null';
+  const a = Math.abs(v);
+  if (a === 0) return '0';
+  const k = digits - 1 - Math.floor(Math.log10(a));
+  if (k < 0 || k > 22 || digits > 15) return String(Number(v.toPrecision(digits)));
+  let m = Math.round(a * P10[k]);
+  let e = k;
+  while (e > 0 && m % 10 === 0) {
+    m /= 10;
+    e--;
+  }
+  let s = String(m);
+  if (e > 0) {
+    if (s.length <= e) s = ZEROS.slice(0, e - s.length + 1) + s;
+    s = `${s.slice(0, s.length - e)}.${s.slice(s.length - e)}`;
+  }
+  return v < 0 ? `-${s}` : s;
+}
+
 /** A grid as JSON text ([level][position], null empty), written straight from the typed array. */
 function gridJson(g: Float64Array, nx: number, ny: number, digits?: number): string {
   const rows = new Array<string>(ny);
@@ -331,7 +356,7 @@ function gridJson(g: Float64Array, nx: number, ny: number, digits?: number): str
     const o = i * nx;
     for (let j = 0; j < nx; j++) {
       const v = g[o + j];
-      cells[j] = Number.isFinite(v) ? String(digits ? roundSig(v, digits) : v) : 'null';
+      cells[j] = digits ? sigText(v, digits) : Number.isFinite(v) ? String(v) : 'null';
     }
     rows[i] = `[${cells.join(',')}]`;
   }

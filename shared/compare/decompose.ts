@@ -50,13 +50,15 @@ export function verticalGradient(p: Float64Array, c: Float64Array): Float64Array
  */
 function sigmaAt(sigma: Float64Array, handling: InversionHandling): Float64Array {
   if (handling !== 'sort') return sigma;
-  const idx: number[] = [];
-  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) idx.push(k);
-  const sorted = Float64Array.from(idx, (k) => sigma[k]).sort();
+  let m = 0;
+  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) m++;
+  const sorted = new Float64Array(m);
+  m = 0;
+  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) sorted[m++] = sigma[k];
+  sorted.sort();
   const out = new Float64Array(sigma.length).fill(NaN);
-  idx.forEach((k, i) => {
-    out[k] = sorted[i];
-  });
+  m = 0;
+  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) out[k] = sorted[m++];
   return out;
 }
 
@@ -79,17 +81,21 @@ export function decomposeColumn(
   const diff = new Float64Array(n);
   for (let k = 0; k < n; k++) diff[k] = cB[k] - cA[k];
   const star = sigmaAt(sigmaA, handling);
-  const values: number[] = [];
-  for (let k = 0; k < n; k++) if (star[k] === star[k]) values.push(star[k]);
-  values.sort((u, v) => u - v);
-  const targets: number[] = [];
-  for (const v of values) if (targets.length === 0 || v > targets[targets.length - 1]) targets.push(v);
+  let m = 0;
+  for (let k = 0; k < n; k++) if (star[k] === star[k]) m++;
+  const values = new Float64Array(m);
+  m = 0;
+  for (let k = 0; k < n; k++) if (star[k] === star[k]) values[m++] = star[k];
+  values.sort(); // numeric, native for a typed array
+  let nt = 0;
+  for (let k = 0; k < m; k++) if (nt === 0 || values[k] > values[nt - 1]) values[nt++] = values[k];
+  const targets = values.subarray(0, nt);
   const waterMassTerm = new Float64Array(n).fill(NaN);
   const heave = new Float64Array(n).fill(NaN);
   const heaveTerm = new Float64Array(n).fill(NaN);
   const residual = new Float64Array(n).fill(NaN);
   if (targets.length === 0) return { waterMassTerm, heave, heaveTerm, residual, diff };
-  const t = Float64Array.from(targets);
+  const t = targets;
   const rA = remapToIsopycnals({ p, sigma: sigmaA, props: { C: cA } }, t, { handling, interpolation });
   const rB = remapToIsopycnals({ p, sigma: sigmaB, props: { C: cB } }, t, { handling, interpolation });
   const grad = verticalGradient(p, cA);
