@@ -406,7 +406,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           palette="sequential"
           range={seq}
           bar={`A (${unit})`}
-          caption={`A · ${A.cruise}`}
+          caption={`A · ${A.cruise}${A.firstCast ? ` · ${A.firstCast.slice(0, 4)}` : ''}`}
         />
         <GridFrame
           {...common}
@@ -417,7 +417,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           palette="sequential"
           range={seq}
           bar={`B (${unit})`}
-          caption={`B · ${B.cruise}`}
+          caption={`B · ${B.cruise}${B.firstCast ? ` · ${B.firstCast.slice(0, 4)}` : ''}`}
         />
       </Panel>
       <Panel title={`Change B − A${rate}`} bodyClassName="grid grid-cols-1 gap-2 p-2 lg:grid-cols-2">
@@ -467,7 +467,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           coord="pressure"
           palette="diverging"
           range={changeRange}
-          bar={`(${unit})`}
+          bar={`ΔC|${sig} at p (${unit})`}
           caption={`Water-mass term ΔC|${sig}, mapped onto pressure`}
         />
         <GridFrame
@@ -478,7 +478,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           coord="pressure"
           palette="diverging"
           range={changeRange}
-          bar={`(${unit})`}
+          bar={`−(∂C/∂p)·Δp (${unit})`}
           caption="Heave term −(∂C/∂p)·Δp"
         />
         <GridFrame
@@ -489,7 +489,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           coord="pressure"
           palette="diverging"
           range={changeRange}
-          bar={`(${unit})`}
+          bar={`residual (${unit})`}
           caption="Residual: ΔC|p minus both terms (second order)"
         />
       </Panel>

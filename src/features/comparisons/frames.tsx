@@ -216,7 +216,14 @@ export function MeanProfiles({ c, k, unit }: { c: Comparison; k: number; unit: s
           legend,
           margin: { l: 60, r: 12, t: 36, b: 84 },
           xaxis: valueAxis(`Change on the isopycnal (${unit})`),
-          xaxis2: valueAxis('Heave (dbar)', { overlaying: 'x', side: 'top' }),
+          // its own round ticks (not synchronised to the change axis below)
+          xaxis2: valueAxis('Heave (dbar)', {
+            overlaying: 'x',
+            side: 'top',
+            tickmode: 'auto',
+            nticks: 7,
+            showgrid: false,
+          }),
           yaxis: densityAxis(c.choices.ref),
           shapes: [...zero],
         })}
