@@ -9,7 +9,7 @@ import { sigma_batch, specvol_anom_standard } from '../seawater/density';
 import { onLevels } from '../section/geostrophy';
 import { remapToIsopycnals, type InversionHandling, type SigmaInterpolation } from '../remap/remap';
 import { commonPositions, type Place, type PositionOptions, type Pair, type Excluded, type Weights } from './positions';
-import { decomposeColumn } from './decompose';
+import { decomposeAgainst, referenceColumn, type ReferenceColumn } from './decompose';
 import { alongLineMean, layerTransportOnGrids, yearsBetween, type LayerChange } from './summary';
 
 /** One cast of an occupation: the profile, with the levels flagged bad marked. */
@@ -151,6 +151,8 @@ export interface GriddedCast {
   badS: Uint8Array;
   /** Flagged levels of the cast. */
   flagged: number;
+  /** The cast as occupation A's reference column of the decomposition (Bindoff & McDougall 1994). */
+  reference: ReferenceColumn;
 }
 
 function spanMask(v: Float64Array, spans: [number, number][]): Uint8Array {
@@ -184,6 +186,7 @@ export function gridOccupationCast(cast: OccupationCast, opts: GridOptions): Gri
     CS: r.props.C,
     badS: spanMask(r.pressure, c.spans),
     flagged: c.flagged,
+    reference: referenceColumn(P, C, sigmaP, opts.handling, opts.interpolation ?? 'linear'),
   };
 }
 
@@ -389,7 +392,14 @@ export function compareOccupations(
   );
   for (let j = 0; j < nx; j++) {
     const col = (g: Grid) => column(g, nx, np, j);
-    const d = decomposeColumn(P, col(A), col(sigA), col(B), col(sigB), opts.handling, opts.interpolation ?? 'linear');
+    const how = opts.interpolation ?? 'linear';
+    // a position that is exactly one of A's casts uses that cast's own reference column
+    const wA = pos.weightsA.w[j];
+    const exact = pos.weightsA.k0[j] >= 0 && (wA === 0 || wA === 1);
+    const ref = exact
+      ? gA[wA === 0 ? pos.weightsA.k0[j] : pos.weightsA.k1[j]].reference
+      : referenceColumn(P, col(A), col(sigA), opts.handling, how);
+    const d = decomposeAgainst(P, ref, col(B), col(sigB), opts.handling, how);
     for (let i = 0; i < np; i++) {
       const o = i * nx + j;
       if (badP[o] || diffP[o] !== diffP[o]) continue;
