@@ -377,7 +377,12 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
   const sig = sigmaLabel(c.choices.ref);
   const A = c.occupations.A;
   const B = c.occupations.B;
-  const common = { x: c.x, stations, refDbar: c.choices.ref };
+  const common = {
+    x: c.x,
+    stations,
+    refDbar: c.choices.ref,
+    xTitle: c.choices.line ? 'Distance along the drawn line (km)' : 'Distance along line A (km)',
+  };
   return (
     <>
       <Panel title="What is compared" bodyClassName="grid grid-cols-1 gap-2 p-3 text-sm md:grid-cols-3">

@@ -103,7 +103,8 @@ export function comparisonBody(v: ComparisonView) {
     bin: v.bin,
     ...(v.levels ? { levels: v.levels } : {}),
     ...(v.line ? { line: v.line } : {}),
-    digits: 6,
+    // five significant digits: the hover shows four, the colours far fewer; a smaller answer
+    digits: 5,
   };
 }
 
