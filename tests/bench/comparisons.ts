@@ -4,7 +4,8 @@
 //   issue's "cold": pairing, interpolation, decomposition, transport, JSON and gzip);
 // - a new pressure-level spacing: the casts are in memory but every cast is gridded and remapped anew;
 // - a new set of kept flags: nothing is held, both lines are read from PostgreSQL and remapped.
-// The body asks for 5 significant digits, as the screen does. Warm: a comparison already built. References measured in the same run: for warm, the p95 of a
+// The body asks for 5 significant digits, as the screen does. Warm: a comparison already built.
+// References measured in the same run: for warm, the p95 of a
 // signed-in GET /api/auth/me (the floor of any request here); for cold, a section of line A built
 // anew (GET …/section, density frame, the same 60 casts). Stage times are those of the last build.
 // The casts are written straight into the column store (the ingest has its own bench).
