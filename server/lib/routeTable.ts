@@ -16,7 +16,8 @@ const memberships = new Map<string, { at: number; role: Role | null }>();
 export function invalidateMemberships(cruiseId: string) {
   for (const key of memberships.keys()) if (key.endsWith(`:${cruiseId}`)) memberships.delete(key);
 }
-async function membershipOf(userId: string, cruiseId: string): Promise<{ role: Role } | null> {
+/** The user's role in the cruise, or null (held for half a second, as above). */
+export async function membershipOf(userId: string, cruiseId: string): Promise<{ role: Role } | null> {
   const key = `${userId}:${cruiseId}`;
   const hit = memberships.get(key);
   if (hit && Date.now() - hit.at < MEMBERSHIP_TTL_MS) return hit.role ? { role: hit.role } : null;

@@ -26,6 +26,8 @@ export const ComparisonQuery = z.preprocess((raw) => {
   const q = { ...(raw as Record<string, unknown>) };
   for (const k of ['ref', 'pairDistanceKm', 'spacingKm', 'bin', 'pMax', 'digits']) if (k in q) q[k] = num(q[k]);
   if (typeof q.flags === 'string') q.flags = q.flags.split(',').map(num);
+  // a drawn line in a link: "lon,lat;lon,lat;…"
+  if (typeof q.line === 'string') q.line = q.line.split(';').map((pt) => pt.split(',').map(num));
   delete q.format;
   delete q.frame;
   return q;

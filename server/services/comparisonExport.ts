@@ -39,7 +39,7 @@ export function comparisonProvenance(c: ComparisonAnswer, who: string): [string,
     ['flags_included', ch.flags.join(', ')],
     [
       'positions',
-      `${ch.positions}${ch.positions === 'regular' && ch.spacingKm ? ` every ${ch.spacingKm} km` : ''} along line A; pairing distance ${ch.pairDistanceKm} km`,
+      `${ch.positions}${ch.positions === 'regular' && ch.spacingKm ? ` every ${ch.spacingKm} km` : ''} along ${ch.line ? `a drawn line (${ch.line.map(([lon, lat]) => `${lon} ${lat}`).join('; ')})` : 'line A'}; pairing distance ${ch.pairDistanceKm} km`,
     ],
     [
       'left_out',

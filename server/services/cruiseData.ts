@@ -59,7 +59,8 @@ function evict(room: number) {
   }
 }
 
-export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
+/** The cached value of key, made once; `size` gives its bytes when it is not buffers or JSON (typed arrays). */
+export function cached<T>(key: string, make: () => Promise<T> | T, size?: (value: T) => number): Promise<T> {
   const hit = cache.get(key);
   if (hit) {
     stats.hits++;
@@ -74,7 +75,7 @@ export function cached<T>(key: string, make: () => Promise<T> | T): Promise<T> {
   const p = Promise.resolve()
     .then(make)
     .then((value) => {
-      const bytes = sizeOf(value);
+      const bytes = size ? size(value) : sizeOf(value);
       if (bytes <= maxBytes) {
         evict(bytes);
         cache.set(key, { at: Date.now(), value, bytes });

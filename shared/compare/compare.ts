@@ -5,12 +5,12 @@
  * layer and the time between the occupations. Pure: typed arrays in, typed grids out
  * (data[level·nx + position], NaN empty).
  */
-import { sigma_batch } from '../seawater/density';
+import { sigma_batch, specvol_anom_standard } from '../seawater/density';
 import { onLevels } from '../section/geostrophy';
 import { remapToIsopycnals, type InversionHandling, type SigmaInterpolation } from '../remap/remap';
 import { commonPositions, type Place, type PositionOptions, type Pair, type Excluded, type Weights } from './positions';
-import { decomposeColumn } from './decompose';
-import { alongLineMean, layerTransportChange, yearsBetween, type LayerChange } from './summary';
+import { decomposeAgainst, referenceColumn, type ReferenceColumn } from './decompose';
+import { alongLineMean, layerTransportOnGrids, yearsBetween, type LayerChange } from './summary';
 
 /** One cast of an occupation: the profile, with the levels flagged bad marked. */
 export interface OccupationCast extends Place {
@@ -28,7 +28,8 @@ export interface OccupationCast extends Place {
   bad?: Uint8Array;
 }
 
-export interface CompareOptions extends PositionOptions {
+/** The choices that grid one cast (everything but the pairing and the positions). */
+export interface GridOptions {
   /** Reference pressure of σ, dbar. */
   ref: number;
   /** Target σ levels, ascending, kg/m³. */
@@ -37,8 +38,13 @@ export interface CompareOptions extends PositionOptions {
   pressure: Float64Array;
   handling: InversionHandling;
   interpolation?: SigmaInterpolation;
+}
+
+export interface CompareOptions extends PositionOptions, GridOptions {
   /** σ bounds of the layers for the transport change (default six layers over the targets). */
   layers?: Float64Array;
+  /** Called as each stage ends (pairing, interpolation, decomposition, transport), for profiling. */
+  stage?: (name: string) => void;
 }
 
 /** A grid of one field: data[level·nx + position], NaN where empty. */
@@ -109,7 +115,11 @@ function clean(c: OccupationCast, ref: number): CleanCast {
   if (runStart >= 0) spans.push([Number.isFinite(lastGood) ? lastGood : -Infinity, Infinity]);
   if (keep.length === n)
     return { p: c.p, SA: c.SA, CT: c.CT, C: c.C, sigma: sigma_batch(c.SA, c.CT, ref), spans, flagged };
-  const take = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
+  const take = (a: Float64Array) => {
+    const out = new Float64Array(keep.length);
+    for (let k = 0; k < keep.length; k++) out[k] = a[keep[k]];
+    return out;
+  };
   const SA = take(c.SA);
   const CT = take(c.CT);
   return { p: take(c.p), SA, CT, C: take(c.C), sigma: sigma_batch(SA, CT, ref), spans, flagged };
@@ -121,29 +131,63 @@ const inSpan = (v: number, spans: [number, number][]) => {
   return false;
 };
 
-/** One cast gridded on the pressure levels and on the targets, with its flagged cells. */
-interface CastGrids {
+/**
+ * One cast gridded on the pressure levels and on the targets, with its flagged cells: the per-cast
+ * work of a comparison, independent of the pairing and the positions (a service may keep it).
+ */
+export interface GriddedCast {
+  /** The property, SA and CT on the pressure levels (linear in pressure, NaN outside the cast). */
   C: Float64Array;
   SA: Float64Array;
   CT: Float64Array;
+  /** σ (of the reference pressure) and the specific-volume anomaly (m³/kg) of SA, CT there. */
+  sigmaP: Float64Array;
+  specvolAnomP: Float64Array;
+  /** 1 where a pressure level bridges a flagged level. */
   badP: Uint8Array;
+  /** Pressure (dbar) and the property on each target σ, and the flagged targets. */
   pS: Float64Array;
   CS: Float64Array;
   badS: Uint8Array;
+  /** Flagged levels of the cast. */
+  flagged: number;
+  /** The cast as occupation A's reference column of the decomposition (Bindoff & McDougall 1994). */
+  reference: ReferenceColumn;
 }
 
-function gridCast(c: CleanCast, opts: CompareOptions): CastGrids {
+function spanMask(v: Float64Array, spans: [number, number][]): Uint8Array {
+  const out = new Uint8Array(v.length);
+  if (spans.length) for (let i = 0; i < v.length; i++) out[i] = inSpan(v[i], spans) ? 1 : 0;
+  return out;
+}
+
+/** Grid one cast of an occupation (flagged and non-finite levels taken out first). */
+export function gridOccupationCast(cast: OccupationCast, opts: GridOptions): GriddedCast {
+  const c = clean(cast, opts.ref);
   const P = opts.pressure;
   const C = onLevels(c.p, c.C, P);
   const SA = onLevels(c.p, c.SA, P);
-  const CT = onLevels(c.p, c.CT, P);
-  const badP = Uint8Array.from(P, (v) => (inSpan(v, c.spans) ? 1 : 0));
+  const CT = c.C === c.CT ? C : onLevels(c.p, c.CT, P);
+  const sigmaP = sigma_batch(SA, CT, opts.ref);
+  const specvolAnomP = new Float64Array(P.length);
+  for (let i = 0; i < P.length; i++) specvolAnomP[i] = specvol_anom_standard(SA[i], CT[i], P[i]);
   const r = remapToIsopycnals({ p: c.p, sigma: c.sigma, props: { C: c.C } }, opts.targets, {
     handling: opts.handling,
     interpolation: opts.interpolation ?? 'linear',
   });
-  const badS = Uint8Array.from(r.pressure, (v) => (inSpan(v, c.spans) ? 1 : 0));
-  return { C, SA, CT, badP, pS: r.pressure, CS: r.props.C, badS };
+  return {
+    C,
+    SA,
+    CT,
+    sigmaP,
+    specvolAnomP,
+    badP: spanMask(P, c.spans),
+    pS: r.pressure,
+    CS: r.props.C,
+    badS: spanMask(r.pressure, c.spans),
+    flagged: c.flagged,
+    reference: referenceColumn(P, C, sigmaP, opts.handling, opts.interpolation ?? 'linear'),
+  };
 }
 
 /** A field of the used casts at the common positions: linear in x between the bracketing casts, strict (both needed). */
@@ -162,6 +206,43 @@ function across(wts: Weights, cols: Float64Array[], ny: number, bads?: Uint8Arra
       out[i * nx + j] = v;
       if (bads && badOut && ((w < 1 && bads[k0][i]) || (w > 0 && bads[k1][i]))) badOut[i * nx + j] = 1;
     }
+  }
+  return out;
+}
+
+/**
+ * A pointwise function of SA and CT (σ, specific-volume anomaly) at the common positions: a
+ * position that is exactly a cast takes the cast's own values; one between casts computes them from
+ * the interpolated SA and CT.
+ */
+function derivedAcross(
+  wts: Weights,
+  own: Float64Array[],
+  SA: Grid,
+  CT: Grid,
+  ny: number,
+  fn: (sa: Float64Array, ct: Float64Array, out: Float64Array) => void,
+): Grid {
+  const nx = wts.k0.length;
+  const out = new Float64Array(nx * ny).fill(NaN);
+  const sa = new Float64Array(ny);
+  const ct = new Float64Array(ny);
+  const col = new Float64Array(ny);
+  for (let j = 0; j < nx; j++) {
+    const k0 = wts.k0[j];
+    if (k0 < 0) continue;
+    const w = wts.w[j];
+    const exact = w === 0 ? own[k0] : w === 1 ? own[wts.k1[j]] : null;
+    if (exact) {
+      for (let i = 0; i < ny; i++) out[i * nx + j] = exact[i];
+      continue;
+    }
+    for (let i = 0; i < ny; i++) {
+      sa[i] = SA[i * nx + j];
+      ct[i] = CT[i * nx + j];
+    }
+    fn(sa, ct, col);
+    for (let i = 0; i < ny; i++) out[i * nx + j] = col[i];
   }
   return out;
 }
@@ -200,17 +281,24 @@ function defaultLayers(targets: Float64Array): Float64Array {
  * Compare occupation A (earlier; casts in line order) with B (later) of one line. See the head
  * of this file and docs/occupations.md for every rule.
  */
-export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opts: CompareOptions): Comparison {
+export function compareOccupations(
+  a: OccupationCast[],
+  b: OccupationCast[],
+  opts: CompareOptions,
+  gridded: { A?: readonly GriddedCast[]; B?: readonly GriddedCast[] } = {},
+): Comparison {
+  const stage = opts.stage ?? (() => undefined);
   const pos = commonPositions(a, b, opts);
+  stage('pairing');
   const nx = pos.x.length;
   const P = opts.pressure;
   const T = opts.targets;
   const np = P.length;
   const ns = T.length;
-  const cleanA = pos.usedA.map((i) => clean(a[i], opts.ref));
-  const cleanB = pos.usedB.map((i) => clean(b[i], opts.ref));
-  const gA = cleanA.map((c) => gridCast(c, opts));
-  const gB = cleanB.map((c) => gridCast(c, opts));
+  // Each used cast gridded once (or as given: gridded casts depend on no pairing choice).
+  const gA = pos.usedA.map((i) => gridded.A?.[i] ?? gridOccupationCast(a[i], opts));
+  const gB = pos.usedB.map((i) => gridded.B?.[i] ?? gridOccupationCast(b[i], opts));
+  stage('remap each occupation');
   const badP = new Uint8Array(np * nx);
   const badS = new Uint8Array(ns * nx);
   const A = across(
@@ -271,6 +359,7 @@ export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opt
     gB.map((g) => g.CS),
     ns,
   );
+  stage('interpolation to common x');
   const diffP = sub(B, A);
   const heave = sub(pB, pA);
   const diffS = sub(sB, sA);
@@ -281,11 +370,36 @@ export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opt
   const hvT = new Float64Array(np * nx).fill(NaN);
   const rsT = new Float64Array(np * nx).fill(NaN);
   const hv = new Float64Array(np * nx).fill(NaN);
-  const sigA = sigma_batch(SA_A, CT_A, opts.ref);
-  const sigB = sigma_batch(SA_B, CT_B, opts.ref);
+  const sigmaOf = (sa: Float64Array, ct: Float64Array, out: Float64Array) => void sigma_batch(sa, ct, opts.ref, out);
+  const specvolOf = (sa: Float64Array, ct: Float64Array, out: Float64Array) => {
+    for (let i = 0; i < np; i++) out[i] = specvol_anom_standard(sa[i], ct[i], P[i]);
+  };
+  const sigA = derivedAcross(
+    pos.weightsA,
+    gA.map((g) => g.sigmaP),
+    SA_A,
+    CT_A,
+    np,
+    sigmaOf,
+  );
+  const sigB = derivedAcross(
+    pos.weightsB,
+    gB.map((g) => g.sigmaP),
+    SA_B,
+    CT_B,
+    np,
+    sigmaOf,
+  );
   for (let j = 0; j < nx; j++) {
     const col = (g: Grid) => column(g, nx, np, j);
-    const d = decomposeColumn(P, col(A), col(sigA), col(B), col(sigB), opts.handling, opts.interpolation ?? 'linear');
+    const how = opts.interpolation ?? 'linear';
+    // a position that is exactly one of A's casts uses that cast's own reference column
+    const wA = pos.weightsA.w[j];
+    const exact = pos.weightsA.k0[j] >= 0 && (wA === 0 || wA === 1);
+    const ref = exact
+      ? gA[wA === 0 ? pos.weightsA.k0[j] : pos.weightsA.k1[j]].reference
+      : referenceColumn(P, col(A), col(sigA), opts.handling, how);
+    const d = decomposeAgainst(P, ref, col(B), col(sigB), opts.handling, how);
     for (let i = 0; i < np; i++) {
       const o = i * nx + j;
       if (badP[o] || diffP[o] !== diffP[o]) continue;
@@ -295,12 +409,37 @@ export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opt
       hv[o] = d.heave[i];
     }
   }
+  stage('decomposition');
   const mean = (g: Grid, ny: number) => alongLineMean(pos.x, g, ny);
   const layers = opts.layers ?? defaultLayers(T);
-  const transport =
-    nx >= 2
-      ? layerTransportChange(pos.lon, pos.lat, P, { SA: SA_A, CT: CT_A }, { SA: SA_B, CT: CT_B }, opts.ref, layers)
-      : [];
+  let transport: LayerChange[] = [];
+  if (nx >= 2) {
+    const vA = derivedAcross(
+      pos.weightsA,
+      gA.map((g) => g.specvolAnomP),
+      SA_A,
+      CT_A,
+      np,
+      specvolOf,
+    );
+    const vB = derivedAcross(
+      pos.weightsB,
+      gB.map((g) => g.specvolAnomP),
+      SA_B,
+      CT_B,
+      np,
+      specvolOf,
+    );
+    transport = layerTransportOnGrids(
+      pos.lon,
+      pos.lat,
+      P,
+      { sigma: sigA, specvolAnom: vA },
+      { sigma: sigB, specvolAnom: vB },
+      layers,
+    );
+  }
+  stage('means and transport');
   return {
     x: pos.x,
     lon: pos.lon,
@@ -327,7 +466,7 @@ export function compareOccupations(a: OccupationCast[], b: OccupationCast[], opt
       pos.usedB.map((i) => b[i].time),
     ),
     counts: {
-      flaggedLevels: { A: cleanA.reduce((s, c) => s + c.flagged, 0), B: cleanB.reduce((s, c) => s + c.flagged, 0) },
+      flaggedLevels: { A: gA.reduce((s, c) => s + c.flagged, 0), B: gB.reduce((s, c) => s + c.flagged, 0) },
       leftOut: { pressure: leftP, density: leftS },
       positions: nx,
     },

@@ -50,14 +50,96 @@ export function verticalGradient(p: Float64Array, c: Float64Array): Float64Array
  */
 function sigmaAt(sigma: Float64Array, handling: InversionHandling): Float64Array {
   if (handling !== 'sort') return sigma;
-  const idx: number[] = [];
-  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) idx.push(k);
-  const sorted = Float64Array.from(idx, (k) => sigma[k]).sort();
+  let m = 0;
+  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) m++;
+  const sorted = new Float64Array(m);
+  m = 0;
+  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) sorted[m++] = sigma[k];
+  sorted.sort();
   const out = new Float64Array(sigma.length).fill(NaN);
-  idx.forEach((k, i) => {
-    out[k] = sorted[i];
-  });
+  m = 0;
+  for (let k = 0; k < sigma.length; k++) if (sigma[k] === sigma[k]) out[k] = sorted[m++];
   return out;
+}
+
+/**
+ * What the decomposition needs of occupation A's column alone (it depends on no partner, so a
+ * column that is exactly a cast can keep it): the σ* of each level, the sorted distinct σ* as
+ * targets, A remapped onto them, and A's vertical gradient.
+ */
+export interface ReferenceColumn {
+  cA: Float64Array;
+  star: Float64Array;
+  targets: Float64Array;
+  pOnTargets: Float64Array;
+  cOnTargets: Float64Array;
+  grad: Float64Array;
+}
+
+/** The reference (occupation A) part of the decomposition of a column; see decomposeColumn. */
+export function referenceColumn(
+  p: Float64Array,
+  cA: Float64Array,
+  sigmaA: Float64Array,
+  handling: InversionHandling,
+  interpolation: SigmaInterpolation = 'linear',
+): ReferenceColumn {
+  const n = p.length;
+  const star = sigmaAt(sigmaA, handling);
+  let m = 0;
+  for (let k = 0; k < n; k++) if (star[k] === star[k]) m++;
+  const values = new Float64Array(m);
+  m = 0;
+  for (let k = 0; k < n; k++) if (star[k] === star[k]) values[m++] = star[k];
+  values.sort(); // numeric, native for a typed array
+  let nt = 0;
+  for (let k = 0; k < m; k++) if (nt === 0 || values[k] > values[nt - 1]) values[nt++] = values[k];
+  const targets = values.subarray(0, nt);
+  const grad = verticalGradient(p, cA);
+  if (nt === 0) return { cA, star, targets, pOnTargets: targets, cOnTargets: targets, grad };
+  const rA = remapToIsopycnals({ p, sigma: sigmaA, props: { C: cA } }, targets, { handling, interpolation });
+  return { cA, star, targets, pOnTargets: rA.pressure, cOnTargets: rA.props.C, grad };
+}
+
+/** The decomposition of a column against occupation A's reference part (referenceColumn). */
+export function decomposeAgainst(
+  p: Float64Array,
+  ref: ReferenceColumn,
+  cB: Float64Array,
+  sigmaB: Float64Array,
+  handling: InversionHandling,
+  interpolation: SigmaInterpolation = 'linear',
+): DecompositionColumn {
+  const n = p.length;
+  const { cA, star, targets: t, grad } = ref;
+  const diff = new Float64Array(n);
+  for (let k = 0; k < n; k++) diff[k] = cB[k] - cA[k];
+  const waterMassTerm = new Float64Array(n).fill(NaN);
+  const heave = new Float64Array(n).fill(NaN);
+  const heaveTerm = new Float64Array(n).fill(NaN);
+  const residual = new Float64Array(n).fill(NaN);
+  if (t.length === 0) return { waterMassTerm, heave, heaveTerm, residual, diff };
+  const rB = remapToIsopycnals({ p, sigma: sigmaB, props: { C: cB } }, t, { handling, interpolation });
+  for (let k = 0; k < n; k++) {
+    const s = star[k];
+    if (s !== s) continue;
+    // targets are the sorted distinct σ*: a bisection finds this level's one.
+    let lo = 0;
+    let hi = t.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (t[mid] < s) lo = mid + 1;
+      else hi = mid;
+    }
+    const wm = rB.props.C[lo] - ref.cOnTargets[lo];
+    const dp = rB.pressure[lo] - ref.pOnTargets[lo];
+    waterMassTerm[k] = wm;
+    heave[k] = dp;
+    const ht = -grad[k] * dp;
+    heaveTerm[k] = ht;
+    residual[k] = diff[k] - wm - ht;
+  }
+  return { waterMassTerm, heave, heaveTerm, residual, diff };
 }
 
 /**
@@ -75,42 +157,12 @@ export function decomposeColumn(
   handling: InversionHandling,
   interpolation: SigmaInterpolation = 'linear',
 ): DecompositionColumn {
-  const n = p.length;
-  const diff = new Float64Array(n);
-  for (let k = 0; k < n; k++) diff[k] = cB[k] - cA[k];
-  const star = sigmaAt(sigmaA, handling);
-  const values: number[] = [];
-  for (let k = 0; k < n; k++) if (star[k] === star[k]) values.push(star[k]);
-  values.sort((u, v) => u - v);
-  const targets: number[] = [];
-  for (const v of values) if (targets.length === 0 || v > targets[targets.length - 1]) targets.push(v);
-  const waterMassTerm = new Float64Array(n).fill(NaN);
-  const heave = new Float64Array(n).fill(NaN);
-  const heaveTerm = new Float64Array(n).fill(NaN);
-  const residual = new Float64Array(n).fill(NaN);
-  if (targets.length === 0) return { waterMassTerm, heave, heaveTerm, residual, diff };
-  const t = Float64Array.from(targets);
-  const rA = remapToIsopycnals({ p, sigma: sigmaA, props: { C: cA } }, t, { handling, interpolation });
-  const rB = remapToIsopycnals({ p, sigma: sigmaB, props: { C: cB } }, t, { handling, interpolation });
-  const grad = verticalGradient(p, cA);
-  for (let k = 0; k < n; k++) {
-    const s = star[k];
-    if (s !== s) continue;
-    // targets are the sorted distinct σ*: a bisection finds this level's one.
-    let lo = 0;
-    let hi = t.length - 1;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (t[mid] < s) lo = mid + 1;
-      else hi = mid;
-    }
-    const wm = rB.props.C[lo] - rA.props.C[lo];
-    const dp = rB.pressure[lo] - rA.pressure[lo];
-    waterMassTerm[k] = wm;
-    heave[k] = dp;
-    const ht = -grad[k] * dp;
-    heaveTerm[k] = ht;
-    residual[k] = diff[k] - wm - ht;
-  }
-  return { waterMassTerm, heave, heaveTerm, residual, diff };
+  return decomposeAgainst(
+    p,
+    referenceColumn(p, cA, sigmaA, handling, interpolation),
+    cB,
+    sigmaB,
+    handling,
+    interpolation,
+  );
 }

@@ -4,7 +4,8 @@
  * order), or both onto a straight line the analyst draws; each A station is paired with the nearest
  * B cast within a pairing distance; stations without a partner are left out and listed.
  */
-import { alongLineKm, alongTrackDistance, greatCircleKm, EARTH_MEAN_RADIUS_KM } from '../section/distance';
+import { alongTrackDistance, greatCircleKm } from '../section/distance';
+import { projectOnPolyline } from '../section/line';
 
 /** Where an occupation's cast is, and what it is called. */
 export interface Place {
@@ -23,8 +24,12 @@ export interface PositionOptions {
   positions: 'stations' | 'regular';
   /** Spacing of the regular positions, km (default the median spacing of A's paired stations). */
   spacingKm?: number;
-  /** A straight line the analyst draws, [[lon, lat], [lon, lat]]: both occupations are projected on it. */
-  line?: [[number, number], [number, number]];
+  /**
+   * A line the analyst draws, [lon, lat] vertices in degrees: both occupations are projected on it
+   * (positions along it from its first point); casts of either farther than the pairing distance
+   * from it are left out and listed.
+   */
+  line?: [number, number][];
 }
 
 export interface Pair {
@@ -68,44 +73,6 @@ export interface CommonPositions {
   weightsB: Weights;
   pairs: Pair[];
   excluded: Excluded[];
-}
-
-const RAD = Math.PI / 180;
-
-/** Local east/north offsets (km) of a position from an origin, equirectangular about their mean latitude. */
-function enKm(lon: number, lat: number, lon0: number, lat0: number): [number, number] {
-  let dl = lon - lon0;
-  if (dl > 180) dl -= 360;
-  if (dl < -180) dl += 360;
-  const c = Math.cos(0.5 * (lat + lat0) * RAD);
-  return [dl * RAD * EARTH_MEAN_RADIUS_KM * c, (lat - lat0) * RAD * EARTH_MEAN_RADIUS_KM];
-}
-
-/**
- * Along-track position (km) and cross-track distance (km) of a point projected on the polyline of
- * the stations (lon, lat) whose along-track positions are xs: the nearest foot over all legs, each
- * leg taken as straight in local east/north kilometres (ample for pairing distances of tens of km).
- */
-export function projectOnTrack(
-  lon: number,
-  lat: number,
-  lons: ArrayLike<number>,
-  lats: ArrayLike<number>,
-  xs: ArrayLike<number>,
-): { x: number; offsetKm: number } {
-  const n = lons.length;
-  if (n === 1) return { x: xs[0], offsetKm: greatCircleKm(lons[0], lats[0], lon, lat) };
-  let best = { x: NaN, offsetKm: Infinity };
-  for (let i = 0; i + 1 < n; i++) {
-    const [bx, by] = enKm(lons[i + 1], lats[i + 1], lons[i], lats[i]);
-    const [px, py] = enKm(lon, lat, lons[i], lats[i]);
-    const len2 = bx * bx + by * by;
-    let t = len2 > 0 ? (px * bx + py * by) / len2 : 0;
-    t = t < 0 ? 0 : t > 1 ? 1 : t;
-    const d = Math.hypot(px - t * bx, py - t * by);
-    if (d < best.offsetKm) best = { x: xs[i] + t * (xs[i + 1] - xs[i]), offsetKm: d };
-  }
-  return best;
 }
 
 /** Weights of positions x in an ascending list of cast positions xc; exact hits take the cast itself. */
@@ -159,21 +126,19 @@ export function commonPositions(a: Place[], b: Place[], opts: PositionOptions): 
   const excluded: Excluded[] = [];
   const lonA = Float64Array.from(a, (c) => c.lon);
   const latA = Float64Array.from(a, (c) => c.lat);
-  const xAll = opts.line ? alongTrackDistance(lonA, latA, { line: opts.line }) : alongTrackDistance(lonA, latA);
-  const x0 = opts.line && a.length ? alongLineKm(a[0].lon, a[0].lat, opts.line[0], opts.line[1]) : 0;
-  // B on A's track (or on the drawn line, with the distance to that line as the offset).
-  const projB = b.map((c) => {
-    if (!opts.line) return projectOnTrack(c.lon, c.lat, lonA, latA, xAll);
-    const xl = alongLineKm(c.lon, c.lat, opts.line[0], opts.line[1]) - x0;
-    const off = projectOnTrack(
-      c.lon,
-      c.lat,
-      [opts.line[0][0], opts.line[1][0]],
-      [opts.line[0][1], opts.line[1][1]],
-      [0, 1],
-    ).offsetKm;
-    return { x: xl, offsetKm: off };
-  });
+  const drawn = opts.line && opts.line.length >= 2 ? opts.line : null;
+  // Without a drawn line the track is A's stations in line order (cumulative great circle, as a section).
+  const track: [number, number][] = drawn ?? a.map((c) => [c.lon, c.lat]);
+  const onTrack = (lon: number, lat: number) => {
+    if (track.length === 1) return { x: 0, offsetKm: greatCircleKm(track[0][0], track[0][1], lon, lat) };
+    const f = projectOnPolyline(lon, lat, track);
+    return { x: f.alongKm, offsetKm: f.offsetKm };
+  };
+  const projA = drawn ? a.map((c) => onTrack(c.lon, c.lat)) : null;
+  const xAll = projA ? Float64Array.from(projA, (f) => f.x) : alongTrackDistance(lonA, latA);
+  const lineName = drawn ? 'the drawn line' : 'line A';
+  // B on A's track (or on the drawn line), with the distance to it as the offset.
+  const projB = b.map((c) => onTrack(c.lon, c.lat));
   const eligibleB: number[] = [];
   b.forEach((c, i) => {
     if (projB[i].offsetKm <= opts.pairDistanceKm) eligibleB.push(i);
@@ -181,13 +146,21 @@ export function commonPositions(a: Place[], b: Place[], opts: PositionOptions): 
       excluded.push({
         station: c.station,
         line: 'B',
-        why: `farther than ${opts.pairDistanceKm} km from line A (${projB[i].offsetKm.toFixed(1)} km)`,
+        why: `farther than ${opts.pairDistanceKm} km from ${lineName} (${projB[i].offsetKm.toFixed(1)} km)`,
       });
   });
   const pairs: Pair[] = [];
   const pairedA: number[] = [];
   const partner: number[] = [];
   a.forEach((c, i) => {
+    if (projA && projA[i].offsetKm > opts.pairDistanceKm) {
+      excluded.push({
+        station: c.station,
+        line: 'A',
+        why: `farther than ${opts.pairDistanceKm} km from the drawn line (${projA[i].offsetKm.toFixed(1)} km)`,
+      });
+      return;
+    }
     let best = -1;
     let d = Infinity;
     for (const k of eligibleB) {
@@ -222,7 +195,11 @@ export function commonPositions(a: Place[], b: Place[], opts: PositionOptions): 
       if (partner.includes(i)) return true;
       const inside = projB[i].x >= lo - opts.pairDistanceKm && projB[i].x <= hi + opts.pairDistanceKm;
       if (!inside)
-        excluded.push({ station: b[i].station, line: 'B', why: 'beyond the ends of the paired stretch of line A' });
+        excluded.push({
+          station: b[i].station,
+          line: 'B',
+          why: `beyond the ends of the paired stretch of ${lineName}`,
+        });
       return inside;
     })
     .sort((p, q) => projB[p].x - projB[q].x);

@@ -14,7 +14,9 @@ import {
   MeanProfiles,
   TsBoth,
   exportHref,
+  lineText,
   magnitudeQuantile,
+  parseLineText,
   parseView,
   scaled,
   serialiseView,
@@ -99,7 +101,18 @@ export default function ThenAndNow() {
           </div>
         )}
       </div>
-      <Controls view={view} setView={setView} choices={choices} />
+      <Controls
+        view={view}
+        setView={setView}
+        choices={choices}
+        track={
+          c
+            ? c.positions.flatMap((q) =>
+                q.longitude === null || q.latitude === null ? [] : [[q.longitude, q.latitude] as [number, number]],
+              )
+            : null
+        }
+      />
       <LinkByHand lineId={anchor} currentCruise={cruise.id} />
       {comparison.isError && <ErrorNotice error={comparison.error} title="The comparison could not be made" />}
       {!view.a || !view.b ? (
@@ -127,13 +140,20 @@ function Controls({
   view,
   setView,
   choices,
+  track,
 }: {
   view: ComparisonView;
   setView: (p: Partial<ComparisonView>) => void;
   choices: { id: string; label: string }[];
+  /** The common positions of the comparison shown (A's paired stations), to start a drawn line from. */
+  track: [number, number][] | null;
 }) {
   const [levels, setLevels] = useState(view.levels ?? '');
   useEffect(() => setLevels(view.levels ?? ''), [view.levels]);
+  const [drawing, setDrawing] = useState(view.line !== null);
+  const [lineDraft, setLineDraft] = useState(lineText(view.line));
+  useEffect(() => setLineDraft(lineText(view.line)), [view.line]);
+  const draftLine = parseLineText(lineDraft);
   return (
     <Panel title="Occupations and choices" bodyClassName="grid grid-cols-2 gap-3 p-3 lg:grid-cols-6">
       <SelectField
@@ -228,6 +248,43 @@ function Controls({
         <input type="checkbox" checked={view.perDecade} onChange={(e) => setView({ perDecade: e.target.checked })} />{' '}
         changes per decade
       </label>
+      <SelectField
+        label="Positions along"
+        value={drawing ? 'drawn' : 'track'}
+        onChange={(e) => {
+          const drawn = e.target.value === 'drawn';
+          setDrawing(drawn);
+          if (!drawn) setView({ line: null });
+        }}
+      >
+        <option value="track">A's track</option>
+        <option value="drawn">a line I draw</option>
+      </SelectField>
+      {drawing && (
+        <>
+          <TextField
+            label="Drawn line (lon lat; lon lat; …)"
+            value={lineDraft}
+            placeholder="-30.0 -35.0; -20.0 -34.5"
+            hint="2 to 200 points in degrees; stations of either occupation farther than the pairing distance from it are left out and listed"
+            error={lineDraft.trim() && !draftLine ? 'Give 2 to 200 points, each as longitude latitude' : undefined}
+            onChange={(e) => setLineDraft(e.target.value)}
+            onBlur={() => draftLine && setView({ line: draftLine })}
+            mono
+            fieldClassName="col-span-2 lg:col-span-4"
+          />
+          <div className="flex items-end pb-1">
+            <Button
+              size="sm"
+              variant="quiet"
+              disabled={!track || track.length < 2}
+              onClick={() => track && setView({ line: track })}
+            >
+              Start from A's track
+            </Button>
+          </div>
+        </>
+      )}
     </Panel>
   );
 }
@@ -320,7 +377,12 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
   const sig = sigmaLabel(c.choices.ref);
   const A = c.occupations.A;
   const B = c.occupations.B;
-  const common = { x: c.x, stations, refDbar: c.choices.ref };
+  const common = {
+    x: c.x,
+    stations,
+    refDbar: c.choices.ref,
+    xTitle: c.choices.line ? 'Distance along the drawn line (km)' : 'Distance along line A (km)',
+  };
   return (
     <>
       <Panel title="What is compared" bodyClassName="grid grid-cols-1 gap-2 p-3 text-sm md:grid-cols-3">
@@ -333,7 +395,8 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           {B.firstCast ? `, ${B.firstCast.slice(0, 10)}` : ''}
         </p>
         <p>
-          {fmtYears(c.years)} apart · {c.pairs.length} positions paired within {c.choices.pairDistanceKm} km ·{' '}
+          {fmtYears(c.years)} apart · {c.pairs.length} positions paired within {c.choices.pairDistanceKm} km
+          {c.choices.line ? ` along a drawn line of ${c.choices.line.length} points` : " along A's track"} ·{' '}
           {c.excluded.length} stations left out · flagged levels A {c.counts.flaggedLevels.A}, B{' '}
           {c.counts.flaggedLevels.B} ({c.counts.leftOut.pressure + c.counts.leftOut.density} cells left out)
         </p>
@@ -348,7 +411,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           palette="sequential"
           range={seq}
           bar={`A (${unit})`}
-          caption={`A · ${A.cruise}`}
+          caption={`A · ${A.cruise}${A.firstCast ? ` · ${A.firstCast.slice(0, 4)}` : ''}`}
         />
         <GridFrame
           {...common}
@@ -359,7 +422,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           palette="sequential"
           range={seq}
           bar={`B (${unit})`}
-          caption={`B · ${B.cruise}`}
+          caption={`B · ${B.cruise}${B.firstCast ? ` · ${B.firstCast.slice(0, 4)}` : ''}`}
         />
       </Panel>
       <Panel title={`Change B − A${rate}`} bodyClassName="grid grid-cols-1 gap-2 p-2 lg:grid-cols-2">
@@ -409,7 +472,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           coord="pressure"
           palette="diverging"
           range={changeRange}
-          bar={`(${unit})`}
+          bar={`ΔC|${sig} at p (${unit})`}
           caption={`Water-mass term ΔC|${sig}, mapped onto pressure`}
         />
         <GridFrame
@@ -420,7 +483,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           coord="pressure"
           palette="diverging"
           range={changeRange}
-          bar={`(${unit})`}
+          bar={`−(∂C/∂p)·Δp (${unit})`}
           caption="Heave term −(∂C/∂p)·Δp"
         />
         <GridFrame
@@ -431,7 +494,7 @@ function Frames({ c, view }: { c: Comparison; view: ComparisonView }) {
           coord="pressure"
           palette="diverging"
           range={changeRange}
-          bar={`(${unit})`}
+          bar={`residual (${unit})`}
           caption="Residual: ΔC|p minus both terms (second order)"
         />
       </Panel>

@@ -192,6 +192,111 @@ describe('POST /api/comparisons', () => {
   });
 });
 
+describe('common positions along a drawn line', () => {
+  type Answer = {
+    x: (number | null)[];
+    positions: { latitude: number; longitude: number }[];
+    pairs: { stationA: string; stationB: string; x: number }[];
+    excluded: { station: string; line: string; why: string }[];
+    onPressure: Record<string, (number | null)[][]>;
+    onDensity: Record<string, (number | null)[][]>;
+    decomposition: Record<string, (number | null)[][]>;
+    choices: { line: [number, number][] | null };
+  };
+  const base = () => ({ lineA: ids.lineA, lineB: ids.lineB, property: 'CT', pairDistanceKm: 20 });
+  const close = (u: (number | null)[][], v: (number | null)[][]) => {
+    expect(u.length).toBe(v.length);
+    let n = 0;
+    u.forEach((row, i) =>
+      row.forEach((a, j) => {
+        const b = v[i][j];
+        if (a === null || b === null) return expect(a).toBe(b);
+        n++;
+        expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(a)));
+      }),
+    );
+    return n;
+  };
+
+  it("a drawn line along A's own track gives the answer of A's track", async () => {
+    const own = (await post(analyst, base())).body as Answer;
+    const track = own.positions.map((q) => [q.longitude, q.latitude] as [number, number]);
+    const res = await post(analyst, { ...base(), line: track });
+    expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
+    const drawn = res.body as Answer;
+    expect(drawn.choices.line).toEqual(track);
+    expect(drawn.pairs.map((q) => [q.stationA, q.stationB])).toEqual(own.pairs.map((q) => [q.stationA, q.stationB]));
+    expect(drawn.excluded).toEqual(own.excluded);
+    drawn.x.forEach((v, j) => expect(Math.abs(v! - own.x[j]!)).toBeLessThan(1e-6));
+    let cells = 0;
+    for (const k of ['A', 'B', 'diff']) cells += close(drawn.onPressure[k], own.onPressure[k]);
+    for (const k of ['heave', 'diff']) cells += close(drawn.onDensity[k], own.onDensity[k]);
+    for (const k of ['waterMassTerm', 'heaveTerm', 'residual'])
+      cells += close(drawn.decomposition[k], own.decomposition[k]);
+    expect(cells).toBeGreaterThan(10_000);
+  });
+
+  it('stations without a partner within the pairing distance of a shortened, offset line are left out and listed', async () => {
+    const own = (await post(analyst, base())).body as Answer;
+    const n = own.positions.length;
+    // the southern half of A's track as it is, then the line bends 0.4° of latitude (≈ 44 km) north of it
+    const half = Math.floor(n / 2);
+    const track = own.positions.slice(0, half).map((q) => [q.longitude, q.latitude] as [number, number]);
+    const last = own.positions[n - 1];
+    track.push([last.longitude, last.latitude + 0.4]);
+    const res = await post(analyst, { ...base(), line: track });
+    expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
+    const c = res.body as Answer;
+    const kept = c.pairs.map((q) => q.stationA);
+    const left = c.excluded.filter((e) => e.line === 'A').map((e) => e.station);
+    // every A station is either paired or listed, never both, and the far ones are listed with the reason
+    expect([...kept, ...left].sort()).toEqual(own.pairs.map((q) => q.stationA).sort());
+    expect(kept.length).toBeGreaterThanOrEqual(half);
+    expect(left.length).toBeGreaterThan(0);
+    expect(left).toContain(own.pairs[n - 1].stationA);
+    for (const e of c.excluded.filter((x) => x.line === 'A'))
+      expect(e.why).toMatch(/farther than 20 km from the drawn line \(\d+\.\d km\)/);
+    expect(c.excluded.filter((e) => e.line === 'B').length).toBeGreaterThan(0);
+    expect(c.onPressure.diff[0]).toHaveLength(kept.length);
+    // positions run along the drawn line from its first point
+    expect(Math.abs(c.x[0]!)).toBeLessThan(1);
+  });
+
+  it('refuses a drawn line that is not one', async () => {
+    for (const line of [
+      [[-30, -40]],
+      [
+        [-30, -40],
+        [-30, -40],
+      ],
+      [
+        [-30, -95],
+        [-29, -40],
+      ],
+      Array.from({ length: 201 }, (_, i) => [-30 + i * 0.01, -40]),
+      'CP-18,CP-19',
+    ]) {
+      const res = await post(analyst, { ...base(), line });
+      expect(res.status).toBe(400);
+      expect(res.body.error.details.map((d: { field: string }) => d.field.split('.')[0])).toContain('line');
+    }
+  });
+
+  it('digits round each cell to that many significant digits, as toPrecision does', async () => {
+    const full = (await post(analyst, base())).body as Answer;
+    const six = (await post(analyst, { ...base(), digits: 6 })).body as Answer;
+    let n = 0;
+    full.decomposition.residual.forEach((row, i) =>
+      row.forEach((v, j) => {
+        if (v === null) return expect(six.decomposition.residual[i][j]).toBeNull();
+        n++;
+        expect(six.decomposition.residual[i][j]).toBe(Number(v.toPrecision(6)));
+      }),
+    );
+    expect(n).toBeGreaterThan(1000);
+  });
+});
+
 describe('occupations of a line', () => {
   it('offers the other cruise by its section identifier, and links by hand', async () => {
     const offered = await analyst.agent.get(`/api/lines/${ids.lineB}/occupations`);

@@ -113,6 +113,21 @@ describe('Then and now', () => {
           .waitFor({ timeout: 60_000 });
         expect(await again.getByLabel('Property').inputValue()).toBe('SA');
         await again.close();
+        // positions along a drawn line: started from A's track, then shortened to its southern half
+        await page.getByLabel('Positions along').selectOption('drawn');
+        await page.getByRole('button', { name: "Start from A's track" }).click();
+        await page.waitForFunction(() => /[?&]line=/.test(location.search));
+        await page.getByText(/along a drawn line of \d+ points/).waitFor({ timeout: 60_000 });
+        const field = page.getByLabel(/Drawn line/);
+        const pts = (await field.inputValue()).split(';');
+        await field.fill(pts.slice(0, Math.ceil(pts.length / 2)).join(';'));
+        await field.blur();
+        await page
+          .getByText(/farther than 20 km from the drawn line/)
+          .first()
+          .waitFor({ timeout: 60_000 });
+        await page.locator('figure[aria-label^="Change on pressure surfaces"][data-plot-drawn]').waitFor();
+        await page.screenshot({ path: join(SHOTS, `then-and-now-drawn-${w}x${h}-full.png`), fullPage: true });
       }
       await page.close();
     }

@@ -13,7 +13,7 @@ import { oklchToSrgb, rgb01ToHex } from './colour';
  * - `HEARTH` (sequential, temperature-like): deep indigo for cold, through plum and copper, to pale
  *   straw for warm.
  * - `BRINE` (sequential, salinity-like and densities): pale sand, sea-green, teal, deep navy.
- * - `CLEFT` (diverging, anomalies and velocities): blue, a warm white at zero, brick; the two arms
+ * - `CLEFT` (diverging, anomalies and velocities): blue, a neutral white at zero, brick; the two arms
  *   mirror each other in lightness so neither sign looks stronger. Centre it on zero.
  * - `GRAPHITE` (sequential, prints in grey): paper to charcoal with a faint teal tint; its
  *   luminance alone carries the value, so a grey print or a photocopy keeps the order.
@@ -52,10 +52,13 @@ export const HEARTH: ColorScale = evenly(ramp({ L: [0.2, 0.96], h: [285, 460], C
 /** Sequential, salinity-like: light for fresh, dark for salty. */
 export const BRINE: ColorScale = evenly(ramp({ L: [0.97, 0.26], h: [105, 262], C: [0.04, 0.1, 0.07] }));
 
-/** Diverging: blue below zero, warm white at zero, brick above. */
+/**
+ * Diverging: blue below zero, a neutral white at zero (no chroma, so a zero change does not read
+ * as a faint cooling or warming), brick above.
+ */
 export const CLEFT: ColorScale = evenly([
-  ...ramp({ L: [0.36, 0.95], h: [255, 255], C: [0.12, 0.09, 0.02] }, 9),
-  ...ramp({ L: [0.95, 0.36], h: [40, 35], C: [0.02, 0.09, 0.12] }, 9).slice(1),
+  ...ramp({ L: [0.36, 0.96], h: [255, 255], C: [0.12, 0.08, 0] }, 9),
+  ...ramp({ L: [0.96, 0.36], h: [40, 35], C: [0, 0.08, 0.12] }, 9).slice(1),
 ]);
 
 /** Sequential, prints in grey: paper to charcoal. */

@@ -61,6 +61,8 @@ export interface GridFrameProps {
   stations?: { x: number; name: string }[];
   height?: number;
   caption?: string;
+  /** Title of the distance axis (default: along line A). */
+  xTitle?: string;
 }
 
 /** One frame of a comparison: a grid on pressure or σ against distance along line A. */
@@ -77,6 +79,7 @@ export function GridFrame({
   stations = [],
   height = 300,
   caption,
+  xTitle = 'Distance along line A (km)',
 }: GridFrameProps) {
   const data = useMemo<Data[]>(() => {
     const diverging = palette === 'diverging';
@@ -111,10 +114,10 @@ export function GridFrame({
     () =>
       baseLayout({
         margin: { l: 60, r: 8, t: 12, b: 40 },
-        xaxis: valueAxis('Distance along line A (km)'),
+        xaxis: valueAxis(xTitle),
         yaxis: coord === 'pressure' ? pressureAxis() : densityAxis(refDbar),
       }),
-    [coord, refDbar],
+    [coord, refDbar, xTitle],
   );
   return <LazyPlot label={label} data={data} layout={layout} config={plotConfig()} height={height} caption={caption} />;
 }
@@ -148,7 +151,7 @@ export function MeanProfiles({ c, k, unit }: { c: Comparison; k: number; unit: s
           name: 'heave term',
           x: s(m.onPressure.heaveTerm),
           y: c.pressure,
-          line: { color: SERIES[4], width: 1.6 },
+          line: { color: SERIES[4], width: 1.6, dash: 'dash' },
         },
         {
           type: 'scatter',
@@ -216,7 +219,14 @@ export function MeanProfiles({ c, k, unit }: { c: Comparison; k: number; unit: s
           legend,
           margin: { l: 60, r: 12, t: 36, b: 84 },
           xaxis: valueAxis(`Change on the isopycnal (${unit})`),
-          xaxis2: valueAxis('Heave (dbar)', { overlaying: 'x', side: 'top' }),
+          // its own round ticks (not synchronised to the change axis below)
+          xaxis2: valueAxis('Heave (dbar)', {
+            overlaying: 'x',
+            side: 'top',
+            tickmode: 'auto',
+            nticks: 7,
+            showgrid: false,
+          }),
           yaxis: densityAxis(c.choices.ref),
           shapes: [...zero],
         })}
@@ -244,7 +254,7 @@ export function TsBoth({ c }: { c: Comparison }) {
           name: `B · ${c.occupations.B.cruise}`,
           x: c.ts.B.SA,
           y: c.ts.B.CT,
-          marker: { size: 3, color: SERIES[2], opacity: 0.55 },
+          marker: { size: 3, color: SERIES[5], opacity: 0.55 },
         },
       ] as Data[],
     [c],

@@ -31,6 +31,10 @@ export const comparisonSchema = z.object({
       bin: z.number(),
       sigma: z.string(),
       pressureLevels: z.string(),
+      line: z
+        .array(z.tuple([z.number(), z.number()]))
+        .nullable()
+        .optional(),
     })
     .passthrough(),
   unit: z.string(),

@@ -12,6 +12,8 @@ export interface ComparisonView {
   bin: number;
   levels: string | null;
   perDecade: boolean;
+  /** A drawn line for the common positions, [lon, lat] vertices; null: A's own track. */
+  line: [number, number][] | null;
 }
 
 export const DEFAULT_VIEW: ComparisonView = {
@@ -25,7 +27,29 @@ export const DEFAULT_VIEW: ComparisonView = {
   bin: 10,
   levels: null,
   perDecade: false,
+  line: null,
 };
+
+/** A drawn line as text: "lon lat; lon lat; …" (commas or spaces between the two numbers). */
+export function lineText(line: [number, number][] | null): string {
+  return line ? line.map(([lon, lat]) => `${lon} ${lat}`).join('; ') : '';
+}
+
+/** A drawn line from its text, or null when it is not 2–200 valid points (the API's own bounds). */
+export function parseLineText(text: string): [number, number][] | null {
+  const pts = text
+    .split(';')
+    .map((p) => p.trim())
+    .filter(Boolean)
+    .map((p) => p.split(/[\s,]+/).map(Number));
+  if (pts.length < 2 || pts.length > 200) return null;
+  if (!pts.every((p) => p.length === 2 && p.every(Number.isFinite))) return null;
+  if (!pts.every(([lon, lat]) => Math.abs(lon) <= 540 && Math.abs(lat) <= 90)) return null;
+  if (pts.every(([lon, lat]) => lon === pts[0][0] && lat === pts[0][1])) return null;
+  return pts as [number, number][];
+}
+
+const LINE_PARAM = (line: [number, number][]) => line.map(([lon, lat]) => `${lon},${lat}`).join(';');
 const REFS = [0, 1000, 2000, 3000, 4000];
 const uuid = /^[0-9a-f-]{36}$/i;
 
@@ -46,6 +70,7 @@ export function parseView(sp: URLSearchParams): ComparisonView {
     bin: n('bin', DEFAULT_VIEW.bin, (v) => v > 0 && v <= 500),
     levels: sp.get('levels') || null,
     perDecade: sp.get('perDecade') === '1',
+    line: parseLineText(sp.get('line') ?? ''),
   };
 }
 
@@ -61,6 +86,7 @@ export function serialiseView(v: ComparisonView): URLSearchParams {
   sp.set('bin', String(v.bin));
   if (v.levels) sp.set('levels', v.levels);
   if (v.perDecade) sp.set('perDecade', '1');
+  if (v.line) sp.set('line', LINE_PARAM(v.line));
   return sp;
 }
 
@@ -76,7 +102,9 @@ export function comparisonBody(v: ComparisonView) {
     positions: v.positions,
     bin: v.bin,
     ...(v.levels ? { levels: v.levels } : {}),
-    digits: 6,
+    ...(v.line ? { line: v.line } : {}),
+    // five significant digits: the hover shows four, the colours far fewer; a smaller answer
+    digits: 5,
   };
 }
 
@@ -99,5 +127,6 @@ export function exportHref(
     frame,
   });
   if (v.levels) sp.set('levels', v.levels);
+  if (v.line) sp.set('line', LINE_PARAM(v.line));
   return `/api/comparisons/export?${sp.toString()}`;
 }
