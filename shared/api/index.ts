@@ -6,3 +6,4 @@ export * from './variables';
 export * from './settings';
 export * from './resources';
 export * from './stations';
+export * from './castHistory';
