@@ -9,7 +9,9 @@ export {
   usePendingProposals,
   useDecideProposals,
   useUndoFlagChange,
+  useCastHistory,
 } from './api';
+export { CastHistoryPanel } from './components/CastHistoryPanel';
 export type { Decision } from './api';
 export {
   REFERENCE_PRESSURES,

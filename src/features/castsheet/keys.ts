@@ -5,6 +5,7 @@ export const castKeys = {
   qc: (castId: string) => [...castKeys.all, 'qc', castId] as const,
   flagLog: (castId: string) => [...castKeys.all, 'flag-log', castId] as const,
   neighbours: (castId: string) => [...castKeys.all, 'neighbours', castId] as const,
+  history: (castId: string) => [...castKeys.all, 'history', castId] as const,
   /** pending proposals per cast of a cruise */
   pending: (cruiseId: string) => [...castKeys.all, 'pending', cruiseId] as const,
 };
