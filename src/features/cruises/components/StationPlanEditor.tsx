@@ -8,8 +8,9 @@ import { parseCoordinate, parseDepth, STATION_NAME_MAX } from '../../../../share
 import { useEditStation, useRemoveStation, useReorderStations } from '../api';
 import type { Station } from '../types';
 
-const th = 'px-2 py-1.5 font-semibold';
-const num = 'px-2 py-1 text-right';
+const th = 'whitespace-nowrap px-1.5 py-1.5 font-semibold';
+const num = 'whitespace-nowrap px-1.5 py-1 text-right';
+const tight = 'px-1.5!';
 
 /**
  * The planned stations with the chief scientist's tools: edit a row (positions in decimal degrees or
@@ -64,7 +65,7 @@ export function StationPlanEditor({ cruiseId, stations }: { cruiseId: string; st
               Longitude
             </th>
             <th scope="col" className={`${th} text-right`}>
-              Depth (m)
+              Depth m
             </th>
             <th scope="col" className={th}>
               Casts
@@ -90,27 +91,32 @@ export function StationPlanEditor({ cruiseId, stations }: { cruiseId: string; st
                 <td className={`${num} cursor-grab text-ink-muted`} title="Drag to move">
                   {i + 1}
                 </td>
-                <td className="px-2 py-1 font-semibold text-ink-strong">{s.name}</td>
+                <td className="px-1.5 py-1 font-semibold text-ink-strong">{s.name}</td>
                 <td className={num}>{formatLatitude(s.latitude)}</td>
                 <td className={num}>{formatLongitude(s.longitude)}</td>
                 <td className={num}>{s.plannedDepth ?? '—'}</td>
-                <td className="px-2 py-1 font-sans">
+                <td
+                  className="whitespace-nowrap px-2 py-1"
+                  title={s.occupied ? `Occupied: ${s.casts ?? ''} cast(s)` : 'Planned, no cast yet'}
+                >
                   {s.occupied ? (
                     <span className="inline-flex items-center gap-1.5 text-ink">
                       <span aria-hidden className="size-2 rounded-full bg-ink" />
-                      Occupied
+                      {s.casts ?? ''}
+                      <span className="sr-only">occupied</span>
                     </span>
                   ) : (
                     <span className="inline-flex items-center gap-1.5 text-ink-muted">
                       <span aria-hidden className="size-2 rounded-full border border-ink" />
-                      Planned
+                      <span className="sr-only">planned</span>
                     </span>
                   )}
                 </td>
-                <td className="whitespace-nowrap px-1 py-0.5 text-right font-sans">
+                <td className="whitespace-nowrap px-0.5 py-0.5 text-right font-sans">
                   <Button
                     size="sm"
                     variant="quiet"
+                    className={tight}
                     aria-label={`Move station ${s.name} up`}
                     disabled={i === 0 || reorder.isPending}
                     onClick={() => move(i, i - 1)}
@@ -120,6 +126,7 @@ export function StationPlanEditor({ cruiseId, stations }: { cruiseId: string; st
                   <Button
                     size="sm"
                     variant="quiet"
+                    className={tight}
                     aria-label={`Move station ${s.name} down`}
                     disabled={i === ordered.length - 1 || reorder.isPending}
                     onClick={() => move(i, i + 1)}
@@ -137,6 +144,7 @@ export function StationPlanEditor({ cruiseId, stations }: { cruiseId: string; st
                   <Button
                     size="sm"
                     variant="quiet"
+                    className={tight}
                     aria-label={`Remove station ${s.name}`}
                     onClick={() => setRemoving(removing === s.id ? null : s.id)}
                   >
@@ -167,7 +175,8 @@ export function StationPlanEditor({ cruiseId, stations }: { cruiseId: string; st
         </div>
       )}
       <p className="border-t border-paper-rule px-3 py-1.5 text-xs text-ink-muted">
-        The default line draws the occupied stations in this order. Drag a row or use the arrows to move a station.
+        <span aria-hidden>●</span> occupied (number of casts) · <span aria-hidden>○</span> planned. The default line
+        draws the occupied stations in this order; drag a row or use the arrows to move a station.
       </p>
     </div>
   );

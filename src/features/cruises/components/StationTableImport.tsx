@@ -147,7 +147,7 @@ export function StationTableImport({ cruiseId }: { cruiseId: string }) {
       {change && <PreviewTable change={change} />}
       {change && !change.empty && (
         <div className="flex items-center gap-3">
-          <Button variant="primary" onClick={confirm} busy={apply.isPending}>
+          <Button variant="primary" className="whitespace-nowrap" onClick={confirm} busy={apply.isPending}>
             Apply these changes
           </Button>
           <Button variant="quiet" onClick={reset}>
@@ -253,8 +253,26 @@ function PreviewTable({ change }: { change: PlanChange }) {
       )}
       {alone > 0 && !change.empty && (
         <p className="text-xs text-ink-muted">
-          Left alone: {change.unchanged.map((u) => u.name).join(', ')}
-          {change.unchanged.some((u) => u.named) ? ' (the table gives the same values, or does not name them)' : ''}.
+          {change.unchanged.some((u) => u.named) && (
+            <>
+              Same in the table and the plan:{' '}
+              {change.unchanged
+                .filter((u) => u.named)
+                .map((u) => u.name)
+                .join(', ')}
+              .{' '}
+            </>
+          )}
+          {change.unchanged.some((u) => !u.named) && (
+            <>
+              Not in the table, left as they are:{' '}
+              {change.unchanged
+                .filter((u) => !u.named)
+                .map((u) => u.name)
+                .join(', ')}
+              .
+            </>
+          )}
         </p>
       )}
       {change.orderChanged && (
