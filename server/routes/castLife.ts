@@ -19,6 +19,7 @@ import {
 } from '../services/castLife';
 import { uploadJson } from './uploads';
 import type { AppDeps } from '../lib/deps';
+import { castHistoryResponseSchema } from '../../shared/api/castHistory';
 
 const anyCastCruise = (req: Request) => cruiseOfAnyCast(String(req.params.id));
 const uploadCruise = async (req: Request) => {
@@ -53,8 +54,10 @@ export function castLifeRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({
       method: 'get',
       path: '/casts/:id/history',
-      summary: "Every version of a cast's station and cast: file, who, when, live or not",
+      summary:
+        "Every version of a cast's station and cast: file, who, when, live or not, and the flags each replacement carried over",
       rule: { kind: 'member', roles: 'any', cruise: anyCastCruise },
+      response: castHistoryResponseSchema,
       handler: async (req) => castHistory(String(req.params.id)),
     }),
     defineRoute({

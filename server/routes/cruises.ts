@@ -5,6 +5,25 @@ import { badRequest, conflict, notFound } from '../lib/errors';
 import { AuditEntry, Cast, Cruise, Membership, Station, User, type Role } from '../models/index';
 import { audit } from '../lib/audit';
 import type { AppDeps } from '../lib/deps';
+import {
+  applyStationTable,
+  editStation,
+  listStations,
+  previewStationTable,
+  removeStation,
+  reorderStations,
+} from '../services/stationPlan';
+import {
+  planApplyResponseSchema,
+  planChangeSchema,
+  stationListResponseSchema,
+  stationOrderSchema,
+  stationPatchSchema,
+  stationResponseSchema,
+  stationTableApplySchema,
+  stationTableSchema,
+  type StationPatch,
+} from '../../shared/api/stations';
 
 /** A calendar date YYYY-MM-DD that exists (no 2026-02-31), in years a cruise can have (1800–2200). */
 const isoDate = z
@@ -185,23 +204,69 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({
       method: 'get',
       path: '/cruises/:id/stations',
-      summary: 'Planned stations, with whether each has a cast',
+      summary: 'Planned stations in plan order, with the live casts of each',
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: stationListResponseSchema,
+      handler: async (_req, _res, ctx) => listStations(ctx.cruiseId!),
+    }),
+    defineRoute({
+      method: 'patch',
+      path: '/cruises/:id/stations/:stationId',
+      changesData: true,
+      summary: "Edit a planned station's name, position or depth (an occupied station keeps its name)",
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      body: stationPatchSchema,
+      response: stationResponseSchema,
+      responses: { 409: 'renaming a station that has casts, or a name already planned' },
+      handler: async (req, _res, ctx) =>
+        editStation(deps, ctx.cruiseId!, String(req.params.stationId), ctx.body as StationPatch, req.user!.id),
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/cruises/:id/stations/:stationId',
+      changesData: true,
+      summary: 'Remove a planned station; refused (409 station_occupied) while it has casts',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      response: stationListResponseSchema,
+      handler: async (req, _res, ctx) => removeStation(deps, ctx.cruiseId!, String(req.params.stationId), req.user!.id),
+    }),
+    defineRoute({
+      method: 'put',
+      path: '/cruises/:id/stations/order',
+      changesData: true,
+      summary: 'Put the plan in a new order (every station id once); the default line follows it',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      body: stationOrderSchema,
+      response: stationListResponseSchema,
+      handler: async (req, _res, ctx) =>
+        reorderStations(deps, ctx.cruiseId!, (ctx.body as z.infer<typeof stationOrderSchema>).ids, req.user!.id),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/cruises/:id/stations/table/preview',
+      changesData: false,
+      summary: 'What a pasted or imported station table would change in the plan; writes nothing',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      body: stationTableSchema,
+      response: planChangeSchema,
+      responses: { 400: 'bad_station_table: each problem with its line and column' },
       handler: async (_req, _res, ctx) => {
-        const [stations, casts] = await Promise.all([
-          Station.findAll({ where: { cruiseId: ctx.cruiseId! }, order: [['order', 'ASC']] }),
-          Cast.findAll({ where: { cruiseId: ctx.cruiseId! }, attributes: ['station'], group: ['station'] }),
-        ]);
-        const occupied = new Set(casts.map((c) => c.station));
-        return stations.map((s) => ({
-          id: s.id,
-          name: s.name,
-          latitude: s.latitude,
-          longitude: s.longitude,
-          plannedDepth: s.plannedDepth,
-          order: s.order,
-          occupied: occupied.has(s.name),
-        }));
+        const b = ctx.body as z.infer<typeof stationTableSchema>;
+        return previewStationTable(ctx.cruiseId!, b.text, b.mode);
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/cruises/:id/stations/table/apply',
+      changesData: true,
+      summary: 'Apply a previewed station table (its token): exactly the previewed change, in one transaction',
+      rule: { kind: 'member', roles: ['chief_scientist'], cruise: byParam() },
+      body: stationTableApplySchema,
+      response: planApplyResponseSchema,
+      responses: { 409: 'plan_changed: the plan or its casts changed since the preview; nothing written' },
+      handler: async (req, _res, ctx) => {
+        const b = ctx.body as z.infer<typeof stationTableApplySchema>;
+        return applyStationTable(deps, ctx.cruiseId!, b.text, b.mode, b.token, req.user!.id);
       },
     }),
     defineRoute({
@@ -251,6 +316,7 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
           plannedDepth: s.plannedDepth,
           order: s.order,
           occupied: false,
+          casts: 0,
         });
       },
     }),

@@ -259,6 +259,23 @@ export function castLifeJson(c: Cast) {
   };
 }
 
+type NotCarried = { variable: string; pressure: number; flag: number };
+/** What a version replaced, and the flags carried over to it or listed as not carried (at most 200 listed). */
+function replacementJson(e: AuditEntry | undefined) {
+  if (!e) return null;
+  const before = (e.before ?? {}) as { castId?: string; file?: string };
+  const after = (e.after ?? {}) as { flagsCarried?: number; notCarried?: NotCarried[] };
+  const notCarried = Array.isArray(after.notCarried) ? after.notCarried : [];
+  return {
+    replacedCastId: before.castId ?? null,
+    replacedFile: before.file ?? null,
+    at: e.at,
+    flagsCarried: typeof after.flagsCarried === 'number' ? after.flagsCarried : 0,
+    notCarriedCount: notCarried.length,
+    notCarried: notCarried.slice(0, 200),
+  };
+}
+
 /** Every version of a cast's station and cast, oldest first: who uploaded which file, when; which is live. */
 export async function castHistory(castId: string) {
   const c = await findAny(castId);
@@ -283,6 +300,12 @@ export async function castHistory(castId: string) {
     },
     attributes: ['id', 'name', 'email'],
   });
+  // the replacement of each later version: what it replaced and which flags came over (the ingest's audit)
+  const replacements = await AuditEntry.findAll({
+    where: { entity: 'cast', action: 'replace_cast', entityId: versions.map((v) => v.id) },
+    attributes: ['entityId', 'before', 'after', 'at'],
+  });
+  const replacedBy = new Map(replacements.map((r) => [r.entityId, r]));
   const up = new Map(uploads.map((u) => [u.id, u]));
   const who = (id: string | null | undefined) => {
     const u = users.find((x) => x.id === id);
@@ -300,6 +323,7 @@ export async function castHistory(castId: string) {
         uploadedBy: who(u?.createdBy),
         uploadedAt: u?.createdAt ?? v.createdAt,
         removedBy: who(v.removedBy),
+        replacement: replacementJson(replacedBy.get(v.id)),
       };
     }),
   };

@@ -5,3 +5,5 @@ export * from './flags';
 export * from './variables';
 export * from './settings';
 export * from './resources';
+export * from './stations';
+export * from './castHistory';

@@ -11,6 +11,7 @@ import {
   FitnessTable,
   FlagForm,
   FlagLog,
+  CastHistoryPanel,
   InversionTable,
   inversionHandling,
   inversionsAt,
@@ -512,6 +513,9 @@ function CastBody({ cast, casts }: { cast: CastDetail; casts: readonly CastSumma
         )}
         <Panel title="Cast" titleId="cast-meta">
           <CastMeta cast={cast} />
+        </Panel>
+        <Panel title="History of this cast" titleId="cast-history">
+          <CastHistoryPanel castId={cast.id} />
         </Panel>
         <Panel title="Vertical coordinates" titleId="fitness">
           <FitnessTable fitness={cast.fitness} />

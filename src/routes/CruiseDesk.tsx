@@ -3,7 +3,15 @@ import { Num } from '../components/Num';
 import { EmptyState, Panel } from '../components/Panel';
 import { can } from '../features/auth';
 import { CastsTable, RemovedCasts, useCasts } from '../features/casts';
-import { AddStationForm, AuditTrail, StationList, StationMap, useStations } from '../features/cruises';
+import {
+  AddStationForm,
+  AuditTrail,
+  StationList,
+  StationMap,
+  StationPlanEditor,
+  StationTableImport,
+  useStations,
+} from '../features/cruises';
 import { LinesDesk } from '../features/lines';
 import { useCurrentCruise } from './CruiseLayout';
 
@@ -15,6 +23,7 @@ export default function CruiseDesk() {
   const occupied = planned.filter((s) => s.occupied).length;
   const castList = casts.data ?? [];
   const inversions = castList.reduce((n, c) => n + c.inversions, 0);
+  const planning = can.planStations(cruise.role) && !cruise.locked;
 
   return (
     <div className="flex flex-col gap-5">
@@ -75,8 +84,14 @@ export default function CruiseDesk() {
               <ErrorNotice error={stations.error} title="The plan could not be loaded" />
             </div>
           )}
-          {stations.isSuccess && <StationList stations={planned} />}
-          {can.planStations(cruise.role) && !cruise.locked && <AddStationForm cruiseId={cruise.id} />}
+          {stations.isSuccess &&
+            (planning ? (
+              <StationPlanEditor cruiseId={cruise.id} stations={planned} />
+            ) : (
+              <StationList stations={planned} />
+            ))}
+          {planning && <AddStationForm cruiseId={cruise.id} />}
+          {planning && <StationTableImport cruiseId={cruise.id} />}
         </Panel>
       </div>
 

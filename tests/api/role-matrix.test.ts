@@ -99,7 +99,7 @@ function urlFor(r: RouteSpec) {
     '/api' +
     r.path
       .replace(':id', entity)
-      .replace(/:(userId|setId|varId|viewId|deliveryId|otherId)/, '00000000-0000-4000-8000-000000000000')
+      .replace(/:(userId|setId|varId|viewId|deliveryId|otherId|stationId)/, '00000000-0000-4000-8000-000000000000')
       .replace(':token', 'no-such-token')
   );
 }

@@ -4,6 +4,7 @@ import { http } from '../../lib/http';
 import { cruiseKeys } from '../cruises';
 import { sectionKeys } from '../sections';
 import { castKeys } from './keys';
+import { castHistoryResponseSchema } from '../../../shared/api/castHistory';
 import {
   castDetailSchema,
   castQcSchema,
@@ -42,6 +43,14 @@ export function useFlagLog(castId: string) {
     queryKey: castKeys.flagLog(castId),
     queryFn: ({ signal }) =>
       http(`/api/casts/${enc(castId)}/flag-log`, { schema: z.array(flagLogEntrySchema), signal }),
+  });
+}
+
+/** Every version of the cast's station and cast (files, who, when, carried flags). */
+export function useCastHistory(castId: string) {
+  return useQuery({
+    queryKey: castKeys.history(castId),
+    queryFn: ({ signal }) => http(`/api/casts/${enc(castId)}/history`, { schema: castHistoryResponseSchema, signal }),
   });
 }
 

@@ -10,7 +10,9 @@ export {
   useDecideProposals,
   useUndoFlagChange,
   useReopenProposals,
+  useCastHistory,
 } from './api';
+export { CastHistoryPanel } from './components/CastHistoryPanel';
 export type { Decision } from './api';
 export {
   REFERENCE_PRESSURES,

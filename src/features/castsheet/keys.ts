@@ -6,6 +6,7 @@ export const castKeys = {
   flagLog: (castId: string) => [...castKeys.all, 'flag-log', castId] as const,
   /** the neighbours along a line (null: the default line) and the earlier occupations of that line */
   neighbours: (castId: string, line: string | null = null) => [...castKeys.all, 'neighbours', castId, line] as const,
+  history: (castId: string) => [...castKeys.all, 'history', castId] as const,
   /** pending proposals per cast of a cruise */
   pending: (cruiseId: string) => [...castKeys.all, 'pending', cruiseId] as const,
 };

@@ -9,8 +9,15 @@ export {
   useCreateCruise,
   useUpdateCruise,
   useAddStation,
+  useEditStation,
+  useRemoveStation,
+  useReorderStations,
+  usePreviewStationTable,
+  useApplyStationTable,
 } from './api';
-export type { CruisePatch } from './api';
+export type { CruisePatch, ImportMode, StationTableRequest } from './api';
+export { StationPlanEditor } from './components/StationPlanEditor';
+export { StationTableImport } from './components/StationTableImport';
 export { CRUISE_TABS } from './nav';
 export type { CruiseTab } from './nav';
 export { CreateCruiseForm } from './components/CreateCruiseForm';

@@ -31,6 +31,8 @@ export const stationSchema = z.object({
   plannedDepth: z.number().nullable().optional().default(null),
   order: z.number(),
   occupied: z.boolean(),
+  /** live casts at the station */
+  casts: z.number().int().nonnegative().optional(),
 });
 export type Station = z.infer<typeof stationSchema>;
 export const stationListSchema = z.array(stationSchema);

@@ -155,7 +155,7 @@ export function AddStationForm({ cruiseId }: { cruiseId: string }) {
         />
       </div>
       <div className="flex items-center gap-3">
-        <Button type="submit" variant="primary" busy={add.isPending}>
+        <Button type="submit" variant="primary" className="whitespace-nowrap" busy={add.isPending}>
           Add station
         </Button>
         <p className="text-xs text-ink-muted">
