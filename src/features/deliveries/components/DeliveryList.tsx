@@ -179,7 +179,7 @@ function DeliveryItem({
                   <a href={downloadUrl(d.id, f.format)} download={f.filename} className="whitespace-nowrap">
                     {FORMAT_TEXT[f.format as DeliveryFormat] ?? f.format.toUpperCase()}
                   </a>
-                  <Num className="truncate text-ink-soft">
+                  <Num className="min-w-0 text-ink-soft [overflow-wrap:anywhere]">
                     <span title={`sha256 ${f.sha256}`}>{f.filename}</span>
                   </Num>
                   <Num className="whitespace-nowrap text-right text-ink-muted">{formatSize(f.size)}</Num>
