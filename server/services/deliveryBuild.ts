@@ -131,8 +131,14 @@ export async function buildDelivery(
         'Contents: tables/ (regridded tables in each format), exchange/ (one CTD exchange file per cast, when chosen), raw/ (the files as uploaded), ' +
           'MANIFEST.sha256 (sha256sum -c MANIFEST.sha256).',
       ].join('\n');
+      // the time of each kind of entry of the package (an entry is timed until the next one starts)
+      let entryKind = 'write zip';
       const zip = await toBuffer(
         buildDataPackage({
+          onProgress: ({ entry }) => {
+            stage(entryKind);
+            entryKind = `zip ${entry.startsWith('raw/') ? 'raw files' : (entry.split('.').pop() ?? entry)}`;
+          },
           tables,
           formats: p.formats.filter((f): f is DeliveryFormat => f !== 'exchange'),
           readme,
@@ -152,6 +158,7 @@ export async function buildDelivery(
           })),
         }),
       );
+      stage(entryKind);
       await put(
         `${deliveryStem(cruiseOf(first), lineOf(first), 'package', { sigmaRef: p.ref })}.zip`,
         'zip',
