@@ -49,16 +49,21 @@ export async function startWorkers(deps: AppDeps, opts: { concurrency?: number; 
     );
     ingestWorkers.push(self);
   }
-  const stopListening = await deps.queue.listen((name) => {
-    if (name === QUEUES.ingest) wake();
-  });
-  await boss.work<{ deliveryId: string }>(
+  // Deliveries: one loop, woken by the queue's NOTIFY like the ingest loops (a build asked for on
+  // the screen starts at once, not at the next poll), and looking again at once after a build.
+  let deliveryWorker: string | null = null;
+  deliveryWorker = await boss.work<{ deliveryId: string }>(
     QUEUES.delivery,
-    { batchSize: 1, pollingIntervalSeconds: 1 },
+    { batchSize: 1, pollingIntervalSeconds: 0.5 },
     async ([job]) => {
+      if (deliveryWorker) boss.notifyWorker(deliveryWorker);
       await buildDelivery(deps, job.data.deliveryId);
     },
   );
+  const stopListening = await deps.queue.listen((name) => {
+    if (name === QUEUES.ingest) wake();
+    if (name === QUEUES.delivery && deliveryWorker) boss.notifyWorker(deliveryWorker);
+  });
   logger.info({ concurrency: n, batchSize, threads: pool.size }, 'ingest and delivery workers started');
   return {
     async stop() {

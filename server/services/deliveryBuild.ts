@@ -2,6 +2,7 @@
 // as CTD exchange files (one zip), or a zip data package with the raw files, tables, exchange files,
 // a provenance README and a checksum manifest. File names: `<cruise>_<line>_<kind>_<ref>.<ext>`.
 import { createHash } from 'node:crypto';
+import { performance } from 'node:perf_hooks';
 import { Readable } from 'node:stream';
 import { Delivery, Upload, User, type DeliveryFile } from '../models/index';
 import { isopycnalTable, pressureTable, lineCastsForDelivery } from './deliveryTables';
@@ -18,6 +19,7 @@ import {
   type DeliveryFormat,
 } from './deliveries/index';
 import type { AppDeps } from '../lib/deps';
+import { logger } from '../lib/logger';
 
 export type DeliveryFileFormat = 'csv' | 'xlsx' | 'nc' | 'exchange';
 export type DeliveryParams = {
@@ -78,20 +80,37 @@ async function exchangeZip(cruiseId: string, p: DeliveryParams, table: DeliveryT
   return { stem: deliveryStem(expocode, lineOf(table), 'exchange', {}), zip, count: casts.length };
 }
 
-export async function buildDelivery(deps: AppDeps, deliveryId: string) {
+/** Time taken by each stage of a build, in ms (for the benchmark and the log). */
+export type DeliveryStageTimes = Record<string, number>;
+
+export async function buildDelivery(
+  deps: AppDeps,
+  deliveryId: string,
+  opts: { onStages?: (stages: DeliveryStageTimes) => void } = {},
+) {
   const d = await Delivery.findByPk(deliveryId);
   if (!d || d.status === 'ready') return;
   await d.update({ status: 'building', progress: 0.05, error: null });
   const p = d.params as unknown as DeliveryParams;
   const who = d.createdBy ? ((await User.findByPk(d.createdBy))?.email ?? 'unknown') : 'unknown';
+  const stages: DeliveryStageTimes = {};
+  let mark = performance.now();
+  const stage = (name: string) => {
+    const now = performance.now();
+    stages[name] = (stages[name] ?? 0) + (now - mark);
+    mark = now;
+  };
   try {
     const tables = await deliveryTables(d.cruiseId, who, p);
+    stage('tables');
     await d.update({ progress: 0.4 });
     const files: DeliveryFile[] = [];
     const put = async (filename: string, format: string, body: Buffer, type: string) => {
+      stage(`write ${format}`);
       const key = `cruises/${d.cruiseId}/deliveries/${d.id}/${filename}`;
       await deps.storage.put(key, body, type);
       files.push({ format, filename, key, size: body.length, sha256: sha(body) });
+      stage('storage put');
     };
     const first = tables[0].table;
     if (p.kind === 'package') {
@@ -99,7 +118,9 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
         where: { cruiseId: d.cruiseId, status: 'ready' },
         order: [['createdAt', 'ASC']],
       });
+      stage('uploads');
       const exchange = p.formats.includes('exchange') ? await exchangeZip(d.cruiseId, p, first) : null;
+      stage('write exchange');
       const readme = [
         `Sigmaline data package — ${first.provenance.cruise.name} (${first.provenance.cruise.ship}), line ${lineOf(first)}`,
         '',
@@ -110,8 +131,14 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
         'Contents: tables/ (regridded tables in each format), exchange/ (one CTD exchange file per cast, when chosen), raw/ (the files as uploaded), ' +
           'MANIFEST.sha256 (sha256sum -c MANIFEST.sha256).',
       ].join('\n');
+      // the time of each kind of entry of the package (an entry is timed until the next one starts)
+      let entryKind = 'write zip';
       const zip = await toBuffer(
         buildDataPackage({
+          onProgress: ({ entry }) => {
+            stage(entryKind);
+            entryKind = `zip ${entry.startsWith('raw/') ? 'raw files' : (entry.split('.').pop() ?? entry)}`;
+          },
           tables,
           formats: p.formats.filter((f): f is DeliveryFormat => f !== 'exchange'),
           readme,
@@ -131,6 +158,7 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
           })),
         }),
       );
+      stage(entryKind);
       await put(
         `${deliveryStem(cruiseOf(first), lineOf(first), 'package', { sigmaRef: p.ref })}.zip`,
         'zip',
@@ -156,11 +184,18 @@ export async function buildDelivery(deps: AppDeps, deliveryId: string) {
           );
       }
       if (p.formats.includes('exchange')) {
+        stage('write other');
         const x = await exchangeZip(d.cruiseId, p, first);
         await put(`${x.stem}.zip`, 'exchange', x.zip, 'application/zip');
       }
     }
     await d.update({ status: 'ready', progress: 1, files });
+    stage('finish');
+    opts.onStages?.(stages);
+    logger.info(
+      { deliveryId, stages: Object.fromEntries(Object.entries(stages).map(([k, v]) => [k, Math.round(v)])) },
+      'delivery built',
+    );
   } catch (err) {
     await d.update({ status: 'failed', progress: 1, error: (err as Error).message.slice(0, 500) });
   }

@@ -80,7 +80,20 @@ describe('Deliveries screen (Chromium)', () => {
     );
     // the timing is reported, not asserted tightly (a shared machine); the bench owns the speed target
     expect(seconds).toBeLessThan(45);
+    // the form's "Building…" notice has given way to the result
+    await form.getByText(/is built \(\d+ files?\)/).waitFor({ timeout: 5_000 });
+    expect(await form.getByText(/^Building the/).count()).toBe(0);
     await page.screenshot({ path: join(SHOTS, 'deliveries-built-1280.png'), fullPage: true });
+    // every file name in the download list is shown whole (wrapped, not cut off)
+    const names = item.locator('span[title^="sha256"]');
+    expect(await names.count()).toBeGreaterThanOrEqual(4);
+    for (const clipped of await names.evaluateAll((els) =>
+      els.map((el) => {
+        const box = el.parentElement!;
+        return box.scrollWidth > box.clientWidth + 1 || getComputedStyle(box).textOverflow === 'ellipsis';
+      }),
+    ))
+      expect(clipped).toBe(false);
 
     // download each file through the page's links and read its header
     const links = item.getByRole('link');
@@ -94,9 +107,35 @@ describe('Deliveries screen (Chromium)', () => {
       const name = dl.suggestedFilename();
       seen.push(name);
       expect(name).toMatch(/^[A-Za-z0-9-]+_[A-Za-z0-9-]+_[a-z]+_[A-Za-z0-9]+\.(csv|xlsx|nc|zip)$/);
-      if (name.endsWith('.csv')) expect(bytes.toString('utf8', 0, 200)).toMatch(/^# software: Sigmaline/);
+      if (name.endsWith('.csv')) {
+        const text = bytes.toString('utf8');
+        expect(text).toMatch(/^# software: Sigmaline/);
+        const header = text.split('\r\n').find((l) => !l.startsWith('#'));
+        expect(header?.split(',').slice(0, 4)).toEqual(['station', 'cast', 'latitude', 'longitude']);
+      }
       if (name.endsWith('.xlsx') || name.endsWith('.zip')) expect(bytes.subarray(0, 2).toString()).toBe('PK');
-      if (name.endsWith('.nc')) expect(bytes.subarray(0, 4).toString('latin1')).toBe('CDF\u0001');
+      if (name.endsWith('.xlsx')) {
+        // opened with exceljs: the table sheet's header row and the provenance sheet
+        const ExcelJS = (await import('exceljs')).default;
+        const wb = new ExcelJS.Workbook();
+        await wb.xlsx.load(bytes as unknown as ArrayBuffer);
+        const ws = wb.getWorksheet('Isopycnal table');
+        expect([1, 2, 3, 4].map((c) => ws?.getRow(1).getCell(c).value)).toEqual([
+          'station',
+          'cast',
+          'latitude',
+          'longitude',
+        ]);
+        expect(ws?.rowCount).toBeGreaterThan(100);
+        expect(wb.getWorksheet('Provenance')?.getRow(2).getCell(1).value).toBeTruthy();
+      }
+      if (name.endsWith('.nc')) {
+        expect(bytes.subarray(0, 4).toString('latin1')).toBe('CDF\u0001');
+        const { NetCDFReader } = await import('netcdfjs');
+        const nc = new NetCDFReader(bytes);
+        expect(nc.getAttribute('featureType')).toBe('profile');
+        expect(nc.variables.map((v) => v.name)).toContain('time');
+      }
       if (name.includes('_exchange_')) {
         const entries = await unzip(bytes);
         const first = [...entries.values()][0].toString('utf8');
@@ -112,6 +151,27 @@ describe('Deliveries screen (Chromium)', () => {
     await item.getByRole('button', { name: 'Release and e-mail the team' }).click();
     await item.getByText('released · locked').waitFor();
     await page.screenshot({ path: join(SHOTS, 'deliveries-released-1280.png'), fullPage: true });
+
+    // delete asks to confirm: a second (CSV) delivery, kept once, then deleted
+    for (const label of ['Spreadsheet (.xlsx)', 'NetCDF (CF-1.10)', 'CTD exchange files (zip, one per cast)'])
+      await form.getByLabel(label).uncheck();
+    await form.getByRole('button', { name: 'Build delivery' }).click();
+    const items = page.getByRole('listitem').filter({ hasText: 'Isopycnal table' });
+    await items
+      .filter({ hasNotText: 'released · locked' })
+      .getByText('ready', { exact: true })
+      .waitFor({ timeout: 60_000 });
+    const second = items.filter({ hasNotText: 'released · locked' }).first();
+    await second.getByRole('button', { name: /^Delete this/ }).click();
+    const dialog = second.getByRole('alertdialog');
+    await dialog.waitFor();
+    expect(await dialog.textContent()).toMatch(/Delete this isopycnal table\?.*audit trail/s);
+    await page.screenshot({ path: join(SHOTS, 'deliveries-delete-confirm-1280.png'), fullPage: true });
+    await dialog.getByRole('button', { name: 'Keep it' }).click();
+    expect(await items.count()).toBe(2);
+    await second.getByRole('button', { name: /^Delete this/ }).click();
+    await second.getByRole('alertdialog').getByRole('button', { name: 'Delete it' }).click();
+    await waitFor(async () => (await items.count()) === 1, 10_000, 100);
     await page.setViewportSize({ width: 1920, height: 1080 });
     await page.screenshot({ path: join(SHOTS, 'deliveries-released-1920.png'), fullPage: true });
     expect(chromium.offLoopback).toEqual([]);

@@ -12,7 +12,7 @@ import { tableToNetcdf, type CfOptions } from './cf';
 import { csvStream } from './csv';
 import { DATA_CAUTION, formatProvenanceText } from './provenance';
 import type { DeliveryTable } from './table';
-import { writeXlsxToStream } from './xlsx';
+import { xlsxStream } from './xlsx';
 
 export type DeliveryFormat = 'csv' | 'xlsx' | 'nc';
 
@@ -103,14 +103,6 @@ class HashingPassThrough extends Transform {
   }
 }
 
-function xlsxReadable(table: DeliveryTable): Readable {
-  const out = new PassThrough();
-  writeXlsxToStream(table, out).catch((err: unknown) =>
-    out.destroy(err instanceof Error ? err : new Error(String(err))),
-  );
-  return out;
-}
-
 function readmeText(input: DataPackageInput, entries: { path: string; describe: string }[]): string {
   const lines: string[] = [];
   lines.push(input.readme.trim(), '');
@@ -158,7 +150,7 @@ export function buildDataPackage(input: DataPackageInput): Readable {
         planned.push({ path, compress: true, produce: async () => csvStream(table) });
         described.push({ path, describe: `${t.name}: CSV, # provenance lines above the header` });
       } else if (f === 'xlsx') {
-        planned.push({ path, compress: false, produce: async () => xlsxReadable(table) });
+        planned.push({ path, compress: false, produce: async () => xlsxStream(table) });
         described.push({ path, describe: `${t.name}: spreadsheet with a Provenance sheet` });
       } else {
         planned.push({ path, compress: true, produce: async () => Readable.from([tableToNetcdf(table, input.cf)]) });

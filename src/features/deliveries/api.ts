@@ -11,7 +11,7 @@ export function useDeliveries(cruiseId: string) {
     queryKey: deliveryKeys.list(cruiseId),
     queryFn: ({ signal }) =>
       http(`/api/cruises/${encodeURIComponent(cruiseId)}/deliveries`, { schema: deliveryListSchema, signal }),
-    refetchInterval: (query) => (query.state.data?.some(inProgress) ? 1500 : false),
+    refetchInterval: (query) => (query.state.data?.some(inProgress) ? 800 : false),
   });
 }
 

@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/Button';
 import { SelectField, TextField } from '../../../components/Field';
 import { ErrorNotice, InfoNotice } from '../../../components/Notice';
-import { useBuildDelivery } from '../api';
+import { useBuildDelivery, useDeliveries } from '../api';
 import { DEFAULT_FORM, validateDeliveryForm, type DeliveryFormErrors, type LayerSetChoice } from '../form';
 import {
   DELIVERY_FORMATS,
@@ -28,6 +28,9 @@ export function BuildDeliveryForm({
   const [values, setValues] = useState<DeliveryFormValues>(DEFAULT_FORM);
   const [errors, setErrors] = useState<DeliveryFormErrors>({});
   const build = useBuildDelivery(cruiseId);
+  // the delivery this form started, as the (polled) list now shows it: the notice follows its state
+  const list = useDeliveries(cruiseId);
+  const started = build.data ? (list.data?.find((d) => d.id === build.data.id) ?? build.data) : null;
   const set = (patch: Partial<DeliveryFormValues>) => {
     setValues((v) => ({ ...v, ...patch }));
     // A changed form is a new delivery: the last one's notice no longer applies.
@@ -183,7 +186,22 @@ export function BuildDeliveryForm({
       </fieldset>
 
       {build.isError && <ErrorNotice error={build.error} title="The delivery was not started" />}
-      {build.isSuccess && <InfoNotice>Building the delivery — its progress shows in the list.</InfoNotice>}
+      {started && (started.status === 'queued' || started.status === 'building') && (
+        <InfoNotice>
+          Building the {KIND_TEXT[started.kind].label.toLowerCase()} — its progress shows in the list.
+        </InfoNotice>
+      )}
+      {started?.status === 'ready' && (
+        <InfoNotice>
+          The {KIND_TEXT[started.kind].label.toLowerCase()} is built ({started.files.length}{' '}
+          {started.files.length === 1 ? 'file' : 'files'}): download or release it in the list.
+        </InfoNotice>
+      )}
+      {started?.status === 'failed' && (
+        <div role="alert" className="border-l-2 border-warn bg-warn-wash/60 px-3 py-1.5 text-sm text-warn-strong">
+          The build failed{started.error ? `: ${started.error}` : '.'}
+        </div>
+      )}
       <div>
         <Button type="submit" variant="primary" busy={build.isPending}>
           Build delivery

@@ -173,20 +173,23 @@ function DeliveryItem({
         {d.status === 'ready' && d.canDownload && (
           <div>
             <p className="mb-1 text-xs font-semibold uppercase tracking-[0.1em] text-ink-soft">Download</p>
-            <ul className="grid grid-cols-[auto_minmax(0,1fr)_auto] items-baseline gap-x-3 gap-y-1 text-sm">
+            <ul className="flex flex-col gap-1.5 text-sm">
               {d.files.map((f) => (
-                <li key={f.filename} className="contents">
-                  <a href={downloadUrl(d.id, f.format)} download={f.filename} className="whitespace-nowrap">
-                    {FORMAT_TEXT[f.format as DeliveryFormat] ?? f.format.toUpperCase()}
-                  </a>
-                  <Num className="truncate text-ink-soft">
+                <li key={f.filename}>
+                  {/* the format and size on one line, the file name whole on the next (wrapped only if it must) */}
+                  <div className="flex items-baseline gap-3">
+                    <a href={downloadUrl(d.id, f.format)} download={f.filename} className="whitespace-nowrap">
+                      {FORMAT_TEXT[f.format as DeliveryFormat] ?? f.format.toUpperCase()}
+                    </a>
+                    <Num className="ml-auto whitespace-nowrap text-right text-ink-muted">{formatSize(f.size)}</Num>
+                  </div>
+                  <Num className="block text-ink-soft [overflow-wrap:anywhere]">
                     <span title={`sha256 ${f.sha256}`}>{f.filename}</span>
                   </Num>
-                  <Num className="whitespace-nowrap text-right text-ink-muted">{formatSize(f.size)}</Num>
                 </li>
               ))}
               {d.kind === 'package' && (
-                <li className="col-span-3">
+                <li>
                   <a href={downloadUrl(d.id, 'zip')}>Everything as one zip</a>
                 </li>
               )}
