@@ -216,6 +216,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({
       method: 'post',
       path: '/uploads/:id/preview',
+      changesData: false,
       summary: "The first rows of an upload's files as they will be read with these answers (nothing stored)",
       rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
       body: IntakeAnswersSchema,
