@@ -186,7 +186,7 @@ export async function previewUpload(deps: AppDeps, upload: Upload, candidate: In
         cols.push({
           name,
           label: info.label,
-          unit: name === 'oxygen' ? (r.units.oxygen ?? '') : info.unit,
+          unit: name !== 'oxygen' ? info.unit : r.unitsNeeded.length ? 'unit not stated' : (r.units.oxygen ?? ''),
           values: rv,
         });
     }
