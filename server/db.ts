@@ -7,6 +7,7 @@ import * as m004 from './migrations/004-lines';
 import * as m005 from './migrations/005-hardening';
 import * as m008 from './migrations/008-qc';
 import * as m009 from './migrations/009-line-links';
+import * as m011 from './migrations/011-intake-answers';
 import type { QueryInterface } from 'sequelize';
 
 export type Db = { sequelize: Sequelize };
@@ -32,6 +33,7 @@ export const MIGRATIONS: Migration[] = [
   { name: '005-hardening', up: m005.up },
   { name: '008-qc', up: m008.up },
   { name: '009-line-links', up: m009.up },
+  { name: '011-intake-answers', up: m011.up },
 ];
 
 /** Runs forward every migration not yet applied, each in its own transaction, under an advisory lock

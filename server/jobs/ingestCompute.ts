@@ -5,6 +5,7 @@
 import { parseUpload } from '../parsers/index';
 import type { FileError, ParsedCast, StationRow } from '../../shared/schemas/cast';
 import { processCast, type ProcessedCast } from '../services/processCast';
+import type { AskedField, CastAnswer, FileNeed } from '../../shared/api/intakeAnswers';
 
 export type PlannedStation = { latitude: number | null; longitude: number | null };
 
@@ -12,6 +13,8 @@ export type ParseRequest = {
   filename: string;
   bytes: Uint8Array;
   mapping: Record<string, string>;
+  /** units answered at intake for columns without one (shared/api/intakeAnswers.ts) */
+  unitAnswers?: Record<string, string>;
   maxBytes: number;
   /** total inflated bytes a zip may hold */
   maxInflatedBytes?: number;
@@ -34,9 +37,13 @@ export type DeriveRequest = {
   /** The cruise's planned stations by name (positions for casts that carry none). */
   plan: Record<string, PlannedStation>;
   inversionThreshold: number;
+  /** metadata answered at intake, by file (shared/api/intakeAnswers.ts) */
+  castAnswers?: Record<string, CastAnswer>;
 };
 export type DeriveOutcome = {
   errors: FileError[];
+  /** what each file lacks (the Intake screen asks); only files that lack anything */
+  needs: FileNeed[];
   processed: { parsed: CastHead; out: ProcessedCast }[];
   deriveMs: number;
 };
@@ -47,6 +54,7 @@ export async function parseForIngest(req: ParseRequest): Promise<ParseOutcome> {
   const bytes = Buffer.from(req.bytes.buffer, req.bytes.byteOffset, req.bytes.byteLength);
   const parsed = await parseUpload(req.filename, bytes, {
     columnMapping: req.mapping,
+    unitAnswers: req.unitAnswers,
     maxBytes: req.maxBytes,
     maxLevels: req.maxLevels,
     salvage: req.salvage,
@@ -71,21 +79,78 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
   const rowsByStation = new Map<string, StationRow>(req.stations.map((r) => [r.station, r]));
   const errors: FileError[] = [];
   const processed: { parsed: CastHead; out: ProcessedCast }[] = [];
+  const needs: FileNeed[] = [];
   for (const c of req.casts) {
-    const row = c.metadata.station ? rowsByStation.get(c.metadata.station) : undefined;
-    const planned = c.metadata.station ? req.plan[c.metadata.station] : undefined;
+    const answer = req.castAnswers?.[c.file];
     const md = { ...c.metadata };
-    md.latitude ??= row?.latitude ?? planned?.latitude ?? null;
-    md.longitude ??= row?.longitude ?? planned?.longitude ?? null;
+    const notes: string[] = [];
+    // The file's own values first; then the technician's answer for this file; then the station table
+    // and the plan. Every value that did not come from the file says where it came from.
+    if (answer) {
+      const given: string[] = [];
+      if (md.station === null && answer.station !== undefined) {
+        md.station = answer.station;
+        given.push(`station ${answer.station}`);
+      }
+      if (md.cast === null && answer.cast !== undefined) {
+        md.cast = answer.cast;
+        given.push(`cast ${answer.cast}`);
+      }
+      if (
+        (md.latitude === null || md.longitude === null) &&
+        answer.latitude !== undefined &&
+        answer.longitude !== undefined
+      ) {
+        md.latitude = answer.latitude;
+        md.longitude = answer.longitude;
+        given.push(`position ${answer.latitude}, ${answer.longitude}`);
+      }
+      if (md.time === null && answer.time !== undefined) {
+        md.time = answer.time;
+        given.push(`time ${answer.time}`);
+      }
+      if (given.length) notes.push(`${given.join(', ')} from the answers given at intake (the file does not say)`);
+    }
+    const row = md.station ? rowsByStation.get(md.station) : undefined;
+    const planned = md.station ? req.plan[md.station] : undefined;
+    if (md.latitude == null || md.longitude == null) {
+      if (row) {
+        md.latitude = row.latitude;
+        md.longitude = row.longitude;
+      } else if (planned?.latitude != null && planned.longitude != null) {
+        md.latitude = planned.latitude;
+        md.longitude = planned.longitude;
+        notes.push(`position from the cruise's station plan (station ${md.station})`);
+      }
+    }
     md.bottomDepth ??= row?.bottomDepth ?? null;
     md.time ??= row?.time ?? null;
+    const missing: AskedField[] = [];
+    if (!md.station) missing.push('station');
+    if (md.cast === null) missing.push('cast');
+    if (md.latitude == null || md.longitude == null) missing.push('position');
+    if (md.time === null) missing.push('time');
+    const units = c.unitsNeeded ?? [];
+    if (missing.length || units.length)
+      needs.push({
+        file: c.file,
+        missing,
+        units,
+        known: {
+          station: c.metadata.station,
+          cast: c.metadata.cast,
+          latitude: c.metadata.latitude,
+          longitude: c.metadata.longitude,
+          time: c.metadata.time,
+        },
+      });
     if (!md.station) {
       errors.push({
         file: c.file,
         line: null,
         column: null,
         code: 'bad_metadata',
-        message: `${c.file}: no station identifier (add a "# station:" line or a station table).`,
+        message: `${c.file}: no station identifier (add a "# station:" line or a station table, or answer below).`,
       });
       continue;
     }
@@ -95,7 +160,17 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
         line: null,
         column: null,
         code: 'bad_metadata',
-        message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, or plan the station first).`,
+        message: `${c.file}: station ${md.station} has no position (add "# latitude:"/"# longitude:" lines, a station table, plan the station first, or answer below).`,
+      });
+      continue;
+    }
+    if (units.length) {
+      errors.push({
+        file: c.file,
+        line: null,
+        column: null,
+        code: 'needs_answer',
+        message: `${c.file}: the unit of ${units.map((u) => `"${u.column}"`).join(', ')} is not stated (${units.map((u) => u.role).join(', ')}: ml/l, µmol/l or µmol/kg?); answer below.`,
       });
       continue;
     }
@@ -105,9 +180,9 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
       continue;
     }
     const { columns: _c, extras: _e, flags: _f, ...head } = c;
-    processed.push({ parsed: { ...head, metadata: md }, out: result.cast });
+    processed.push({ parsed: { ...head, metadata: md, notes: [...c.notes, ...notes] }, out: result.cast });
   }
-  return { errors, processed, deriveMs: performance.now() - t0 };
+  return { errors, needs, processed, deriveMs: performance.now() - t0 };
 }
 
 /** The distinct buffers of parsed casts' columns, to hand them to another thread without a copy. */

@@ -11,6 +11,7 @@ import {
 } from 'sequelize';
 
 import { initQcModels } from './qc';
+import type { FileNeed } from '../../shared/api/intakeAnswers';
 
 export const ROLES = ['chief_scientist', 'technician', 'analyst', 'pi'] as const;
 export type Role = (typeof ROLES)[number];
@@ -74,6 +75,8 @@ export class Upload extends Model<InferAttributes<Upload>, InferCreationAttribut
   declare unmappedHeaders: CreationOptional<string[] | null>;
   /** Casts of the upload whose station and cast are already live (migration 003): replace them or not? */
   declare conflicts: CreationOptional<{ items: UploadConflict[]; decision: 'replace' | 'keep' | null } | null>;
+  /** What the files lack, for the Intake screen to ask (migration 011; shared/api/intakeAnswers.ts FileNeed) */
+  declare needs: CreationOptional<FileNeed[] | null>;
   declare attempts: CreationOptional<number>;
   declare createdBy: string | null;
   declare createdAt: CreationOptional<Date>;
@@ -317,6 +320,7 @@ export function initModels(sequelize: Sequelize) {
       castIds: { type: DataTypes.JSONB, defaultValue: [] },
       unmappedHeaders: { type: DataTypes.JSONB, allowNull: true },
       conflicts: { type: DataTypes.JSONB, allowNull: true },
+      needs: { type: DataTypes.JSONB, allowNull: true },
       attempts: { type: DataTypes.INTEGER, defaultValue: 0 },
       createdBy: DataTypes.UUID,
       ...ts,

@@ -93,7 +93,7 @@ function bad(file: string, line: number | null, message: string): ParseFailure {
 export function parseAcquisition(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string>; salvage?: boolean } = {},
+  options: { columnMapping?: Record<string, string>; unitAnswers?: Record<string, string>; salvage?: boolean } = {},
 ): { cast: ParsedCast; warnings: FileError[] } {
   const { text } = decodeText(file, bytes);
   const lines = splitLines(file, text);
@@ -316,6 +316,7 @@ export function parseAcquisition(
     notes,
     warnings,
     mapping: byName,
+    unitAnswers: options.unitAnswers,
     salvage: options.salvage,
   });
 }

@@ -6,6 +6,9 @@ import { ParsedCastSchema } from '../../shared/schemas/cast';
 import { assignColumns, validMappingValue, type ColumnAssignment } from './columns';
 import { resolveUnit, type UnitConversion } from './units';
 import { classifyNumber, fileError, isFill, MAX_COLUMNS, ParseFailure } from './text';
+import { ASKED_UNIT_ROLES, unitAnswerKey, type AskedUnitRole } from '../../shared/api/intakeAnswers';
+
+const ASKED = new Set<string>(ASKED_UNIT_ROLES);
 
 export type RawTable = {
   file: string;
@@ -21,6 +24,8 @@ export type RawTable = {
   notes: string[];
   warnings: FileError[];
   mapping?: Record<string, string>;
+  /** Units given at intake for columns whose header states none, by `unitAnswerKey(column name)`. */
+  unitAnswers?: Record<string, string>;
   /** Drop the lines that cannot be read (and list them) instead of refusing the file, if they are few. */
   salvage?: boolean;
 };
@@ -129,10 +134,21 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
   // Units of every role column; extras keep the unit text as given.
   const conv: (UnitConversion | null)[] = new Array(ncol).fill(null);
   const notes = [...t.notes];
+  const unitsNeeded: { column: string; role: AskedUnitRole }[] = [];
   for (let j = 0; j < ncol; j++) {
     const a = assignments[j];
     if (a.kind === 'role' || a.kind === 'extra') {
-      const r = resolveUnit(a.kind === 'role' ? a.role : 'extra', t.unitTexts[j], colLabel(t, j));
+      let unitText = t.unitTexts[j];
+      // A column whose unit is asked for at intake (oxygen): the answer given for the cruise, or a need.
+      if (a.kind === 'role' && ASKED.has(a.role) && (unitText ?? '').trim() === '') {
+        const column = (t.names[j] ?? t.headers[j]).trim() || `#${j + 1}`;
+        const answer = t.unitAnswers?.[unitAnswerKey(column)];
+        if (answer) {
+          unitText = answer;
+          notes.push(`${colLabel(t, j)}: no unit in the file; ${answer} as answered at intake for this cruise`);
+        } else unitsNeeded.push({ column, role: a.role as AskedUnitRole });
+      }
+      const r = resolveUnit(a.kind === 'role' ? a.role : 'extra', unitText, colLabel(t, j));
       if (!r.ok) err.add(t.unitLine, j + 1, r.code, r.message);
       else {
         conv[j] = r.conv;
@@ -496,6 +512,7 @@ export function buildCast(t: RawTable): { cast: ParsedCast; warnings: FileError[
     profile: { levels: m, downcastEnd: deepest, hasUpcast, reversals },
     notes,
     ...(dropped.length > 0 ? { dropped } : {}),
+    ...(unitsNeeded.length > 0 ? { unitsNeeded } : {}),
   };
   const checked = ParsedCastSchema.safeParse(cast);
   if (!checked.success)

@@ -18,7 +18,7 @@ function bad(file: string, line: number | null, message: string): ParseFailure {
 export function parseExchange(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string>; salvage?: boolean } = {},
+  options: { columnMapping?: Record<string, string>; unitAnswers?: Record<string, string>; salvage?: boolean } = {},
 ): { cast: ParsedCast; warnings: FileError[] } {
   const { text } = decodeText(file, bytes);
   const lines = splitLines(file, text);
@@ -144,6 +144,7 @@ export function parseExchange(
     notes,
     warnings,
     mapping: options.columnMapping,
+    unitAnswers: options.unitAnswers,
     salvage: options.salvage,
   });
 }

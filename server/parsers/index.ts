@@ -33,6 +33,8 @@ import { readZip, DEFAULT_ZIP_LIMITS, type ZipLimits } from './zip';
 
 export type ParseOptions = {
   columnMapping?: Record<string, string>;
+  /** Units a technician gave for columns without one, by column name (shared/api/intakeAnswers.ts). */
+  unitAnswers?: Record<string, string>;
   maxBytes?: number; // of one file (and of each zip entry); default 50 MB
   zipLimits?: Partial<ZipLimits>;
   maxLevels?: number; // levels one cast may keep; default DEFAULT_MAX_LEVELS
@@ -81,6 +83,7 @@ function parseSingle(
   fmt: Exclude<DetectedFormat, 'zip'>,
   mapping: Record<string, string> | undefined,
   salvage = false,
+  unitAnswers?: Record<string, string>,
 ): One {
   try {
     if (fmt === 'stationTable') {
@@ -88,19 +91,19 @@ function parseSingle(
       return { ok: true, casts: [], stations: r.stations, warnings: r.warnings };
     }
     if (fmt === 'netcdf') {
-      const r = parseNetcdf(file, bytes, { columnMapping: mapping });
+      const r = parseNetcdf(file, bytes, { columnMapping: mapping, unitAnswers });
       return { ok: true, casts: r.casts, stations: [], warnings: r.warnings };
     }
     if (fmt === 'acquisition') {
-      const r = parseAcquisition(file, bytes, { columnMapping: mapping, salvage });
+      const r = parseAcquisition(file, bytes, { columnMapping: mapping, unitAnswers, salvage });
       return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
     }
     if (fmt === 'hdf5') return { ok: false, errors: [hdf5Refusal(file)] };
     if (fmt === 'exchangeBottle') return { ok: false, errors: [bottleRefusal(file)] };
     const r =
       fmt === 'exchange'
-        ? parseExchange(file, bytes, { columnMapping: mapping, salvage })
-        : parsePlain(file, bytes, { columnMapping: mapping, salvage });
+        ? parseExchange(file, bytes, { columnMapping: mapping, unitAnswers, salvage })
+        : parsePlain(file, bytes, { columnMapping: mapping, unitAnswers, salvage });
     return { ok: true, casts: [r.cast], stations: [], warnings: r.warnings };
   } catch (e) {
     return failureOf(file, e);
@@ -184,7 +187,7 @@ export async function parseUpload(filename: string, bytes: Buffer, options: Pars
     const fmt = detectFormat(filename, bytes);
     if (fmt !== 'zip') {
       const r = capLevels(
-        parseSingle(filename, bytes, fmt, mapping, options.salvage),
+        parseSingle(filename, bytes, fmt, mapping, options.salvage, options.unitAnswers),
         options.maxLevels ?? DEFAULT_MAX_LEVELS,
       );
       if (r.ok && r.stations.length > 0) applyStationTable(r.casts, r.stations, filename);
@@ -216,6 +219,7 @@ export async function parseUpload(filename: string, bytes: Buffer, options: Pars
           detectFormat(f.path, f.bytes) as Exclude<DetectedFormat, 'zip'>,
           mapping,
           options.salvage,
+          options.unitAnswers,
         ),
         options.maxLevels ?? DEFAULT_MAX_LEVELS,
       );

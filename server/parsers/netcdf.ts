@@ -287,7 +287,7 @@ function fmtNumber(x: number): string {
 export function parseNetcdf(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string> } = {},
+  options: { columnMapping?: Record<string, string>; unitAnswers?: Record<string, string> } = {},
 ): { casts: ParsedCast[]; warnings: FileError[] } {
   const nc = openNetcdf(file, bytes);
   const g = (k: string) => attrText(nc.globals[k]);
@@ -541,6 +541,7 @@ export function parseNetcdf(
         notes,
         warnings: [],
         mapping,
+        unitAnswers: options.unitAnswers,
       });
       casts.push(r.cast);
       warnings.push(...r.warnings.map(levelWording));

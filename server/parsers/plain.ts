@@ -53,7 +53,7 @@ function decimalComma(s: string): string {
 export function parsePlain(
   file: string,
   bytes: Uint8Array,
-  options: { columnMapping?: Record<string, string>; salvage?: boolean } = {},
+  options: { columnMapping?: Record<string, string>; unitAnswers?: Record<string, string>; salvage?: boolean } = {},
 ): { cast: ParsedCast; warnings: FileError[] } {
   const { text, encoding } = decodeText(file, bytes);
   const lines = splitLines(file, text);
@@ -153,6 +153,7 @@ export function parsePlain(
     notes,
     warnings: [],
     mapping: options.columnMapping,
+    unitAnswers: options.unitAnswers,
     salvage: options.salvage,
   });
 }

@@ -10,8 +10,8 @@ import { referencePressureSchema } from '../../shared/api/levels';
 import { cached, dataVersion, invalidateDataVersion } from '../services/cruiseData';
 import { isopycnalTable, pressureTable } from '../services/deliveryTables';
 import { csvStream, deliveryStem, type DeliveryTable } from '../services/deliveries/index';
-import { buildSectionView, SectionQuery } from '../services/sectionView';
-import { layerSetListResponseSchema } from '../../shared/api/resources';
+import { buildSectionView, fileVariables, SectionQuery } from '../services/sectionView';
+import { fileVariableListResponseSchema, layerSetListResponseSchema } from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
 const ref = referencePressureSchema;
@@ -109,6 +109,15 @@ export function sectionRoutes(deps: AppDeps): RouteSpec[] {
           res.setHeader('content-encoding', 'gzip').send(body.gz);
         else res.send(body.json);
       },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/file-variables',
+      summary:
+        'Extra variables the casts carry (fluorescence, PAR, a second sensor…) with their units; drawable as `x:<name>`',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: fileVariableListResponseSchema,
+      handler: async (_req, _res, ctx) => fileVariables(ctx.cruiseId!),
     }),
     defineRoute({
       method: 'get',

@@ -11,6 +11,8 @@ import { QUEUES } from '../services/queue';
 import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 import type { Request } from 'express';
+import { IntakeAnswersSchema, UploadPreviewSchema } from '../../shared/api/intakeAnswers';
+import { loadIntakeAnswers, previewUpload, saveIntakeAnswers } from '../services/intakeAnswers';
 
 export const uploadJson = (u: Upload) => ({
   id: u.id,
@@ -24,6 +26,7 @@ export const uploadJson = (u: Upload) => ({
   castIds: u.castIds,
   unmappedHeaders: u.unmappedHeaders,
   conflicts: u.conflicts ?? null,
+  needs: u.needs ?? null,
   createdAt: u.createdAt,
   updatedAt: u.updatedAt,
 });
@@ -105,6 +108,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
                   progress: 0,
                   errors: [],
                   warnings: [],
+                  needs: null,
                   attempts: existing.attempts + 1,
                 })
               : await Upload.create({
@@ -163,7 +167,7 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         const u = await Upload.findByPk(String(req.params.id));
         if (!u) throw notFound();
         if (u.status !== 'failed') throw new HttpError(409, 'not_failed', 'Only a failed upload can be retried.');
-        await u.update({ status: 'queued', progress: 0, errors: [], attempts: u.attempts + 1 });
+        await u.update({ status: 'queued', progress: 0, errors: [], needs: null, attempts: u.attempts + 1 });
         await audit({ cruiseId: u.cruiseId, userId: req.user!.id, action: 'retry', entity: 'upload', entityId: u.id });
         await enqueue(u);
         res.status(202).json(uploadJson(u));
@@ -189,6 +193,38 @@ export function uploadRoutes(deps: AppDeps): RouteSpec[] {
         });
         await queue.send(QUEUES.ingest, { uploadId: u.id, reprocess: true });
         res.status(202).json(uploadJson(u));
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/intake-answers',
+      summary: "The cruise's remembered intake answers: units of columns without one, metadata of files",
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: IntakeAnswersSchema,
+      handler: async (_req, _res, ctx) => loadIntakeAnswers(deps, ctx.cruiseId!),
+    }),
+    defineRoute({
+      method: 'put',
+      path: '/cruises/:id/intake-answers',
+      changesData: true,
+      summary: 'Remember what files lack (station, cast, position, time, unit of a column) for this cruise',
+      rule: { kind: 'member', roles: [...intake], cruise: byParam() },
+      body: IntakeAnswersSchema,
+      response: IntakeAnswersSchema,
+      handler: async (req, _res, ctx) => saveIntakeAnswers(deps, ctx.cruiseId!, req.user!.id, ctx.body),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/preview',
+      changesData: false,
+      summary: "The first rows of an upload's files as they will be read with these answers (nothing stored)",
+      rule: { kind: 'member', roles: [...intake], cruise: uploadCruise },
+      body: IntakeAnswersSchema,
+      response: UploadPreviewSchema,
+      handler: async (req, _res, ctx) => {
+        const u = await Upload.findByPk(String(req.params.id));
+        if (!u) throw notFound();
+        return previewUpload(deps, u, ctx.body);
       },
     }),
     defineRoute({

@@ -10,6 +10,7 @@ import { recordIngestTiming } from '../jobs/ingestTimings';
 import { writeColumns, writeColumnsOfCasts, type StoredColumn } from './columns';
 import { recordQcAtIntake } from './qcProposals';
 import { invalidateDataVersion } from './cruiseData';
+import { loadIntakeAnswers } from './intakeAnswers';
 import { audit } from '../lib/audit';
 import { liveKey, replacementGate, supersede, inversionsAfterFlags, type Gate } from './castLife';
 import { randomUUID } from 'node:crypto';
@@ -41,6 +42,8 @@ export async function ingestUpload(
   const mapping = Object.fromEntries(
     (await ColumnMapping.findAll({ where: { cruiseId: upload.cruiseId } })).map((m) => [m.header, m.role]),
   );
+  // What the technician answered for this cruise's files (units of columns, metadata of files).
+  const answers = await loadIntakeAnswers(deps, upload.cruiseId);
   // Station tables: fill or update the plan; casts without a position take it from the plan.
   const stations = await Station.findAll({ where: { cruiseId: upload.cruiseId } });
   const plan = new Map(stations.map((s) => [s.name, s]));
@@ -53,6 +56,7 @@ export async function ingestUpload(
     filename: upload.filename,
     bytes,
     mapping,
+    unitAnswers: answers.units,
     maxBytes: deps.settings.UPLOAD_MAX_BYTES,
     maxInflatedBytes: deps.settings.UPLOAD_MAX_INFLATED_BYTES,
     maxLevels: deps.settings.CAST_MAX_LEVELS,
@@ -64,6 +68,7 @@ export async function ingestUpload(
       progress: 1,
       errors: parsedUpload.errors,
       unmappedHeaders: parsedUpload.unmappedHeaders,
+      needs: null,
     });
     return;
   }
@@ -78,12 +83,15 @@ export async function ingestUpload(
         stations: parsedUpload.stations,
         plan: planned,
         inversionThreshold: deps.settings.INVERSION_THRESHOLD,
+        castAnswers: answers.casts,
       }),
     ),
   );
   const derivedErrors = derivedParts.flatMap((d) => d.errors);
   if (derivedErrors.length) {
-    await upload.update({ status: 'failed', progress: 1, errors: derivedErrors });
+    // What the files lack is listed for the whole upload, so the Intake screen asks it all at once.
+    const needs = derivedParts.flatMap((d) => d.needs);
+    await upload.update({ status: 'failed', progress: 1, errors: derivedErrors, needs: needs.length ? needs : null });
     return;
   }
   const parsed = { stations: parsedUpload.stations, warnings: parsedUpload.warnings };
@@ -250,7 +258,14 @@ export async function ingestUpload(
           ]
         : [];
       await upload.update(
-        { status: 'ready', progress: 1, castIds: ids, warnings: [...parsed.warnings, ...keptNote], errors: [] },
+        {
+          status: 'ready',
+          progress: 1,
+          castIds: ids,
+          warnings: [...parsed.warnings, ...keptNote],
+          errors: [],
+          needs: null,
+        },
         { transaction },
       );
       await audit(

@@ -1,6 +1,7 @@
 // From a parsed cast to the stored one: pressure from depth where needed, Practical Salinity from
 // conductivity where needed, the TEOS-10 columns, the inversions of σ0 and the fitness of each
 // candidate vertical coordinate. Pure: no I/O.
+import { STORED_UNITS } from '../../shared/api/variables';
 import type { ParsedCast, FileError } from '../../shared/schemas/cast';
 import { deriveCast, p_from_z } from '../../shared/seawater/index';
 import { detectInversions } from '../../shared/remap/inversions';
@@ -17,27 +18,8 @@ export type ProcessedCast = {
   mld: unknown;
 };
 
-const UNITS: Record<string, string> = {
-  pressure: 'dbar',
-  depth: 'm',
-  temperature: 'degC (ITS-90)',
-  SP: '1 (PSS-78)',
-  conductivity: 'mS/cm',
-  SA: 'g/kg',
-  SR: 'g/kg',
-  CT: 'degC',
-  pt0: 'degC',
-  rho: 'kg/m3',
-  sigma0: 'kg/m3',
-  sigma1: 'kg/m3',
-  sigma2: 'kg/m3',
-  sigma3: 'kg/m3',
-  sigma4: 'kg/m3',
-  N2: '1/s2',
-  p_mid: 'dbar',
-  spiciness0: 'kg/m3',
-  z: 'm',
-};
+/** Stored unit of each column: the catalogue's (shared/api/variables.ts). */
+const UNITS = STORED_UNITS;
 
 export function processCast(
   c0: ParsedCast,

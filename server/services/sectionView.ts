@@ -5,7 +5,9 @@ import { z } from 'zod';
 import { binQuery } from '../lib/bounds';
 import { applyFlags, type CruiseCast } from './cruiseData';
 import { loadLineCasts, lineJson } from './lines';
-import { DerivedVariable } from '../models/index';
+import { Cast, CastColumn, DerivedVariable } from '../models/index';
+import { propertyLabel, variableInfo } from '../../shared/api/variables';
+import type { FileVariableResponse } from '../../shared/api/resources';
 import { compileFormula } from '../../shared/derived/index';
 import { sigma_batch } from '../../shared/seawater/index';
 import {
@@ -52,21 +54,36 @@ export const SectionQuery = z.object({
 });
 export type SectionQuery = z.infer<typeof SectionQuery>;
 
-const UNITS: Record<string, string> = {
-  CT: '°C',
-  SA: 'g/kg',
-  SP: '',
-  temperature: '°C',
-  pt0: '°C',
-  oxygen: 'µmol/kg',
-  sigma0: 'kg/m³',
-  sigma1: 'kg/m³',
-  sigma2: 'kg/m³',
-  sigma3: 'kg/m³',
-  sigma4: 'kg/m³',
-  spiciness0: 'kg/m³',
-  rho: 'kg/m³',
-};
+/** Display unit of a property: the catalogue's (shared/api/variables.ts), or an extra variable's unit as its files gave it. */
+function unitOf(property: string, casts: readonly CruiseCast[]): string {
+  const known = variableInfo(property);
+  if (known) return known.unit;
+  for (const c of casts) {
+    const u = c.units[property];
+    if (u) return u;
+  }
+  return '';
+}
+
+/** The extra variables (`x:<name>`) the live casts of a cruise carry, with their units and how many casts have each. */
+export async function fileVariables(cruiseId: string): Promise<FileVariableResponse[]> {
+  const ids = (await Cast.findAll({ where: { cruiseId }, attributes: ['id'] })).map((c) => c.id);
+  if (!ids.length) return [];
+  const rows = await CastColumn.findAll({
+    where: { castId: ids, kind: 'extra' },
+    attributes: ['castId', 'name', 'unit'],
+  });
+  const by = new Map<string, { unit: string; casts: Set<string> }>();
+  for (const r of rows) {
+    const e = by.get(r.name) ?? { unit: r.unit ?? '', casts: new Set<string>() };
+    if (!e.unit && r.unit) e.unit = r.unit;
+    e.casts.add(r.castId);
+    by.set(r.name, e);
+  }
+  return [...by.entries()]
+    .sort(([a], [b]) => a.localeCompare(b))
+    .map(([name, e]) => ({ name, label: propertyLabel(name).label, unit: e.unit, casts: e.casts.size }));
+}
 
 /** Columns of each cast for a property: a stored column, or the cruise's derived variable of that name. */
 export async function propertyColumns(
@@ -155,7 +172,7 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     return {
       choices,
       line,
-      unit: UNITS[q.property] ?? '',
+      unit: unitOf(q.property, all),
       grid: { x: [], y: [], z: [] },
       pressure: null,
       stations: [],
@@ -259,7 +276,7 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
     );
     const rows = (a: Float64Array) => toRows(a, grid.x.length, grid.y.length);
     gradients = {
-      units: { slope: 'm/m (z up)', gradient: `${UNITS[q.property] ?? 'unit'} per m` },
+      units: { slope: 'm/m (z up)', gradient: `${unitOf(q.property, all) || 'unit'} per m` },
       slope: rows(g.slope),
       alongLevel: rows(g.alongLevel),
       alongIsopycnal: rows(g.alongIsopycnal),
@@ -277,7 +294,7 @@ export async function buildSectionView(cruiseId: string, q: SectionQuery) {
   return {
     choices: { ...choices, digits: q.digits ?? null },
     line,
-    unit: UNITS[q.property] ?? '',
+    unit: unitOf(q.property, all),
     grid: { x: grid.x, y: grid.y, z: r(grid.z)! },
     pressure: r(dens.pressure),
     depth: r(dens.depth),

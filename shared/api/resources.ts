@@ -33,3 +33,14 @@ export const derivedVariableResponseSchema = z.object({
 });
 export type DerivedVariableResponse = z.output<typeof derivedVariableResponseSchema>;
 export const derivedVariableListResponseSchema = z.array(derivedVariableResponseSchema);
+
+/** A variable the casts of a cruise carry beyond the catalogue (`x:<name>`: fluorescence, a second sensor…). */
+export const fileVariableResponseSchema = z.object({
+  name: z.string(),
+  label: z.string(),
+  unit: z.string(),
+  /** how many live casts carry it */
+  casts: z.number().int().nonnegative(),
+});
+export const fileVariableListResponseSchema = z.array(fileVariableResponseSchema);
+export type FileVariableResponse = z.infer<typeof fileVariableResponseSchema>;

@@ -1,6 +1,7 @@
 // Zod schemas and types of a parsed cast: what the file parsers (server/parsers) hand to the ingest.
 // Columns are typed arrays; the schemas check their kind and that every column has the same length.
 import { z } from 'zod';
+import { ASKED_UNIT_ROLES } from '../api/intakeAnswers';
 
 /** Machine-readable kinds of file problems; the UI and the bad-file corpus key on these. */
 export const FILE_ERROR_CODES = [
@@ -40,6 +41,7 @@ export const FILE_ERROR_CODES = [
   'exchange_missing_end',
   'exchange_bottle',
   'missing_header',
+  'needs_answer',
   'netcdf_corrupt',
   'netcdf_unsupported',
   'netcdf_bad_structure',
@@ -122,6 +124,8 @@ export const ParsedCastSchema = z
     notes: z.array(z.string()),
     /** Lines left out because they could not be read (salvage): the cast is "partly read". */
     dropped: z.array(FileErrorSchema).optional(),
+    /** Columns whose unit the file does not state and no intake answer gave (the Intake screen asks). */
+    unitsNeeded: z.array(z.object({ column: z.string(), role: z.enum(ASKED_UNIT_ROLES) })).optional(),
   })
   .superRefine((c, ctx) => {
     const n = c.profile.levels;

@@ -1,7 +1,15 @@
 import { ErrorNotice, InfoNotice, Progress } from '../components/Notice';
 import { Panel } from '../components/Panel';
 import { can } from '../features/auth';
-import { DropZone, OutgoingList, UploadHistory, useSendFiles, useUploads } from '../features/intake';
+import {
+  AnswersStep,
+  DropZone,
+  OutgoingList,
+  UploadHistory,
+  needsAnswers,
+  useSendFiles,
+  useUploads,
+} from '../features/intake';
 import { useCurrentCruise } from './CruiseLayout';
 
 /** Intake: cast files in, with bytes, processing and errors shown file by file. */
@@ -10,6 +18,8 @@ export default function Intake() {
   const uploads = useUploads(cruise.id);
   const sender = useSendFiles(cruise.id);
   const mayUpload = can.uploadCasts(cruise.role);
+  // The batch waiting for answers: every failed upload whose files lack what a cast needs.
+  const waiting = (uploads.data ?? []).filter(needsAnswers);
 
   return (
     <div className="flex flex-col gap-5">
@@ -24,6 +34,7 @@ export default function Intake() {
           />
         </>
       )}
+      {mayUpload && !cruise.locked && waiting.length > 0 && <AnswersStep cruiseId={cruise.id} uploads={waiting} />}
       {mayUpload && cruise.locked && <InfoNotice>This cruise is locked: no more files can come in.</InfoNotice>}
       {!mayUpload && (
         <InfoNotice>

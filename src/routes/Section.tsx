@@ -1,3 +1,4 @@
+import { useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { ErrorNotice, Progress } from '../components/Notice';
@@ -35,6 +36,7 @@ import {
   type HoverStore,
   type ReadoutValue,
   type Section as SectionData,
+  fileVariablesQuery,
 } from '../features/sections';
 import { useLayerSets } from '../features/layersets';
 import { useDerivedVariables } from '../features/derived';
@@ -51,6 +53,7 @@ export default function Section() {
   const [view, setView, currentView] = useSectionView();
   const layerSets = useLayerSets(cruise.id);
   const derived = useDerivedVariables(cruise.id);
+  const fileVars = useQuery(fileVariablesQuery(cruise.id));
   const sets = layerSets.data ?? [];
   const layerSet = sets.find((s) => s.id === view.layerSet) ?? null;
   const levels = layerSet?.levels ?? null;
@@ -66,7 +69,10 @@ export default function Section() {
   const [hoverStore] = useState(createHoverStore);
   const setHover = hoverStore.set;
 
-  const { label: propLabel, unit: propUnit } = propertyLabel(view.property, derived.data ?? []);
+  const { label: propLabel, unit: propUnit } = propertyLabel(view.property, [
+    ...(derived.data ?? []),
+    ...(fileVars.data ?? []),
+  ]);
   const unit = byPressure.data?.unit ?? propUnit;
   const densityShowsDepth = view.densityShows === 'depth';
   // Each frame has its own colour range (automatic, or fixed by the view), palette, contours and axes.
@@ -178,6 +184,7 @@ export default function Section() {
         onChange={(patch) => setView(patch)}
         layerSets={sets}
         derived={derived.data ?? []}
+        extras={fileVars.data ?? []}
         autoRange={look.autoPressure}
         autoDensityRange={look.autoDensity}
         autoPaletteLabel={look.autoPaletteLabel}

@@ -7,6 +7,9 @@ import { intakeKeys } from './keys';
 import { sendFile } from './send';
 import {
   columnMappingSchema,
+  intakeAnswersSchema,
+  uploadPreviewSchema,
+  type IntakeAnswers,
   isActive,
   uploadListSchema,
   uploadSchema,
@@ -75,6 +78,53 @@ export function useSaveColumnMapping(cruiseId: string) {
     mutationFn: (mapping: ColumnMapping) =>
       http(`${cruisePath(cruiseId)}/column-mapping`, { method: 'PUT', body: { mapping }, schema: columnMappingSchema }),
     onSuccess: (saved) => queryClient.setQueryData(intakeKeys.mapping(cruiseId), saved),
+  });
+}
+
+/** The cruise's remembered answers about what files lack. */
+export const intakeAnswersQuery = (cruiseId: string) =>
+  queryOptions({
+    queryKey: intakeKeys.answers(cruiseId),
+    queryFn: ({ signal }) => http(`${cruisePath(cruiseId)}/intake-answers`, { schema: intakeAnswersSchema, signal }),
+  });
+
+/** The first rows of an upload's files as they will be read with these answers (nothing stored). */
+export const uploadPreviewQuery = (uploadId: string, answers: IntakeAnswers) =>
+  queryOptions({
+    queryKey: intakeKeys.preview(uploadId, answers),
+    queryFn: ({ signal }) =>
+      http(`/api/uploads/${encodeURIComponent(uploadId)}/preview`, {
+        method: 'POST',
+        body: answers,
+        schema: uploadPreviewSchema,
+        signal,
+      }),
+    staleTime: 60_000,
+    retry: false,
+  });
+
+/** Remember the answers for the cruise, then process again every upload of the batch that waited for them. */
+export function useAnswerAndRetry(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async ({ answers, uploadIds }: { answers: IntakeAnswers; uploadIds: readonly string[] }) => {
+      const saved = await http(`${cruisePath(cruiseId)}/intake-answers`, {
+        method: 'PUT',
+        body: answers,
+        schema: intakeAnswersSchema,
+      });
+      queryClient.setQueryData(intakeKeys.answers(cruiseId), saved);
+      const retried = [];
+      for (const id of uploadIds)
+        retried.push(
+          await http(`/api/uploads/${encodeURIComponent(id)}/retry`, { method: 'POST', schema: uploadSchema }),
+        );
+      return retried;
+    },
+    onSuccess: (uploads) => {
+      for (const u of uploads) queryClient.setQueryData(intakeKeys.upload(u.id), u);
+      void queryClient.invalidateQueries({ queryKey: intakeKeys.uploads(cruiseId) });
+    },
   });
 }
 

@@ -6,6 +6,9 @@ export {
   useColumnMapping,
   useSaveColumnMapping,
   useRetryUpload,
+  useAnswerAndRetry,
+  intakeAnswersQuery,
+  uploadPreviewQuery,
   useReplaceDecision,
   useRemoveUpload,
   useSendFiles,
@@ -19,6 +22,7 @@ export { OutgoingList } from './components/OutgoingList';
 export { UploadHistory } from './components/UploadHistory';
 export { UploadFollow } from './components/UploadFollow';
 export { ColumnMappingStep } from './components/ColumnMappingStep';
+export { AnswersStep } from './components/AnswersStep';
 export { FileProblems, problemPlace } from './components/FileProblems';
 export {
   uploadSchema,
@@ -28,5 +32,6 @@ export {
   COLUMN_ROLES,
   COLUMN_ROLE_LABELS,
   isActive,
+  needsAnswers,
 } from './types';
-export type { Upload, UploadStatus, FileProblem, ColumnRole, ColumnMapping } from './types';
+export type { Upload, UploadStatus, FileProblem, ColumnRole, ColumnMapping, IntakeAnswers, FileNeed } from './types';

@@ -7,4 +7,6 @@ export const intakeKeys = {
   uploads: (cruiseId: string) => [...intakeKeys.all, 'uploads', cruiseId] as const,
   upload: (uploadId: string) => [...intakeKeys.all, 'upload', uploadId] as const,
   mapping: (cruiseId: string) => [...intakeKeys.all, 'mapping', cruiseId] as const,
+  answers: (cruiseId: string) => [...intakeKeys.all, 'answers', cruiseId] as const,
+  preview: (uploadId: string, answers: unknown) => [...intakeKeys.all, 'preview', uploadId, answers] as const,
 };

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { FileNeedSchema } from '../../../shared/api/intakeAnswers';
 
 const id = z.union([z.string(), z.number()]).transform(String);
 
@@ -69,6 +70,11 @@ export const uploadSchema = z.object({
     .nullish()
     .transform((v) => v ?? null),
   duplicate: z.boolean().optional(),
+  /** What the files lack (station, cast, position, time, unit of a column): the answers step asks. */
+  needs: z
+    .array(FileNeedSchema)
+    .nullish()
+    .transform((v) => v ?? null),
   /** Casts of this upload whose station and cast are already live: replace them, or keep the earlier ones? */
   conflicts: z
     .object({
@@ -127,3 +133,18 @@ export const COLUMN_ROLE_LABELS: Readonly<Record<ColumnRole, string>> = {
 
 export const columnMappingSchema = z.record(z.string(), columnRoleSchema);
 export type ColumnMapping = z.infer<typeof columnMappingSchema>;
+
+export {
+  IntakeAnswersSchema as intakeAnswersSchema,
+  UploadPreviewSchema as uploadPreviewSchema,
+  UNIT_CHOICES,
+  unitAnswerKey,
+  type IntakeAnswers,
+  type CastAnswer,
+  type FileNeed,
+  type UploadPreview,
+  type FilePreview,
+} from '../../../shared/api/intakeAnswers';
+
+/** A failed upload that waits for answers about what its files lack. */
+export const needsAnswers = (u: Upload) => u.status === 'failed' && (u.needs?.length ?? 0) > 0;

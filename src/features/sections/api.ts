@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
+import { fileVariableListResponseSchema } from '../../../shared/api/resources';
 import { sectionKeys } from './keys';
 import { geostrophySchema, savedViewListSchema, savedViewSchema, sectionSchema, tsSchema } from './types';
 
@@ -17,6 +18,15 @@ export const sectionQuery = (cruiseId: string, query: string) =>
       performance.mark?.(`section ${section.choices.coord} parsed`);
       return section;
     },
+    staleTime: 5 * 60_000,
+  });
+
+/** The extra variables the cruise's casts carry (fluorescence, PAR, a second sensor…), with their units. */
+export const fileVariablesQuery = (cruiseId: string) =>
+  queryOptions({
+    queryKey: sectionKeys.fileVariables(cruiseId),
+    queryFn: ({ signal }) =>
+      http(`${cruisePath(cruiseId)}/file-variables`, { schema: fileVariableListResponseSchema, signal }),
     staleTime: 5 * 60_000,
   });
 

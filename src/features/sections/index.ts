@@ -1,5 +1,14 @@
 export { sectionKeys } from './keys';
-export { sectionQuery, useSection, useTsPoints, useGeostrophy, useSavedViews, useSaveView, useDeleteView } from './api';
+export {
+  sectionQuery,
+  fileVariablesQuery,
+  useSection,
+  useTsPoints,
+  useGeostrophy,
+  useSavedViews,
+  useSaveView,
+  useDeleteView,
+} from './api';
 export { useSectionView } from './useSectionView';
 export {
   DEFAULT_VIEW,

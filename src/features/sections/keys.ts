@@ -11,5 +11,7 @@ export const sectionKeys = {
   grid: (cruiseId: string, query: string) => [...sectionKeys.data(cruiseId), 'grid', query] as const,
   ts: (cruiseId: string, every: number) => [...sectionKeys.data(cruiseId), 'ts', every] as const,
   geostrophy: (cruiseId: string, query: string) => [...sectionKeys.data(cruiseId), 'geostrophy', query] as const,
+  /** The extra variables the casts carry (under data: an upload changes them). */
+  fileVariables: (cruiseId: string) => [...sectionKeys.data(cruiseId), 'file-variables'] as const,
   views: (cruiseId: string) => [...sectionKeys.all, 'views', cruiseId] as const,
 };

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { Button } from '../../../components/Button';
 import { ErrorNotice } from '../../../components/Notice';
 import { useRemoveUpload, useReplaceDecision, useRetryUpload, useUpload } from '../api';
-import { isActive, type Upload } from '../types';
+import { isActive, needsAnswers, type Upload } from '../types';
 import { Bar, StatusBadge } from './Bars';
 import { ColumnMappingStep } from './ColumnMappingStep';
 import { FileProblems } from './FileProblems';
@@ -28,6 +28,7 @@ export function UploadFollow({
   const upload = query.data ?? initial;
   const active = isActive(upload.status);
   const needsMapping = upload.status === 'failed' && (upload.unmappedHeaders?.length ?? 0) > 0;
+  const waitsForAnswers = needsAnswers(upload);
 
   return (
     <div className="flex flex-col gap-2">
@@ -62,10 +63,14 @@ export function UploadFollow({
           </p>
         ) : (
           <p className="text-sm text-warn-strong">
-            {needsMapping ? 'Some headers were not recognised.' : 'The file could not be read.'}
+            {needsMapping
+              ? 'Some headers were not recognised.'
+              : waitsForAnswers
+                ? 'The file does not say everything a cast needs; answer above, once for the batch.'
+                : 'The file could not be read.'}
           </p>
         )}
-        {upload.status === 'failed' && canUpload && !needsMapping && (
+        {upload.status === 'failed' && canUpload && !needsMapping && !waitsForAnswers && (
           <Button
             size="sm"
             variant="secondary"
@@ -73,7 +78,7 @@ export function UploadFollow({
             onClick={() => retry.mutate(upload.id)}
             aria-label={`Retry ${upload.filename}`}
           >
-            Retry
+            Process again
           </Button>
         )}
       </div>

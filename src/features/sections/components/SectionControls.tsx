@@ -24,6 +24,8 @@ export interface SectionControlsProps {
   onChange: (patch: Partial<SectionViewState>) => void;
   layerSets: readonly LayerSet[];
   derived: readonly DerivedVariable[];
+  /** extra variables of the files (`x:<name>`) with their units */
+  extras?: readonly { name: string; label: string; unit: string; casts: number }[];
   /** The automatic colour range, shown as the placeholder of the min/max inputs. */
   autoRange: { min: number; max: number } | null;
   /** The density frame's automatic colour range. */
@@ -38,13 +40,16 @@ export function SectionControls({
   onChange,
   layerSets,
   derived,
+  extras = [],
   autoRange,
   autoDensityRange = null,
   autoPaletteLabel,
 }: SectionControlsProps) {
   const derivedNames = derived.map((d) => d.name);
   const propertyKnown =
-    SECTION_PROPERTIES.some((p) => p.name === view.property) || derivedNames.includes(view.property);
+    SECTION_PROPERTIES.some((p) => p.name === view.property) ||
+    derivedNames.includes(view.property) ||
+    extras.some((x) => x.name === view.property);
   const selectedSet = layerSets.find((s) => s.id === view.layerSet);
   // The figure options start open when the view already uses one of them (a shared link).
   const [figureOpen, setFigureOpen] = useState(() => !!(view.range || view.densityRange));
@@ -65,6 +70,16 @@ export function SectionControls({
               </option>
             ))}
           </optgroup>
+          {extras.length > 0 && (
+            <optgroup label="Variables of the files">
+              {extras.map((x) => (
+                <option key={x.name} value={x.name}>
+                  {x.label}
+                  {x.unit ? ` (${x.unit})` : ''} — {x.casts === 1 ? '1 cast' : `${x.casts} casts`}
+                </option>
+              ))}
+            </optgroup>
+          )}
           {derived.length > 0 && (
             <optgroup label="Derived variables">
               {derived.map((d) => (
