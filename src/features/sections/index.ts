@@ -1,5 +1,5 @@
 export { sectionKeys } from './keys';
-export { sectionQuery, useSection, useTsPoints, useGeostrophy, useSavedViews, useSaveView, useDeleteView } from './api';
+export { sectionQuery, useSection, useTsPoints, useGeostrophy, useSavedViews, useSaveView, useDeleteView, useEditView } from './api';
 export { useSectionView } from './useSectionView';
 export {
   DEFAULT_VIEW,
