@@ -38,7 +38,7 @@ import {
 import { useLayerSets } from '../features/layersets';
 import { useDerivedVariables } from '../features/derived';
 import { useCurrentCruise } from './CruiseLayout';
-import { LinePicker } from '../features/lines';
+import { LinePicker, useLines } from '../features/lines';
 import { FrameExportMenu, type FrameExport } from '../features/sections';
 
 /** Every member may keep saved views of their own (a view is a bookmark, not the cruise's data; the server agrees). */
@@ -50,6 +50,7 @@ export default function Section() {
   const [view, setView, currentView] = useSectionView();
   const layerSets = useLayerSets(cruise.id);
   const derived = useDerivedVariables(cruise.id);
+  const lines = useLines(cruise.id);
   const sets = layerSets.data ?? [];
   const layerSet = sets.find((s) => s.id === view.layerSet) ?? null;
   const levels = layerSet?.levels ?? null;
@@ -113,7 +114,10 @@ export default function Section() {
   const handling = INVERSION_HANDLING_TEXT[view.inversions].label.toLowerCase();
   const frameHeight = useFrameHeight(view.frames);
   // Figures leave with a provenance line and a file name of cruise, line and property.
-  const lineName = view.line; // the line picker can pass the line's name here instead of its id
+  // by its name (the picker's own query, no second request); the default line when none is chosen
+  const lineList = lines.data ?? [];
+  const lineName =
+    (view.line ? lineList.find((l) => l.id === view.line) : lineList.find((l) => l.isDefault))?.name ?? null;
   const provenance = provenanceLine(cruise, lineName);
   const fileBase = figureFileName(cruise.name, lineName, view.property);
   const pressureCaption = sentence(
