@@ -5,6 +5,7 @@ import * as m002 from './migrations/002-analysis-and-deliveries';
 import * as m003 from './migrations/003-cast-life';
 import * as m004 from './migrations/004-lines';
 import * as m005 from './migrations/005-hardening';
+import * as m007 from './migrations/007-shared-views';
 import * as m008 from './migrations/008-qc';
 import * as m009 from './migrations/009-line-links';
 import * as m011 from './migrations/011-intake-answers';
@@ -31,6 +32,7 @@ export const MIGRATIONS: Migration[] = [
   { name: '003-cast-life', up: m003.up },
   { name: '004-lines', up: m004.up },
   { name: '005-hardening', up: m005.up },
+  { name: '007-shared-views', up: m007.up },
   { name: '008-qc', up: m008.up },
   { name: '009-line-links', up: m009.up },
   { name: '011-intake-answers', up: m011.up },

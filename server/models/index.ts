@@ -207,6 +207,8 @@ export class SavedView extends Model<InferAttributes<SavedView>, InferCreationAt
   declare userId: string;
   declare name: string;
   declare query: string;
+  /** Shared with the cruise team: the other members read it (the owner alone edits and deletes it). */
+  declare shared: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -463,6 +465,7 @@ export function initModels(sequelize: Sequelize) {
       userId: { type: DataTypes.UUID, allowNull: false },
       name: { type: DataTypes.TEXT, allowNull: false },
       query: { type: DataTypes.TEXT, allowNull: false },
+      shared: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       ...ts,
     },
     opts('saved_views'),
@@ -515,4 +518,5 @@ export function initModels(sequelize: Sequelize) {
   Cruise.hasMany(Cast, { foreignKey: 'cruiseId' });
   Cast.hasMany(CastColumn, { foreignKey: 'castId' });
   AuditEntry.belongsTo(User, { foreignKey: 'userId' });
+  SavedView.belongsTo(User, { foreignKey: 'userId' });
 }

@@ -3,8 +3,9 @@ import { z } from 'zod';
 import { binQuery } from '../lib/bounds';
 import type { Request } from 'express';
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
-import { badRequest, conflict, notFound } from '../lib/errors';
-import { Cast, DerivedVariable, SavedView } from '../models/index';
+import { HttpError, badRequest, conflict, notFound } from '../lib/errors';
+import { Op } from 'sequelize';
+import { Cast, DerivedVariable, SavedView, User } from '../models/index';
 import { audit } from '../lib/audit';
 import { compileFormula } from '../../shared/derived/index';
 import { readColumns } from '../services/columns';
@@ -13,7 +14,11 @@ import { geostrophicSection, transportPerLayer } from '../../shared/section/inde
 import { loadLineCasts } from '../services/lines';
 import { resolveLayerBoundaries } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
-import { derivedVariableListResponseSchema } from '../../shared/api/resources';
+import {
+  derivedVariableListResponseSchema,
+  savedViewListResponseSchema,
+  savedViewResponseSchema,
+} from '../../shared/api/resources';
 import type { AppDeps } from '../lib/deps';
 
 const uuidOr404 = (v: unknown, what: string) => {
@@ -47,7 +52,47 @@ const GeoQuery = z.object({
   minDistanceKm: z.coerce.number().min(0).max(500).default(2),
   line: lineParam,
 });
-const NewView = z.object({ name: z.string().trim().min(1).max(100), query: z.string().max(4000) });
+const viewName = z.string().trim().min(1).max(100);
+const viewQuery = z.string().max(4000);
+const NewView = z.object({ name: viewName, query: viewQuery, shared: z.boolean().optional() }).strict();
+const ViewPatch = z
+  .object({ name: viewName.optional(), query: viewQuery.optional(), shared: z.boolean().optional() })
+  .strict()
+  .refine((b) => b.name !== undefined || b.query !== undefined || b.shared !== undefined, {
+    message: 'Say what to change: name, query or shared.',
+  });
+type ViewRow = SavedView & { User?: User | null };
+const viewJson = (v: ViewRow, me: string, myName?: string) => ({
+  id: v.id,
+  name: v.name,
+  query: v.query,
+  shared: v.shared,
+  owner: { id: v.userId, name: v.User?.name ?? (v.userId === me && myName ? myName : 'a former member') },
+  mine: v.userId === me,
+  createdAt: v.createdAt,
+  updatedAt: v.updatedAt,
+});
+/** A view the caller may read: their own, or one shared on this cruise; anything else is "no such view". */
+async function visibleView(req: Request, cruiseId: string): Promise<ViewRow> {
+  const id = uuidOr404(req.params.viewId, 'view');
+  const v = (await SavedView.findOne({
+    where: { id, cruiseId, [Op.or]: [{ userId: req.user!.id }, { shared: true }] },
+    include: [{ model: User, attributes: ['id', 'name'] }],
+  })) as ViewRow | null;
+  if (!v) throw notFound('No such view.');
+  return v;
+}
+/** A view the caller owns; a teammate's shared view is read-only to them (403 naming its owner). */
+async function ownView(req: Request, cruiseId: string, what: 'change' | 'delete'): Promise<ViewRow> {
+  const v = await visibleView(req, cruiseId);
+  if (v.userId !== req.user!.id)
+    throw new HttpError(
+      403,
+      'not_owner',
+      `Only ${v.User?.name ?? 'the member who saved it'} can ${what} this view; copy it to keep your own.`,
+    );
+  return v;
+}
 const RESERVED = new Set([
   'pressure',
   'temperature',
@@ -294,23 +339,38 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
     defineRoute({
       method: 'get',
       path: '/cruises/:id/views',
-      summary: 'Your saved section views',
+      summary: 'The saved section views you may open: your own and those the team shared',
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
-      handler: async (req, _res, ctx) =>
-        (
-          await SavedView.findAll({
-            where: { cruiseId: ctx.cruiseId!, userId: req.user!.id },
-            order: [['createdAt', 'DESC']],
-          })
-        ).map((v) => ({ id: v.id, name: v.name, query: v.query, createdAt: v.createdAt })),
+      response: savedViewListResponseSchema,
+      handler: async (req, _res, ctx) => {
+        const me = req.user!.id;
+        const rows = await SavedView.findAll({
+          where: { cruiseId: ctx.cruiseId!, [Op.or]: [{ userId: me }, { shared: true }] },
+          include: [{ model: User, attributes: ['id', 'name'] }],
+          order: [['updatedAt', 'DESC']],
+          limit: 500,
+        });
+        // Your own first, then the team's, each newest first.
+        return rows.map((v) => viewJson(v, me)).sort((a, b) => Number(b.mine) - Number(a.mine));
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/cruises/:id/views/:viewId',
+      summary: 'One saved view: yours, or one the team shared',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      response: savedViewResponseSchema,
+      handler: async (req, _res, ctx) => viewJson(await visibleView(req, ctx.cruiseId!), req.user!.id),
     }),
     defineRoute({
       method: 'post',
       path: '/cruises/:id/views',
+      // a saved view is the member's own bookmark, not the cruise's data: kept on a locked cruise too
       changesData: false,
-      summary: 'Save a section view',
+      summary: 'Save a section view (yours; shared with the team if asked)',
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
       body: NewView,
+      response: savedViewResponseSchema,
       handler: async (req, res, ctx) => {
         const b = ctx.body;
         const v = await SavedView.create({
@@ -318,20 +378,39 @@ export function analysisRoutes(deps: AppDeps): RouteSpec[] {
           userId: req.user!.id,
           name: b.name,
           query: b.query.replace(/^\?/, ''),
+          shared: b.shared ?? false,
         });
-        res.status(201).json({ id: v.id, name: v.name, query: v.query, createdAt: v.createdAt });
+        res.status(201).json(viewJson(v, req.user!.id, req.user!.name));
+      },
+    }),
+    defineRoute({
+      method: 'patch',
+      path: '/cruises/:id/views/:viewId',
+      changesData: false,
+      summary: 'Rename, re-aim or share one of your saved views (the owner only)',
+      rule: { kind: 'member', roles: 'any', cruise: byParam() },
+      body: ViewPatch,
+      response: savedViewResponseSchema,
+      handler: async (req, _res, ctx) => {
+        const v = await ownView(req, ctx.cruiseId!, 'change');
+        const b = ctx.body as z.infer<typeof ViewPatch>;
+        await v.update({
+          ...(b.name !== undefined ? { name: b.name } : {}),
+          ...(b.query !== undefined ? { query: b.query.replace(/^\?/, '') } : {}),
+          ...(b.shared !== undefined ? { shared: b.shared } : {}),
+        });
+        return viewJson(v, req.user!.id);
       },
     }),
     defineRoute({
       method: 'delete',
       path: '/cruises/:id/views/:viewId',
       changesData: false,
-      summary: 'Delete one of your saved views',
+      summary: 'Delete one of your saved views (the owner only)',
       rule: { kind: 'member', roles: 'any', cruise: byParam() },
       handler: async (req, res, ctx) => {
-        const id = uuidOr404(req.params.viewId, 'view');
-        const n = await SavedView.destroy({ where: { id, cruiseId: ctx.cruiseId!, userId: req.user!.id } });
-        if (!n) throw notFound('No such view.');
+        const v = await ownView(req, ctx.cruiseId!, 'delete');
+        await v.destroy();
         res.status(204).end();
       },
     }),

@@ -2,8 +2,22 @@ import { z } from 'zod';
 
 import { defineRoute, byParam, type RouteSpec } from '../lib/routeTable';
 import { badRequest, conflict, notFound } from '../lib/errors';
-import { AuditEntry, Cast, Cruise, Membership, Station, User, type Role } from '../models/index';
+import {
+  AuditEntry,
+  Cast,
+  Cruise,
+  DerivedVariable,
+  LayerSet,
+  Line,
+  Membership,
+  Station,
+  Upload,
+  User,
+  type Role,
+} from '../models/index';
 import { audit } from '../lib/audit';
+import { auditSentence } from '../../shared/api/audit';
+import { isUuid } from '../lib/input';
 import type { AppDeps } from '../lib/deps';
 import {
   applyStationTable,
@@ -335,20 +349,84 @@ export function cruiseRoutes(deps: AppDeps): RouteSpec[] {
         // Invitations (and their addresses) are for chief scientists only: others see that one was sent.
         const hide = (r: AuditEntry, v: unknown) =>
           ctx.role !== 'chief_scientist' && r.entity === 'invitation' ? withoutEmail(v) : v;
+        const subjects = await auditSubjects(rows);
         return rows.map((r) => {
           const u = (r as AuditEntry & { User?: User | null }).User;
+          const before = hide(r, r.before);
+          const after = hide(r, r.after);
+          const actor = u ? { id: u.id, name: u.name } : null;
+          const subject = subjects.get(`${r.entity}:${r.entityId}`) ?? nameIn(r.entity, before, after);
           return {
             id: String(r.id),
             at: r.at,
-            actor: u ? { id: u.id, name: u.name } : null,
+            actor,
             action: r.action,
             entity: r.entity,
             entityId: r.entityId,
-            before: hide(r, r.before),
-            after: hide(r, r.after),
+            sentence: auditSentence({
+              actor: actor?.name ?? null,
+              action: r.action,
+              entity: r.entity,
+              subject,
+              before,
+              after,
+            }),
+            before,
+            after,
           };
         });
       },
     }),
   ];
+}
+
+const castLabel = (c: { station: string; cast: string }) => `station ${c.station} cast ${c.cast}`;
+
+/** A name carried in the entry itself (a removed file's name, a new station's). */
+function nameIn(entity: string, before: unknown, after: unknown): string | null {
+  for (const v of [after, before]) {
+    const o = (v && typeof v === 'object' ? v : {}) as Record<string, unknown>;
+    if (entity === 'upload' && typeof o.filename === 'string') return o.filename;
+    if (entity === 'cast' && typeof o.station === 'string' && o.cast !== undefined)
+      return castLabel({ station: o.station, cast: String(o.cast) });
+    if (['station', 'line', 'layer_set', 'derived_variable', 'cruise'].includes(entity) && typeof o.name === 'string')
+      return o.name;
+  }
+  return null;
+}
+
+/** The names of what the entries acted on, looked up in a few queries (one per kind). */
+async function auditSubjects(rows: readonly AuditEntry[]): Promise<Map<string, string>> {
+  const ids = (entity: string) => [
+    ...new Set(rows.filter((r) => r.entity === entity && r.entityId && isUuid(r.entityId)).map((r) => r.entityId!)),
+  ];
+  const out = new Map<string, string>();
+  const put = (entity: string, id: string, name: string) => out.set(`${entity}:${id}`, name);
+  const proposalCasts = new Map<string, string>();
+  for (const r of rows)
+    if (r.entity === 'qc_proposal' && r.entityId) {
+      const cast = (r.after as Record<string, unknown> | null)?.cast;
+      if (typeof cast === 'string' && isUuid(cast)) proposalCasts.set(r.entityId, cast);
+    }
+  const castIds = [...new Set([...ids('cast'), ...proposalCasts.values()])];
+  const [uploads, casts, lines, sets, vars, users, cruises] = await Promise.all([
+    Upload.findAll({ where: { id: ids('upload') }, attributes: ['id', 'filename'] }),
+    Cast.findAll({ where: { id: castIds }, attributes: ['id', 'station', 'cast'], paranoid: false }),
+    Line.findAll({ where: { id: ids('line') }, attributes: ['id', 'name'] }),
+    LayerSet.findAll({ where: { id: ids('layer_set') }, attributes: ['id', 'name'] }),
+    DerivedVariable.findAll({ where: { id: ids('derived_variable') }, attributes: ['id', 'name'] }),
+    User.findAll({ where: { id: ids('membership') }, attributes: ['id', 'name'] }),
+    Cruise.findAll({ where: { id: ids('cruise') }, attributes: ['id', 'name'] }),
+  ]);
+  for (const u of uploads) put('upload', u.id, u.filename);
+  const castName = new Map(casts.map((c) => [c.id, castLabel(c)]));
+  for (const [id, name] of castName) put('cast', id, name);
+  for (const [proposal, cast] of proposalCasts)
+    if (castName.has(cast)) put('qc_proposal', proposal, castName.get(cast)!);
+  for (const l of lines) put('line', l.id, l.name);
+  for (const l of sets) put('layer_set', l.id, l.name);
+  for (const d of vars) put('derived_variable', d.id, d.name);
+  for (const u of users) put('membership', u.id, u.name);
+  for (const c of cruises) put('cruise', c.id, c.name);
+  return out;
 }

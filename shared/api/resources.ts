@@ -44,3 +44,21 @@ export const fileVariableResponseSchema = z.object({
 });
 export const fileVariableListResponseSchema = z.array(fileVariableResponseSchema);
 export type FileVariableResponse = z.infer<typeof fileVariableResponseSchema>;
+/**
+ * A saved section view: the Section screen's query under a name. The owner alone edits, shares and
+ * deletes it; a shared view is read (opened, copied) by every member of the cruise.
+ */
+export const savedViewResponseSchema = z.object({
+  id: idSchema,
+  name: z.string(),
+  /** the Section screen's URL query, without the leading `?` */
+  query: z.string(),
+  shared: z.boolean(),
+  owner: z.object({ id: z.string(), name: z.string() }),
+  /** the caller saved it (and so may edit and delete it) */
+  mine: z.boolean(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type SavedViewResponse = z.output<typeof savedViewResponseSchema>;
+export const savedViewListResponseSchema = z.array(savedViewResponseSchema);

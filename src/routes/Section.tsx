@@ -44,8 +44,8 @@ import { useCurrentCruise } from './CruiseLayout';
 import { LinePicker } from '../features/lines';
 import { FrameExportMenu, type FrameExport } from '../features/sections';
 
-/** Who may keep saved views: the analysts and the chief scientist (the server enforces it too). */
-const canSaveViews = (role: string | null | undefined) => role === 'analyst' || role === 'chief_scientist';
+/** Every member may keep saved views of their own (a view is a bookmark, not the cruise's data; the server agrees). */
+const canSaveViews = (role: string | null | undefined) => !!role;
 
 export default function Section() {
   const cruise = useCurrentCruise();

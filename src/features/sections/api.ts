@@ -66,8 +66,22 @@ export function useSavedViews(cruiseId: string) {
 export function useSaveView(cruiseId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (view: { name: string; query: string }) =>
+    mutationFn: (view: { name: string; query: string; shared?: boolean }) =>
       http(`${cruisePath(cruiseId)}/views`, { method: 'POST', body: view, schema: savedViewSchema }),
+    onSuccess: () => void queryClient.invalidateQueries({ queryKey: sectionKeys.views(cruiseId) }),
+  });
+}
+
+/** The owner's edit of a saved view: its name, its query (the current view) or whether the team shares it. */
+export function useEditView(cruiseId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, ...patch }: { id: string; name?: string; query?: string; shared?: boolean }) =>
+      http(`${cruisePath(cruiseId)}/views/${encodeURIComponent(id)}`, {
+        method: 'PATCH',
+        body: patch,
+        schema: savedViewSchema,
+      }),
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: sectionKeys.views(cruiseId) }),
   });
 }

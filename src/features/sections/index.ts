@@ -8,6 +8,7 @@ export {
   useSavedViews,
   useSaveView,
   useDeleteView,
+  useEditView,
 } from './api';
 export { useSectionView } from './useSectionView';
 export {

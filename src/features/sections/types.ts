@@ -105,9 +105,11 @@ export const geostrophySchema = z.object({
 });
 export type Geostrophy = z.infer<typeof geostrophySchema>;
 
-export const savedViewSchema = z.object({ id, name: z.string(), query: z.string(), createdAt: z.string().optional() });
-export type SavedView = z.infer<typeof savedViewSchema>;
-export const savedViewListSchema = z.array(savedViewSchema);
+export {
+  savedViewResponseSchema as savedViewSchema,
+  savedViewListResponseSchema as savedViewListSchema,
+} from '../../../shared/api/resources';
+export type { SavedViewResponse as SavedView } from '../../../shared/api/resources';
 
 export type {
   LayerSetResponse as LayerSet,

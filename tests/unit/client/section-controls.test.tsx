@@ -135,7 +135,16 @@ beforeEach(() => {
       }
       if (url.pathname === '/api/cruises/5/views' && method === 'POST') {
         viewPosts.push(JSON.parse(String(init?.body)));
-        return json(201, { id: 'v9', name: 'x', query: '', createdAt: '2026-03-05T00:00:00Z' });
+        return json(201, {
+          id: 'v9',
+          name: 'x',
+          query: '',
+          shared: false,
+          owner: { id: 'u1', name: 'Ana' },
+          mine: true,
+          createdAt: '2026-03-05T00:00:00Z',
+          updatedAt: '2026-03-05T00:00:00Z',
+        });
       }
       if (url.pathname === '/api/cruises/5/views') return json(200, []);
       return json(404, { error: { code: 'not_found', message: 'Not found', details: [] } });

@@ -71,11 +71,19 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
             <th scope="col" className="px-3 py-1.5 text-left font-semibold">
               Coord.
             </th>
-            <th scope="col" className="px-2 py-1.5 text-left font-semibold">
-              Monotonic
+            <th
+              scope="col"
+              className="px-2 py-1.5 text-left font-semibold"
+              title="Share of the cast's pressure span over which the coordinate moves in its main direction"
+            >
+              Monotonic¹
             </th>
-            <th scope="col" className="px-2 py-1.5 text-left font-semibold">
-              Multi-valued
+            <th
+              scope="col"
+              className="px-2 py-1.5 text-left font-semibold"
+              title="Share of the cast's pressure span whose value the coordinate also takes at another pressure"
+            >
+              Multi-valued²
             </th>
             <th scope="col" className="px-3 py-1.5 text-right font-semibold" title="Monotonic runs">
               Runs
@@ -107,6 +115,13 @@ export function FitnessTable({ fitness }: { fitness: Record<string, FitnessEntry
           })}
         </tbody>
       </table>
+      <p className="border-t border-paper-rule px-3 py-1.5 text-2xs leading-snug text-ink-muted" data-fitness-note>
+        Both figures are shares of the cast’s pressure span, measured separately, so they need not add up to 100 %. ¹
+        Monotonic: the part of the span over which the coordinate moves in its main direction (a part of the span where
+        it turns back is not). ² Multi-valued: the part of the span whose value the coordinate also takes at some other
+        pressure of the cast; a single reversal makes every layer it spans repeat, including layers that are themselves
+        monotonic, so a coordinate can be mostly monotonic and mostly multi-valued at once.
+      </p>
     </>
   );
 }

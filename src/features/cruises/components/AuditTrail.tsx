@@ -12,39 +12,20 @@ const auditEntrySchema = z.object({
   action: z.string(),
   entity: z.string(),
   entityId: z.string().nullable(),
+  /** the entry in words, written by the server (shared/api/audit.ts) */
+  sentence: z.string(),
   before: z.unknown(),
   after: z.unknown(),
 });
 export type AuditEntry = z.infer<typeof auditEntrySchema>;
 
-/** Who changed what on the cruise, newest first, with the value before and after. */
+/** Who changed what on the cruise, newest first, each entry as a sentence. */
 export function useAuditTrail(cruiseId: string) {
   return useQuery({
     queryKey: cruiseKeys.audit(cruiseId),
     queryFn: () => http(`/api/cruises/${encodeURIComponent(cruiseId)}/audit`, { schema: z.array(auditEntrySchema) }),
   });
 }
-
-const WORDS: Record<string, string> = {
-  create: 'created',
-  update: 'edited',
-  lock: 'locked',
-  unlock: 'unlocked',
-  invite: 'invited',
-  accept_invitation: 'joined',
-  change_role: 'changed the role of',
-  remove_member: 'removed',
-  upload: 'uploaded',
-  ingest: 'processed',
-  reprocess: 'reprocessed',
-  reprocess_requested: 'asked to reprocess',
-  retry: 'retried',
-  set_flag: 'set quality flags on',
-  column_mapping: 'mapped columns of',
-  release: 'released',
-  delete: 'deleted',
-};
-const brief = (v: unknown) => (v === null || v === undefined ? '—' : JSON.stringify(v).slice(0, 160));
 
 export function AuditTrail({ cruiseId }: { cruiseId: string }) {
   const trail = useAuditTrail(cruiseId);
@@ -61,16 +42,7 @@ export function AuditTrail({ cruiseId }: { cruiseId: string }) {
               When (UTC)
             </th>
             <th scope="col" className="px-3 py-1.5 text-left font-semibold">
-              Who
-            </th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
-              What
-            </th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
-              Before
-            </th>
-            <th scope="col" className="px-3 py-1.5 text-left font-semibold">
-              After
+              What happened
             </th>
           </tr>
         </thead>
@@ -80,19 +52,7 @@ export function AuditTrail({ cruiseId }: { cruiseId: string }) {
               <td className="whitespace-nowrap px-3 py-1">
                 <Num>{e.at.slice(0, 16).replace('T', ' ')}Z</Num>
               </td>
-              <td className="px-3 py-1">{e.actor?.name ?? 'system'}</td>
-              <td className="px-3 py-1">
-                {WORDS[e.action] ?? e.action} {e.entity.replace('_', ' ')}
-              </td>
-              <td
-                className="max-w-[22rem] truncate px-3 py-1 font-mono text-2xs text-ink-muted"
-                title={brief(e.before)}
-              >
-                {brief(e.before)}
-              </td>
-              <td className="max-w-[22rem] truncate px-3 py-1 font-mono text-2xs text-ink-soft" title={brief(e.after)}>
-                {brief(e.after)}
-              </td>
+              <td className="px-3 py-1">{e.sentence}</td>
             </tr>
           ))}
         </tbody>

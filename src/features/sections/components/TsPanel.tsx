@@ -179,11 +179,49 @@ export function buildTsFigure(
   // The selected cast is drawn last so it sits on top.
   for (const c of casts) if (c.castId !== selectedCastId) data.push(traceOf(c, false));
   for (const c of casts) if (c.castId === selectedCastId) data.push(traceOf(c, true));
+  if (colourBy === 'station' && casts.length > 0) data.push(stationKey(casts, xMin, xMax));
 
   const layout = baseLayout({
-    margin: { l: 56, r: 12, t: 12, b: 44 },
+    margin: { l: 56, r: colourBy === 'station' ? 24 : 12, t: 12, b: 44 },
     xaxis: valueAxis('Absolute Salinity SA (g/kg)', extent ? { range: [extent.saMin, extent.saMax] } : {}),
     yaxis: valueAxis('Conservative Temperature CT (°C)', extent ? { range: [extent.ctMin, extent.ctMax] } : {}),
   });
   return { data, layout };
+}
+
+/**
+ * The key of the station colours: a colour bar along the line (the same scale the points use:
+ * 0.15 + 0.85 × the station's place between the first and the last), its ticks naming the stations
+ * (every one up to 14, else evenly chosen ones with the first and the last), drawn by a trace that
+ * has no points of its own.
+ */
+export function stationKey(casts: readonly TsCast[], xMin: number, xMax: number): Data {
+  const byX = [...new Map(casts.map((c) => [c.station, c.x])).entries()].sort((a, b) => a[1] - b[1]);
+  const most = 14;
+  const pick =
+    byX.length <= most
+      ? byX
+      : Array.from({ length: most }, (_, i) => byX[Math.round((i * (byX.length - 1)) / (most - 1))]);
+  const span = xMax > xMin ? xMax - xMin : 1;
+  return {
+    type: 'scatter',
+    mode: 'markers',
+    name: 'station key',
+    x: [null],
+    y: [null],
+    hoverinfo: 'skip',
+    showlegend: false,
+    marker: {
+      color: [xMin, xMax],
+      colorscale: toPlotly(DEPTHS),
+      cmin: xMax > xMin ? xMin - (0.15 / 0.85) * span : xMin - 1,
+      cmax: xMax > xMin ? xMax : xMin + 0.6,
+      showscale: true,
+      colorbar: {
+        ...colorBar('Station (first to last along the line)'),
+        tickvals: pick.map(([, x]) => x),
+        ticktext: pick.map(([name]) => name),
+      },
+    },
+  } as Data;
 }
