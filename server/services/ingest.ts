@@ -4,7 +4,8 @@
 import { Op } from 'sequelize';
 import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
 import type { ParsedCast } from '../../shared/schemas/cast';
-import { inversionsOfGoodLevels, type ProcessedCast } from './processCast';
+import { inversionsOfGoodLevels } from './processCast';
+import type { DerivedCast } from '../jobs/ingestCompute';
 import { computePool } from '../jobs/computePool';
 import { recordIngestTiming } from '../jobs/ingestTimings';
 import { writeColumns, writeColumnsOfCasts, type StoredColumn } from './columns';
@@ -13,7 +14,7 @@ import { invalidateDataVersion } from './cruiseData';
 import { audit } from '../lib/audit';
 import { liveKey, replacementGate, supersede, inversionsAfterFlags, type Gate } from './castLife';
 import { randomUUID } from 'node:crypto';
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 
@@ -135,7 +136,7 @@ export async function ingestUpload(
             ),
           );
       }
-      for (const { parsed: c, out } of processed) {
+      for (const { parsed: c, out, fitnessJson } of processed) {
         if (skippedKeys.has(liveKey(c.metadata.station!, c.metadata.cast ?? '1'))) continue;
         const existing = await Cast.findOne({
           where: { cruiseId: upload.cruiseId, sourceSha256: upload.sha256, sourceFile: c.file },
@@ -170,12 +171,12 @@ export async function ingestUpload(
               levels: out.levels,
               inversions,
               inversionCount: inversions.length,
-              fitness: out.fitness,
               notes: [...c.notes, ...out.notes],
               updatedAt: new Date(),
             },
             { transaction },
           );
+          await storeFitness(existing.id, fitnessJson, transaction);
           ids.push(existing.id);
           continue;
         }
@@ -194,7 +195,7 @@ export async function ingestUpload(
             levels: out.levels,
             inversionCount: out.inversions.length,
             inversions: out.inversions,
-            fitness: out.fitness,
+            fitness: {},
             metadata: {
               ...md.extra,
               format: c.format,
@@ -223,6 +224,7 @@ export async function ingestUpload(
             },
             transaction,
           );
+        await storeFitness(cast.id, fitnessJson, transaction);
         pendingColumns.push({ castId: cast.id, columns: out.columns });
         ids.push(cast.id);
       }
@@ -289,6 +291,16 @@ export async function ingestUpload(
   }
 }
 
+/** A cast's fitness, from the JSON text the compute thread made, bound as one parameter (no object
+ * graph to rebuild and no SQL escaping on this event loop). */
+async function storeFitness(castId: string, json: string, transaction: Transaction) {
+  await Cast.sequelize!.query('UPDATE casts SET fitness = $1::jsonb WHERE id = $2', {
+    bind: [json, castId],
+    transaction,
+    type: QueryTypes.UPDATE,
+  });
+}
+
 /**
  * The new cast's life fields: partly read (its dropped lines, awaiting a decision), and, when it
  * replaces a live cast, a fixed id the earlier version points to, the carried flags and their note.
@@ -296,7 +308,7 @@ export async function ingestUpload(
 async function newVersionOf(
   gate: Gate | null,
   c: Pick<ParsedCast, 'file' | 'metadata' | 'dropped'>,
-  out: ProcessedCast,
+  out: DerivedCast['out'],
   upload: Upload,
   threshold: number,
   transaction: Transaction,
