@@ -2,7 +2,7 @@
 // validate, derive the TEOS-10 columns, find the inversions, and store every cast of the upload in
 // one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
 import { Op } from 'sequelize';
-import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
+import { Cast, CastColumn, ColumnMapping, Cruise, Station, Upload } from '../models/index';
 import type { ParsedCast } from '../../shared/schemas/cast';
 import { inversionsOfGoodLevels } from './processCast';
 import type { DerivedCast } from '../jobs/ingestCompute';
@@ -19,6 +19,12 @@ import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 
 export class IngestFault extends Error {}
+/** The cruise was locked after the upload was queued: the store is rolled back (nothing is stored). */
+class CruiseLockedAtStore extends Error {}
+
+/** What an upload says when its cruise was locked before its casts could be stored. */
+export const LOCKED_AT_STORE_MESSAGE =
+  'The cruise was locked before this upload could be stored; nothing was stored. A chief scientist can unlock the cruise, then retry the upload.';
 
 export async function ingestUpload(
   deps: AppDeps,
@@ -110,6 +116,10 @@ export async function ingestUpload(
 
   try {
     const castIds = await sequelize.transaction(async (transaction) => {
+      // The lock is checked here, at store time, whatever it was when the upload was queued: the
+      // cruise row is read FOR SHARE, so a lock that comes now waits until this store has committed.
+      const cruise = await Cruise.findByPk(upload.cruiseId, { transaction, lock: transaction.LOCK.SHARE });
+      if (!cruise || cruise.locked) throw new CruiseLockedAtStore();
       const ids: string[] = [];
       const pendingColumns: { castId: string; columns: StoredColumn[] }[] = [];
       let order = Math.max(0, ...stations.map((s) => s.order));
@@ -283,6 +293,18 @@ export async function ingestUpload(
     });
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
   } catch (err) {
+    if (err instanceof CruiseLockedAtStore) {
+      await upload.update({
+        status: 'failed',
+        progress: 1,
+        castIds: [],
+        errors: [
+          { file: upload.filename, line: null, column: null, code: 'cruise_locked', message: LOCKED_AT_STORE_MESSAGE },
+        ],
+      });
+      logger.info({ uploadId }, 'upload not stored: the cruise is locked');
+      return;
+    }
     await Upload.update(
       { status: 'queued', progress: 0 },
       { where: { id: uploadId, status: { [Op.ne]: 'ready' } } },
