@@ -6,6 +6,7 @@ import { parseUpload } from '../parsers/index';
 import type { FileError, ParsedCast, StationRow } from '../../shared/schemas/cast';
 import { processCast, type ProcessedCast } from '../services/processCast';
 import type { AskedField, CastAnswer, FileNeed } from '../../shared/api/intakeAnswers';
+import { qcProfileFromColumns, runQc, type QcProposal } from '../../shared/qc/index';
 
 export type PlannedStation = { latitude: number | null; longitude: number | null };
 
@@ -40,11 +41,23 @@ export type DeriveRequest = {
   /** metadata answered at intake, by file (shared/api/intakeAnswers.ts) */
   castAnswers?: Record<string, CastAnswer>;
 };
+/**
+ * A derived cast as it crosses back to the thread that stores it: its column buffers are
+ * transferred; its fitness (thousands of segments for a raw 24 Hz cast, ~1.8 MB of JSON) comes
+ * as one JSON text, which the store binds as a parameter, so the storing thread neither rebuilds
+ * nor re-serialises that object graph; the automatic QC proposals are computed here too.
+ */
+export type DerivedCast = {
+  parsed: CastHead;
+  out: Omit<ProcessedCast, 'fitness'>;
+  fitnessJson: string;
+  proposals: QcProposal[];
+};
 export type DeriveOutcome = {
   errors: FileError[];
   /** what each file lacks (the Intake screen asks); only files that lack anything */
   needs: FileNeed[];
-  processed: { parsed: CastHead; out: ProcessedCast }[];
+  processed: DerivedCast[];
   deriveMs: number;
 };
 
@@ -78,7 +91,7 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
   // Station tables: casts without a position take it from the table, else from the plan.
   const rowsByStation = new Map<string, StationRow>(req.stations.map((r) => [r.station, r]));
   const errors: FileError[] = [];
-  const processed: { parsed: CastHead; out: ProcessedCast }[] = [];
+  const processed: DerivedCast[] = [];
   const needs: FileNeed[] = [];
   for (const c of req.casts) {
     const answer = req.castAnswers?.[c.file];
@@ -180,9 +193,29 @@ export function deriveForIngest(req: DeriveRequest): DeriveOutcome {
       continue;
     }
     const { columns: _c, extras: _e, flags: _f, ...head } = c;
-    processed.push({ parsed: { ...head, metadata: md, notes: [...c.notes, ...notes] }, out: result.cast });
+    const { fitness, ...out } = result.cast;
+    processed.push({
+      parsed: { ...head, metadata: md, notes: [...c.notes, ...notes] },
+      out,
+      fitnessJson: JSON.stringify(fitness),
+      proposals: qcProposalsOf(out.columns, md.latitude, md.longitude, req.inversionThreshold),
+    });
   }
   return { errors, needs, processed, deriveMs: performance.now() - t0 };
+}
+
+/** The automatic QC tests' proposals of a derived cast (as server/services/qcProposals.ts stores them). */
+function qcProposalsOf(
+  columns: ProcessedCast['columns'],
+  latitude: number,
+  longitude: number,
+  threshold: number,
+): QcProposal[] {
+  const cols = Object.fromEntries(
+    columns.filter((x) => x.kind !== 'flag').map((x) => [x.name, x.values as Float64Array]),
+  );
+  if (!cols.pressure || cols.pressure.length === 0) return [];
+  return runQc(qcProfileFromColumns(cols, latitude, longitude), { inversionThreshold: threshold });
 }
 
 /** The distinct buffers of parsed casts' columns, to hand them to another thread without a copy. */
@@ -200,7 +233,7 @@ export function parsedTransferables(casts: ParsedCast[]): ArrayBuffer[] {
 }
 
 /** The distinct buffers of derived casts' columns. */
-export function derivedTransferables(processed: { out: ProcessedCast }[]): ArrayBuffer[] {
+export function derivedTransferables(processed: { out: Pick<ProcessedCast, 'columns'> }[]): ArrayBuffer[] {
   const seen = new Set<ArrayBuffer>();
   for (const { out } of processed)
     for (const col of out.columns) if (col.values.buffer instanceof ArrayBuffer) seen.add(col.values.buffer);

@@ -12,7 +12,7 @@ import { endSessionsOf } from '../auth/sessions';
 import { takeRateSlots } from '../lib/rateLimit';
 import { queueMail } from '../lib/mailQueue';
 import { hashToken, newToken } from '../auth/tokens';
-import { escapeHtml } from '../services/mailer';
+import { escapeHtml, MAIL_SUBJECTS } from '../services/mailer';
 import type { AppDeps } from '../lib/deps';
 
 const Login = z.object({ email: z.string().email().max(320), password: z.string().min(1).max(200) });
@@ -136,7 +136,7 @@ export function authRoutes(deps: AppDeps): RouteSpec[] {
           const link = `${settings.PUBLIC_URL}/reset/${token}`;
           return {
             to: user.email,
-            subject: 'Sigmaline: reset your password',
+            subject: MAIL_SUBJECTS.reset,
             text: `Someone asked to reset the Sigmaline password of ${user.email}.\n\nSet a new password here (valid for one hour):\n${link}\n\nIf it was not you, ignore this message.`,
             html: `<p>Someone asked to reset the Sigmaline password of ${escapeHtml(user.email)}.</p><p><a href="${escapeHtml(link)}">Set a new password</a> (valid for one hour).</p><p>If it was not you, ignore this message.</p>`,
           };

@@ -6,7 +6,7 @@ import { HttpError, notFound } from '../lib/errors';
 import { Cruise, Delivery, Membership, User } from '../models/index';
 import { audit } from '../lib/audit';
 import { QUEUES } from '../services/queue';
-import { escapeHtml } from '../services/mailer';
+import { escapeHtml, MAIL_SUBJECTS, quoted } from '../services/mailer';
 import { levelsOrError } from '../services/levels';
 import { referencePressureSchema } from '../../shared/api/levels';
 import { lineRow } from '../services/lines';
@@ -183,8 +183,8 @@ export function deliveryRoutes(deps: AppDeps): RouteSpec[] {
         );
         await deps.mailer.send({
           to,
-          subject: `Sigmaline: ${cruise.name} — data released`,
-          text: `${req.user!.name} released the ${what} of ${cruise.name}.\n\nDownload it here:\n${link}\n\nProvisional research data; not for navigation or safety-of-life use.`,
+          subject: MAIL_SUBJECTS.release,
+          text: `${quoted(req.user!.name)} released the ${what} of the cruise ${quoted(cruise.name)}.\n\nDownload it here:\n${link}\n\nProvisional research data; not for navigation or safety-of-life use.`,
           html: `<p>${escapeHtml(req.user!.name)} released the ${escapeHtml(what)} of <b>${escapeHtml(cruise.name)}</b>.</p><p><a href="${escapeHtml(link)}">Open the deliveries</a></p><p><small>Provisional research data; not for navigation or safety-of-life use.</small></p>`,
         });
         return deliveryJson(d, ctx.role);

@@ -5,7 +5,7 @@ import { Cruise, Invitation, Membership, ROLES, User } from '../models/index';
 import { audit } from '../lib/audit';
 import { hashToken, newToken } from '../auth/tokens';
 import { hashPassword, passwordProblem, verifyPassword } from '../auth/passwords';
-import { escapeHtml } from '../services/mailer';
+import { escapeHtml, MAIL_SUBJECTS, quoted } from '../services/mailer';
 import { signIn, userJson } from './auth';
 import { takeRateSlots } from '../lib/rateLimit';
 import { checkSignInAllowed, recordSignIn } from '../auth/limiter';
@@ -21,13 +21,6 @@ const ROLE_WORDS: Record<string, string> = {
   analyst: 'analyst',
   pi: 'principal investigator',
 };
-
-/** User text in a mail body: one line, in quotes, so it reads as a name and not as the message. */
-const quoted = (s: string) =>
-  `"${s
-    .replace(/[\r\n\t]+/g, ' ')
-    .replace(/"/g, "'")
-    .slice(0, 200)}"`;
 
 /** Locks the cruise row so that role changes and removals of one cruise run one at a time: the
  * count of chief scientists read after it is the true one (two chiefs demoting each other at once
@@ -148,7 +141,7 @@ export function teamRoutes(deps: AppDeps): RouteSpec[] {
         // No text a user chose goes into the subject; in the body it is quoted plainly.
         await mailer.send({
           to: email,
-          subject: `Sigmaline: an invitation to join a cruise as ${ROLE_WORDS[role]}`,
+          subject: MAIL_SUBJECTS.invitation(role),
           text: `${quoted(req.user!.name)} invites you to the cruise ${quoted(cruise.name)} (ship ${quoted(cruise.ship)}) on Sigmaline as ${ROLE_WORDS[role]}.\n\nAccept the invitation here (valid for 14 days):\n${link}\n\nIf you do not know the sender, ignore this message.\n`,
           html: `<p>${escapeHtml(req.user!.name)} invites you to the cruise <b>${escapeHtml(cruise.name)}</b> (${escapeHtml(cruise.ship)}) on Sigmaline as ${ROLE_WORDS[role]}.</p><p><a href="${escapeHtml(link)}">Accept the invitation</a> (valid for 14 days).</p>`,
         });

@@ -2,9 +2,10 @@
 // validate, derive the TEOS-10 columns, find the inversions, and store every cast of the upload in
 // one transaction (all or nothing). Re-running it for the same upload stores nothing twice.
 import { Op } from 'sequelize';
-import { Cast, CastColumn, ColumnMapping, Station, Upload } from '../models/index';
+import { Cast, CastColumn, ColumnMapping, Cruise, Station, Upload } from '../models/index';
 import type { ParsedCast } from '../../shared/schemas/cast';
-import { inversionsOfGoodLevels, type ProcessedCast } from './processCast';
+import { inversionsOfGoodLevels } from './processCast';
+import type { DerivedCast } from '../jobs/ingestCompute';
 import { computePool } from '../jobs/computePool';
 import { recordIngestTiming } from '../jobs/ingestTimings';
 import { writeColumns, writeColumnsOfCasts, type StoredColumn } from './columns';
@@ -14,11 +15,17 @@ import { loadIntakeAnswers } from './intakeAnswers';
 import { audit } from '../lib/audit';
 import { liveKey, replacementGate, supersede, inversionsAfterFlags, type Gate } from './castLife';
 import { randomUUID } from 'node:crypto';
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { logger } from '../lib/logger';
 import type { AppDeps } from '../lib/deps';
 
 export class IngestFault extends Error {}
+/** The cruise was locked after the upload was queued: the store is rolled back (nothing is stored). */
+class CruiseLockedAtStore extends Error {}
+
+/** What an upload says when its cruise was locked before its casts could be stored. */
+export const LOCKED_AT_STORE_MESSAGE =
+  'The cruise was locked before this upload could be stored; nothing was stored. A chief scientist can unlock the cruise, then retry the upload.';
 
 export async function ingestUpload(
   deps: AppDeps,
@@ -117,6 +124,10 @@ export async function ingestUpload(
 
   try {
     const castIds = await sequelize.transaction(async (transaction) => {
+      // The lock is checked here, at store time, whatever it was when the upload was queued: the
+      // cruise row is read FOR SHARE, so a lock that comes now waits until this store has committed.
+      const cruise = await Cruise.findByPk(upload.cruiseId, { transaction, lock: transaction.LOCK.SHARE });
+      if (!cruise || cruise.locked) throw new CruiseLockedAtStore();
       const ids: string[] = [];
       const pendingColumns: { castId: string; columns: StoredColumn[] }[] = [];
       let order = Math.max(0, ...stations.map((s) => s.order));
@@ -143,7 +154,7 @@ export async function ingestUpload(
             ),
           );
       }
-      for (const { parsed: c, out } of processed) {
+      for (const { parsed: c, out, fitnessJson } of processed) {
         if (skippedKeys.has(liveKey(c.metadata.station!, c.metadata.cast ?? '1'))) continue;
         const existing = await Cast.findOne({
           where: { cruiseId: upload.cruiseId, sourceSha256: upload.sha256, sourceFile: c.file },
@@ -178,12 +189,12 @@ export async function ingestUpload(
               levels: out.levels,
               inversions,
               inversionCount: inversions.length,
-              fitness: out.fitness,
               notes: [...c.notes, ...out.notes],
               updatedAt: new Date(),
             },
             { transaction },
           );
+          await storeFitness(existing.id, fitnessJson, transaction);
           ids.push(existing.id);
           continue;
         }
@@ -202,7 +213,7 @@ export async function ingestUpload(
             levels: out.levels,
             inversionCount: out.inversions.length,
             inversions: out.inversions,
-            fitness: out.fitness,
+            fitness: {},
             metadata: {
               ...md.extra,
               format: c.format,
@@ -231,6 +242,7 @@ export async function ingestUpload(
             },
             transaction,
           );
+        await storeFitness(cast.id, fitnessJson, transaction);
         pendingColumns.push({ castId: cast.id, columns: out.columns });
         ids.push(cast.id);
       }
@@ -296,12 +308,34 @@ export async function ingestUpload(
     });
     logger.info({ uploadId, casts: castIds.length }, 'upload ingested');
   } catch (err) {
+    if (err instanceof CruiseLockedAtStore) {
+      await upload.update({
+        status: 'failed',
+        progress: 1,
+        castIds: [],
+        errors: [
+          { file: upload.filename, line: null, column: null, code: 'cruise_locked', message: LOCKED_AT_STORE_MESSAGE },
+        ],
+      });
+      logger.info({ uploadId }, 'upload not stored: the cruise is locked');
+      return;
+    }
     await Upload.update(
       { status: 'queued', progress: 0 },
       { where: { id: uploadId, status: { [Op.ne]: 'ready' } } },
     ).catch(() => undefined);
     throw err;
   }
+}
+
+/** A cast's fitness, from the JSON text the compute thread made, bound as one parameter (no object
+ * graph to rebuild and no SQL escaping on this event loop). */
+async function storeFitness(castId: string, json: string, transaction: Transaction) {
+  await Cast.sequelize!.query('UPDATE casts SET fitness = $1::jsonb WHERE id = $2', {
+    bind: [json, castId],
+    transaction,
+    type: QueryTypes.UPDATE,
+  });
 }
 
 /**
@@ -311,7 +345,7 @@ export async function ingestUpload(
 async function newVersionOf(
   gate: Gate | null,
   c: Pick<ParsedCast, 'file' | 'metadata' | 'dropped'>,
-  out: ProcessedCast,
+  out: DerivedCast['out'],
   upload: Upload,
   threshold: number,
   transaction: Transaction,

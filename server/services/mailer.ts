@@ -3,7 +3,35 @@
 import nodemailer from 'nodemailer';
 import { z } from 'zod';
 
-export type OutgoingMail = { to: string | string[]; subject: string; text: string; html?: string };
+/**
+ * A subject made of fixed words only, never of text a user chose (a cruise, a person or a file name
+ * in a subject turns the app into a relay for someone else's message; issue #14, item 6). Only
+ * `MAIL_SUBJECTS` makes one, so a new mail cannot put user text there by accident; user text goes
+ * in the body, `quoted`.
+ */
+export type MailSubject = string & { readonly __mailSubject: unique symbol };
+const fixed = (s: string) => s as MailSubject;
+const INVITED_AS = {
+  chief_scientist: 'chief scientist',
+  technician: 'technician',
+  analyst: 'analyst',
+  pi: 'principal investigator',
+} as const;
+export const MAIL_SUBJECTS = {
+  reset: fixed('Sigmaline: reset your password'),
+  release: fixed('Sigmaline: data released on one of your cruises'),
+  invitation: (role: keyof typeof INVITED_AS) =>
+    fixed(`Sigmaline: an invitation to join a cruise as ${INVITED_AS[role]}`),
+};
+
+/** User text in a mail body: one line, in quotes, so it reads as a name and not as the message. */
+export const quoted = (s: string) =>
+  `"${s
+    .replace(/[\r\n\t]+/g, ' ')
+    .replace(/"/g, "'")
+    .slice(0, 200)}"`;
+
+export type OutgoingMail = { to: string | string[]; subject: MailSubject; text: string; html?: string };
 export type CaughtMail = z.infer<typeof CaughtMail>;
 const CaughtMail = z.object({
   id: z.string(),

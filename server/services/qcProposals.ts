@@ -21,6 +21,8 @@ type IntakeBatch = {
   processed: {
     parsed: { metadata: { latitude: number | null; longitude: number | null } };
     out: { columns: StoredColumn[]; inversions: unknown[] };
+    /** the proposals, when the compute thread already ran the tests */
+    proposals?: QcProposal[];
   }[];
 };
 
@@ -72,17 +74,16 @@ export async function recordQcAtIntake(
   transaction: Transaction,
 ): Promise<void> {
   for (const [k, castId] of batch.castIds.entries()) {
-    const { parsed, out } = batch.processed[k];
+    const { parsed, out, proposals } = batch.processed[k];
     if (!opts.reprocess && (await QcIntake.findByPk(castId, { transaction }))) continue;
-    const cols = Object.fromEntries(
-      out.columns.filter((x) => x.kind !== 'flag').map((x) => [x.name, x.values as Float64Array]),
-    );
-    const found = proposalsFromColumns(
-      cols,
-      parsed.metadata.latitude ?? NaN,
-      parsed.metadata.longitude ?? NaN,
-      deps.settings.INVERSION_THRESHOLD,
-    );
+    const found =
+      proposals ??
+      proposalsFromColumns(
+        Object.fromEntries(out.columns.filter((x) => x.kind !== 'flag').map((x) => [x.name, x.values as Float64Array])),
+        parsed.metadata.latitude ?? NaN,
+        parsed.metadata.longitude ?? NaN,
+        deps.settings.INVERSION_THRESHOLD,
+      );
     await storeProposals(castId, batch.cruiseId, found, transaction);
     await QcIntake.upsert({ castId, cruiseId: batch.cruiseId, inversions: out.inversions }, { transaction });
   }

@@ -15,6 +15,7 @@ import { CF_NAMES_FROM_MEMORY } from '../unit/deliveries/cf-names';
 import { FLAG_MEANING_WORDS, WOCE_FLAGS } from '../../shared/api/flags';
 import { unzip } from '../support/zip';
 import { DEFAULT_LINE_NAME } from '../../server/services/lines';
+import { MAIL_SUBJECTS } from '../../server/services/mailer';
 
 type PyCf = {
   globals: Record<string, unknown>;
@@ -569,8 +570,11 @@ describe('deliveries', () => {
     expect(res.status).toBe(200);
     expect(res.body.released).toBe(true);
     const mail = await waitFor(async () =>
-      (await caughtMail()).find((m) => m.subject.includes('Delivery line') && m.text.includes(cruiseId)),
+      (await caughtMail()).find((m) => m.subject === MAIL_SUBJECTS.release && m.text.includes(cruiseId)),
     );
+    // no user text in the subject (issue #14, item 6): the cruise's name is quoted in the body only
+    expect(mail.subject).not.toContain('Delivery line');
+    expect(mail.text).toMatch(/of the cruise "Delivery line[^"\n]*"/);
     const after = await rights();
     // after release: the e-mail goes to exactly those the screen and the route let download
     const emails: Record<string, string> = {

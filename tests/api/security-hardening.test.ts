@@ -12,7 +12,7 @@ import { cacheStats } from '../../server/services/cruiseData';
 import { backoffMs } from '../../server/auth/limiter';
 import { hashToken, newToken } from '../../server/auth/tokens';
 import type { Settings } from '../../server/config';
-import type { Mailer } from '../../server/services/mailer';
+import { MAIL_SUBJECTS, type Mailer } from '../../server/services/mailer';
 
 type Agent = Awaited<ReturnType<typeof agentFor>>;
 let t: TestApp;
@@ -322,6 +322,33 @@ describe('6. mail is no relay', () => {
     });
     expect(mails.at(-1)!.subject).not.toMatch(/URGENT|wire/);
     expect(mails.at(-1)!.text).toContain('"URGENT: wire 5000 EUR to account 123"');
+  });
+  it('every mail the app sends has a fixed subject: invitations, resets and releases carry no user text', async () => {
+    const sender = await createUser(`subj-${Date.now()}@example.test`);
+    const c = await newCruise('FREE MONEY "click" http://evil.example', sender.id);
+    const a = await agentFor(t.app, sender.email);
+    const to = `subj-to-${Date.now()}@example.test`;
+    expect(
+      (await a.agent.post(`/api/cruises/${c}/members`).set('x-csrf-token', a.csrf).send({ email: to, role: 'pi' }))
+        .status,
+    ).toBe(201);
+    expect(
+      (await a.agent.post('/api/auth/password-reset').set('x-csrf-token', a.csrf).send({ email: sender.email })).status,
+    ).toBe(202);
+    const mine = await waitFor(async () => {
+      const m = (await caughtMail()).filter((x) => x.to.includes(to) || x.to.includes(sender.email));
+      return m.length >= 2 ? m : null;
+    });
+    expect(mine.map((m) => m.subject).sort()).toEqual([MAIL_SUBJECTS.invitation('pi'), MAIL_SUBJECTS.reset].sort());
+    // the cruise's name is in the invitation's body, quoted on one line (its own quotes turned into ')
+    expect(mine.find((m) => m.to.includes(to))!.text).toContain(`"FREE MONEY 'click' http://evil.example"`);
+    // every mail caught so far in this run (invitations, resets, releases of the other test files too)
+    const fixedSubjects = new Set<string>([
+      MAIL_SUBJECTS.reset,
+      MAIL_SUBJECTS.release,
+      ...(['chief_scientist', 'technician', 'analyst', 'pi'] as const).map((r) => MAIL_SUBJECTS.invitation(r)),
+    ]);
+    for (const m of await caughtMail()) expect(fixedSubjects.has(m.subject), m.subject).toBe(true);
   });
   it(`reset mails are limited per address`, async () => {
     const email = `reset-limit-${Date.now()}@example.test`;
