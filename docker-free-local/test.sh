@@ -15,6 +15,9 @@ if ! (echo > "/dev/tcp/127.0.0.1/$PGPORT") 2>/dev/null; then started=1; fi
 cleanup() { [ "$started" = 1 ] && bash "$HERE/services.sh" stop >/dev/null 2>&1 || true; }
 trap cleanup EXIT
 bash "$HERE/services.sh" start || exit 1
+# Each run starts with an empty mailbox in the SMTP fake (it keeps mail across restarts), so the tests
+# that read every mail of the run read only this run's.
+node -e 'fetch(process.argv[1] + "/messages", { method: "DELETE" }).catch(() => process.exit(1))' "$MAIL_CAPTURE_URL" || exit 1
 # The strict type check counts as one test in the closing line.
 echo "[sigmaline] type check (strict TypeScript over client, server, shared code and tests)"
 typecheck=0

@@ -2,7 +2,16 @@
 // cruise that declares one is called as the cruise's chief scientist and its answer parsed.
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeTestApp, createUser, addMember, agentFor, type TestApp } from './helpers';
-import { Cast, Cruise, DerivedVariable, LayerSet, Station, Upload } from '../../server/models/index';
+import {
+  Cast,
+  CastColumn,
+  Cruise,
+  DerivedVariable,
+  LayerSet,
+  SavedView,
+  Station,
+  Upload,
+} from '../../server/models/index';
 import type { RouteSpec } from '../../server/lib/routeTable';
 
 let t: TestApp;
@@ -68,6 +77,15 @@ beforeAll(async () => {
       sourceSha256: 'e'.repeat(64),
     })
   ).id;
+  // an extra variable of the file (fluorescence), so the file-variables list has a row to check
+  await CastColumn.create({ castId, name: 'x:fluorescence', unit: 'mg/m^3', kind: 'extra', values: Buffer.alloc(0) });
+  await SavedView.create({
+    cruiseId,
+    userId: u.id,
+    name: 'Upper 1000 dbar',
+    query: 'property=CT&pmax=1000',
+    shared: true,
+  });
   chief = await agentFor(t.app, u.email);
 }, 120_000);
 afterAll(async () => {

@@ -17,7 +17,8 @@ function recordedKinds(): { action: string; entity: string; file: string }[] {
   const out: { action: string; entity: string; file: string }[] = [];
   for (const file of sources('server')) {
     const text = readFileSync(file, 'utf8');
-    for (const m of text.matchAll(/audit\(\s*\{([\s\S]*?)\}\s*[,)]/g)) {
+    // audit({ … }) and auditedChange(sequelize, { … }, write) (server/services/changes.ts)
+    for (const m of text.matchAll(/(?:audit\(|auditedChange\(\s*[\w.]+,)\s*\{([\s\S]*?)\}\s*[,)]/g)) {
       const body = m[1];
       const actionExpr = /action:\s*([^\n]*?),?\n|action:\s*([^,]*),/.exec(body);
       const entity = /entity:\s*'([a-z_]+)'/.exec(body)?.[1];

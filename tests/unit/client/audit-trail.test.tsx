@@ -5,7 +5,7 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { AuditTrail } from '../../../src/features/cruises';
 import { createQueryClient } from '../../../src/lib/queryClient';
 
-const entry = (i: number, action: string, before: unknown, after: unknown) => ({
+const entry = (i: number, action: string, before: unknown, after: unknown, sentence: string) => ({
   id: String(i),
   at: `2026-03-0${1 + (i % 9)}T10:0${i % 10}:00.000Z`,
   actor: { id: 'u1', name: 'Juno Abernethy' },
@@ -14,6 +14,7 @@ const entry = (i: number, action: string, before: unknown, after: unknown) => ({
   entityId: 'c1',
   before,
   after,
+  sentence,
 });
 
 describe('audit trail panel', () => {
@@ -21,10 +22,18 @@ describe('audit trail panel', () => {
     cleanup();
     vi.unstubAllGlobals();
   });
-  it('lists who did what with before and after, the latest first, and opens the rest on request', async () => {
+  it('lists who did what as the server’s sentences, in its order, and opens the rest on request', async () => {
     const rows = [
-      entry(1, 'set_flag', { flagsInRange: { salinity: [2] } }, { flag: 4, levels: 1 }),
-      ...Array.from({ length: 14 }, (_, i) => entry(i + 2, 'upload', null, { filename: `f${i}.csv` })),
+      entry(
+        1,
+        'set_flag',
+        { flagsInRange: { salinity: [2] } },
+        { flag: 4, levels: 1 },
+        'Juno Abernethy set flag 4 on 1 level of CP-03.',
+      ),
+      ...Array.from({ length: 14 }, (_, i) =>
+        entry(i + 2, 'upload', null, { filename: `f${i}.csv` }, `Juno Abernethy uploaded f${i}.csv.`),
+      ),
     ];
     vi.stubGlobal(
       'fetch',
@@ -43,9 +52,10 @@ describe('audit trail panel', () => {
     const body = within(table).getAllByRole('row').slice(1);
     expect(body).toHaveLength(12);
     expect(body[0].textContent).toContain('Juno Abernethy');
-    expect(body[0].textContent).toContain('set quality flags on cast');
-    expect(body[0].textContent).toContain('"salinity":[2]');
-    expect(body[0].textContent).toContain('"flag":4');
+    expect(body[0].textContent).toContain('Juno Abernethy set flag 4 on 1 level of CP-03.');
+    expect(body[1].textContent).toContain('Juno Abernethy uploaded f0.csv.');
+    // sentences, not the recorded JSON
+    expect(body.some((r) => /[{}"]/.test(r.textContent ?? ''))).toBe(false);
     fireEvent.click(screen.getByRole('button', { name: 'Show all 15 entries' }));
     expect(within(table).getAllByRole('row').slice(1)).toHaveLength(15);
   });
