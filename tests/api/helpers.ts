@@ -6,7 +6,7 @@ import { randomBytes } from 'node:crypto';
 import { createApp, type App } from '../../server/app';
 import { connectServices } from '../../server/services/index';
 import { loadSettings, type Settings } from '../../server/config';
-import { User, Membership, type Role } from '../../server/models/index';
+import { Cruise, User, Membership, type Role } from '../../server/models/index';
 import { hashPassword } from '../../server/auth/passwords';
 import type { AppDeps } from '../../server/lib/deps';
 
@@ -81,6 +81,28 @@ export async function createUser(email: string, opts: { name?: string; isAdmin?:
 
 export async function addMember(userId: string, cruiseId: string, role: Role) {
   return Membership.create({ userId, cruiseId, role });
+}
+
+/** An invented cruise (March 2026, no ports or region) with one user as its member in the given role. */
+export async function cruiseWithMember(
+  email: string,
+  userName: string,
+  cruise: { name: string; ship: string },
+  role: Role,
+): Promise<{ userId: string; cruiseId: string }> {
+  const u = await createUser(email, { name: userName });
+  const c = await Cruise.create({
+    ...cruise,
+    startDate: '2026-03-01',
+    endDate: '2026-03-20',
+    portStart: null,
+    portEnd: null,
+    region: null,
+    description: null,
+    createdBy: u.id,
+  });
+  await addMember(u.id, c.id, role);
+  return { userId: u.id, cruiseId: c.id };
 }
 
 /** A supertest agent with a session, signed in when credentials are given; `csrf` is its token. */

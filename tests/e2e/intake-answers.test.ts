@@ -7,9 +7,9 @@ import { join } from 'node:path';
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer, launch, signIn } from './browser';
-import { createUser, addMember, PASSWORD } from '../api/helpers';
+import { cruiseWithMember, PASSWORD } from '../api/helpers';
 import { startWorkers } from '../../server/jobs/worker';
-import { Cast, Cruise } from '../../server/models/index';
+import { Cast } from '../../server/models/index';
 
 const SHOTS = process.env.E2E_SHOTS ?? '/tmp/b-shots';
 let srv: Awaited<ReturnType<typeof startServer>>;
@@ -20,20 +20,12 @@ beforeAll(async () => {
   srv = await startServer();
   await startWorkers(srv.t.deps, { concurrency: 2 });
   chromium = await launch();
-  const u = await createUser('e2e-answers@example.test', { name: 'Ines Marrow' });
-  const c = await Cruise.create({
-    name: 'Answers line',
-    ship: 'RV Answer',
-    startDate: '2026-03-01',
-    endDate: '2026-03-20',
-    portStart: null,
-    portEnd: null,
-    region: null,
-    description: null,
-    createdBy: u.id,
-  });
-  cruiseId = c.id;
-  await addMember(u.id, c.id, 'technician');
+  ({ cruiseId } = await cruiseWithMember(
+    'e2e-answers@example.test',
+    'Ines Marrow',
+    { name: 'Answers line', ship: 'RV Answer' },
+    'technician',
+  ));
 }, 120_000);
 afterAll(async () => {
   await chromium?.browser.close();

@@ -6,9 +6,9 @@ import { join } from 'node:path';
 import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { startServer, launch, signIn } from './browser';
-import { createUser, addMember, PASSWORD, waitFor } from '../api/helpers';
+import { cruiseWithMember, PASSWORD, waitFor } from '../api/helpers';
 import { startWorkers } from '../../server/jobs/worker';
-import { Cast, Cruise, Upload } from '../../server/models/index';
+import { Cast, Upload } from '../../server/models/index';
 
 const SHOTS = process.env.E2E_SHOTS ?? '/tmp/b-shots';
 let srv: Awaited<ReturnType<typeof startServer>>;
@@ -19,20 +19,12 @@ beforeAll(async () => {
   srv = await startServer();
   await startWorkers(srv.t.deps, { concurrency: 2 });
   chromium = await launch();
-  const u = await createUser('e2e-fv@example.test', { name: 'Tomas Quill' });
-  const c = await Cruise.create({
-    name: 'Sensor line',
-    ship: 'RV Sensor',
-    startDate: '2026-03-01',
-    endDate: '2026-03-20',
-    portStart: null,
-    portEnd: null,
-    region: null,
-    description: null,
-    createdBy: u.id,
-  });
-  cruiseId = c.id;
-  await addMember(u.id, c.id, 'chief_scientist');
+  ({ cruiseId } = await cruiseWithMember(
+    'e2e-fv@example.test',
+    'Tomas Quill',
+    { name: 'Sensor line', ship: 'RV Sensor' },
+    'chief_scientist',
+  ));
 }, 120_000);
 afterAll(async () => {
   await chromium?.browser.close();
